@@ -1,0 +1,96 @@
+"""The season value: the one object every exporter, the report and the audit take.
+
+A :class:`Season` is plain data: who plays whom, in which round and leg, where, in which slot and
+when. It carries no solver state. Fairness figures are always recomputed from it
+(``scheduler.fairness``), never taken from the engine's bookkeeping.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from datetime import date, datetime
+
+
+@dataclass(frozen=True, slots=True)
+class Fixture:
+    """One game.
+
+    ``round`` is 1-based over the whole season (leg 2 continues the numbering of leg 1).
+    ``home`` and ``away`` are team names; where "home" means a side or colour (one shared venue),
+    ``home`` is the first-named side. ``court`` is the court or field inside the venue,
+    ``slot`` the time-slot label (for example ``"19:30"``). ``start`` is timezone-aware.
+    """
+
+    round: int
+    home: str
+    away: str
+    leg: int = 1
+    venue: str | None = None
+    court: str | None = None
+    slot: str | None = None
+    date: date | None = None
+    start: datetime | None = None
+
+    @property
+    def teams(self) -> tuple[str, str]:
+        return (self.home, self.away)
+
+    @property
+    def pair(self) -> frozenset[str]:
+        return frozenset((self.home, self.away))
+
+    @property
+    def place_label(self) -> str | None:
+        """Court and time slot together, as one label (``"Court 2 · 19:30"``)."""
+        parts = [p for p in (self.court, self.slot) if p]
+        return " · ".join(parts) if parts else None
+
+
+@dataclass(frozen=True, slots=True)
+class MixingInfo:
+    """What the schedule engine promised about mixing (checked again by ``fairness``)."""
+
+    method: str
+    source: str
+    perfect: bool
+    perfect_pairs: int
+    pairs: int
+
+
+@dataclass(frozen=True)
+class Season:
+    """A complete season.
+
+    ``byes`` maps a round to the teams that sit out in it (empty for an even league).
+    ``legs`` is the number of legs (1 = single round robin). ``timezone`` is an IANA name.
+    ``notes`` are human-readable remarks from the planner (trade-offs, relaxed priorities).
+    """
+
+    league: str
+    season_id: str
+    teams: tuple[str, ...]
+    fixtures: tuple[Fixture, ...]
+    byes: dict[int, tuple[str, ...]] = field(default_factory=dict)
+    legs: int = 1
+    scheme: str = "mirrored"
+    timezone: str | None = None
+    venues: tuple[str, ...] = ()
+    mixing: MixingInfo | None = None
+    seed: int = 0
+    notes: tuple[str, ...] = ()
+    revision: str = ""
+
+    @property
+    def rounds(self) -> int:
+        """Number of rounds (the largest round number of any fixture or bye)."""
+        numbers = [f.round for f in self.fixtures] + list(self.byes)
+        return max(numbers, default=0)
+
+    def fixtures_in_round(self, number: int) -> tuple[Fixture, ...]:
+        return tuple(f for f in self.fixtures if f.round == number)
+
+    def fixtures_of(self, team: str) -> tuple[Fixture, ...]:
+        """The team's fixtures in round order."""
+        return tuple(
+            sorted((f for f in self.fixtures if team in (f.home, f.away)), key=lambda f: f.round)
+        )

@@ -76,7 +76,10 @@ def _progress(enabled: bool) -> Iterator[Callable[[str, float], None] | None]:
     from rich.progress import BarColumn, Progress, TextColumn, TimeElapsedColumn
 
     with Progress(
-        TextColumn("{task.description}"), BarColumn(), TimeElapsedColumn(), console=err,
+        TextColumn("{task.description}"),
+        BarColumn(),
+        TimeElapsedColumn(),
+        console=err,
         transient=True,
     ) as bar:
         task = bar.add_task("starting", total=1.0)
@@ -128,8 +131,10 @@ def factor(
     with _progress(not as_json) as progress:
         callback = None
         if progress is not None:
+
             def callback(fraction: float, message: str) -> None:
                 progress(message, fraction)
+
         fac = factorize(n_teams, seed=seed, budget=budget, progress=callback)
     cert = fac.certificate()
     bye = fac.bye_vertex if n_teams % 2 else None
@@ -154,7 +159,8 @@ def factor(
         }
         sys.stdout.write(json.dumps(payload, separators=(",", ":")) + "\n")
         return
-    out.print(f"[bold]{n_teams} teams[/bold] (K_{fac.n}{', with a bye' if bye is not None else ''})")
+    with_bye = ", with a bye" if bye is not None else ""
+    out.print(f"[bold]{n_teams} teams[/bold] (K_{fac.n}{with_bye})")
     out.print(f"method:  {_plain(fac.method)}")
     out.print(f"source:  {_plain(fac.source)}")
     if cert.perfect:
@@ -165,7 +171,8 @@ def factor(
     else:
         out.print(f"perfect: no: {cert.perfect_pairs} of {cert.pairs} pairs of rounds are perfect")
         for pair in cert.imperfect[:5]:
-            out.print(f"         rounds {pair.first + 1} and {pair.second + 1} split into cycles {pair.label}")
+            first, second = pair.first + 1, pair.second + 1
+            out.print(f"         rounds {first} and {second} split into cycles {pair.label}")
     if not cert.valid:
         for problem in cert.problems:
             out.print(f"problem: {_plain(problem)}")
@@ -261,44 +268,40 @@ def audit(
 
 def _print_fairness(fairness: Any, *, title: str) -> None:
     """The headline figures as a table (the full set is in season.json and the report)."""
-    figures = fairness.to_dict()
-    table = Table(title=f"Fairness: {title}", show_header=True, header_style="bold")
+    table = Table(title=f"Fairness: {_plain(title)}", show_header=True, header_style="bold")
     table.add_column("figure")
     table.add_column("value", justify="right")
     table.add_column("reference")
-    for label, value, reference in _headline_rows(figures):
+    for label, value, reference in _headline_rows(fairness.summary()):
         table.add_row(label, value, reference)
     out.print(table)
 
 
 def _headline_rows(f: dict) -> list[tuple[str, str, str]]:
-    def get(key: str, default: Any = "") -> Any:
-        return f.get(key, default)
-
+    """Rows of the headline table from ``FairnessReport.summary()``."""
     rows = [
-        ("teams", str(get("teams")), ""),
-        ("rounds", str(get("rounds")), ""),
+        ("teams", str(f["teams"]), ""),
+        ("rounds", str(f["rounds"]), ""),
         (
             "perfect pairs of rounds",
-            f"{get('perfect_pairs')}/{get('pairs')}",
-            "all pairs: perfect mixing" if get("perfect") else "",
+            f"{f['perfect_pairs']}/{f['pairs']}",
+            "perfect mixing" if f["perfect"] else "not perfect",
         ),
-        (
-            "breaks",
-            str(get("breaks_total")),
-            f"lower bound {get('breaks_lower_bound')}" if get("breaks_lower_bound") != "" else "",
-        ),
-        (
-            "carry-over value",
-            str(get("carry_over_value")),
-            f"bounds {get('carry_over_lower')}..{get('carry_over_upper')}"
-            if get("carry_over_lower") != ""
-            else "",
-        ),
-        ("largest home-count gap", str(get("home_gap_max")), ""),
+        ("breaks", str(f["breaks_total"]), f"lower bound {f['breaks_lower_bound']}"),
+        ("largest home-count gap", str(f["home_gap_max"]), "after any round"),
     ]
-    if get("rest_min_days", None) is not None:
-        rows.append(("fewest rest days", str(get("rest_min_days")), "see league rules"))
+    if f["carry_over_value"] is not None:
+        rows.append(
+            (
+                "carry-over value",
+                str(f["carry_over_value"]),
+                f"bounds {f['carry_over_lower_bound']}..{f['carry_over_upper_bound']}",
+            )
+        )
+    if f["rest_days_min"] is not None:
+        rows.append(("fewest rest days", str(f["rest_days_min"]), "league rules come first"))
+    if f["separation_min"] is not None:
+        rows.append(("fewest rounds between meetings", str(f["separation_min"]), ""))
     return rows
 
 

@@ -34,8 +34,10 @@ class ConfigError(InputError):
         if len(self.problems) == 1:
             message = head + self.problems[0]
         else:
-            message = head + f"{len(self.problems)} problems\n" + "\n".join(
-                f"  - {p}" for p in self.problems
+            message = (
+                head
+                + f"{len(self.problems)} problems\n"
+                + "\n".join(f"  - {p}" for p in self.problems)
             )
         SchedulerError.__init__(self, message)
         self.location = path

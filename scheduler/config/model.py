@@ -11,7 +11,8 @@ from datetime import date, time
 from typing import Literal
 
 Scheme = Literal["mirrored", "french", "english", "inverted", "free"]
-"""How a later leg repeats the pairings of leg 1 (venues swapped), see ``scheduler.balance.legs``."""
+"""How a later leg repeats the pairings of leg 1 (venues swapped); see ``scheduler.balance.legs``.
+"""
 
 HomeMeaning = Literal["venue", "side"]
 """``venue``: the home team hosts at its home venue. ``side``: "home" is a side or colour and the

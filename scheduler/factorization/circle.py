@@ -1,7 +1,8 @@
 """The circle construction GK_n (Kotzig's patterned one-factorization).
 
 Vertices ``Z_m`` plus a fixed vertex ``∞`` (here ``m = n - 1`` is odd and ``∞`` is vertex ``m``).
-Round ``i`` (``i`` in ``Z_m``) is ``{∞, i}`` together with ``{i - j, i + j}`` for ``j = 1..n/2 - 1``.
+Round ``i`` (``i`` in ``Z_m``) is ``{∞, i}`` together with ``{i - j, i + j}`` for
+``j = 1..n/2 - 1``.
 
 The union of rounds ``i`` and ``j`` is a Hamiltonian cycle exactly when ``gcd(j - i, m) = 1``,
 so GK_n is perfect exactly when ``n - 1`` is prime.

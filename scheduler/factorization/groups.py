@@ -1,0 +1,239 @@
+"""Finite abelian groups of odd order, as integer codes with numpy tables, for starters.
+
+Elements are the codes ``0..m-1`` and the identity is ``0``. A group is stored as its digit
+moduli (mixed radix, first modulus least significant) together with a commutative ring
+multiplication on the same codes, used only for *multipliers* (automorphisms ``x -> u x``) in
+the starter search:
+
+* ``cyclic(m)``: ``Z_m`` with multiplication mod ``m``;
+* ``product(a, b, ...)``: ``Z_a x Z_b x ...`` with componentwise multiplication;
+* ``galois_field(q)``: the additive group of ``GF(q)``, ``q = p^k``, codes are the coefficient
+  vectors of polynomials over ``Z_p`` of degree ``< k`` read in base ``p``, multiplication modulo
+  a monic irreducible polynomial found by exhaustive search (the lexicographically first one
+  whose field has a primitive element ``x``, i.e. a primitive polynomial).
+
+Reference for the finite-field construction: R. Lidl and H. Niederreiter, *Finite Fields*,
+Cambridge University Press 1997, ch. 2 (standard textbook material).
+"""
+
+from __future__ import annotations
+
+import itertools
+import math
+import re
+from dataclasses import dataclass, field
+
+import numpy as np
+
+from scheduler.errors import InputError
+
+MAX_ORDER = 4096
+"""Largest group order with full addition/multiplication tables (m*m entries)."""
+
+
+@dataclass(frozen=True, eq=False)
+class AbelianGroup:
+    """An abelian group of odd order ``m`` on the codes ``0..m-1`` (identity ``0``).
+
+    ``name`` is a readable description that :func:`group_from_name` parses back
+    (``"Z_15"``, ``"Z_3 x Z_5"``, ``"GF(27)"``). ``add[a, b]``, ``neg[a]`` and ``mul[a, b]`` are
+    numpy tables.
+    """
+
+    name: str
+    moduli: tuple[int, ...]
+    kind: str  # "cyclic", "product" or "field"
+    add: np.ndarray = field(repr=False)
+    neg: np.ndarray = field(repr=False)
+    mul: np.ndarray = field(repr=False)
+    poly: tuple[int, ...] = ()
+
+    @property
+    def order(self) -> int:
+        return int(self.add.shape[0])
+
+    def digits(self, x: int) -> tuple[int, ...]:
+        """Mixed-radix digits of code ``x`` (first modulus least significant)."""
+        out = []
+        for mod in self.moduli:
+            out.append(x % mod)
+            x //= mod
+        return tuple(out)
+
+    def label(self, x: int) -> str:
+        """Human-readable element: ``"7"`` in ``Z_m``, ``"(1,2)"`` in a product or a field."""
+        if self.kind == "cyclic":
+            return str(x)
+        return "(" + ",".join(str(d) for d in self.digits(x)) + ")"
+
+    def units(self) -> list[int]:
+        """Codes ``u`` for which ``x -> u x`` is a bijection (the ring's units)."""
+        m = self.order
+        return [u for u in range(m) if len(np.unique(self.mul[u])) == m]
+
+    def multiplier(self, u: int) -> np.ndarray:
+        """The automorphism ``x -> u x`` as a permutation array; ``u`` must be a unit."""
+        perm = self.mul[u].copy()
+        if len(np.unique(perm)) != self.order:
+            raise InputError(f"{self.label(u)} is not a unit of {self.name}", location="multiplier")
+        return perm
+
+    def element_order_mul(self, u: int) -> int:
+        """Multiplicative order of the unit ``u``."""
+        k, x = 1, u
+        while x != 1 % self.order:
+            x = int(self.mul[x, u])
+            k += 1
+        return k
+
+
+def _mixed_tables(moduli: tuple[int, ...]) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """Addition, negation and componentwise multiplication for ``Z_a x Z_b x ...``."""
+    m = math.prod(moduli)
+    codes = np.arange(m)
+    digits = []
+    rest = codes.copy()
+    for mod in moduli:
+        digits.append(rest % mod)
+        rest //= mod
+    add = np.zeros((m, m), dtype=np.int32)
+    mul = np.zeros((m, m), dtype=np.int32)
+    neg = np.zeros(m, dtype=np.int32)
+    weight = 1
+    for mod, d in zip(moduli, digits, strict=True):
+        add += (((d[:, None] + d[None, :]) % mod) * weight).astype(np.int32)
+        mul += (((d[:, None] * d[None, :]) % mod) * weight).astype(np.int32)
+        neg += (((-d) % mod) * weight).astype(np.int32)
+        weight *= mod
+    return add, neg, mul
+
+
+def _check_order(m: int) -> None:
+    if isinstance(m, bool) or not isinstance(m, int) or m < 1 or m % 2 == 0:
+        raise InputError(f"a starter group needs an odd order >= 1, got {m!r}", location="group")
+    if m > MAX_ORDER:
+        raise InputError(f"group order {m} is above the supported {MAX_ORDER}", location="group")
+
+
+def cyclic(m: int) -> AbelianGroup:
+    """The cyclic group ``Z_m`` (``m`` odd) with multiplication mod ``m``."""
+    _check_order(m)
+    add, neg, mul = _mixed_tables((m,))
+    return AbelianGroup(f"Z_{m}", (m,), "cyclic", add, neg, mul)
+
+
+def product(*moduli: int) -> AbelianGroup:
+    """``Z_a x Z_b x ...`` (each modulus odd), componentwise multiplication."""
+    if not moduli:
+        raise InputError("a product group needs at least one factor", location="group")
+    for mod in moduli:
+        _check_order(mod)
+    _check_order(math.prod(moduli))
+    if len(moduli) == 1:
+        return cyclic(moduli[0])
+    add, neg, mul = _mixed_tables(tuple(moduli))
+    name = " x ".join(f"Z_{mod}" for mod in moduli)
+    return AbelianGroup(name, tuple(moduli), "product", add, neg, mul)
+
+
+def prime_power(q: int) -> tuple[int, int] | None:
+    """``(p, k)`` with ``q = p^k`` and ``p`` prime, or ``None``."""
+    if q < 2:
+        return None
+    p = next(d for d in range(2, q + 1) if q % d == 0)
+    k, r = 0, q
+    while r % p == 0:
+        r //= p
+        k += 1
+    return (p, k) if r == 1 else None
+
+
+def _poly_mul_table(p: int, k: int, poly: tuple[int, ...]) -> np.ndarray:
+    """Multiplication table of ``Z_p[x] / (x^k + poly[k-1] x^{k-1} + ... + poly[0])``."""
+    q = p**k
+    # x^i reduced, for i < 2k-1, as coefficient vectors
+    def reduce(coeffs: list[int]) -> list[int]:
+        c = coeffs[:]
+        for deg in range(len(c) - 1, k - 1, -1):
+            lead = c[deg] % p
+            if lead:
+                c[deg] = 0
+                for t in range(k):
+                    c[deg - k + t] = (c[deg - k + t] - lead * poly[t]) % p
+        return [v % p for v in c[:k]]
+
+    vecs = [[(x // p**t) % p for t in range(k)] for x in range(q)]
+    table = np.zeros((q, q), dtype=np.int32)
+    weights = [p**t for t in range(k)]
+    for a in range(q):
+        va = vecs[a]
+        for b in range(a, q):
+            vb = vecs[b]
+            prod_c = [0] * (2 * k - 1)
+            for i, ca in enumerate(va):
+                if ca:
+                    for j, cb in enumerate(vb):
+                        prod_c[i + j] += ca * cb
+            red = reduce(prod_c)
+            code = sum(w * c for w, c in zip(weights, red, strict=True))
+            table[a, b] = table[b, a] = code
+    return table
+
+
+def galois_field(q: int) -> AbelianGroup:
+    """The additive group of ``GF(q)`` (``q`` an odd prime power) with field multiplication."""
+    _check_order(q)
+    pk = prime_power(q)
+    if pk is None:
+        raise InputError(f"GF(q) needs a prime power q, got {q}", location="group")
+    p, k = pk
+    if k == 1:
+        g = cyclic(p)
+        return AbelianGroup(f"GF({q})", (p,), "field", g.add, g.neg, g.mul, (0,))
+    add, neg, _ = _mixed_tables((p,) * k)
+    x_code = p  # the polynomial x
+    for poly in itertools.product(range(p), repeat=k):
+        if poly[0] == 0:
+            continue
+        mul = _poly_mul_table(p, k, poly)
+        # primitive: powers of x run through all q-1 non-zero elements
+        seen, e = set(), 1
+        for _ in range(q - 1):
+            seen.add(e)
+            e = int(mul[e, x_code])
+        if len(seen) == q - 1 and 0 not in seen:
+            return AbelianGroup(f"GF({q})", (p,) * k, "field", add, neg, mul, tuple(poly))
+    raise AssertionError(f"no primitive polynomial found for GF({q})")  # pragma: no cover
+
+
+_NAME_CYCLIC = re.compile(r"^Z_(\d+)$")
+_NAME_FIELD = re.compile(r"^GF\((\d+)\)$")
+
+
+def group_from_name(name: str) -> AbelianGroup:
+    """Parse ``"Z_15"``, ``"Z_3 x Z_5"`` or ``"GF(27)"`` back into a group."""
+    text = name.strip()
+    if match := _NAME_FIELD.match(text):
+        return galois_field(int(match.group(1)))
+    parts = [part.strip() for part in text.split("x")]
+    moduli = []
+    for part in parts:
+        match = _NAME_CYCLIC.match(part)
+        if not match:
+            raise InputError(f"unknown group description {name!r}", location="group")
+        moduli.append(int(match.group(1)))
+    return product(*moduli) if len(moduli) > 1 else cyclic(moduli[0])
+
+
+def groups_of_order(m: int) -> list[AbelianGroup]:
+    """Useful groups of odd order ``m``: ``Z_m``, ``GF(m)`` when ``m`` is a prime power with
+    exponent > 1, and ``Z_p x Z_{m/p}`` splittings with ``gcd = p`` (non-cyclic products)."""
+    _check_order(m)
+    out = [cyclic(m)]
+    pk = prime_power(m)
+    if pk is not None and pk[1] > 1:
+        out.append(galois_field(m))
+    for p in range(3, math.isqrt(m) + 1, 2):
+        if m % p == 0 and math.gcd(p, m // p) > 1 and (pk is None or pk[1] > 2):
+            out.append(product(p, m // p))
+    return out

@@ -1,6 +1,7 @@
 """Fairness figures of any season: breaks, home/away balance, mixing, venue/court/slot balance,
 rest days, carry-over and separation. Computed from the fixtures alone; one topic per module."""
 
+from scheduler.fairness.compute import compute_fairness
 from scheduler.fairness.model import (
     BYE_CONVENTION,
     FairnessReport,
@@ -13,4 +14,5 @@ __all__ = [
     "FairnessReport",
     "ImperfectRoundPair",
     "TeamFigures",
+    "compute_fairness",
 ]

@@ -1,0 +1,90 @@
+"""Carry-over effects (K. G. Russell, "Balancing carry-over effects in round robin
+tournaments", Biometrika 67 (1980) 127-131).
+
+With ``opp(t, r)`` the opponent of team ``t`` in round ``r`` of a single round robin with
+rounds ``1..m``, the carry-over matrix is
+
+    c_ij = #{(t, r) : opp(t, r) = i and opp(t, r + 1) = j},   r = 1..m, round m + 1 = round 1,
+
+i.e. the last round wraps cyclically to the first (Russell's convention, kept by the later
+literature; only with it can the balanced value be reached). Then sum c_ij = n(n-1) and the
+carry-over effects value is ``COE = sum c_ij^2``, with
+
+* lower bound n(n-1) (every off-diagonal c_ij = 1; reached for n a power of two, Russell 1980);
+* upper bound (n-1)(n^2-6n+12), the value of the circle method, which has maximum carry-over
+  (Lambrechts, Ficker, Goossens & Spieksma, Mathematical Programming 172 (2018) 277-302; the
+  closed form was computed for the project notes and is re-checked in the tests, n = 4..20).
+
+What is computed here (see :data:`CONVENTION`): each leg is treated as its own single round
+robin over its rounds in season order. The headline value is leg 1's. An odd league gets a bye
+vertex (labelled ``"bye"``, as the engine's dummy team): a team sitting out "meets" the bye, and
+the bye meets the team sitting out, so the leg is a single round robin of n + 1 and the bounds
+are those of n + 1. A team with no opponent in a round (an invalid season) contributes no
+term for the two transitions touching that round.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from scheduler.fairness.legs import partner_rows
+from scheduler.fairness.table import SeasonTable
+
+CONVENTION = (
+    "Russell 1980: c_ij = #{(t,r): opp(t,r)=i, opp(t,r+1)=j}, computed over the rounds of "
+    "leg 1 as one single round robin, its last round wrapping cyclically to its first; later "
+    "legs are computed the same way on their own (carry_over_per_leg); an odd league adds a "
+    "bye vertex 'bye' (the team sitting out meets it), so n counts the bye in the bounds"
+)
+
+
+@dataclass(frozen=True)
+class CarryOverFigures:
+    labels: tuple[str, ...]
+    matrix: np.ndarray
+    value: int | None
+    lower: int | None
+    upper: int | None
+    per_leg: tuple[int | None, ...]
+
+
+def coe_bounds(n: int) -> tuple[int, int]:
+    """Russell's lower bound n(n-1) and the circle method's maximum (n-1)(n^2-6n+12)."""
+    return n * (n - 1), (n - 1) * (n * n - 6 * n + 12)
+
+
+def carry_over_matrix(partners: np.ndarray) -> np.ndarray:
+    """Cyclic carry-over matrix of a ``(rounds, N)`` partner table (-1 = no opponent)."""
+    m, big_n = partners.shape
+    if m == 0 or big_n == 0:
+        return np.zeros((big_n, big_n), dtype=np.int64)
+    i = partners
+    j = np.roll(partners, -1, axis=0)
+    ok = (i >= 0) & (j >= 0)
+    flat = i[ok] * big_n + j[ok]
+    return np.bincount(flat, minlength=big_n * big_n).reshape(big_n, big_n).astype(np.int64)
+
+
+def carry_over_value(matrix: np.ndarray) -> int:
+    return int((matrix.astype(np.int64) ** 2).sum())
+
+
+def carry_over_figures(table: SeasonTable, round_leg: np.ndarray, legs: int) -> CarryOverFigures:
+    rows, big_n = partner_rows(table)
+    labels = table.names + (("bye",) if big_n != table.n else ())
+    per_leg: list[int | None] = []
+    first_matrix = np.zeros((big_n, big_n), dtype=np.int64)
+    for leg in range(1, max(legs, 1) + 1):
+        chosen = np.flatnonzero(round_leg == leg)
+        if len(chosen) == 0:
+            per_leg.append(None)
+            continue
+        matrix = carry_over_matrix(rows[chosen])
+        if leg == 1:
+            first_matrix = matrix
+        per_leg.append(carry_over_value(matrix))
+    value = per_leg[0] if per_leg else None
+    lower, upper = coe_bounds(big_n) if big_n >= 2 else (None, None)
+    return CarryOverFigures(labels, first_matrix, value, lower, upper, tuple(per_leg))

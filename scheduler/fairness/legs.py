@@ -1,0 +1,141 @@
+"""Legs and double-round-robin scheme, read from the fixtures (never from the season's labels).
+
+* The number of legs is the most common number of meetings of a pair of teams.
+* The leg of a round is the ``leg`` written on its fixtures when the fixtures name more than
+  one leg; otherwise, with k > 1 legs and a number of rounds divisible by k, the rounds are cut
+  into k equal consecutive blocks.
+* The scheme of a two-leg season compares each leg-2 round's pairing with the leg-1 rounds
+  (venues swapped in every game): leg 2 = leg-1 rounds 1, 2, ..., n-1 is *mirrored*;
+  2, ..., n-1, 1 *french*; n-1, 1, ..., n-2 *english*; n-1, ..., 1 *inverted*; anything else
+  *free*. The index maps follow Goossens & Spieksma, "Soccer schedules in Europe: an overview",
+  J. Scheduling 15 (2012) 641-651 (as recorded in the project notes, section 4).
+
+A round's *pairing key* is its row of partners (with the bye vertex for an odd league), so two
+rounds have the same key exactly when they pair the same teams.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from scheduler.fairness.table import SeasonTable
+
+
+@dataclass(frozen=True)
+class LegStructure:
+    legs: int
+    round_leg: np.ndarray
+    """Leg (1-based) of each round (0 for a round with no fixtures)."""
+    scheme: str
+    meetings_mode: int
+
+
+def partner_rows(table: SeasonTable) -> tuple[np.ndarray, int]:
+    """``(rounds, N)`` partner table with a bye vertex ``N - 1 = n`` for an odd league.
+
+    For an odd league a team that does not play is paired with the bye vertex, and the bye
+    vertex with the (first) team that sits out. Entries stay -1 where no partner exists.
+    """
+    n = table.n
+    if n % 2 == 0:
+        return table.opponent.copy(), n
+    rows = np.full((table.rounds, n + 1), -1, dtype=np.int64)
+    rows[:, :n] = table.opponent
+    idle = table.plays == 0
+    rows[:, :n][idle] = n
+    any_idle = idle.any(axis=1)
+    first_idle = np.argmax(idle, axis=1)
+    rows[any_idle, n] = first_idle[any_idle]
+    return rows, n + 1
+
+
+def pair_meetings(table: SeasonTable) -> tuple[np.ndarray, np.ndarray]:
+    """Unique pair keys ``a * n + b`` (a < b) and how often each pair meets."""
+    n = max(table.n, 1)
+    lo = np.minimum(table.home, table.away)
+    hi = np.maximum(table.home, table.away)
+    ok = lo != hi
+    keys = lo[ok] * n + hi[ok]
+    return np.unique(keys, return_counts=True)
+
+
+def detect_legs(table: SeasonTable) -> LegStructure:
+    _, counts = pair_meetings(table)
+    if len(counts):
+        values, freq = np.unique(counts, return_counts=True)
+        mode = int(values[np.argmax(freq)])
+    else:
+        mode = 1
+    rounds = table.rounds
+    round_leg = np.zeros(rounds, dtype=np.int64)
+    written = np.unique(table.leg) if len(table.leg) else np.array([1])
+    if len(written) > 1 or (len(written) == 1 and written[0] != 1):
+        # Legs named on the fixtures: a round's leg is the largest leg of its fixtures.
+        np.maximum.at(round_leg, table.round, table.leg)
+        legs = int(max(int(written.max()), 1))
+    elif mode > 1 and rounds % mode == 0:
+        per = rounds // mode
+        round_leg = np.arange(rounds, dtype=np.int64) // per + 1
+        legs = mode
+    else:
+        round_leg[:] = 1
+        legs = 1
+    scheme = _detect_scheme(table, round_leg, legs)
+    return LegStructure(legs=legs, round_leg=round_leg, scheme=scheme, meetings_mode=mode)
+
+
+def _detect_scheme(table: SeasonTable, round_leg: np.ndarray, legs: int) -> str:
+    if legs == 1:
+        return "single"
+    if legs != 2:
+        return "free"
+    leg1 = np.flatnonzero(round_leg == 1)
+    leg2 = np.flatnonzero(round_leg == 2)
+    if len(leg1) == 0 or len(leg1) != len(leg2):
+        return "free"
+    rows, _ = partner_rows(table)
+    key1 = {rows[r].tobytes(): i for i, r in enumerate(leg1)}
+    sigma = []
+    for r in leg2:
+        i = key1.get(rows[r].tobytes())
+        if i is None:
+            return "free"
+        sigma.append(i)
+    # Venues swapped in every game of leg 2 against its leg-1 round.
+    sign = table.venue_sign
+    if not np.array_equal(sign[leg2], -sign[leg1[sigma]]):
+        return "free"
+    m = len(leg1)
+    s = np.arange(m)
+    sigma_arr = np.asarray(sigma)
+    for name, target in (
+        ("mirrored", s),
+        ("french", (s + 1) % m),
+        ("english", (s - 1) % m),
+        ("inverted", m - 1 - s),
+    ):
+        if np.array_equal(sigma_arr, target):
+            return name
+    return "free"
+
+
+def separation(table: SeasonTable) -> tuple[int | None, int | None]:
+    """Least and largest number of rounds strictly between two consecutive meetings of the
+    same pair (over all pairs that meet more than once); ``(None, None)`` when none does."""
+    n = max(table.n, 1)
+    lo = np.minimum(table.home, table.away)
+    hi = np.maximum(table.home, table.away)
+    ok = lo != hi
+    keys = lo[ok] * n + hi[ok]
+    rnd = table.round[ok]
+    if len(keys) < 2:
+        return None, None
+    order = np.lexsort((rnd, keys))
+    keys, rnd = keys[order], rnd[order]
+    same = keys[1:] == keys[:-1]
+    if not same.any():
+        return None, None
+    between = (rnd[1:] - rnd[:-1] - 1)[same]
+    return int(between.min()), int(between.max())

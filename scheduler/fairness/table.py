@@ -1,0 +1,98 @@
+"""The season as numpy arrays: the one place that reads fixtures for the fairness figures.
+
+Teams are numbered in the order of ``Season.teams``; a name that appears only in fixtures (an
+unknown team, reported by :mod:`scheduler.fairness.validity`) is appended in order of first
+appearance so the figures can still be measured. Rounds are the season's 1-based round
+numbers; row ``r`` of a round table is round ``r + 1``. Fixtures with a round number below 1
+are left out of the tables (validity reports them).
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from scheduler.season import Season
+
+
+@dataclass(frozen=True)
+class SeasonTable:
+    """Per-fixture index arrays and per-round tables of one season.
+
+    ``home``/``away``/``round``/``leg`` have one entry per used fixture (``fixture`` holds its
+    index in ``Season.fixtures``). ``venue_sign[r, t]`` is +1 when team ``t`` is at home in
+    round ``r + 1``, -1 away, 0 when it does not play; ``plays[r, t]`` counts its games in that
+    round; ``opponent[r, t]`` is its (first) opponent or -1.
+    """
+
+    names: tuple[str, ...]
+    known: int
+    rounds: int
+    fixture: np.ndarray
+    home: np.ndarray
+    away: np.ndarray
+    round: np.ndarray
+    leg: np.ndarray
+    venue_sign: np.ndarray
+    plays: np.ndarray
+    opponent: np.ndarray
+
+    @property
+    def n(self) -> int:
+        return len(self.names)
+
+
+def build_table(season: Season) -> SeasonTable:
+    """Index the fixtures of ``season`` (one pass in Python, the rest vectorised)."""
+    index: dict[str, int] = {}
+    for name in season.teams:
+        index.setdefault(name, len(index))
+    known = len(index)
+    fixtures = season.fixtures
+    for f in fixtures:
+        for name in (f.home, f.away):
+            if name not in index:
+                index[name] = len(index)
+    names = tuple(index)
+    n = len(names)
+
+    home = np.fromiter((index[f.home] for f in fixtures), dtype=np.int64, count=len(fixtures))
+    away = np.fromiter((index[f.away] for f in fixtures), dtype=np.int64, count=len(fixtures))
+    rnd = np.fromiter((f.round for f in fixtures), dtype=np.int64, count=len(fixtures))
+    leg = np.fromiter((f.leg for f in fixtures), dtype=np.int64, count=len(fixtures))
+    keep = np.flatnonzero(rnd >= 1)
+    home, away, rnd, leg = home[keep], away[keep], rnd[keep] - 1, leg[keep]
+    rounds = int(rnd.max()) + 1 if len(rnd) else 0
+    rounds = max(rounds, max((r for r in season.byes if r >= 1), default=0))
+
+    sign = np.zeros((rounds, n), dtype=np.int8)
+    plays = np.zeros((rounds, n), dtype=np.int32)
+    opponent = np.full((rounds, n), -1, dtype=np.int64)
+    if len(rnd):
+        np.add.at(plays, (rnd, home), 1)
+        np.add.at(plays, (rnd, away), 1)
+        # Write in reverse so that the first fixture of a team in a round wins.
+        rev = slice(None, None, -1)
+        sign[rnd[rev], home[rev]] = 1
+        sign[rnd[rev], away[rev]] = -1
+        opponent[rnd[rev], home[rev]] = away[rev]
+        opponent[rnd[rev], away[rev]] = home[rev]
+        # A team that plays itself has no usable venue or opponent in that round.
+        selfgame = home == away
+        if selfgame.any():
+            sign[rnd[selfgame], home[selfgame]] = 0
+            opponent[rnd[selfgame], home[selfgame]] = -1
+    return SeasonTable(
+        names=names,
+        known=known,
+        rounds=rounds,
+        fixture=keep,
+        home=home,
+        away=away,
+        round=rnd,
+        leg=leg,
+        venue_sign=sign,
+        plays=plays,
+        opponent=opponent,
+    )

@@ -1,0 +1,193 @@
+"""Numba kernel of the perfect-starter search (imported lazily by ``search.py``).
+
+Iterative randomised backtracking over starters that are invariant under a multiplier
+automorphism ``x -> u x`` (``u = 1`` gives plain starters). For each difference representative
+``g`` the partial union ``F_0 ∪ F_g`` is kept as a set of paths (endpoint pointers and path
+sizes, undone through a trail); a pair is refused as soon as it closes a cycle shorter than
+``m + 1`` in any of these unions.
+"""
+
+from __future__ import annotations
+
+import numba
+import numpy as np
+
+
+@numba.njit(cache=True)
+def _add_edge(t, a, b, n, end, size, trail_t, trail_v, trail_e, trail_s, top):
+    """Add edge {a, b} to the path system ``t``; False if it closes a short cycle."""
+    ea = end[t, a]
+    eb = end[t, b]
+    if ea == b:
+        return size[t, a] == n
+    s = size[t, a] + size[t, b]
+    k = top[0]
+    trail_t[k] = t
+    trail_v[k] = ea
+    trail_e[k] = end[t, ea]
+    trail_s[k] = size[t, ea]
+    trail_t[k + 1] = t
+    trail_v[k + 1] = eb
+    trail_e[k + 1] = end[t, eb]
+    trail_s[k + 1] = size[t, eb]
+    top[0] = k + 2
+    end[t, ea] = eb
+    end[t, eb] = ea
+    size[t, ea] = s
+    size[t, eb] = s
+    return True
+
+
+@numba.njit(cache=True)
+def _undo(mark, end, size, trail_t, trail_v, trail_e, trail_s, top):
+    k = top[0]
+    while k > mark:
+        k -= 1
+        end[trail_t[k], trail_v[k]] = trail_e[k]
+        size[trail_t[k], trail_v[k]] = trail_s[k]
+    top[0] = mark
+
+
+@numba.njit(cache=True)
+def search_kernel(m, add, neg, mulu, reps, seed, node_limit, out_pairs):
+    """Returns ``(status, nodes)``: status 1 found (pairs in ``out_pairs``), 0 node limit hit,
+    -1 search space exhausted (no multiplier-invariant perfect starter exists)."""
+    np.random.seed(seed)
+    n = m + 1
+    inf = m
+    T = reps.shape[0]
+    end = np.empty((T, n), np.int32)
+    size = np.ones((T, n), np.int32)
+    for t in range(T):
+        for v in range(n):
+            end[t, v] = v
+    cap = 4 * T * n + 16
+    trail_t = np.empty(cap, np.int32)
+    trail_v = np.empty(cap, np.int32)
+    trail_e = np.empty(cap, np.int32)
+    trail_s = np.empty(cap, np.int32)
+    top = np.zeros(1, np.int64)
+    for t in range(T):
+        _add_edge(t, inf, 0, n, end, size, trail_t, trail_v, trail_e, trail_s, top)
+        _add_edge(t, inf, reps[t], n, end, size, trail_t, trail_v, trail_e, trail_s, top)
+    top[0] = 0
+
+    used = np.zeros(m, np.bool_)
+    used[0] = True
+    dused = np.zeros(m, np.bool_)
+    maxd = (m - 1) // 2 + 1
+    cand = np.empty((maxd, m), np.int32)
+    ncand = np.zeros(maxd, np.int32)
+    ci = np.zeros(maxd, np.int32)
+    cx = np.zeros(maxd, np.int32)
+    mark = np.zeros(maxd, np.int64)
+    op = np.empty((maxd, m, 2), np.int32)
+    opn = np.zeros(maxd, np.int32)
+
+    depth = 0
+    nodes = 0
+    need_gen = True
+    while True:
+        if need_gen:
+            x = 1
+            while x < m and used[x]:
+                x += 1
+            if x == m:
+                k = 0
+                for d in range(depth):
+                    for j in range(opn[d]):
+                        out_pairs[k, 0] = op[d, j, 0]
+                        out_pairs[k, 1] = op[d, j, 1]
+                        k += 1
+                return 1, nodes
+            c = 0
+            for y in range(1, m):
+                if y != x and not used[y] and not dused[add[x, neg[y]]]:
+                    cand[depth, c] = y
+                    c += 1
+            for i in range(c - 1, 0, -1):
+                j = np.random.randint(0, i + 1)
+                tmp = cand[depth, i]
+                cand[depth, i] = cand[depth, j]
+                cand[depth, j] = tmp
+            cx[depth] = x
+            ncand[depth] = c
+            ci[depth] = 0
+            need_gen = False
+        if ci[depth] >= ncand[depth]:
+            if depth == 0:
+                return -1, nodes
+            depth -= 1
+            _undo(mark[depth], end, size, trail_t, trail_v, trail_e, trail_s, top)
+            for j in range(opn[depth]):
+                a = op[depth, j, 0]
+                b = op[depth, j, 1]
+                used[a] = False
+                used[b] = False
+                d1 = add[a, neg[b]]
+                dused[d1] = False
+                dused[neg[d1]] = False
+            continue
+        x = cx[depth]
+        y = cand[depth, ci[depth]]
+        ci[depth] += 1
+        nodes += 1
+        if nodes > node_limit:
+            return 0, nodes
+        # orbit of the pair {x, y} under the multiplier
+        k = 0
+        a = x
+        b = y
+        ok = True
+        while True:
+            if a == b or used[a] or used[b]:
+                ok = False
+                break
+            d1 = add[a, neg[b]]
+            d2 = neg[d1]
+            if dused[d1]:
+                ok = False
+                break
+            used[a] = True
+            used[b] = True
+            dused[d1] = True
+            dused[d2] = True
+            op[depth, k, 0] = a
+            op[depth, k, 1] = b
+            k += 1
+            a = mulu[a]
+            b = mulu[b]
+            if (a == x and b == y) or (a == y and b == x):
+                break
+        opn[depth] = k
+        if ok:
+            mark[depth] = top[0]
+            for j in range(k):
+                if not ok:
+                    break
+                pa = op[depth, j, 0]
+                pb = op[depth, j, 1]
+                for t in range(T):
+                    g = reps[t]
+                    if not _add_edge(t, pa, pb, n, end, size,
+                                     trail_t, trail_v, trail_e, trail_s, top):
+                        ok = False
+                        break
+                    if not _add_edge(t, add[pa, g], add[pb, g], n, end, size,
+                                     trail_t, trail_v, trail_e, trail_s, top):
+                        ok = False
+                        break
+            if not ok:
+                _undo(mark[depth], end, size, trail_t, trail_v, trail_e, trail_s, top)
+        if not ok:
+            for j in range(k):
+                a = op[depth, j, 0]
+                b = op[depth, j, 1]
+                used[a] = False
+                used[b] = False
+                d1 = add[a, neg[b]]
+                dused[d1] = False
+                dused[neg[d1]] = False
+            continue
+        depth += 1
+        need_gen = True

@@ -1,0 +1,158 @@
+"""Randomised backtracking search for perfect starters, with restarts and a time budget.
+
+The search space is the set of starters of an abelian group ``G`` of odd order ``m``
+(see :mod:`scheduler.factorization.starters`), optionally restricted to starters invariant
+under a multiplier ``x -> u x`` (``S u = S``); such starters shrink the search space and,
+since multiplication by ``u`` maps ``F_g`` to ``F_{ug}``, only one ``g`` per orbit of
+``<-1, u>`` needs a cycle check. Multiplier-invariant starters are a classical search device
+for starters and Room squares (J. H. Dinitz and D. R. Stinson, "Room squares and related
+designs", *Contemporary Design Theory*, Wiley 1992; the reference notes §5 describe restricted
+searches in structured spaces).
+
+The element paired next is always the smallest unpaired one; its partners are tried in a
+random order fixed by the seed. Each partial starter keeps the partial unions ``F_0 ∪ F_g`` as
+path systems, and a pair is refused as soon as it closes a cycle shorter than ``m + 1``
+(numba kernel in ``_search_kernel.py``, imported only when a search actually runs).
+
+Restarts follow the Luby sequence (M. Luby, A. Sinclair, D. Zuckerman, "Optimal speedup of Las
+Vegas algorithms", Inform. Process. Lett. 47 (1993)) times a base node count. Given a seed the
+sequence of runs is fixed, so the starter found (if found within the budget) is the same on
+every machine; only whether the budget suffices depends on the machine.
+"""
+
+from __future__ import annotations
+
+import time
+from collections.abc import Callable
+from dataclasses import dataclass
+
+import numpy as np
+
+from scheduler.errors import InputError
+from scheduler.factorization.groups import AbelianGroup
+from scheduler.factorization.starters import is_perfect_starter
+
+Progress = Callable[[float, str], None]
+
+
+@dataclass(frozen=True)
+class StarterSearchResult:
+    """Outcome of :func:`search_perfect_starter`.
+
+    ``starter`` is ``None`` when nothing was found; ``exhausted`` is true when one run explored
+    the whole (multiplier-invariant) space without finding a perfect starter, which proves
+    there is none of that kind.
+    """
+
+    group: str
+    multiplier: int
+    seed: int
+    starter: tuple[tuple[int, int], ...] | None
+    runs: int
+    nodes: int
+    seconds: float
+    exhausted: bool
+
+    @property
+    def found(self) -> bool:
+        return self.starter is not None
+
+
+def luby(i: int) -> int:
+    """The ``i``-th term (from 1) of the Luby restart sequence 1, 1, 2, 1, 1, 2, 4, ..."""
+    k = 1
+    while (1 << k) - 1 < i:
+        k += 1
+    while True:
+        if i == (1 << k) - 1:
+            return 1 << (k - 1)
+        i -= (1 << (k - 1)) - 1
+        k = 1
+        while (1 << k) - 1 < i:
+            k += 1
+
+
+def orbit_representatives(group: AbelianGroup, multiplier: int = 1) -> list[int]:
+    """One element (the smallest code) of each orbit of ``<x -> -x, x -> u x>`` on ``G \\ {0}``."""
+    m = group.order
+    mulu = group.multiplier(multiplier) if multiplier != 1 % m else np.arange(m)
+    seen = np.zeros(m, dtype=bool)
+    reps = []
+    for g in range(1, m):
+        if seen[g]:
+            continue
+        reps.append(g)
+        stack = [g]
+        seen[g] = True
+        while stack:
+            x = stack.pop()
+            for y in (int(group.neg[x]), int(mulu[x])):
+                if not seen[y]:
+                    seen[y] = True
+                    stack.append(y)
+    return reps
+
+
+def _run_seed(seed: int, run: int) -> int:
+    return (seed * 1_000_003 + run * 7_919 + 12_345) % (2**31 - 1)
+
+
+def search_perfect_starter(
+    group: AbelianGroup,
+    *,
+    seed: int = 0,
+    budget: float = 10.0,
+    multiplier: int = 1,
+    base_nodes: int = 20_000,
+    max_run_nodes: int = 5_000_000,
+    progress: Progress | None = None,
+) -> StarterSearchResult:
+    """Search ``group`` for a perfect starter (invariant under ``x -> multiplier * x``).
+
+    ``budget`` is in seconds of wall time (checked between runs; one run is at most
+    ``max_run_nodes`` nodes). ``progress(fraction, message)`` is called after each run with the
+    fraction of the budget used. Every starter returned has been re-checked with
+    :func:`~scheduler.factorization.starters.is_perfect_starter`.
+    """
+    if isinstance(seed, bool) or not isinstance(seed, int):
+        raise InputError(f"the seed must be an integer, got {seed!r}", location="seed")
+    if not budget > 0:
+        raise InputError(f"the time budget must be positive, got {budget!r}", location="budget")
+    from scheduler.factorization._search_kernel import search_kernel  # numba: lazily
+
+    m = group.order
+    start = time.perf_counter()
+    mulu = (group.multiplier(multiplier) if multiplier != 1 % m else np.arange(m)).astype(
+        np.int32
+    )
+    reps = np.array(orbit_representatives(group, multiplier), dtype=np.int32)
+    add = np.ascontiguousarray(group.add, dtype=np.int32)
+    neg = np.ascontiguousarray(group.neg, dtype=np.int32)
+    out = np.zeros(((m - 1) // 2, 2), dtype=np.int32)
+    runs = nodes = 0
+    while True:
+        runs += 1
+        limit = min(max_run_nodes, base_nodes * luby(runs))
+        status, used = search_kernel(m, add, neg, mulu, reps, _run_seed(seed, runs), limit, out)
+        nodes += int(used)
+        elapsed = time.perf_counter() - start
+        if status == 1:
+            starter = tuple(sorted((int(min(a, b)), int(max(a, b))) for a, b in out))
+            if not is_perfect_starter(group, starter):  # pragma: no cover - kernel bug guard
+                raise AssertionError(f"search kernel returned a non-perfect starter {starter}")
+            if progress:
+                progress(1.0, f"perfect starter found in {group.name} after {runs} runs")
+            return StarterSearchResult(
+                group.name, multiplier, seed, starter, runs, nodes, elapsed, False
+            )
+        if status == -1:
+            if progress:
+                progress(1.0, f"no perfect starter of this kind in {group.name}")
+            return StarterSearchResult(group.name, multiplier, seed, None, runs, nodes, elapsed,
+                                       True)
+        if progress:
+            progress(min(1.0, elapsed / budget),
+                     f"searching {group.name}: {runs} runs, {nodes} nodes")
+        if elapsed >= budget:
+            return StarterSearchResult(group.name, multiplier, seed, None, runs, nodes, elapsed,
+                                       False)

@@ -1,0 +1,104 @@
+"""Audit any schedule file: is it a valid round robin, and how fair is it?
+
+:func:`audit_file` reads a CSV, xlsx or season.json schedule
+(:func:`scheduler.export.readers.read_schedule_with_rows`), checks it
+(:func:`scheduler.fairness.validity.validate_season`, problems naming the source rows) and
+measures it (:func:`scheduler.fairness.compute_fairness`). The figures are measured even for an
+invalid schedule, as far as they can be (a team playing twice in a round, for example, makes
+its break count a lower estimate); ``fairness_note`` says so. Unusable input raises
+:class:`~scheduler.errors.InputError` with its location; the CLI maps that to exit code 2 and an
+invalid schedule to exit code 1.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Sequence
+from dataclasses import dataclass
+from pathlib import Path
+
+from scheduler.export.readers import ScheduleFile, read_schedule_with_rows
+from scheduler.fairness import FairnessReport, compute_fairness
+from scheduler.fairness.validity import Problem, validate_season
+from scheduler.season import Season
+
+
+@dataclass(frozen=True)
+class AuditResult:
+    """The outcome of an audit. ``source`` is ``None`` for a season audited in memory."""
+
+    season: Season
+    valid: bool
+    problems: tuple[Problem, ...]
+    fairness: FairnessReport | None
+    source: ScheduleFile | None = None
+    fairness_note: str = ""
+
+    @property
+    def path(self) -> str | None:
+        return self.source.path if self.source else None
+
+    def to_dict(self, *, full: bool = False) -> dict:
+        """JSON-ready outcome: validity, problems (as sentences), headline figures; with
+        ``full`` also every fairness figure and each problem's rows."""
+        f = self.fairness
+        out: dict = {
+            "file": self.path,
+            "format": self.source.kind if self.source else None,
+            "valid": self.valid,
+            "problems": [p.message for p in self.problems],
+            "teams": len(self.season.teams),
+            "rounds": self.season.rounds,
+            "games": len(self.season.fixtures),
+            "legs": f.legs if f else self.season.legs,
+            "scheme": f.scheme if f else self.season.scheme,
+            "breaks_total": f.breaks_total if f else None,
+            "breaks_lower_bound": f.breaks_lower_bound if f else None,
+            "home_gap_max": f.home_gap_max if f else None,
+            "carry_over_value": f.carry_over_value if f else None,
+            "carry_over_lower_bound": f.carry_over_lower_bound if f else None,
+            "carry_over_upper_bound": f.carry_over_upper_bound if f else None,
+            "perfect_pairs": f.perfect_pairs if f else None,
+            "pairs": f.pairs if f else None,
+            "perfect": f.perfect if f else None,
+            "rest_days_min": f.rest_days_min if f else None,
+            "separation_min": f.separation_min if f else None,
+            "fairness_note": self.fairness_note,
+            "notes": list(self.source.notes) if self.source else [],
+        }
+        if full:
+            out["problem_details"] = [p.to_dict() for p in self.problems]
+            out["fairness"] = f.to_dict() if f else None
+        return out
+
+
+def audit_season(season: Season, rows: Sequence[int | None] | None = None) -> AuditResult:
+    """Audit a season held in memory (``rows``: optional source row of each fixture)."""
+    problems = tuple(validate_season(season, rows))
+    fairness = compute_fairness(season) if season.fixtures else None
+    note = ""
+    if problems and fairness is not None:
+        note = "the schedule is not a valid round robin: the figures describe it as it stands"
+    elif fairness is None:
+        note = "no games: nothing to measure"
+    return AuditResult(
+        season=season,
+        valid=not problems,
+        problems=problems,
+        fairness=fairness,
+        fairness_note=note,
+    )
+
+
+def audit_file(path: str | Path, *, timezone: str | None = None) -> AuditResult:
+    """Read, check and measure the schedule in ``path`` (CSV, xlsx or season.json)."""
+    source = read_schedule_with_rows(path, timezone=timezone)
+    rows = source.rows if any(r is not None for r in source.rows) else None
+    result = audit_season(source.season, rows)
+    return AuditResult(
+        season=result.season,
+        valid=result.valid,
+        problems=result.problems,
+        fairness=result.fairness,
+        source=source,
+        fairness_note=result.fairness_note,
+    )

@@ -1,0 +1,69 @@
+"""Kick-off datetimes: a match day plus a time of day on the league's clock.
+
+Times are wall-clock times of ``league.timezone`` (an IANA time zone name, resolved with
+:mod:`zoneinfo`, PEP 615). The result is always a timezone-aware :class:`datetime.datetime`.
+
+Daylight-saving changes (PEP 495 semantics, which :mod:`zoneinfo` follows):
+
+- **Gap** (the clock jumps forward, e.g. 02:00 -> 03:00): a kick-off inside the skipped hour does
+  not exist. It is moved forward by the length of the gap (02:30 becomes 03:30 summer time). This
+  is the instant PEP 495 gives the time with ``fold=0`` (the offset before the change), shown on
+  the clock that is valid then.
+- **Fold** (the clock goes back, e.g. 03:00 -> 02:00): a kick-off inside the repeated hour happens
+  twice on the clock. The first occurrence is used (``fold=0``, still summer time).
+
+Every other time is unambiguous and kept as given.
+"""
+
+from __future__ import annotations
+
+import functools
+from datetime import UTC, date, datetime, time, timedelta
+from zoneinfo import ZoneInfo
+
+from scheduler.config.model import League
+from scheduler.errors import InputError
+
+
+@functools.lru_cache(maxsize=64)
+def zone(name: str) -> ZoneInfo:
+    """The :class:`ZoneInfo` of an IANA name (cached)."""
+    return ZoneInfo(name)
+
+
+def parse_slot(slot: time | str) -> time:
+    """A time-slot label such as ``"19:30"`` (or a :class:`time`) as a :class:`time`."""
+    if isinstance(slot, time):
+        return slot
+    text = str(slot).strip()
+    try:
+        return time.fromisoformat(text)
+    except ValueError:
+        raise InputError(f"{slot!r} is not a time of day like 19:30", location="slot") from None
+
+
+def local_datetime(day: date, clock: time, tz: ZoneInfo) -> datetime:
+    """``day`` at wall-clock ``clock`` in ``tz``, aware; gaps move forward, folds take the first.
+
+    See the module docstring for the daylight-saving rules.
+    """
+    naive = datetime.combine(day, clock.replace(tzinfo=None, fold=0))
+    first = naive.replace(tzinfo=tz, fold=0)
+    # A time in a gap does not survive the round trip through UTC: normalise it to the valid
+    # wall-clock time of the same instant (PEP 495: fold=0 uses the offset before the change).
+    return first.astimezone(UTC).astimezone(tz)
+
+
+def kickoff(league: League, day: date, slot: time | str | None = None) -> datetime:
+    """When a game of ``league`` on ``day`` in time slot ``slot`` starts (aware datetime).
+
+    ``slot`` ``None`` means the league's ``calendar.kickoff``.
+    """
+    clock = league.calendar.kickoff if slot is None else parse_slot(slot)
+    return local_datetime(day, clock, zone(league.timezone))
+
+
+def game_end(league: League, start: datetime) -> datetime:
+    """When a game that starts at ``start`` ends (``calendar.game_minutes`` of elapsed time)."""
+    ends = start.astimezone(UTC) + timedelta(minutes=league.calendar.game_minutes)
+    return ends.astimezone(start.tzinfo)

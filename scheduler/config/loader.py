@@ -1,0 +1,189 @@
+"""Load a league file into a validated, frozen :class:`~scheduler.config.model.League`.
+
+Four stages, each collecting every problem it can before stopping:
+
+1. read the file (:mod:`scheduler.config.reading`): missing file, not UTF-8, empty, syntax errors
+   with line numbers;
+2. check its shape (:mod:`scheduler.config.schema`, pydantic): unknown options with
+   did-you-mean suggestions, wrong kinds of value, numbers out of range;
+3. check references and ranges (:mod:`scheduler.config.checks`): names of teams and venues, dates
+   inside the season, time zone, holiday region, repeated names and codes;
+4. check for certain contradictions (:mod:`scheduler.config.contradictions`): a season with fewer
+   match days than it needs, a team unavailable on too many match days, and the like.
+
+Every failure is a :class:`scheduler.errors.ConfigError` whose problems name the field path
+(``teams[3].home_venue: 'North Hal' is not a venue; did you mean 'North Hall'?``).
+"""
+
+from __future__ import annotations
+
+import datetime as dt
+from collections.abc import Iterable, Mapping
+from pathlib import Path
+from typing import Any
+
+from pydantic import ValidationError
+
+from scheduler.config.checks import reference_problems, resolve_holidays, season_window
+from scheduler.config.codes import make_codes
+from scheduler.config.contradictions import season_problems
+from scheduler.config.messages import problems_from
+from scheduler.config.model import (
+    CalendarSpec,
+    FixedFixture,
+    Format,
+    League,
+    Priorities,
+    Rules,
+    Team,
+    TeamDates,
+    Venue,
+)
+from scheduler.config.reading import read_file
+from scheduler.config.schema import GOALS, LeagueFile
+from scheduler.errors import ConfigError
+
+
+def load_league(path: str | Path) -> League:
+    """Read, check and build the league in ``path`` (``.toml``, ``.yaml`` or ``.yml``)."""
+    data = read_file(path)
+    return parse_league(data, source=str(path))
+
+
+def parse_league(data: Mapping[str, Any], source: str = "<config>") -> League:
+    """Check and build a league from already-parsed data (the dict a TOML/YAML file gives)."""
+    try:
+        return _parse(data, source)
+    except ConfigError:
+        raise
+    except Exception as exc:  # never a traceback for a league organizer
+        raise ConfigError(
+            [f"the league could not be read ({type(exc).__name__}: {exc})"], path=source
+        ) from exc
+
+
+def _parse(data: Mapping[str, Any], source: str) -> League:
+    if not isinstance(data, Mapping):
+        raise ConfigError(
+            [f"expected sections such as league and teams, got {type(data).__name__}"],
+            path=source,
+        )
+    try:
+        doc = LeagueFile.model_validate(dict(data))
+    except ValidationError as exc:
+        raise ConfigError(problems_from(exc), path=source) from None
+    problems = reference_problems(doc)
+    if problems:
+        raise ConfigError(problems, path=source)
+    league = build_league(doc, source)
+    problems = season_problems(league)
+    if problems:
+        raise ConfigError(problems, path=source)
+    return league
+
+
+def _within(days: Iterable[dt.date], first: dt.date | None, last: dt.date | None) -> tuple:
+    return tuple(
+        sorted(
+            {d for d in days if (first is None or d >= first) and (last is None or d <= last)}
+        )
+    )
+
+
+def _flat(groups: Iterable[tuple[dt.date, ...]]) -> list[dt.date]:
+    return [d for group in groups for d in group]
+
+
+def priorities_of(doc: LeagueFile) -> Priorities:
+    """Weights from ``[priorities]``: given weights, or an ``order`` turned into weights.
+
+    ``order = [a, b, c]`` gives ``a`` the weight 3, ``b`` 2, ``c`` 1 (the first is the most
+    important) and every goal left out 0 (not pursued).
+    """
+    pri = doc.priorities
+    if pri.order is not None:
+        top = len(pri.order)
+        weights = {goal: top - i for i, goal in enumerate(pri.order)}
+        return Priorities(**{goal: weights.get(goal, 0) for goal in GOALS})
+    defaults = Priorities()
+    return Priorities(
+        **{
+            goal: getattr(pri, goal) if getattr(pri, goal) is not None else getattr(defaults, goal)
+            for goal in GOALS
+        }
+    )
+
+
+def build_league(doc: LeagueFile, source: str | None = None) -> League:
+    """The frozen League of a checked league file (no further checks)."""
+    cal = doc.calendar
+    first, last = season_window(doc)
+    country = subdivision = None
+    if cal.holidays is not None:
+        country, subdivision, _ = resolve_holidays(cal.holidays.country, cal.holidays.subdivision)
+    dates = tuple(sorted(set(_flat(cal.dates))))
+    calendar = CalendarSpec(
+        start=cal.start or dates[0],
+        end=cal.end,
+        weekdays=tuple(sorted(set(cal.weekdays))),
+        excluded=_within(_flat(cal.excluded), first, last),
+        dates=dates,
+        holidays_country=country,
+        holidays_subdivision=subdivision,
+        rounds_per_day=cal.rounds_per_day,
+        kickoff=cal.kickoff,
+        game_minutes=cal.game_minutes,
+    )
+    codes = make_codes((t.name for t in doc.teams), (t.code for t in doc.teams))
+    teams = tuple(
+        Team(name=t.name, code=code, home_venue=t.home_venue)
+        for t, code in zip(doc.teams, codes, strict=True)
+    )
+    venues = tuple(
+        Venue(name=v.name, courts=tuple(v.courts), slots=tuple(v.slots), address=v.address)
+        for v in doc.venues
+    )
+    r = doc.rules
+    rules = Rules(
+        unavailable=tuple(
+            TeamDates(team=e.team, dates=_within(_flat(e.dates), first, last))
+            for e in r.unavailable
+        ),
+        no_home_games=tuple(
+            TeamDates(team=e.team, dates=_within(_flat(e.dates), first, last))
+            for e in r.no_home_games
+        ),
+        shared_grounds=tuple(tuple(g) for g in r.shared_grounds),
+        fixed=tuple(
+            FixedFixture(
+                home=f.home, away=f.away, round=f.round, date=f.date, any_venue=f.any_venue
+            )
+            for f in r.fixed
+        ),
+        max_home_run=r.max_home_run,
+        max_away_run=r.max_away_run,
+        no_breaks_first=r.no_breaks_first,
+        no_breaks_last=r.no_breaks_last,
+        min_rest_days=r.min_rest_days,
+        min_separation=r.min_separation,
+    )
+    fmt = doc.format
+    return League(
+        name=doc.league.name,
+        season=doc.league.season,
+        timezone=doc.league.timezone,
+        teams=teams,
+        venues=venues,
+        format=Format(
+            legs=fmt.legs,
+            scheme=fmt.scheme,  # type: ignore[arg-type]
+            home_meaning=fmt.home_meaning,  # type: ignore[arg-type]
+            side_labels=(fmt.side_labels[0], fmt.side_labels[1]),
+        ),
+        calendar=calendar,
+        rules=rules,
+        priorities=priorities_of(doc),
+        seed=doc.league.seed,
+        solve_seconds=float(doc.league.solve_seconds),
+        source=source,
+    )

@@ -1,0 +1,322 @@
+"""The shape of a league file, as pydantic v2 models (one model per section).
+
+These models check the *shape* of the file: known option names only (``extra="forbid"``), the
+right kind of value (strict types: ``legs = "2"`` is refused, not guessed), simple ranges. Names
+that must refer to other parts of the file (a team's home venue, the teams of a fixed fixture),
+dates that must fall inside the season and rules that contradict each other are checked
+afterwards by :mod:`scheduler.config.checks`, which knows the whole league.
+
+A few friendly spellings are accepted and converted here, before the strict check:
+
+- dates as TOML/YAML dates (``2027-04-17``) or ISO text (``"2027-04-17"``); in lists of dates also a
+  range ``"2027-07-01..2027-08-31"`` (both ends included);
+- times of day as TOML times (``19:30:00``) or text ``"19:30"`` / ``"19:30:00"``;
+- weekdays by name (``"sat"``, ``"Saturday"``) or number (0 = Monday ... 6 = Sunday, as Python's
+  :meth:`datetime.date.weekday`), and a single weekday instead of a list;
+- ``league.season`` as a number (``2027``), kept as the text ``"2027"``.
+
+The option names are the project's own (see ``templates/league.toml`` for every option explained).
+"""
+
+from __future__ import annotations
+
+import datetime as dt
+import re
+from difflib import get_close_matches
+from typing import Annotated, Any
+
+from pydantic import AfterValidator, BaseModel, BeforeValidator, ConfigDict, Field
+from pydantic_core import PydanticCustomError
+
+SCHEMES = ("mirrored", "french", "english", "inverted", "free")
+HOME_MEANINGS = ("venue", "side")
+GOALS = ("mixing", "breaks", "venue_balance", "slot_balance", "carry_over")
+
+WEEKDAY_NAMES = {
+    "mon": 0, "monday": 0,
+    "tue": 1, "tues": 1, "tuesday": 1,
+    "wed": 2, "wednesday": 2,
+    "thu": 3, "thur": 3, "thurs": 3, "thursday": 3,
+    "fri": 4, "friday": 4,
+    "sat": 5, "saturday": 5,
+    "sun": 6, "sunday": 6,
+}  # fmt: skip
+
+MAX_RANGE_DAYS = 3660
+"""Longest date range accepted in one ``"A..B"`` entry (about ten years)."""
+
+
+def _fail(text: str) -> PydanticCustomError:
+    """A validation error whose message is exactly ``text`` (no template formatting)."""
+    return PydanticCustomError("config", "{text}", {"text": text})
+
+
+def show(value: Any) -> str:
+    """A short, readable rendering of a value from the file, for error messages."""
+    if isinstance(value, str):
+        text = repr(value) if len(value) <= 60 else repr(value[:57] + "...")
+    elif isinstance(value, bool):
+        text = "true" if value else "false"
+    elif isinstance(value, dt.date | dt.time):
+        text = value.isoformat()
+    elif isinstance(value, dict):
+        text = "a section {...}"
+    elif isinstance(value, list | tuple):
+        text = "a list [...]"
+    elif value is None:
+        text = "nothing (null)"
+    else:
+        text = str(value)
+        if len(text) > 60:
+            text = text[:57] + "..."
+    return text
+
+
+def suggestion(word: str, options: list[str] | tuple[str, ...]) -> str:
+    """``"; did you mean 'x'?"`` for the closest option (difflib), or ``""``."""
+    if not isinstance(word, str) or not options:
+        return ""
+    lowered = {o.lower(): o for o in options}
+    if word.lower() in lowered and lowered[word.lower()] != word:
+        return f"; did you mean {lowered[word.lower()]!r}?"
+    close = get_close_matches(word, list(options), n=1, cutoff=0.6)
+    if not close:
+        close = get_close_matches(word.lower(), list(lowered), n=1, cutoff=0.6)
+        close = [lowered[c] for c in close]
+    return f"; did you mean {close[0]!r}?" if close else ""
+
+
+# ---- converters (run before the strict type check) -------------------------------------------
+
+
+def _as_list(value: Any) -> Any:
+    return list(value) if isinstance(value, tuple) else value
+
+
+def _scalar_or_list(value: Any) -> Any:
+    if isinstance(value, str | int) and not isinstance(value, bool):
+        return [value]
+    return _as_list(value)
+
+
+def _parse_date(value: Any) -> dt.date:
+    if isinstance(value, dt.datetime):
+        raise _fail(f"expected a date without a time of day, got {show(value)}")
+    if isinstance(value, dt.date):
+        return value
+    if isinstance(value, str):
+        try:
+            return dt.date.fromisoformat(value.strip())
+        except ValueError:
+            pass
+        raise _fail(f"expected a date like 2027-04-17, got {show(value)}")
+    raise _fail(f"expected a date like 2027-04-17, got {show(value)}")
+
+
+def _date(value: Any) -> dt.date:
+    return _parse_date(value)
+
+
+def _date_or_range(value: Any) -> tuple[dt.date, ...]:
+    if isinstance(value, str) and ".." in value:
+        first, _, last = value.partition("..")
+        try:
+            a, b = dt.date.fromisoformat(first.strip()), dt.date.fromisoformat(last.strip())
+        except ValueError:
+            raise _fail(
+                f"expected a date range like \"2027-07-01..2027-08-31\", got {show(value)}"
+            ) from None
+        if b < a:
+            raise _fail(f"the range {show(value)} ends before it starts")
+        days = (b - a).days + 1
+        if days > MAX_RANGE_DAYS:
+            raise _fail(f"the range {show(value)} is longer than {MAX_RANGE_DAYS} days")
+        return tuple(a + dt.timedelta(days=i) for i in range(days))
+    return (_parse_date(value),)
+
+
+_TIME_RE = re.compile(r"^\s*(\d{1,2}):(\d{2})(?::(\d{2}))?\s*$")
+
+
+def _time(value: Any) -> dt.time:
+    if isinstance(value, dt.time):
+        if value.tzinfo is not None:
+            raise _fail(
+                f"give the time without a UTC offset ({show(value)}); "
+                "league.timezone says which clock is meant"
+            )
+        return value
+    if isinstance(value, str):
+        m = _TIME_RE.match(value)
+        if m:
+            h, mi, s = int(m.group(1)), int(m.group(2)), int(m.group(3) or 0)
+            if h < 24 and mi < 60 and s < 60:
+                return dt.time(h, mi, s)
+    raise _fail(f"expected a time of day like \"19:30\", got {show(value)}")
+
+
+def _weekday(value: Any) -> int:
+    if isinstance(value, int) and not isinstance(value, bool):
+        if 0 <= value <= 6:
+            return value
+        raise _fail(f"weekday numbers go from 0 (Monday) to 6 (Sunday), got {value}")
+    if isinstance(value, str):
+        key = value.strip().lower()
+        if key in WEEKDAY_NAMES:
+            return WEEKDAY_NAMES[key]
+        names = ["mon", "tue", "wed", "thu", "fri", "sat", "sun"]
+        hint = suggestion(key, list(WEEKDAY_NAMES)) or f"; use one of {', '.join(names)}"
+        raise _fail(f"{show(value)} is not a weekday{hint}")
+    raise _fail(f"expected a weekday like \"sat\" or a number 0-6, got {show(value)}")
+
+
+def _season(value: Any) -> Any:
+    if isinstance(value, int) and not isinstance(value, bool):
+        return str(value)
+    return value
+
+
+def _choice(options: tuple[str, ...], what: str):
+    def check(value: Any) -> str:
+        if isinstance(value, str) and value in options:
+            return value
+        if isinstance(value, str):
+            hint = suggestion(value, options)
+            raise _fail(f"{show(value)} is not a {what}{hint} (choose from {', '.join(options)})")
+        raise _fail(f"expected one of {', '.join(options)}, got {show(value)}")
+
+    return check
+
+
+def _strip_nonempty(value: str) -> str:
+    text = value.strip()
+    if not text:
+        raise ValueError("must not be empty")
+    return text
+
+
+# ---- reusable field types --------------------------------------------------------------------
+
+Text = Annotated[str, AfterValidator(_strip_nonempty)]
+Date = Annotated[dt.date, BeforeValidator(_date)]
+DateList = Annotated[
+    list[Annotated[tuple[dt.date, ...], BeforeValidator(_date_or_range)]],
+    BeforeValidator(_as_list),
+]
+"""A list of dates; each entry is kept as a tuple (one date, or every date of a range)."""
+Clock = Annotated[dt.time, BeforeValidator(_time)]
+Weekday = Annotated[int, BeforeValidator(_weekday)]
+TextList = Annotated[list[Text], BeforeValidator(_as_list)]
+Count = Annotated[int, Field(ge=1)]
+NonNegative = Annotated[int, Field(ge=0)]
+
+
+class Section(BaseModel):
+    """Base of every section: unknown options are errors, types are strict, values frozen."""
+
+    model_config = ConfigDict(extra="forbid", strict=True, frozen=True)
+
+
+class LeagueSection(Section):
+    name: Text
+    season: Annotated[Text, BeforeValidator(_season)]
+    timezone: Text
+    seed: NonNegative = 0
+    solve_seconds: Annotated[float, Field(gt=0, le=86400)] = 10.0
+
+
+class FormatSection(Section):
+    legs: Annotated[int, Field(ge=1, le=12)] = 1
+    scheme: Annotated[str, BeforeValidator(_choice(SCHEMES, "scheme"))] = "mirrored"
+    home_meaning: Annotated[
+        str, BeforeValidator(_choice(HOME_MEANINGS, "meaning of home"))
+    ] = "venue"
+    side_labels: Annotated[
+        list[Text], BeforeValidator(_as_list), Field(min_length=2, max_length=2)
+    ] = ["Home", "Away"]
+
+
+class HolidaysSection(Section):
+    country: Text
+    subdivision: Text | None = None
+
+
+class CalendarSection(Section):
+    start: Date | None = None
+    end: Date | None = None
+    weekdays: Annotated[
+        list[Weekday], BeforeValidator(_scalar_or_list), Field(min_length=1)
+    ] = [5]
+    rounds_per_day: Annotated[int, Field(ge=1, le=64)] = 1
+    kickoff: Clock = dt.time(15, 0)
+    game_minutes: Annotated[int, Field(ge=1, le=24 * 60)] = 90
+    excluded: DateList = []
+    dates: DateList = []
+    holidays: HolidaysSection | None = None
+
+
+class VenueSection(Section):
+    name: Text
+    courts: Annotated[TextList, Field(min_length=1)] = ["Main"]
+    slots: Annotated[list[Clock], BeforeValidator(_as_list)] = []
+    address: Text | None = None
+
+
+class TeamSection(Section):
+    name: Text
+    code: Text | None = None
+    home_venue: Text | None = None
+
+
+class TeamDatesSection(Section):
+    team: Text
+    dates: Annotated[DateList, Field(min_length=1)]
+
+
+class FixedSection(Section):
+    home: Text
+    away: Text
+    round: Annotated[int, Field(ge=1)] | None = None
+    date: Date | None = None
+    any_venue: bool = False
+
+
+class RulesSection(Section):
+    max_home_run: Count | None = None
+    max_away_run: Count | None = None
+    no_breaks_first: NonNegative = 0
+    no_breaks_last: NonNegative = 0
+    min_rest_days: NonNegative | None = None
+    min_separation: NonNegative | None = None
+    shared_grounds: Annotated[list[TextList], BeforeValidator(_as_list)] = []
+    unavailable: Annotated[list[TeamDatesSection], BeforeValidator(_as_list)] = []
+    no_home_games: Annotated[list[TeamDatesSection], BeforeValidator(_as_list)] = []
+    fixed: Annotated[list[FixedSection], BeforeValidator(_as_list)] = []
+
+
+class PrioritiesSection(Section):
+    mixing: NonNegative | None = None
+    breaks: NonNegative | None = None
+    venue_balance: NonNegative | None = None
+    slot_balance: NonNegative | None = None
+    carry_over: NonNegative | None = None
+    order: (
+        Annotated[
+            list[Annotated[str, BeforeValidator(_choice(GOALS, "goal"))]],
+            BeforeValidator(_as_list),
+            Field(min_length=1),
+        ]
+        | None
+    ) = None
+
+
+class LeagueFile(Section):
+    """A whole league file."""
+
+    league: LeagueSection
+    format: FormatSection = FormatSection()
+    calendar: CalendarSection
+    venues: Annotated[list[VenueSection], BeforeValidator(_as_list)] = []
+    teams: Annotated[list[TeamSection], BeforeValidator(_as_list), Field(min_length=2)]
+    rules: RulesSection = RulesSection()
+    priorities: PrioritiesSection = PrioritiesSection()

@@ -49,9 +49,14 @@ def _undo(mark, end, size, trail_t, trail_v, trail_e, trail_s, top):
 
 
 @numba.njit(cache=True)
-def search_kernel(m, add, neg, mulu, reps, seed, node_limit, out_pairs):
-    """Returns ``(status, nodes)``: status 1 found (pairs in ``out_pairs``), 0 node limit hit,
-    -1 search space exhausted (no multiplier-invariant perfect starter exists)."""
+def search_kernel(m, add, neg, mulu, reps, weights, max_bad, seed, node_limit, out_pairs):
+    """Returns ``(status, nodes, bad)``: status 1 found (pairs in ``out_pairs``), 0 node limit
+    hit, -1 search space exhausted (no such multiplier-invariant starter exists).
+
+    A representative ``reps[t]`` whose union closes a short cycle becomes *bad* and costs
+    ``weights[t]``; a partial starter is refused once the bad weight exceeds ``max_bad``
+    (``max_bad = 0``: perfect starters only). ``bad`` is the bad weight of the starter found.
+    """
     np.random.seed(seed)
     n = m + 1
     inf = m
@@ -84,6 +89,8 @@ def search_kernel(m, add, neg, mulu, reps, seed, node_limit, out_pairs):
     op = np.empty((maxd, m, 2), np.int32)
     opn = np.zeros(maxd, np.int32)
 
+    bad_depth = np.full(T, -1, np.int32)
+    badw = 0
     depth = 0
     nodes = 0
     need_gen = True
@@ -99,7 +106,7 @@ def search_kernel(m, add, neg, mulu, reps, seed, node_limit, out_pairs):
                         out_pairs[k, 0] = op[d, j, 0]
                         out_pairs[k, 1] = op[d, j, 1]
                         k += 1
-                return 1, nodes
+                return 1, nodes, badw
             c = 0
             for y in range(1, m):
                 if y != x and not used[y] and not dused[add[x, neg[y]]]:
@@ -116,9 +123,13 @@ def search_kernel(m, add, neg, mulu, reps, seed, node_limit, out_pairs):
             need_gen = False
         if ci[depth] >= ncand[depth]:
             if depth == 0:
-                return -1, nodes
+                return -1, nodes, badw
             depth -= 1
             _undo(mark[depth], end, size, trail_t, trail_v, trail_e, trail_s, top)
+            for t in range(T):
+                if bad_depth[t] == depth:
+                    bad_depth[t] = -1
+                    badw -= weights[t]
             for j in range(opn[depth]):
                 a = op[depth, j, 0]
                 b = op[depth, j, 1]
@@ -133,7 +144,7 @@ def search_kernel(m, add, neg, mulu, reps, seed, node_limit, out_pairs):
         ci[depth] += 1
         nodes += 1
         if nodes > node_limit:
-            return 0, nodes
+            return 0, nodes, badw
         # orbit of the pair {x, y} under the multiplier
         k = 0
         a = x
@@ -168,17 +179,26 @@ def search_kernel(m, add, neg, mulu, reps, seed, node_limit, out_pairs):
                 pa = op[depth, j, 0]
                 pb = op[depth, j, 1]
                 for t in range(T):
+                    if bad_depth[t] >= 0:
+                        continue
                     g = reps[t]
-                    if not _add_edge(t, pa, pb, n, end, size,
-                                     trail_t, trail_v, trail_e, trail_s, top):
-                        ok = False
-                        break
-                    if not _add_edge(t, add[pa, g], add[pb, g], n, end, size,
-                                     trail_t, trail_v, trail_e, trail_s, top):
-                        ok = False
-                        break
+                    if not (
+                        _add_edge(t, pa, pb, n, end, size,
+                                  trail_t, trail_v, trail_e, trail_s, top)
+                        and _add_edge(t, add[pa, g], add[pb, g], n, end, size,
+                                      trail_t, trail_v, trail_e, trail_s, top)
+                    ):
+                        bad_depth[t] = depth
+                        badw += weights[t]
+                        if badw > max_bad:
+                            ok = False
+                            break
             if not ok:
                 _undo(mark[depth], end, size, trail_t, trail_v, trail_e, trail_s, top)
+                for t in range(T):
+                    if bad_depth[t] == depth:
+                        bad_depth[t] = -1
+                        badw -= weights[t]
         if not ok:
             for j in range(k):
                 a = op[depth, j, 0]

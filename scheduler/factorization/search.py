@@ -72,25 +72,48 @@ def luby(i: int) -> int:
             k += 1
 
 
-def orbit_representatives(group: AbelianGroup, multiplier: int = 1) -> list[int]:
-    """One element (the smallest code) of each orbit of ``<x -> -x, x -> u x>`` on ``G \\ {0}``."""
+def multiplier_orbits(group: AbelianGroup, multiplier: int = 1) -> list[tuple[int, int]]:
+    """``(representative, size)`` for each orbit of ``<x -> -x, x -> u x>`` on ``G \\ {0}``
+    (the representative is the smallest code in the orbit)."""
     m = group.order
     mulu = group.multiplier(multiplier) if multiplier != 1 % m else np.arange(m)
     seen = np.zeros(m, dtype=bool)
-    reps = []
+    out = []
     for g in range(1, m):
         if seen[g]:
             continue
-        reps.append(g)
         stack = [g]
         seen[g] = True
+        count = 0
         while stack:
             x = stack.pop()
+            count += 1
             for y in (int(group.neg[x]), int(mulu[x])):
                 if not seen[y]:
                     seen[y] = True
                     stack.append(y)
-    return reps
+        out.append((g, count))
+    return out
+
+
+def orbit_representatives(group: AbelianGroup, multiplier: int = 1) -> list[int]:
+    """One element (the smallest code) of each orbit of ``<x -> -x, x -> u x>`` on ``G \\ {0}``."""
+    return [g for g, _ in multiplier_orbits(group, multiplier)]
+
+
+def kernel_arrays(group: AbelianGroup, multiplier: int = 1):
+    """``(add, neg, mulu, reps, weights)`` as int32 arrays for the numba kernel; ``weights[t]``
+    is the number of classes ``{g, -g}`` in the orbit of ``reps[t]``."""
+    m = group.order
+    mulu = group.multiplier(multiplier) if multiplier != 1 % m else np.arange(m)
+    orbits = multiplier_orbits(group, multiplier)
+    return (
+        np.ascontiguousarray(group.add, dtype=np.int32),
+        np.ascontiguousarray(group.neg, dtype=np.int32),
+        np.ascontiguousarray(mulu, dtype=np.int32),
+        np.array([g for g, _ in orbits], dtype=np.int32),
+        np.array([size // 2 for _, size in orbits], dtype=np.int32),
+    )
 
 
 def _run_seed(seed: int, run: int) -> int:
@@ -122,18 +145,15 @@ def search_perfect_starter(
 
     m = group.order
     start = time.perf_counter()
-    mulu = (group.multiplier(multiplier) if multiplier != 1 % m else np.arange(m)).astype(
-        np.int32
-    )
-    reps = np.array(orbit_representatives(group, multiplier), dtype=np.int32)
-    add = np.ascontiguousarray(group.add, dtype=np.int32)
-    neg = np.ascontiguousarray(group.neg, dtype=np.int32)
+    add, neg, mulu, reps, weights = kernel_arrays(group, multiplier)
     out = np.zeros(((m - 1) // 2, 2), dtype=np.int32)
     runs = nodes = 0
     while True:
         runs += 1
         limit = min(max_run_nodes, base_nodes * luby(runs))
-        status, used = search_kernel(m, add, neg, mulu, reps, _run_seed(seed, runs), limit, out)
+        status, used, _ = search_kernel(
+            m, add, neg, mulu, reps, weights, 0, _run_seed(seed, runs), limit, out
+        )
         nodes += int(used)
         elapsed = time.perf_counter() - start
         if status == 1:

@@ -1,0 +1,37 @@
+"""Season outputs: CSV, spreadsheet workbook, iCalendar feeds, the HTML report, and the writer
+of a whole output folder. One format per module; exporters never compute fairness figures
+themselves, they write what ``scheduler.fairness`` measured.
+
+* ``csv_out``: :func:`fixtures_csv` (RFC 4180 text)
+* ``xlsx``: :func:`write_workbook` (openpyxl; identical bytes for the same season)
+* ``ics``: :func:`league_calendar`, :func:`team_calendar` (RFC 5545, stable UIDs, SEQUENCE)
+* ``report``: :func:`render_report` (one self-contained HTML page)
+* ``bundle``: :func:`write_season_outputs` (the output folder, every file written atomically)
+* ``safety``: formula-injection defence, safe file names, atomic writes
+* ``season_json`` / ``readers``: the season file and schedule readers
+"""
+
+from scheduler.export.csv_out import fixtures_csv
+from scheduler.export.ics import CalendarState, league_calendar, plan_calendar, team_calendar
+from scheduler.export.safety import (
+    atomic_write_bytes,
+    atomic_write_text,
+    neutralise_cell,
+    restore_cell,
+    safe_filename,
+)
+from scheduler.export.xlsx import write_workbook
+
+__all__ = [
+    "CalendarState",
+    "atomic_write_bytes",
+    "atomic_write_text",
+    "fixtures_csv",
+    "league_calendar",
+    "neutralise_cell",
+    "plan_calendar",
+    "restore_cell",
+    "safe_filename",
+    "team_calendar",
+    "write_workbook",
+]

@@ -1,0 +1,193 @@
+"""Safe output: inert spreadsheet cells, safe file and sheet names, atomic file writes.
+
+* :func:`neutralise_cell` makes user text inert in CSV and spreadsheet cells. A cell that starts
+  with ``=``, ``+``, ``-``, ``@``, a tab or a carriage return may be run as a formula by a
+  spreadsheet program ("CSV injection" / "formula injection"). The defence is common practice,
+  described in the OWASP Foundation's "CSV Injection" page: prefix such a cell with a single
+  quote so the program shows it as text. We also prefix a cell that already *looks* neutralised
+  (a quote followed by such a cell), which makes the change reversible (:func:`restore_cell`).
+* :func:`safe_filename` turns any team name into a file-name stem that is valid on Windows,
+  macOS and Linux (ASCII letters, digits and ``-`` only; no reserved device names such as
+  ``CON`` or ``NUL``, following Microsoft's "Naming Files, Paths, and Namespaces"), and that
+  differs for different names, including names that differ only in letter case.
+* :func:`safe_sheet_title` makes a valid, unique worksheet title (at most 31 characters, none of
+  ``[ ] : * ? / \\``; the limits Excel enforces and openpyxl checks).
+* :func:`atomic_write_bytes` / :func:`atomic_write_text` write a temporary file in the target's
+  folder, flush and ``fsync`` it, then ``os.replace`` it over the target (atomic on POSIX and on
+  Windows for files on one volume, per the Python documentation of ``os.replace``), so a reader
+  never sees half a file.
+"""
+
+from __future__ import annotations
+
+import contextlib
+import hashlib
+import os
+import re
+import tempfile
+import unicodedata
+from collections.abc import Iterable
+from pathlib import Path
+
+FORMULA_TRIGGERS = ("=", "+", "-", "@", "\t", "\r")
+"""First characters that make a spreadsheet treat a cell as a formula (OWASP, common practice)."""
+
+_QUOTE = "'"
+
+
+def _needs_quote(text: str) -> bool:
+    if text.startswith(FORMULA_TRIGGERS):
+        return True
+    return text.startswith(_QUOTE) and _needs_quote(text[1:])
+
+
+def neutralise_cell(text: str | None) -> str | None:
+    """Make one cell of user text inert: prefix ``'`` when it could start a formula.
+
+    ``None`` stays ``None``. Text that cannot start a formula is returned unchanged.
+    """
+    if text is None:
+        return None
+    return _QUOTE + text if _needs_quote(text) else text
+
+
+def restore_cell(text: str | None) -> str | None:
+    """Undo :func:`neutralise_cell` exactly (``restore_cell(neutralise_cell(t)) == t``)."""
+    if text is None:
+        return None
+    if text.startswith(_QUOTE) and _needs_quote(text[1:]):
+        return text[1:]
+    return text
+
+
+_RESERVED = frozenset(
+    ["con", "prn", "aux", "nul", "clock$", "conin$", "conout$"]
+    + [f"com{i}" for i in "0123456789¹²³"]
+    + [f"lpt{i}" for i in "0123456789¹²³"]
+)
+"""Windows device names (case-insensitive, with or without an extension)."""
+
+_HASHED = re.compile(r"-[0-9a-f]{8}$")
+_MAX_SLUG = 40
+
+
+def _digest(name: str, length: int = 8) -> str:
+    return hashlib.sha256(name.encode("utf-8")).hexdigest()[:length]
+
+
+def _slug(name: str) -> str:
+    ascii_text = unicodedata.normalize("NFKD", name).encode("ascii", "ignore").decode("ascii")
+    slug = re.sub(r"[^a-z0-9]+", "-", ascii_text.lower()).strip("-")
+    return slug[:_MAX_SLUG].rstrip("-")
+
+
+def safe_filename(name: str) -> str:
+    """A cross-platform file-name stem for ``name`` (no extension, no path separator).
+
+    The stem is a lower-case ASCII slug. When the slug is not exactly ``name`` (letters changed,
+    characters dropped, or cut short), or it is a reserved device name, or it could be mistaken
+    for a hashed stem, ``-`` and the first 8 hex digits of the name's SHA-256 are added. So two
+    different names give two different stems (up to a 32-bit hash collision), also on
+    case-insensitive file systems: a stem without hash is the name itself, a stem with hash
+    ends in the hash pattern, and those two kinds never meet.
+    """
+    slug = _slug(name)
+    if slug and slug == name and slug not in _RESERVED and not _HASHED.search(slug):
+        return slug
+    return f"{slug or 'team'}-{_digest(name)}"
+
+
+def safe_filenames(names: Iterable[str]) -> dict[str, str]:
+    """:func:`safe_filename` of each name, checked to be unique (case-insensitive)."""
+    result: dict[str, str] = {}
+    seen: dict[str, str] = {}
+    for name in names:
+        stem = safe_filename(name)
+        key = stem.lower()
+        if key in seen and seen[key] != name:
+            stem = f"{_slug(name) or 'team'}-{_digest(name, 16)}"
+            key = stem.lower()
+        seen[key] = name
+        result[name] = stem
+    return result
+
+
+_SHEET_BAD = re.compile(r"[\[\]:*?/\\\x00-\x1f]")
+_SHEET_MAX = 31
+
+
+def safe_sheet_title(name: str, taken: set[str]) -> str:
+    """A valid worksheet title for ``name`` that is not in ``taken`` (compared case-insensitively).
+
+    The chosen title is added to ``taken`` (as lower case). Titles may not be empty, may not
+    start or end with an apostrophe, and "History" is reserved by Excel.
+    """
+    title = _SHEET_BAD.sub("_", name).strip().strip("'").strip() or "Team"
+    if title.lower() == "history":
+        title = "History team"
+    title = title[:_SHEET_MAX].rstrip().rstrip("'")
+    if title.lower() in taken:
+        tail = f" ~{_digest(name, 6)}"
+        title = title[: _SHEET_MAX - len(tail)].rstrip().rstrip("'") + tail
+        counter = 2
+        while title.lower() in taken:
+            tail = f" ~{_digest(name, 6)}{counter}"
+            title = title[: _SHEET_MAX - len(tail)].rstrip().rstrip("'") + tail
+            counter += 1
+    taken.add(title.lower())
+    return title
+
+
+def atomic_write_bytes(path: str | os.PathLike[str], data: bytes) -> Path:
+    """Write ``data`` to ``path`` atomically (temp file in the same folder, fsync, os.replace).
+
+    The folder must exist. On any failure the temporary file is removed and the old file, if
+    any, is left untouched.
+    """
+    target = Path(path)
+    folder = target.parent
+    fd, tmp_name = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".tmp", dir=folder)
+    try:
+        with os.fdopen(fd, "wb") as handle:
+            handle.write(data)
+            handle.flush()
+            os.fsync(handle.fileno())
+        os.chmod(tmp_name, _file_mode(target))
+        os.replace(tmp_name, target)
+    except BaseException:
+        with contextlib.suppress(OSError):
+            os.unlink(tmp_name)
+        raise
+    _fsync_folder(folder)
+    return target
+
+
+def atomic_write_text(path: str | os.PathLike[str], text: str, encoding: str = "utf-8") -> Path:
+    """:func:`atomic_write_bytes` of ``text`` encoded (UTF-8 by default); newlines kept as given."""
+    return atomic_write_bytes(path, text.encode(encoding))
+
+
+def _file_mode(target: Path) -> int:
+    """The mode an ordinary new file would get (mkstemp makes 0600), or the old file's mode."""
+    try:
+        return target.stat().st_mode & 0o777
+    except OSError:
+        mask = os.umask(0)
+        os.umask(mask)
+        return 0o666 & ~mask
+
+
+def _fsync_folder(folder: Path) -> None:
+    """Make the rename durable on POSIX; folders cannot be opened this way on Windows."""
+    if os.name != "posix":
+        return
+    try:
+        fd = os.open(folder, os.O_RDONLY)
+    except OSError:
+        return
+    try:
+        os.fsync(fd)
+    except OSError:
+        pass
+    finally:
+        os.close(fd)

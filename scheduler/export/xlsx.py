@@ -1,0 +1,346 @@
+"""The season as a spreadsheet workbook (Office Open XML, ECMA-376), written with openpyxl.
+
+Sheets: ``Fixtures`` (every game), ``Grid`` (team by round: opponent and home/away, byes shown),
+``Fairness`` (the figures of a :class:`~scheduler.fairness.FairnessReport`, written as given:
+this module computes no figure itself) and one sheet per team. Dates and kick-off times are real
+date and time cells with number formats, so they sort and filter as dates. Every sheet has a
+frozen header row, an autofilter where it is a table, column widths fitted to the text, the
+header row repeated on printed pages and a landscape, fit-to-width page setup.
+
+User text (team, venue, court and slot names) goes through
+:func:`~scheduler.export.safety.neutralise_cell` (formula-injection defence, common practice
+after OWASP "CSV Injection"), and characters that XML 1.0 forbids are replaced by U+FFFD.
+
+Byte-identical output: openpyxl stamps ``modified`` with the clock and the zip members with the
+local time. :func:`workbook_bytes` sets the document properties to a time derived from the season
+(:func:`scheduler.export.ics.plan_stamp`) and writes the archive through a zip writer that gives
+every member the same fixed timestamp, so the same season gives the same bytes.
+"""
+
+from __future__ import annotations
+
+import io
+import os
+import zipfile
+from collections.abc import Sequence
+from pathlib import Path
+
+from openpyxl import Workbook
+from openpyxl.cell.cell import ILLEGAL_CHARACTERS_RE
+from openpyxl.styles import Alignment, Border, Font, PatternFill, Side
+from openpyxl.utils import get_column_letter
+from openpyxl.worksheet.worksheet import Worksheet
+from openpyxl.writer.excel import ExcelWriter
+
+from scheduler.export.csv_out import fixture_rows
+from scheduler.export.ics import plan_stamp
+from scheduler.export.safety import atomic_write_bytes, neutralise_cell, safe_sheet_title
+from scheduler.season import Season
+
+DATE_FORMAT = "yyyy-mm-dd"
+TIME_FORMAT = "hh:mm"
+_ZIP_TIME = (1980, 1, 1, 0, 0, 0)
+
+# Our own plain style: a neutral warm-grey header with a dark rule beneath it.
+_HEADER_FILL = PatternFill("solid", fgColor="E4E2DC")
+_HEADER_FONT = Font(bold=True, color="222222")
+_HEADER_BORDER = Border(bottom=Side(style="medium", color="555555"))
+_HOME_FILL = PatternFill("solid", fgColor="DDE8F3")
+_AWAY_FILL = PatternFill("solid", fgColor="F7E6CF")
+_BYE_FILL = PatternFill("gray125", fgColor="BBBBBB")
+_WRAP = Alignment(wrap_text=True, vertical="top")
+
+FIXTURE_HEADERS = ("Round", "Leg", "Date", "Kick-off", "Home", "Away", "Venue", "Court", "Slot")
+
+
+def user_text(value: str | None) -> str | None:
+    """A cell of user text: neutralised and free of characters XML 1.0 cannot hold."""
+    if value is None:
+        return None
+    return neutralise_cell(ILLEGAL_CHARACTERS_RE.sub("\ufffd", value))
+
+
+class _FixedTimeZip(zipfile.ZipFile):
+    """A zip writer that stamps every member with one fixed time (for identical bytes)."""
+
+    def writestr(self, zinfo_or_arcname, data, compress_type=None, compresslevel=None):
+        if not isinstance(zinfo_or_arcname, zipfile.ZipInfo):
+            info = zipfile.ZipInfo(str(zinfo_or_arcname), date_time=_ZIP_TIME)
+            info.compress_type = zipfile.ZIP_DEFLATED
+            info.external_attr = 0o644 << 16
+            zinfo_or_arcname = info
+        return super().writestr(zinfo_or_arcname, data, compress_type, compresslevel)
+
+    def write(self, filename, arcname=None, compress_type=None, compresslevel=None):
+        # openpyxl streams each worksheet through a temporary file and adds it with write(),
+        # which would record that file's modification time.
+        with open(filename, "rb") as handle:
+            data = handle.read()
+        return self.writestr(arcname or os.path.basename(filename), data)
+
+
+def _header(ws: Worksheet, headers: Sequence[str], row: int = 1) -> None:
+    for col, text in enumerate(headers, start=1):
+        cell = ws.cell(row=row, column=col, value=text)
+        cell.fill = _HEADER_FILL
+        cell.font = _HEADER_FONT
+        cell.border = _HEADER_BORDER
+        cell.alignment = Alignment(vertical="center")
+
+
+def _finish(ws: Worksheet, *, header_row: int = 1, freeze: str = "A2", table: bool = True) -> None:
+    """Frozen header, autofilter, fitted widths, print titles, landscape fit-to-width."""
+    ws.freeze_panes = freeze
+    if table and ws.max_row > header_row:
+        ws.auto_filter.ref = f"A{header_row}:{get_column_letter(ws.max_column)}{ws.max_row}"
+    widths: dict[int, int] = {}
+    for row in ws.iter_rows():
+        for cell in row:
+            if cell.value is None:
+                continue
+            text = "2026-01-01" if cell.is_date else str(cell.value)
+            length = max(len(line) for line in text.split("\n"))
+            widths[cell.column] = max(widths.get(cell.column, 0), length)
+    for col, length in widths.items():
+        ws.column_dimensions[get_column_letter(col)].width = min(max(length + 2, 6), 48)
+    ws.print_title_rows = f"{header_row}:{header_row}"
+    ws.page_setup.orientation = "landscape"
+    ws.page_setup.fitToWidth = 1
+    ws.page_setup.fitToHeight = 0
+    ws.sheet_properties.pageSetUpPr.fitToPage = True
+    ws.print_options.gridLines = True
+
+
+def _fixtures_sheet(ws: Worksheet, season: Season) -> None:
+    _header(ws, FIXTURE_HEADERS)
+    for r, row in enumerate(fixture_rows(season), start=2):
+        f = row.fixture
+        values = (
+            f.round,
+            f.leg,
+            row.date,
+            row.time,
+            user_text(f.home),
+            user_text(f.away),
+            user_text(f.venue),
+            user_text(f.court),
+            user_text(f.slot),
+        )
+        for c, value in enumerate(values, start=1):
+            cell = ws.cell(row=r, column=c, value=value)
+            if c == 3 and value is not None:
+                cell.number_format = DATE_FORMAT
+            elif c == 4 and value is not None:
+                cell.number_format = TIME_FORMAT
+            elif c >= 5 and value and "\n" in value:
+                cell.alignment = _WRAP
+    _finish(ws)
+
+
+def _grid_sheet(ws: Worksheet, season: Season, side_labels: tuple[str, str]) -> None:
+    rounds = season.rounds
+    _header(ws, ["Team", *[f"R{r}" for r in range(1, rounds + 1)]])
+    cells: dict[tuple[str, int], list[tuple[str, str]]] = {}
+    for f in season.fixtures:
+        cells.setdefault((f.home, f.round), []).append((side_labels[0], f.away))
+        cells.setdefault((f.away, f.round), []).append((side_labels[1], f.home))
+    for r, team in enumerate(season.teams, start=2):
+        name_cell = ws.cell(row=r, column=1, value=user_text(team))
+        name_cell.font = Font(bold=True)
+        for number in range(1, rounds + 1):
+            games = cells.get((team, number), [])
+            cell = ws.cell(row=r, column=number + 1)
+            if not games:
+                cell.value = "bye"
+                cell.fill = _BYE_FILL
+                continue
+            cell.value = user_text(
+                "\n".join(f"{opp} ({side})" for side, opp in sorted(games, key=lambda g: g[1]))
+            )
+            if len(games) == 1:
+                cell.fill = _HOME_FILL if games[0][0] == side_labels[0] else _AWAY_FILL
+            if "\n" in cell.value:
+                cell.alignment = _WRAP
+    _finish(ws, freeze="B2", table=False)
+
+
+def _team_sheet(ws: Worksheet, season: Season, team: str, side_labels: tuple[str, str]) -> None:
+    _header(ws, ["Round", "Leg", "Date", "Kick-off", "Side", "Opponent", "Venue", "Court", "Slot"])
+    rows = [row for row in fixture_rows(season) if team in row.fixture.teams]
+    entries: list[tuple[int, tuple]] = []
+    for row in rows:
+        f = row.fixture
+        home = f.home == team
+        entries.append(
+            (
+                f.round,
+                (
+                    f.round,
+                    f.leg,
+                    row.date,
+                    row.time,
+                    side_labels[0] if home else side_labels[1],
+                    user_text(f.away if home else f.home),
+                    user_text(f.venue),
+                    user_text(f.court),
+                    user_text(f.slot),
+                ),
+            )
+        )
+    for number, teams in season.byes.items():
+        if team in teams:
+            entries.append((number, (number, None, None, None, "bye", None, None, None, None)))
+    entries.sort(key=lambda e: (e[0], e[1][4] == "bye"))
+    for r, (_, values) in enumerate(entries, start=2):
+        for c, value in enumerate(values, start=1):
+            cell = ws.cell(row=r, column=c, value=value)
+            if c == 3 and value is not None:
+                cell.number_format = DATE_FORMAT
+            elif c == 4 and value is not None:
+                cell.number_format = TIME_FORMAT
+            if values[4] == "bye":
+                cell.fill = _BYE_FILL
+    _finish(ws)
+
+
+_CARRY_SOURCE = (
+    "lower bound n(n-1): Russell, Biometrika 67 (1980) 127-131; upper bound (n-1)(n²-6n+12), "
+    "reached by the circle method: Lambrechts, Ficker, Goossens & Spieksma, Math. Programming "
+    "172 (2018) 277-302"
+)
+
+
+def _fairness_sheet(ws: Worksheet, season: Season, fairness) -> None:
+    """The report's figures, as given (nothing is computed here)."""
+    fr = fairness
+    mixing_source = season.mixing.source if season.mixing else ""
+
+    def fmt(value) -> object:
+        if value is None:
+            return "n/a"
+        if isinstance(value, bool):
+            return "yes" if value else "no"
+        if isinstance(value, tuple | list):
+            return ", ".join("n/a" if v is None else str(v) for v in value)
+        return value
+
+    rows = [
+        ("Teams", fr.teams, "", ""),
+        ("Rounds", fr.rounds, "", ""),
+        ("Legs / scheme", f"{fr.legs} / {fr.scheme}", "", ""),
+        ("Games", fr.games, "", ""),
+        ("Breaks (total)", fr.breaks_total, fr.breaks_lower_bound, fr.breaks_lower_bound_source),
+        ("Bye convention", fr.bye_convention, "", ""),
+        ("Largest home-game gap", fr.home_gap_max, f"after round {fr.home_gap_round}", ""),
+        (
+            "Perfectly mixing round pairs",
+            f"{fr.perfect_pairs} of {fr.pairs}",
+            "all" if fr.pairs else "",
+            mixing_source,
+        ),
+        ("Perfect one-factorization", fmt(fr.perfect), "", fr.mixing_note),
+        ("Court spread (max)", fmt(fr.court_spread_max), "", ""),
+        ("Slot spread (max)", fmt(fr.slot_spread_max), "", ""),
+        (
+            "Balanced tournament design",
+            fmt(fr.btd_ok) if fr.btd_applicable else "not applicable",
+            "each court at most twice per leg",
+            "Schellenberg, van Rees & Vanstone, Ars Combinatoria 3 (1977) 303-318",
+        ),
+        ("Rest days (least)", fmt(fr.rest_days_min), "", ""),
+        (
+            "Rest days (mean)",
+            "n/a" if fr.rest_days_mean is None else round(fr.rest_days_mean, 2),
+            "",
+            "",
+        ),
+        (
+            "Carry-over value",
+            fmt(fr.carry_over_value),
+            f"{fmt(fr.carry_over_lower_bound)} to {fmt(fr.carry_over_upper_bound)}",
+            _CARRY_SOURCE,
+        ),
+        ("Carry-over per leg", fmt(fr.carry_over_per_leg), "", fr.carry_over_convention),
+        ("Separation (least)", fmt(fr.separation_min), "", ""),
+        ("Separation (largest)", fmt(fr.separation_max), "", ""),
+    ]
+    rows += [("Note", user_text(note), "", "") for note in fr.notes]
+    _header(ws, ["Figure", "Value", "Bound or target", "Source / convention"])
+    for r, values in enumerate(rows, start=2):
+        for c, value in enumerate(values, start=1):
+            cell = ws.cell(row=r, column=c, value=value if value != "" else None)
+            if c == 4:
+                cell.alignment = _WRAP
+    top = len(rows) + 3
+    headers = [
+        "Team", "Games", "Home", "Away", "Byes", "Breaks", "Break rounds", "Pattern",
+        "Court spread", "Slot spread", "Least rest", "Mean rest",
+    ]  # fmt: skip
+    _header(ws, headers, row=top)
+    for r, t in enumerate(fr.team_figures, start=top + 1):
+        values = (
+            user_text(t.name),
+            t.games,
+            t.home,
+            t.away,
+            t.byes,
+            t.breaks,
+            fmt(t.break_rounds),
+            t.pattern,
+            fmt(t.court_spread),
+            fmt(t.slot_spread),
+            fmt(t.rest_days_min),
+            "n/a" if t.rest_days_mean is None else round(t.rest_days_mean, 2),
+        )
+        for c, value in enumerate(values, start=1):
+            ws.cell(row=r, column=c, value=value if value != "" else None)
+    _finish(ws, table=False)
+    ws.column_dimensions["D"].width = 60
+    ws.print_title_rows = "1:1"
+
+
+def build_workbook(
+    season: Season, fairness=None, *, side_labels: tuple[str, str] = ("H", "A")
+) -> Workbook:
+    """The workbook object (``fairness`` optional: without it there is no Fairness sheet)."""
+    wb = Workbook()
+    ws = wb.active
+    ws.title = "Fixtures"
+    _fixtures_sheet(ws, season)
+    _grid_sheet(wb.create_sheet("Grid"), season, side_labels)
+    taken = {"fixtures", "grid", "fairness"}
+    if fairness is not None:
+        _fairness_sheet(wb.create_sheet("Fairness"), season, fairness)
+    for team in season.teams:
+        title = safe_sheet_title(team, taken)
+        _team_sheet(wb.create_sheet(title), season, team, side_labels)
+    stamp = plan_stamp(season).replace(tzinfo=None)
+    props = wb.properties
+    props.creator = "roundrobin-scheduler"
+    props.lastModifiedBy = "roundrobin-scheduler"
+    props.title = user_text(f"{season.league} {season.season_id}")
+    props.created = stamp
+    props.modified = stamp
+    return wb
+
+
+def workbook_bytes(
+    season: Season, fairness=None, *, side_labels: tuple[str, str] = ("H", "A")
+) -> bytes:
+    """The .xlsx file as bytes; the same season and figures always give the same bytes."""
+    wb = build_workbook(season, fairness, side_labels=side_labels)
+    buffer = io.BytesIO()
+    archive = _FixedTimeZip(buffer, "w", zipfile.ZIP_DEFLATED, allowZip64=True)
+    ExcelWriter(wb, archive).save()
+    return buffer.getvalue()
+
+
+def write_workbook(
+    season: Season,
+    fairness,
+    path: str | os.PathLike[str],
+    *,
+    side_labels: tuple[str, str] = ("H", "A"),
+) -> Path:
+    """Write the workbook to ``path`` atomically; returns the path."""
+    return atomic_write_bytes(path, workbook_bytes(season, fairness, side_labels=side_labels))

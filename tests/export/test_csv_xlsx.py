@@ -1,0 +1,159 @@
+"""CSV and workbook exports read back by independent readers (csv module, pandas, openpyxl).
+
+Checks: RFC 4180 (Shafranovich 2005) CSV shape; ECMA-376 workbook read back by openpyxl and by
+pandas (read_excel, openpyxl engine); formula injection neutralised (OWASP "CSV Injection",
+common practice); identical bytes for the same season.
+"""
+
+from __future__ import annotations
+
+import csv
+import io
+from datetime import date, datetime, time
+
+import openpyxl
+import pandas as pd
+import pytest
+
+from scheduler.export.csv_out import CSV_COLUMNS, fixtures_csv
+from scheduler.export.safety import restore_cell
+from scheduler.export.xlsx import workbook_bytes, write_workbook
+from tests.export.samples import AT_SUM, FORMULA, TRICKY, make_season
+
+TRIGGERS = ("=", "+", "-", "@", "\t", "\r")
+
+
+@pytest.fixture(scope="module")
+def season():
+    return make_season(("Ashford Rovers", TRICKY, FORMULA, "Dunmore Town", AT_SUM, "-Minus"))
+
+
+def expected(season):
+    """(round, leg, date, time, home, away, venue, court, slot) straight from the Season."""
+    return sorted(
+        (f.round, f.leg, f.date, f.start.time().replace(tzinfo=None), f.home, f.away, f.venue,
+         f.court, f.slot)
+        for f in season.fixtures
+    )  # fmt: skip
+
+
+def test_csv_reads_back_with_csv_module(season):
+    text = fixtures_csv(season)
+    # RFC 4180 §2: CRLF record ends (embedded newlines only inside quoted fields).
+    assert text.endswith("\r\n")
+    rows = list(csv.reader(io.StringIO(text, newline="")))
+    assert tuple(rows[0]) == CSV_COLUMNS
+    got = sorted(
+        (int(r[0]), int(r[1]), date.fromisoformat(r[2]), time.fromisoformat(r[3]),
+         *(restore_cell(c) for c in r[4:]))
+        for r in rows[1:]
+    )  # fmt: skip
+    assert got == expected(season)
+    # The tricky name survives quoting exactly (comma, quotes, semicolon, real newline).
+    assert any(r[4] == TRICKY or r[5] == TRICKY for r in rows[1:])
+
+
+def test_csv_reads_back_with_pandas(season):
+    frame = pd.read_csv(io.StringIO(fixtures_csv(season)), dtype=str, keep_default_na=False)
+    assert list(frame.columns) == list(CSV_COLUMNS)
+    assert len(frame) == len(season.fixtures)
+    homes = sorted(restore_cell(h) for h in frame["home"])
+    assert homes == sorted(f.home for f in season.fixtures)
+
+
+def test_csv_cells_are_inert(season):
+    rows = list(csv.reader(io.StringIO(fixtures_csv(season), newline="")))
+    for row in rows:
+        for cell in row:
+            assert not cell.startswith(TRIGGERS), cell
+
+
+def test_csv_is_deterministic(season):
+    again = make_season(season.teams)
+    assert fixtures_csv(season).encode() == fixtures_csv(again).encode()
+
+
+@pytest.fixture(scope="module")
+def xlsx_path(season, tmp_path_factory):
+    path = tmp_path_factory.mktemp("xlsx") / "fixtures.xlsx"
+    write_workbook(season, None, path)
+    return path
+
+
+def test_workbook_reads_back_with_openpyxl(season, xlsx_path):
+    wb = openpyxl.load_workbook(xlsx_path)
+    ws = wb["Fixtures"]
+    header = [c.value for c in ws[1]]
+    assert header == ["Round", "Leg", "Date", "Kick-off", "Home", "Away", "Venue", "Court", "Slot"]
+    got = []
+    for row in ws.iter_rows(min_row=2):
+        r, leg, day, kick, *texts = (c.value for c in row)
+        # Real date and time cells with number formats, not text.
+        assert row[2].is_date and isinstance(day, datetime)
+        assert row[2].number_format == "yyyy-mm-dd"
+        assert isinstance(kick, time) and row[3].number_format == "hh:mm"
+        got.append((r, leg, day.date(), kick, *(restore_cell(t) for t in texts)))
+    assert sorted(got) == expected(season)
+    assert ws.freeze_panes == "A2"
+    assert ws.auto_filter.ref == f"A1:I{len(season.fixtures) + 1}"
+    assert ws.page_setup.orientation == "landscape"
+    assert ws.print_title_rows == "$1:$1"
+    assert ws.sheet_properties.pageSetUpPr.fitToPage
+
+
+def test_workbook_reads_back_with_pandas(season, xlsx_path):
+    frame = pd.read_excel(xlsx_path, sheet_name="Fixtures", engine="openpyxl")
+    assert len(frame) == len(season.fixtures)
+    assert pd.api.types.is_datetime64_any_dtype(frame["Date"])
+    pairs = sorted(
+        (restore_cell(h), restore_cell(a))
+        for h, a in zip(frame["Home"], frame["Away"], strict=True)
+    )
+    assert pairs == sorted((f.home, f.away) for f in season.fixtures)
+    assert TRICKY in set(frame["Home"]) | set(frame["Away"])
+
+
+def test_workbook_sheets_grid_and_teams(season, xlsx_path):
+    wb = openpyxl.load_workbook(xlsx_path)
+    team_sheets = wb.sheetnames[2:]
+    assert wb.sheetnames[:2] == ["Fixtures", "Grid"]
+    assert len(team_sheets) == len(season.teams)
+    assert all(len(t) <= 31 for t in wb.sheetnames)
+    assert len({t.lower() for t in wb.sheetnames}) == len(wb.sheetnames)
+    grid = wb["Grid"]
+    assert grid.max_row == len(season.teams) + 1
+    assert grid.max_column == season.rounds + 1
+    row_of = {restore_cell(grid.cell(row=r, column=1).value): r for r in range(2, grid.max_row + 1)}
+    assert set(row_of) == set(season.teams)
+    for f in season.fixtures:
+        home_cell = restore_cell(grid.cell(row=row_of[f.home], column=f.round + 1).value)
+        away_cell = restore_cell(grid.cell(row=row_of[f.away], column=f.round + 1).value)
+        assert home_cell == f"{f.away} (H)"
+        assert away_cell == f"{f.home} (A)"
+    # A team sheet lists that team's games in round order.
+    sheet = wb[team_sheets[0]]
+    rounds = [c.value for c in sheet["A"][1:]]
+    assert rounds == sorted(f.round for f in season.fixtures_of(season.teams[0]))
+
+
+def test_workbook_byes_shown():
+    odd = make_season(("North", "South", "East", "West", "Centre"))
+    wb = openpyxl.load_workbook(io.BytesIO(workbook_bytes(odd)))
+    grid = wb["Grid"]
+    byes = sum(1 for row in grid.iter_rows(min_row=2) for c in row if c.value == "bye")
+    assert byes == sum(len(t) for t in odd.byes.values()) == odd.rounds
+
+
+def test_workbook_cells_are_inert(xlsx_path):
+    wb = openpyxl.load_workbook(xlsx_path)
+    for ws in wb.worksheets:
+        for row in ws.iter_rows():
+            for cell in row:
+                assert cell.data_type != "f", (ws.title, cell.coordinate)
+                if isinstance(cell.value, str):
+                    assert not cell.value.startswith(TRIGGERS), (ws.title, cell.value)
+
+
+def test_workbook_bytes_identical(season):
+    # Fixed document properties and zip member times (see xlsx module docstring).
+    assert workbook_bytes(season) == workbook_bytes(make_season(season.teams))

@@ -1,0 +1,107 @@
+"""Carry-over effects of a round order, and a local search that lowers them.
+
+Russell's carry-over matrix (K. G. Russell, "Balancing carry-over effects in round robin
+tournaments", Biometrika 67(1):127-131, 1980): ``c[i][j]`` counts the teams ``t`` that meet ``i``
+in some round and ``j`` in the next, with the last round of the single round robin followed by
+the first (the cyclic convention of the later literature). The carry-over effects value is
+``COE = Σ c[i][j]²``; for ``n`` teams (``n`` even) ``n(n-1) <= COE <= (n-1)(n² - 6n + 12)``,
+the upper value being the circle method's (Lambrechts, Ficker, Goossens & Spieksma 2018,
+Math. Programming 172:277-302; closed form computed in fairness.md §2). It is measured on leg 1
+over the ``n`` vertices of the factorization (an odd league's bye counts as a dummy team).
+
+The local search swaps two rounds of leg 1 (first improvement, pairs in a fixed order, a fixed
+number of passes: deterministic) and keeps a swap only when the carry-over value falls and the
+breaks of the current home/away assignment do not rise. The caller re-solves the timetable with
+the new order so that every hard rule is checked again by the model.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Sequence
+
+from scheduler.balance import legs as leg_schemes
+
+
+def opponents(rounds: Sequence[Sequence[tuple[int, int]]], n: int) -> list[list[int]]:
+    """``opp[r][v]`` for rounds given as games of vertices ``0..n-1``."""
+    table = []
+    for games in rounds:
+        row = [-1] * n
+        for a, b in games:
+            row[a], row[b] = b, a
+        table.append(row)
+    return table
+
+
+def carry_over_value(rounds: Sequence[Sequence[tuple[int, int]]], n: int) -> int:
+    """Russell's COE = Σ c_ij² over one single round robin (cyclic)."""
+    opp = opponents(rounds, n)
+    R = len(opp)
+    c: dict[tuple[int, int], int] = {}
+    for r in range(R):
+        nxt = opp[(r + 1) % R]
+        cur = opp[r]
+        for t in range(n):
+            key = (cur[t], nxt[t])
+            c[key] = c.get(key, 0) + 1
+    return sum(v * v for v in c.values())
+
+
+def _breaks(fact_rounds, home_first: dict[tuple[int, int], bool], orders, bye) -> int:
+    last: dict[int, bool] = {}
+    total = 0
+    for leg, order in enumerate(orders):
+        flip = leg_schemes.flipped(leg)
+        for k in order:
+            for a, b in fact_rounds[k]:
+                if bye in (a, b):
+                    continue
+                ah = home_first[(a, b)] != flip
+                for v, h in ((a, ah), (b, not ah)):
+                    if last.get(v) is h:
+                        total += 1
+                    last[v] = h
+    return total
+
+
+def improve_order(
+    fact_rounds,
+    n: int,
+    order: Sequence[int],
+    home_first: dict[tuple[int, int], bool],
+    scheme: str,
+    legs: int,
+    other_orders: Sequence[Sequence[int]] | None,
+    bye: int | None,
+    *,
+    passes: int = 3,
+) -> tuple[int, ...]:
+    """A leg-1 order with lower carry-over and no more breaks (see the module docstring)."""
+    R = len(order)
+    maps = leg_schemes.leg_maps(scheme, legs, R)
+
+    def all_orders(o):
+        if maps is None:
+            return [list(o), *[list(x) for x in (other_orders or [])]]
+        return [[o[mp[q]] for q in range(R)] for mp in maps]
+
+    cur = list(order)
+    cur_coe = carry_over_value([fact_rounds[k] for k in cur], n)
+    cur_br = _breaks(fact_rounds, home_first, all_orders(cur), bye)
+    for _ in range(passes):
+        improved = False
+        for i in range(R):
+            for j in range(i + 1, R):
+                trial = list(cur)
+                trial[i], trial[j] = trial[j], trial[i]
+                coe = carry_over_value([fact_rounds[k] for k in trial], n)
+                if coe >= cur_coe:
+                    continue
+                br = _breaks(fact_rounds, home_first, all_orders(trial), bye)
+                if br > cur_br:
+                    continue
+                cur, cur_coe, cur_br = trial, coe, br
+                improved = True
+        if not improved:
+            break
+    return tuple(cur)

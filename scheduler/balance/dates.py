@@ -1,0 +1,141 @@
+"""Rounds to match days.
+
+The season's rounds are cut into *day groups* of ``calendar.rounds_per_day`` consecutive rounds;
+each group is played on one match day and the days follow the round order. When the calendar
+offers more match days than needed, the timetable model chooses which ones (earliest first, as
+far as the rules allow), respecting:
+
+- team unavailability: in an even league every team plays every round, so a date on which a team
+  is unavailable can host no round; in an odd league it can host the round of that team's bye;
+- no home games of a team on a date; fixed-date fixtures;
+- ``min_rest_days``: between two consecutive games of a team ``(d2 - d1).days - 1 >= value``.
+  In any two consecutive rounds of a league of three or more teams some team plays in both (at
+  most one bye per round), so the rule is exactly a gap of ``value + 1`` days between the match
+  days of consecutive rounds, and two rounds on one day break it.
+
+The allowed dates themselves come from ``scheduler.calendar`` (``match_days``, ``kickoff``).
+"""
+
+from __future__ import annotations
+
+from datetime import date, datetime, time, timedelta
+from math import ceil
+
+from ortools.sat.python import cp_model
+
+from scheduler.config.model import League
+
+
+def _calendar():
+    """The calendar package's functions (``match_days``, ``kickoff``), or ``None`` if missing."""
+    try:
+        from scheduler.calendar import kickoff, match_days
+    except ImportError:
+        return None
+    return match_days, kickoff
+
+
+def _fallback_match_days(league: League, needed: int | None) -> list[date]:
+    """Temporary stand-in for ``scheduler.calendar.match_days`` (removed once that lands)."""
+    cal = league.calendar
+    excluded = set(cal.excluded)
+    if cal.holidays_country:
+        import holidays
+
+        years = range(cal.start.year, (cal.end or cal.start).year + 3)
+        excluded |= set(holidays.country_holidays(
+            cal.holidays_country, subdiv=cal.holidays_subdivision, years=years))
+    if cal.dates:
+        return sorted(d for d in cal.dates if d not in excluded)
+    out: list[date] = []
+    day = cal.start
+    limit = cal.end or (cal.start + timedelta(days=3660))
+    while day <= limit and (cal.end is not None or needed is None or len(out) < needed):
+        if day.weekday() in cal.weekdays and day not in excluded:
+            out.append(day)
+        day += timedelta(days=1)
+    return out
+
+
+def match_days(league: League, needed: int | None = None) -> list[date]:
+    api = _calendar()
+    if api is not None:
+        return list(api[0](league, needed))
+    return _fallback_match_days(league, needed)
+
+
+def kickoff(league: League, day: date, slot: time | None) -> datetime:
+    api = _calendar()
+    if api is not None:
+        return api[1](league, day, slot)
+    from zoneinfo import ZoneInfo
+
+    return datetime.combine(day, slot or league.calendar.kickoff, tzinfo=ZoneInfo(league.timezone))
+
+
+def day_groups(rounds: int, per_day: int) -> list[list[int]]:
+    """Season rounds (0-based) grouped per match day."""
+    per_day = max(1, per_day)
+    return [list(range(i, min(rounds, i + per_day))) for i in range(0, rounds, per_day)]
+
+
+def candidate_days(league: League, rounds: int) -> tuple[date, ...]:
+    """The match days the model may use: all allowed days up to ``calendar.end``; without an end,
+    enough days for the season plus one spare per date named in a rule, and at least up to the
+    latest fixed-fixture date."""
+    groups = ceil(rounds / max(1, league.calendar.rounds_per_day))
+    cal = league.calendar
+    if cal.end is not None or cal.dates:
+        return tuple(match_days(league, None))
+    r = league.rules
+    named = {d for td in r.unavailable for d in td.dates}
+    named |= {d for td in r.no_home_games for d in td.dates}
+    fixed_dates = [f.date for f in r.fixed if f.date is not None]
+    named |= set(fixed_dates)
+    needed = groups + len(named)
+    days = match_days(league, needed)
+    if fixed_dates:
+        latest = max(fixed_dates)
+        while days and days[-1] < latest and len(days) < needed + 520:
+            needed += 10
+            days = match_days(league, needed)
+    return tuple(days)
+
+
+class DayModel:
+    """CP-SAT variables placing day groups on candidate days.
+
+    ``on[(g, d)]`` is true when day group ``g`` is played on candidate day ``d`` (an index into
+    ``days``); only ``len(days) - groups + 1`` days are possible for each group, in order.
+    """
+
+    def __init__(self, model: cp_model.CpModel, days: tuple[date, ...], groups: int,
+                 hint: bool = True) -> None:
+        self.days = days
+        self.groups = groups
+        self.on: dict[tuple[int, int], cp_model.IntVar] = {}
+        self.index: list[cp_model.LinearExprT] = []
+        self.ordinal: list[cp_model.LinearExprT] = []
+        slack = len(days) - groups
+        base = days[0].toordinal() if days else 0
+        for g in range(groups):
+            lits = []
+            for d in range(g, g + slack + 1):
+                lit = model.NewBoolVar(f"day_{g}_{d}")
+                self.on[(g, d)] = lit
+                lits.append((d, lit))
+                if hint:
+                    model.AddHint(lit, d == g)
+            model.AddExactlyOne(lit for _, lit in lits)
+            self.index.append(sum(d * lit for d, lit in lits))
+            self.ordinal.append(sum((days[d].toordinal() - base) * lit for d, lit in lits))
+        for g in range(groups - 1):
+            model.Add(self.index[g + 1] >= self.index[g] + 1)
+
+    def groups_on(self, d: int) -> list[tuple[int, cp_model.IntVar]]:
+        """(group, literal) for every group that may be played on candidate day ``d``."""
+        return [(g, lit) for (g, dd), lit in self.on.items() if dd == d]
+
+    def lateness(self) -> cp_model.LinearExprT:
+        """Sum of the chosen day indices (to prefer the earliest days)."""
+        return sum(self.index) - sum(range(self.groups))

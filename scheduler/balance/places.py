@@ -1,0 +1,197 @@
+"""Venue, court and time-slot of every game (OR-Tools CP-SAT), balanced over the teams.
+
+A *place* is (venue, court, kick-off time). On one match day each place holds at most one game.
+Where "home" means a venue the game is played at the home team's ``home_venue``; where it means a
+side or colour (or the home team has no venue) any of the league's venues may be used.
+With several rounds on one match day the rounds take disjoint, increasing kick-off times (venues
+without slots get one virtual slot per round: ``kickoff + j * game_minutes``).
+
+Balance: the model minimises the largest number of games any team plays on one court (venue +
+court; weight ``priorities.venue_balance``) and in one time slot (``priorities.slot_balance``).
+With 2k teams on k courts over 2k-1 rounds the optimum is 2 for every k except k = 2: that is a
+balanced tournament design BTD(k), which exists exactly for k != 2 (Schellenberg, van Rees &
+Vanstone 1977, "The existence of balanced tournament designs", Ars Combinatoria 3:303-318;
+definition as in Lamken 1990, J. Austral. Math. Soc. A 49:175-195). The trivial lower bound
+``ceil(games / places)`` is added so that CP-SAT proves optimality when it reaches it.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from datetime import datetime, time, timedelta
+from math import ceil
+
+from ortools.sat.python import cp_model
+
+from scheduler.balance.timetable import SolveLimits, Timetable, configure
+from scheduler.config.model import League
+from scheduler.errors import InfeasibleError
+
+
+@dataclass(frozen=True)
+class Place:
+    venue: str | None
+    court: str | None
+    slot: time | None
+    label: str | None
+
+
+@dataclass(frozen=True)
+class Placement:
+    """``places[s][i]`` is the place of game ``i`` of season round ``s`` (timetable order)."""
+
+    places: tuple[tuple[Place, ...], ...]
+    court_max: int | None
+    slot_max: int | None
+    status: str
+
+
+def _venue_places(league: League, venue_index: int, per_day: int) -> list[Place]:
+    v = league.venues[venue_index]
+    if v.slots:
+        times: list[time | None] = list(v.slots)
+    elif per_day > 1:
+        base = datetime.combine(datetime(2000, 1, 1).date(), league.calendar.kickoff)
+        times = [(base + timedelta(minutes=j * league.calendar.game_minutes)).time()
+                 for j in range(per_day)]
+    else:
+        times = [None]
+    labelled = bool(v.slots) or per_day > 1
+    return [Place(v.name, c, t, t.strftime("%H:%M") if (labelled and t is not None) else None)
+            for c in v.courts for t in times]
+
+
+def _minutes(t: time | None) -> int:
+    return -1 if t is None else t.hour * 60 + t.minute
+
+
+def assign_places(league: League, tt: Timetable, limits: SolveLimits) -> Placement:
+    """Choose a place for every game of the timetable (see module docstring)."""
+    P = len(tt.games)
+    if not league.venues:
+        empty = tuple(tuple(Place(None, None, None, None) for _ in g) for g in tt.games)
+        return Placement(empty, None, None, "optimal")
+    per_day = max(1, league.calendar.rounds_per_day)
+    all_places: list[Place] = []
+    by_venue: dict[str, list[int]] = {}
+    for vi, v in enumerate(league.venues):
+        ids = []
+        for p in _venue_places(league, vi, per_day):
+            ids.append(len(all_places))
+            all_places.append(p)
+        by_venue[v.name] = ids
+    everywhere = list(range(len(all_places)))
+    venue_mode = league.format.home_meaning == "venue"
+
+    def options(home: int) -> list[int]:
+        hv = league.teams[home].home_venue
+        if venue_mode and hv:
+            return by_venue[hv]
+        return everywhere
+
+    # the rounds of each match day
+    days: dict[int, list[int]] = {}
+    for s in range(P):
+        days.setdefault(tt.day[s], []).append(s)
+    games = [(s, i, h, a) for s in range(P) for i, (h, a) in enumerate(tt.games[s])]
+    opts = {(s, i): options(h) for s, i, h, _ in games}
+    if all(len(o) == 1 for o in opts.values()):
+        chosen = {key: o[0] for key, o in opts.items()}
+        return _result(tt, all_places, chosen, None, None, "optimal")
+    for d, rounds in days.items():
+        need = sum(len(tt.games[s]) for s in rounds)
+        if need > len(everywhere) and not venue_mode:
+            raise InfeasibleError(
+                "the venues cannot hold one match day's games",
+                [f"{len(everywhere)} places (courts × time slots) at the venues",
+                 f"{need} games on {tt.days[d].isoformat() if tt.days else 'a match day'}"])
+
+    m = cp_model.CpModel()
+    x: dict[tuple[int, int, int], cp_model.IntVar] = {}
+    for s, i, _, _ in games:
+        lits = []
+        for p in opts[(s, i)]:
+            lit = m.NewBoolVar(f"x_{s}_{i}_{p}")
+            x[(s, i, p)] = lit
+            lits.append(lit)
+        m.AddExactlyOne(lits)
+    times = sorted({_minutes(p.slot) for p in all_places})
+    for _d, rounds in days.items():
+        for p in everywhere:
+            cell = [x[(s, i, p)] for s in rounds for i in range(len(tt.games[s]))
+                    if (s, i, p) in x]
+            if len(cell) > 1:
+                m.AddAtMostOne(cell)
+        if len(rounds) > 1:
+            use = {(s, t): m.NewBoolVar(f"u_{s}_{t}") for s in rounds for t in times}
+            for s in rounds:
+                for i in range(len(tt.games[s])):
+                    for p in opts[(s, i)]:
+                        m.AddImplication(x[(s, i, p)], use[(s, _minutes(all_places[p].slot))])
+            for t in times:
+                m.AddAtMostOne(use[(s, t)] for s in rounds)
+            for j, s in enumerate(rounds):
+                for s2 in rounds[j + 1:]:
+                    for t in times:
+                        for t2 in times:
+                            if t2 <= t:
+                                m.AddBoolOr([use[(s, t)].Not(), use[(s2, t2)].Not()])
+    w = league.priorities
+    objective = []
+    court_max = slot_max = None
+    court_keys = sorted({(p.venue, p.court) for p in all_places})
+    slot_keys = sorted({_minutes(p.slot) for p in all_places})
+    teams = range(len(league.teams))
+    for label, keys, key_of, weight in (
+        ("court", court_keys, lambda p: (p.venue, p.court), w.venue_balance),
+        ("slot", slot_keys, lambda p: _minutes(p.slot), w.slot_balance),
+    ):
+        if len(keys) < 2 or weight <= 0:
+            continue
+        top = m.NewIntVar(0, P, f"max_{label}")
+        bound = 0
+        for t in teams:
+            mine = [(s, i) for s, i, h, a in games if t in (h, a)]
+            reach = {key_of(all_places[p]) for key in mine for p in opts[key]}
+            for key in reach:
+                cnt = [x[(s, i, p)] for s, i in mine for p in opts[(s, i)]
+                       if key_of(all_places[p]) == key]
+                m.Add(sum(cnt) <= top)
+            if reach:
+                bound = max(bound, ceil(len(mine) / len(reach)))
+        m.Add(top >= bound)
+        objective.append((weight, top, label))
+    span = len(games) * len(all_places) + 1
+    rank = sum(p * lit for (s, i, p), lit in x.items())
+    if objective:
+        m.Minimize(span * sum(wt * var for wt, var, _ in objective) + rank)
+    else:
+        m.Minimize(rank)
+    solver = cp_model.CpSolver()
+    configure(solver, limits)
+    status = solver.Solve(m)
+    if status == cp_model.INFEASIBLE:
+        raise InfeasibleError(
+            "the courts and time slots cannot hold the games of some match day",
+            ["venue capacities (courts × time slots)",
+             f"{per_day} round(s) on each match day"])
+    if status not in (cp_model.OPTIMAL, cp_model.FEASIBLE):
+        raise InfeasibleError("no assignment of courts and time slots was found in the time "
+                              "limit; allow more solve_seconds", [])
+    chosen = {}
+    for (s, i, p), lit in x.items():
+        if solver.BooleanValue(lit):
+            chosen[(s, i)] = p
+    for _wt, var, label in objective:
+        if label == "court":
+            court_max = solver.Value(var)
+        else:
+            slot_max = solver.Value(var)
+    return _result(tt, all_places, chosen, court_max, slot_max,
+                   "optimal" if status == cp_model.OPTIMAL else "feasible")
+
+
+def _result(tt, all_places, chosen, court_max, slot_max, status) -> Placement:
+    places = tuple(tuple(all_places[chosen[(s, i)]] for i in range(len(tt.games[s])))
+                   for s in range(len(tt.games)))
+    return Placement(places, court_max, slot_max, status)

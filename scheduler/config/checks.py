@@ -49,10 +49,14 @@ def resolve_holidays(
     code = by_upper.get(country.strip().upper())
     if code is None:
         hint = suggestion(country.upper(), list(by_upper))
-        return None, None, [
-            f"calendar.holidays.country: {show(country)} is not a country the holidays package "
-            f"knows{hint} (use a two-letter ISO 3166 code such as 'DE' or 'GB')"
-        ]
+        return (
+            None,
+            None,
+            [
+                f"calendar.holidays.country: {show(country)} is not a country the holidays package "
+                f"knows{hint} (use a two-letter ISO 3166 code such as 'DE' or 'GB')"
+            ],
+        )
     if subdivision is None:
         return code, None, []
     entity = holidays_lib.country_holidays(code)
@@ -63,16 +67,24 @@ def resolve_holidays(
     sub = lookup.get(subdivision.strip().upper())
     if sub is None:
         if not names:
-            return code, None, [
-                f"calendar.holidays.subdivision: the holidays package has no subdivisions for "
-                f"{code}; remove this option"
-            ]
+            return (
+                code,
+                None,
+                [
+                    f"calendar.holidays.subdivision: the holidays package has no subdivisions for "
+                    f"{code}; remove this option"
+                ],
+            )
         hint = suggestion(subdivision, names + list(aliases))
         listed = ", ".join(names[:40]) + (", ..." if len(names) > 40 else "")
-        return code, None, [
-            f"calendar.holidays.subdivision: {show(subdivision)} is not a subdivision of "
-            f"{code}{hint} (known: {listed})"
-        ]
+        return (
+            code,
+            None,
+            [
+                f"calendar.holidays.subdivision: {show(subdivision)} is not a subdivision of "
+                f"{code}{hint} (known: {listed})"
+            ],
+        )
     return code, sub, []
 
 
@@ -110,8 +122,10 @@ def date_list_problems(
     problems = []
     for i, group in enumerate(groups):
         if all(_outside(d, first, last) for d in group):
-            what = group[0].isoformat() if len(group) == 1 else (
-                f"the range {group[0].isoformat()}..{group[-1].isoformat()}"
+            what = (
+                group[0].isoformat()
+                if len(group) == 1
+                else (f"the range {group[0].isoformat()}..{group[-1].isoformat()}")
             )
             problems.append(
                 f"{path}[{i}]: {what} is outside the season ({_window_text(first, last)})"
@@ -281,8 +295,11 @@ def reference_problems(doc: LeagueFile) -> list[str]:
 
     # --- priorities -------------------------------------------------------------------------
     pri = doc.priorities
-    weights = [g for g in ("mixing", "breaks", "venue_balance", "slot_balance", "carry_over")
-               if getattr(pri, g) is not None]
+    weights = [
+        g
+        for g in ("mixing", "breaks", "venue_balance", "slot_balance", "carry_over")
+        if getattr(pri, g) is not None
+    ]
     if pri.order is not None:
         if weights:
             problems.append(

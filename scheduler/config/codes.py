@@ -4,6 +4,8 @@ Three uppercase letters is the common practice of league tables and scoreboards 
 practice, not a standard). The code is made from the name, deterministically, and never clashes
 with another team's code (compared without regard to case):
 
+A leading "The" is skipped (``The Old Tannery`` -> ``OLD``).
+
 1. one word: its first three letters (``Otters`` -> ``OTT``);
 2. several words: the first three letters of the first word, then the initials of the first three
    words, then first letter + two letters of the second word, then two letters + one;
@@ -29,6 +31,8 @@ def _ascii_words(name: str) -> list[str]:
 
 def _candidates(name: str) -> Iterator[str]:
     words = _ascii_words(name)
+    if len(words) > 1 and words[0] == "THE":
+        words = words[1:]
     if not words:
         return
     joined = "".join(words)

@@ -78,9 +78,23 @@ def season_problems(league: League) -> list[str]:
         no_home[entry.team] |= set(entry.dates)
     for i, fx in enumerate(rules.fixed):
         path = f"rules.fixed[{i}]"
-        pair_count[frozenset((fx.home, fx.away))] += 1
+        pair = frozenset((fx.home, fx.away))
+        pair_count[pair] += 1
+        if pair_count[pair] == fmt.legs + 1:
+            problems.append(
+                f"{path}: {fx.home} and {fx.away} meet {_plural(fmt.legs, 'time')} "
+                f"but {pair_count[pair]} games between them are fixed"
+            )
+        # Every later leg swaps the venues of the one before, so one team hosts a given
+        # opponent at most ceil(legs / 2) times.
         if not fx.any_venue:
             home_count[(fx.home, fx.away)] += 1
+            limit = -(-fmt.legs // 2)
+            if home_count[(fx.home, fx.away)] == limit + 1:
+                problems.append(
+                    f"{path}: {fx.home} would host {fx.away} {limit + 1} times, but hosts them "
+                    f"at most {_plural(limit, 'time')} in {_plural(fmt.legs, 'leg')}"
+                )
         if fx.round is not None:
             if fx.round > rounds:
                 problems.append(
@@ -114,25 +128,6 @@ def season_problems(league: League) -> list[str]:
                     f"{path}.date: {fx.home} may not play at home on {d} (rules.no_home_games); "
                     "set any_venue = true or choose another date"
                 )
-    for i, fx in enumerate(rules.fixed):
-        pair = frozenset((fx.home, fx.away))
-        if pair_count[pair] > fmt.legs:
-            problems.append(
-                f"rules.fixed[{i}]: {fx.home} and {fx.away} meet {_plural(fmt.legs, 'time')} "
-                f"but {pair_count[pair]} games between them are fixed"
-            )
-            pair_count[pair] = 0  # report once
-        # Every later leg swaps the venues of the one before, so one team hosts a pair at most
-        # ceil(legs / 2) times.
-        limit = -(-fmt.legs // 2)
-        if not fx.any_venue and home_count[(fx.home, fx.away)] > limit:
-            problems.append(
-                f"rules.fixed[{i}]: {fx.home} would host {fx.away} "
-                f"{home_count[(fx.home, fx.away)]} times, but hosts them at most "
-                f"{_plural(limit, 'time')} in {_plural(fmt.legs, 'leg')}"
-            )
-            home_count[(fx.home, fx.away)] = 0
-
     # A team plays at most rounds_per_day games on a match day, so it needs at least
     # ceil(games / rounds_per_day) match days it is available on.
     if days:

@@ -84,9 +84,7 @@ def _parse(data: Mapping[str, Any], source: str) -> League:
 
 def _within(days: Iterable[dt.date], first: dt.date | None, last: dt.date | None) -> tuple:
     return tuple(
-        sorted(
-            {d for d in days if (first is None or d >= first) and (last is None or d <= last)}
-        )
+        sorted({d for d in days if (first is None or d >= first) and (last is None or d <= last)})
     )
 
 

@@ -57,8 +57,7 @@ LeagueYamlLoader.yaml_implicit_resolvers = {
     first: [
         (tag, regexp)
         for tag, regexp in resolvers
-        if tag
-        not in ("tag:yaml.org,2002:bool", "tag:yaml.org,2002:int", "tag:yaml.org,2002:float")
+        if tag not in ("tag:yaml.org,2002:bool", "tag:yaml.org,2002:int", "tag:yaml.org,2002:float")
     ]
     for first, resolvers in yaml.SafeLoader.yaml_implicit_resolvers.items()
 }
@@ -70,7 +69,9 @@ LeagueYamlLoader.add_implicit_resolver(
 )
 LeagueYamlLoader.add_implicit_resolver(
     "tag:yaml.org,2002:float",
-    re.compile(r"^(?:[-+]?(?:\.[0-9]+|[0-9]+(?:\.[0-9]*)?)(?:[eE][-+]?[0-9]+)?|[-+]?\.(?:inf|Inf|INF)|\.(?:nan|NaN|NAN))$"),
+    re.compile(
+        r"^(?:[-+]?(?:\.[0-9]+|[0-9]+(?:\.[0-9]*)?)(?:[eE][-+]?[0-9]+)?|[-+]?\.(?:inf|Inf|INF)|\.(?:nan|NaN|NAN))$"
+    ),
     list("-+0123456789."),
 )
 

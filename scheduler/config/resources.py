@@ -72,6 +72,4 @@ def sample_names() -> tuple[str, ...]:
     folder = samples_dir()
     if not folder.is_dir():
         return ()
-    return tuple(
-        sorted(p.name for p in folder.iterdir() if p.suffix in (".toml", ".yaml", ".yml"))
-    )
+    return tuple(sorted(p.name for p in folder.iterdir() if p.suffix in (".toml", ".yaml", ".yml")))

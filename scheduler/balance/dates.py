@@ -18,59 +18,14 @@ The allowed dates themselves come from ``scheduler.calendar`` (``match_days``, `
 
 from __future__ import annotations
 
-from datetime import date, datetime, time, timedelta
-from math import ceil
+from datetime import date
 
 from ortools.sat.python import cp_model
 
+from scheduler.calendar import days_needed, kickoff, match_days
 from scheduler.config.model import League
 
-
-def _calendar():
-    """The calendar package's functions (``match_days``, ``kickoff``), or ``None`` if missing."""
-    try:
-        from scheduler.calendar import kickoff, match_days
-    except ImportError:
-        return None
-    return match_days, kickoff
-
-
-def _fallback_match_days(league: League, needed: int | None) -> list[date]:
-    """Temporary stand-in for ``scheduler.calendar.match_days`` (removed once that lands)."""
-    cal = league.calendar
-    excluded = set(cal.excluded)
-    if cal.holidays_country:
-        import holidays
-
-        years = range(cal.start.year, (cal.end or cal.start).year + 3)
-        excluded |= set(holidays.country_holidays(
-            cal.holidays_country, subdiv=cal.holidays_subdivision, years=years))
-    if cal.dates:
-        return sorted(d for d in cal.dates if d not in excluded)
-    out: list[date] = []
-    day = cal.start
-    limit = cal.end or (cal.start + timedelta(days=3660))
-    while day <= limit and (cal.end is not None or needed is None or len(out) < needed):
-        if day.weekday() in cal.weekdays and day not in excluded:
-            out.append(day)
-        day += timedelta(days=1)
-    return out
-
-
-def match_days(league: League, needed: int | None = None) -> list[date]:
-    api = _calendar()
-    if api is not None:
-        return list(api[0](league, needed))
-    return _fallback_match_days(league, needed)
-
-
-def kickoff(league: League, day: date, slot: time | None) -> datetime:
-    api = _calendar()
-    if api is not None:
-        return api[1](league, day, slot)
-    from zoneinfo import ZoneInfo
-
-    return datetime.combine(day, slot or league.calendar.kickoff, tzinfo=ZoneInfo(league.timezone))
+__all__ = ["DayModel", "candidate_days", "day_groups", "kickoff"]
 
 
 def day_groups(rounds: int, per_day: int) -> list[list[int]]:
@@ -82,11 +37,12 @@ def day_groups(rounds: int, per_day: int) -> list[list[int]]:
 def candidate_days(league: League, rounds: int) -> tuple[date, ...]:
     """The match days the model may use: all allowed days up to ``calendar.end``; without an end,
     enough days for the season plus one spare per date named in a rule, and at least up to the
-    latest fixed-fixture date."""
-    groups = ceil(rounds / max(1, league.calendar.rounds_per_day))
+    latest fixed-fixture date. Too few days is the calendar's located ``ConfigError``."""
+    per_day = max(1, league.calendar.rounds_per_day)
+    groups = max(days_needed(league), -(-rounds // per_day))
     cal = league.calendar
     if cal.end is not None or cal.dates:
-        return tuple(match_days(league, None))
+        return tuple(match_days(league, groups))
     r = league.rules
     named = {d for td in r.unavailable for d in td.dates}
     named |= {d for td in r.no_home_games for d in td.dates}

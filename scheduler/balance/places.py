@@ -161,12 +161,11 @@ def assign_places(league: League, tt: Timetable, limits: SolveLimits) -> Placeme
                 bound = max(bound, ceil(len(mine) / len(reach)))
         m.Add(top >= bound)
         objective.append((weight, top, label))
-    span = len(games) * len(all_places) + 1
-    rank = sum(p * lit for (s, i, p), lit in x.items())
     if objective:
-        m.Minimize(span * sum(wt * var for wt, var, _ in objective) + rank)
+        m.Minimize(sum(wt * var for wt, var, _ in objective))
     else:
-        m.Minimize(rank)
+        # no balance wanted: the first places in the venues' order
+        m.Minimize(sum(p * lit for (s, i, p), lit in x.items()))
     solver = cp_model.CpSolver()
     configure(solver, limits)
     status = solver.Solve(m)

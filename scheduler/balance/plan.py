@@ -125,7 +125,7 @@ def _choose(cands: list[_Candidate], league: League) -> tuple[_Candidate, str | 
 
 
 def _limits(total: float, share: float, seed: int) -> SolveLimits:
-    det = max(0.5, total * share)
+    det = max(1.0, total * share)
     return SolveLimits(det, 4 * det + 10, seed)
 
 
@@ -154,7 +154,7 @@ def plan_season(
 
     notes: list[str] = []
     report("factorize", 0.0)
-    found = _factorize(teams, seed, max(0.5, 0.25 * total), progress)
+    found = _factorize(teams, seed, max(0.5, 0.2 * total), progress)
     n = found.n
     cands = [_Candidate(f"mixing: {found.method}", found, verify_rounds(n, found.rounds))]
     if not _is_circle(found) and league.priorities.breaks > 0:
@@ -184,18 +184,18 @@ def plan_season(
         notes.extend(_tradeoff_notes(cands, chosen, why))
     report("timetable: carry-over", 0.6)
     if league.priorities.carry_over > 0:
-        tt, note = _reduce_carry_over(league, chosen, _limits(total, 0.15, seed))
+        tt, note = _reduce_carry_over(league, chosen, _limits(total, 0.1, seed))
         chosen.tt = tt
         if note:
             notes.append(note)
     if tt.wall_cap_hit:
         notes.append("the wall-clock safety limit was hit while solving the timetable; the "
                      "result may depend on machine load (allow more solve_seconds)")
-    if tt.status != "optimal":
+    if tt.breaks > tt.break_bound and tt.status != "optimal":
         notes.append(f"breaks: {tt.breaks} (lower bound {tt.break_bound}: {tt.break_bound_reason});"
                      " not proven optimal within the time limit")
     report("places", 0.75)
-    placement = assign_places(league, tt, _limits(total, 0.15, seed))
+    placement = assign_places(league, tt, _limits(total, 0.25, seed))
     report("dates", 0.9)
     season = _season(league, chosen, tt, placement, seed, tuple(notes))
     options = tuple(

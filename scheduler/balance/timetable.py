@@ -32,6 +32,7 @@ from scheduler.balance import legs as leg_schemes
 from scheduler.balance.dates import DayModel, candidate_days, day_groups
 from scheduler.balance.explain import RuleBook, explain
 from scheduler.config.model import League
+from scheduler.errors import InfeasibleError
 from scheduler.factorization.circle import circle_rounds
 from scheduler.factorization.model import Factorization
 
@@ -117,7 +118,8 @@ class TimetableModel:
     """Builds and solves the CP-SAT model for one factorization and one league."""
 
     def __init__(self, league: League, fact: Factorization, *, minimise_breaks: bool = True,
-                 fixed_order: tuple[int, ...] | None = None) -> None:
+                 fixed_order: tuple[int, ...] | None = None, earliest_days: bool = False) -> None:
+        self.earliest_days = earliest_days
         self.league = league
         self.fact = fact
         self.model = cp_model.CpModel()
@@ -369,6 +371,12 @@ class TimetableModel:
             return
         self.daymodel = DayModel(self.model, self.days, G)
         self.day_index = {d: i for i, d in enumerate(self.days)}
+        r = self.league.rules
+        dated = r.unavailable or r.no_home_games or any(f.date is not None for f in r.fixed)
+        if self.earliest_days or (not dated and r.min_rest_days is None):
+            # nothing depends on the choice of days: use the first ones
+            for g in range(G):
+                self.model.Add(self.daymodel.on[(g, g)] == 1)
 
     # --- rules ---------------------------------------------------------------------------------
     def _build_rules(self) -> None:
@@ -546,16 +554,16 @@ class TimetableModel:
             self.model.Minimize(late)
 
     # --- solving -------------------------------------------------------------------------------
-    def solve(self, limits: SolveLimits) -> Timetable:
+    def solve(self, limits: SolveLimits, *, explain_failure: bool = True) -> Timetable:
         self.book.assume_all()
         solver = cp_model.CpSolver()
         configure(solver, limits)
         status = solver.Solve(self.model)
+        if status == cp_model.INFEASIBLE and not explain_failure:
+            raise InfeasibleError("infeasible on the earliest match days", [])
         if status == cp_model.INFEASIBLE:
             raise explain(self.book, solver, lambda idx: self._still_infeasible(idx, limits))
         if status not in (cp_model.OPTIMAL, cp_model.FEASIBLE):
-            from scheduler.errors import InfeasibleError
-
             raise InfeasibleError(
                 "no timetable was found within the time limit; allow more solve_seconds or relax "
                 "the rules", [])
@@ -633,6 +641,19 @@ def count_breaks(games, teams: int) -> int:
 def solve_timetable(league: League, fact: Factorization, limits: SolveLimits, *,
                     minimise_breaks: bool = True,
                     fixed_order: tuple[int, ...] | None = None) -> Timetable:
-    """Build and solve the timetable model; raises ``InfeasibleError`` naming the rules."""
+    """Build and solve the timetable model; raises ``InfeasibleError`` naming the rules.
+
+    The earliest match days are tried first (half the limit); only when the rules cannot hold on
+    them is the choice of days opened up (then the model prefers early days).
+    """
+    first = TimetableModel(league, fact, minimise_breaks=minimise_breaks, fixed_order=fixed_order,
+                           earliest_days=True)
+    if first.daymodel is None or len(first.days) == len(first.groups):
+        return first.solve(limits)
+    half = SolveLimits(limits.deterministic / 2, limits.wall / 2, limits.seed)
+    try:
+        return first.solve(half, explain_failure=False)
+    except InfeasibleError:
+        pass
     model = TimetableModel(league, fact, minimise_breaks=minimise_breaks, fixed_order=fixed_order)
-    return model.solve(limits)
+    return model.solve(half)

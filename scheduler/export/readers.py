@@ -103,9 +103,11 @@ class ScheduleFile:
 # --------------------------------------------------------------------------- bytes
 
 
-def read_bytes_limited(path: str | Path, limit: int = MAX_FILE_BYTES) -> bytes:
-    """The file's bytes; refuses missing files, folders and files over ``limit`` bytes."""
+def read_bytes_limited(path: str | Path, limit: int | None = None) -> bytes:
+    """The file's bytes; refuses missing files, folders and files over ``limit`` bytes
+    (default :data:`MAX_FILE_BYTES`), before reading them."""
     path = Path(path)
+    limit = MAX_FILE_BYTES if limit is None else limit
     if not path.exists():
         raise InputError("file not found", location=str(path))
     if not path.is_file():
@@ -113,8 +115,7 @@ def read_bytes_limited(path: str | Path, limit: int = MAX_FILE_BYTES) -> bytes:
     size = path.stat().st_size
     if size > limit:
         raise InputError(
-            f"the file is {size / 1e6:.1f} MB; schedule files over {limit // (1024 * 1024)} MB "
-            "are not read",
+            f"the file is {_size(size)}; schedule files over {_size(limit)} are not read",
             location=str(path),
         )
     if size == 0:
@@ -123,6 +124,12 @@ def read_bytes_limited(path: str | Path, limit: int = MAX_FILE_BYTES) -> bytes:
         return path.read_bytes()
     except OSError as exc:
         raise InputError(f"cannot read the file: {exc.strerror}", location=str(path)) from exc
+
+
+def _size(nbytes: int) -> str:
+    if nbytes >= 1024 * 1024:
+        return f"{nbytes / (1024 * 1024):.1f} MB"
+    return f"{nbytes} bytes"
 
 
 _CONTROL = re.compile(r"[\x00-\x08\x0b\x0c\x0e-\x1f\x7f-\x9f]")

@@ -71,8 +71,12 @@ _HASHED = re.compile(r"-[0-9a-f]{8}$")
 _MAX_SLUG = 40
 
 
-def _digest(name: str, length: int = 8) -> str:
+def name_digest(name: str, length: int = 8) -> str:
+    """The first ``length`` hex digits of the SHA-256 of ``name`` (UTF-8)."""
     return hashlib.sha256(name.encode("utf-8")).hexdigest()[:length]
+
+
+_digest = name_digest
 
 
 def _slug(name: str) -> str:

@@ -199,11 +199,17 @@ def season_problems(league: League) -> list[str]:
             "or set rounds_per_day = 1"
         )
 
-    # Room: every game of a match day needs a court in a time slot; a team that plays several
-    # rounds on one day needs that many different kick-off times.
+    # Room: every game of a match day needs a court in a time slot. A venue without slots has
+    # one kick-off per round of the day (calendar.kickoff, then every game_minutes), as the
+    # balancer lays them out; a team that plays several rounds on one day needs that many
+    # different kick-off times.
     games_per_round = n // 2
+
+    def day_slots(v) -> int:
+        return len(v.slots) if v.slots else per_day
+
     if fmt.home_meaning == "side" and league.venues:
-        room = sum(v.capacity for v in league.venues)
+        room = sum(len(v.courts) * day_slots(v) for v in league.venues)
         need = games_per_round * per_day
         if room < need:
             problems.append(
@@ -211,10 +217,8 @@ def season_problems(league: League) -> list[str]:
                 f"({games_per_round} per round, {per_day} per day) but the venues have room for "
                 f"{room} (courts x time slots); add courts or slots"
             )
-    if per_day > 1:
-        times = {s for v in league.venues for s in v.slots} or {cal.kickoff}
-        if any(not v.slots for v in league.venues):
-            times.add(cal.kickoff)
+    if per_day > 1 and league.venues and all(v.slots for v in league.venues):
+        times = {s for v in league.venues for s in v.slots}
         if len(times) < per_day:
             problems.append(
                 f"calendar.rounds_per_day: {per_day} rounds on one match day need at least "

@@ -124,7 +124,7 @@ def _date_or_range(value: Any) -> tuple[dt.date, ...]:
             a, b = dt.date.fromisoformat(first.strip()), dt.date.fromisoformat(last.strip())
         except ValueError:
             raise _fail(
-                f"expected a date range like \"2027-07-01..2027-08-31\", got {show(value)}"
+                f'expected a date range like "2027-07-01..2027-08-31", got {show(value)}'
             ) from None
         if b < a:
             raise _fail(f"the range {show(value)} ends before it starts")
@@ -152,7 +152,7 @@ def _time(value: Any) -> dt.time:
             h, mi, s = int(m.group(1)), int(m.group(2)), int(m.group(3) or 0)
             if h < 24 and mi < 60 and s < 60:
                 return dt.time(h, mi, s)
-    raise _fail(f"expected a time of day like \"19:30\", got {show(value)}")
+    raise _fail(f'expected a time of day like "19:30", got {show(value)}')
 
 
 def _weekday(value: Any) -> int:
@@ -167,7 +167,7 @@ def _weekday(value: Any) -> int:
         names = ["mon", "tue", "wed", "thu", "fri", "sat", "sun"]
         hint = suggestion(key, list(WEEKDAY_NAMES)) or f"; use one of {', '.join(names)}"
         raise _fail(f"{show(value)} is not a weekday{hint}")
-    raise _fail(f"expected a weekday like \"sat\" or a number 0-6, got {show(value)}")
+    raise _fail(f'expected a weekday like "sat" or a number 0-6, got {show(value)}')
 
 
 def _season(value: Any) -> Any:
@@ -228,9 +228,9 @@ class LeagueSection(Section):
 class FormatSection(Section):
     legs: Annotated[int, Field(ge=1, le=12)] = 1
     scheme: Annotated[str, BeforeValidator(_choice(SCHEMES, "scheme"))] = "mirrored"
-    home_meaning: Annotated[
-        str, BeforeValidator(_choice(HOME_MEANINGS, "meaning of home"))
-    ] = "venue"
+    home_meaning: Annotated[str, BeforeValidator(_choice(HOME_MEANINGS, "meaning of home"))] = (
+        "venue"
+    )
     side_labels: Annotated[
         list[Text], BeforeValidator(_as_list), Field(min_length=2, max_length=2)
     ] = ["Home", "Away"]
@@ -244,9 +244,7 @@ class HolidaysSection(Section):
 class CalendarSection(Section):
     start: Date | None = None
     end: Date | None = None
-    weekdays: Annotated[
-        list[Weekday], BeforeValidator(_scalar_or_list), Field(min_length=1)
-    ] = [5]
+    weekdays: Annotated[list[Weekday], BeforeValidator(_scalar_or_list), Field(min_length=1)] = [5]
     rounds_per_day: Annotated[int, Field(ge=1, le=64)] = 1
     kickoff: Clock = dt.time(15, 0)
     game_minutes: Annotated[int, Field(ge=1, le=24 * 60)] = 90

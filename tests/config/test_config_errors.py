@@ -471,3 +471,13 @@ def test_random_values_never_escape_as_tracebacks(section, key, value):
 def test_random_documents_never_escape_as_tracebacks(data):
     with pytest.raises(ConfigError):
         parse_league(data)
+
+
+def test_rounds_per_day_needs_kickoff_times():
+    club = tomllib.loads((REPO / "sample_leagues" / "club_day.toml").read_text(encoding="utf-8"))
+    club["venues"][0]["slots"] = ["09:30", "11:00", "13:30"]
+    problems = problems_of(club)
+    assert any(p.startswith("calendar.rounds_per_day: 4 rounds on one match day") for p in problems)
+    # Without slots the venue has one kick-off per round of the day (kickoff + k * game_minutes).
+    club["venues"][0].pop("slots")
+    assert parse_league(club).calendar.rounds_per_day == 4

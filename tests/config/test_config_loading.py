@@ -200,3 +200,25 @@ def test_shipped_file_lookup_errors():
         template_path("leage.toml")
     with pytest.raises(InputError, match=r"did you mean 'club_day\.toml'"):
         sample_path("club_dya.toml")
+
+
+def test_installed_layout_is_preferred(tmp_path, monkeypatch):
+    """In a wheel, shipped files sit in scheduler/_templates and scheduler/_samples (see the
+    force-include table in pyproject.toml); those win over the checkout folders."""
+    from scheduler.config import resources
+
+    with (REPO / "pyproject.toml").open("rb") as handle:
+        include = tomllib.load(handle)["tool"]["hatch"]["build"]["targets"]["wheel"][
+            "force-include"
+        ]
+    assert include == {"templates": "scheduler/_templates", "sample_leagues": "scheduler/_samples"}
+    package = tmp_path / "scheduler"
+    (package / "_templates").mkdir(parents=True)
+    (package / "_samples").mkdir()
+    (package / "_templates" / "league.toml").write_text(starter_config_text(), encoding="utf-8")
+    (package / "_samples" / "club_day.toml").write_bytes(sample_path("club_day.toml").read_bytes())
+    monkeypatch.setattr(resources.resources, "files", lambda name: package)
+    assert resources.template_path("league.toml") == package / "_templates" / "league.toml"
+    assert resources.sample_path("club_day") == package / "_samples" / "club_day.toml"
+    assert resources.sample_names() == ("club_day.toml",)
+    assert load_league(resources.sample_path("club_day")).name

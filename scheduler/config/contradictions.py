@@ -15,6 +15,7 @@ conventions assumed (to be shared with the balancer):
 from __future__ import annotations
 
 from collections import Counter, defaultdict
+from dataclasses import replace
 from datetime import date
 
 from scheduler.config.model import League
@@ -63,6 +64,15 @@ def season_problems(league: League) -> list[str]:
         problems += exc.problems
         days = match_days(league, 0) if (cal.end is not None or cal.dates) else []
     day_set = set(days)
+    # Without an end date the season can grow, so only dates named in the rules are checked
+    # against the weekday/excluded/holiday filter; counting arguments do not apply.
+    open_end = cal.end is None and not cal.dates
+    fixed_dates = [fx.date for fx in rules.fixed if fx.date is not None]
+    if open_end and fixed_dates:
+        horizon = max(fixed_dates)
+        if days and days[-1] > horizon:
+            horizon = days[-1]
+        day_set = set(match_days(replace(cal, end=horizon), 0))
 
     # Fixed fixtures: a round that exists, a date that is a match day, and not more fixed games
     # of a pair than the legs in which they meet.
@@ -110,7 +120,7 @@ def season_problems(league: League) -> list[str]:
                     busy_round[(team, fx.round)] = i
         if fx.date is not None:
             d = fx.date.isoformat()
-            if days and fx.date not in day_set:
+            if day_set and fx.date not in day_set:
                 problems.append(f"{path}.date: {d} is not a match day of the calendar")
             for team in (fx.home, fx.away):
                 busy_day[(team, fx.date)] += 1
@@ -130,7 +140,7 @@ def season_problems(league: League) -> list[str]:
                 )
     # A team plays at most rounds_per_day games on a match day, so it needs at least
     # ceil(games / rounds_per_day) match days it is available on.
-    if days:
+    if days and not open_end:
         first_index = {}
         for i, entry in enumerate(rules.unavailable):
             first_index.setdefault(entry.team, i)

@@ -46,7 +46,14 @@ from scheduler.errors import ConfigError
 
 def load_league(path: str | Path) -> League:
     """Read, check and build the league in ``path`` (``.toml``, ``.yaml`` or ``.yml``)."""
-    data = read_file(path)
+    try:
+        data = read_file(path)
+    except ConfigError:
+        raise
+    except Exception as exc:  # never a traceback for a league organizer
+        raise ConfigError(
+            [f"the file could not be read ({type(exc).__name__}: {exc})"], path=str(path)
+        ) from exc
     return parse_league(data, source=str(path))
 
 

@@ -481,3 +481,20 @@ def test_rounds_per_day_needs_kickoff_times():
     # Without slots the venue has one kick-off per round of the day (kickoff + k * game_minutes).
     club["venues"][0].pop("slots")
     assert parse_league(club).calendar.rounds_per_day == 4
+
+
+def test_open_ended_season_can_grow_around_rules():
+    """Without calendar.end the planner may add match days, so no counting check applies; a
+    fixed date must still be an allowed weekday."""
+    data = county()
+    del data["calendar"]["end"]
+    data["calendar"]["excluded"] = []
+    data["rules"]["no_home_games"] = data["rules"]["no_home_games"][:1]
+    data["rules"]["unavailable"] = [{"team": "Westermoor", "dates": ["2027-08-14..2027-12-31"]}]
+    data["rules"]["fixed"][0].pop("round")
+    data["rules"]["fixed"][0]["date"] = dt.date(2029, 8, 18)  # a Saturday, far ahead
+    assert dt.date(2029, 8, 18).weekday() == 5
+    assert parse_league(data).calendar.end is None
+    data["rules"]["fixed"][0]["date"] = dt.date(2029, 8, 19)
+    problem = only_problem(data)
+    assert problem == "rules.fixed[0].date: 2029-08-19 is not a match day of the calendar"

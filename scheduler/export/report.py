@@ -33,6 +33,9 @@ from scheduler.season import Season
 TEXT_LIMIT = 40
 """Largest number of rows (teams, rounds) whose SVG cells get their own text."""
 
+CATEGORY_LIMIT = 60
+"""Most courts (or venues) drawn per team; beyond it the page says so instead of drawing."""
+
 # Okabe–Ito colours.
 OI_ORANGE = "#E69F00"
 OI_SKY = "#56B4E9"
@@ -576,7 +579,7 @@ def report_context(season: Season, fairness) -> dict:
         slot_bars = stacked_bars(
             names, [t.slots for t in fr.team_figures], fr.slot_names, "Time slots per team"
         )
-    if fr.court_names:
+    if fr.court_names and len(fr.court_names) <= CATEGORY_LIMIT:
         if len(fr.court_names) <= 8:
             court_bars = stacked_bars(
                 names, [t.courts for t in fr.team_figures], fr.court_names, "Courts per team"
@@ -613,6 +616,7 @@ def report_context(season: Season, fairness) -> dict:
         "court_bars": court_bars,
         "venue_bars": venue_bars,
         "small": small,
+        "too_many_courts": len(fr.court_names) > CATEGORY_LIMIT,
         "rounds": rounds,
         "byes": {r: season.byes[r] for r in sorted(season.byes)},
         "text_limit": TEXT_LIMIT,

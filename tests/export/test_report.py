@@ -1,0 +1,144 @@
+"""The season report page (scheduler.export.report): self-contained, escaped, well-formed SVG,
+guarantees first, figures taken from the FairnessReport and matching published bounds."""
+
+from __future__ import annotations
+
+import re
+import xml.etree.ElementTree as ET
+from html.parser import HTMLParser
+
+import pytest
+
+from scheduler.export.report import TEXT_LIMIT, render_report
+from scheduler.fairness import compute_fairness
+from tests.export.samples import FORMULA, TRICKY, make_season
+
+SCRIPTY = "<script>alert(1)</script>"
+TEAMS = ("Ashford Rovers", TRICKY, FORMULA, "Dunmore Town", SCRIPTY, "Fenwick Albion",
+         "Glenrothes", "Hallam")  # fmt: skip
+
+
+@pytest.fixture(scope="module")
+def season():
+    return make_season(TEAMS)
+
+
+@pytest.fixture(scope="module")
+def fairness(season):
+    return compute_fairness(season)
+
+
+@pytest.fixture(scope="module")
+def page(season, fairness):
+    return render_report(season, fairness)
+
+
+class _Collector(HTMLParser):
+    def __init__(self):
+        super().__init__()
+        self.tags: list[str] = []
+        self.attrs: list[tuple[str, str, str | None]] = []
+
+    def handle_starttag(self, tag, attrs):
+        self.tags.append(tag)
+        self.attrs += [(tag, k, v) for k, v in attrs]
+
+
+def test_self_contained_no_scripts(page):
+    # Parsed by the standard library's HTML parser: no script, no external resource.
+    c = _Collector()
+    c.feed(page)
+    assert "script" not in c.tags and "link" not in c.tags and "img" not in c.tags
+    for tag, key, value in c.attrs:
+        assert key != "src", tag
+        if key == "href":
+            assert value.startswith("#"), value
+        assert not key.startswith("on"), (tag, key)
+    assert "@import" not in page
+    assert re.findall(r"url\(([^)]*)\)", page) == [
+        u for u in re.findall(r"url\(([^)]*)\)", page) if u.startswith("#")
+    ]
+
+
+def test_user_text_is_escaped(page):
+    # Jinja2 autoescape and markupsafe in the SVG code: the team name shows as text.
+    assert SCRIPTY not in page
+    assert "&lt;script&gt;alert(1)&lt;/script&gt;" in page
+    assert "Saints, &#34;Old&#34;; Boys" in page or "Saints, &quot;Old&quot;; Boys" in page
+
+
+def test_every_svg_is_well_formed_xml(page):
+    svgs = re.findall(r"<svg\b.*?</svg>", page, flags=re.S)
+    assert len(svgs) >= 5  # gauge, grid, carry-over, mixing, slot/court/venue bars
+    for svg in svgs:
+        root = ET.fromstring(svg)  # an independent XML parser
+        assert root.tag.endswith("svg")
+        assert root.find("{http://www.w3.org/2000/svg}title") is not None
+
+
+def test_guarantees_come_first(page):
+    order = [page.index(f'id="{s}"') for s in ("guarantees", "grid", "carry", "mixing", "places")]
+    assert order == sorted(order)
+
+
+def test_carry_over_bounds_match_the_literature(page, fairness):
+    # Russell (1980): lower bound n(n-1) = 56 for n = 8; Lambrechts et al. (2018): the circle
+    # method gives the maximum, (n-1)(n^2-6n+12) = 196 for n = 8 (check values of
+    # shared/reference/fairness.md §2). Our sample is a circle-method schedule.
+    assert fairness.carry_over_lower_bound == 56
+    assert fairness.carry_over_upper_bound == 196
+    assert fairness.carry_over_value == 196
+    card = page[page.index("<h3>Carry-over</h3>") :]
+    card = card[: card.index("</article>")]
+    assert "between 56 = n(n−1) and 196 = (n−1)(n²−6n+12)" in card
+    assert "Russell" in card and "Lambrechts" in card
+
+
+def test_breaks_and_mixing_cards_show_report_figures(page, fairness):
+    card = page[page.index("<h3>Breaks</h3>") :]
+    card = card[: card.index("</article>")]
+    assert f">{fairness.breaks_total}<" in card
+    assert f"lower bound {fairness.breaks_lower_bound}" in card
+    # de Werra (1981): a mirrored double round robin of n even teams has at least 3n-6 breaks.
+    assert fairness.breaks_lower_bound == 3 * 8 - 6
+    mixing = page[page.index("<h3>Mixing certificate</h3>") :]
+    mixing = mixing[: mixing.index("</article>")]
+    # K_8 from the circle method is perfect (n-1 = 7 prime; Kotzig 1964 / Wallis 1997).
+    assert f"{fairness.perfect_pairs} of {fairness.pairs}" in mixing and fairness.perfect
+    assert fairness.pairs == 7 * 6 // 2
+
+
+def test_rest_caution_present(page):
+    assert "can put players at risk" in page
+    assert "governing body" in page and "local regulations" in page and "precedence" in page
+
+
+def test_grid_letters_match_patterns(page, fairness):
+    grid = page[page.index('id="grid"') : page.index('id="carry"')]
+    letters = re.findall(r'class="cell" fill="[^"]+">([HABX])</text>', grid)
+    assert letters.count("H") == sum(fairness.home_counts)
+    assert letters.count("A") == sum(fairness.away_counts)
+    assert "".join(letters) == "".join(t.pattern for t in fairness.team_figures)
+
+
+def test_byes_shown_for_odd_league():
+    odd = make_season(("North", "South", "East", "West", "Centre"))
+    html = render_report(odd, compute_fairness(odd))
+    grid = html[html.index('id="grid"') : html.index('id="carry"')]
+    assert len(re.findall(r">B</text>", grid)) == sum(len(v) for v in odd.byes.values())
+    assert "Bye: " in html
+
+
+def test_deterministic(season, fairness, page):
+    assert render_report(make_season(TEAMS), compute_fairness(make_season(TEAMS))) == page
+
+
+def test_large_league_page_stays_small():
+    big = make_season(tuple(f"Club {i:02d}" for i in range(TEXT_LIMIT + 12)))
+    html = render_report(big, compute_fairness(big))
+    assert len(html.encode()) < 1_500_000
+    carry = html[html.index('id="carry"') : html.index('id="mixing"')]
+    assert "<text" not in carry.split("</title>", 1)[1]  # no per-cell text beyond the limit
+    cells = re.sub(r"<defs>.*?</defs>", "", carry, flags=re.S)
+    assert "<rect" not in cells  # cells merged into one path per colour
+    assert cells.count("<path") <= 64

@@ -148,40 +148,34 @@ def prime_power(q: int) -> tuple[int, int] | None:
     return (p, k) if r == 1 else None
 
 
-def _poly_mul_table(p: int, k: int, poly: tuple[int, ...]) -> np.ndarray:
-    """Multiplication table of ``Z_p[x] / (x^k + poly[k-1] x^{k-1} + ... + poly[0])``."""
+def _powers_of_x(p: int, k: int, poly: tuple[int, ...]) -> list[int] | None:
+    """Codes of ``x^0, x^1, ..., x^(q-2)`` in ``Z_p[x] / (x^k + poly[k-1] x^(k-1) + ...
+    + poly[0])`` when ``x`` has order ``q - 1`` there (``poly`` primitive), else ``None``."""
     q = p**k
-    # x^i reduced, for i < 2k-1, as coefficient vectors
-    def reduce(coeffs: list[int]) -> list[int]:
-        c = coeffs[:]
-        for deg in range(len(c) - 1, k - 1, -1):
-            lead = c[deg] % p
-            if lead:
-                c[deg] = 0
-                for t in range(k):
-                    c[deg - k + t] = (c[deg - k + t] - lead * poly[t]) % p
-        return [v % p for v in c[:k]]
-
-    vecs = [[(x // p**t) % p for t in range(k)] for x in range(q)]
-    table = np.zeros((q, q), dtype=np.int32)
-    weights = [p**t for t in range(k)]
-    for a in range(q):
-        va = vecs[a]
-        for b in range(a, q):
-            vb = vecs[b]
-            prod_c = [0] * (2 * k - 1)
-            for i, ca in enumerate(va):
-                if ca:
-                    for j, cb in enumerate(vb):
-                        prod_c[i + j] += ca * cb
-            red = reduce(prod_c)
-            code = sum(w * c for w, c in zip(weights, red, strict=True))
-            table[a, b] = table[b, a] = code
-    return table
+    vec = [1] + [0] * (k - 1)
+    codes = []
+    seen = set()
+    for _ in range(q - 1):
+        code = sum(c * p**t for t, c in enumerate(vec))
+        if code in seen:
+            return None
+        seen.add(code)
+        codes.append(code)
+        # multiply by x: shift up, reduce x^k = -(poly[0] + ... + poly[k-1] x^(k-1))
+        top = vec[-1]
+        vec = [0, *vec[:-1]]
+        if top:
+            vec = [(c - top * poly[t]) % p for t, c in enumerate(vec)]
+    return codes
 
 
 def galois_field(q: int) -> AbelianGroup:
-    """The additive group of ``GF(q)`` (``q`` an odd prime power) with field multiplication."""
+    """The additive group of ``GF(q)`` (``q`` an odd prime power) with field multiplication.
+
+    The polynomial is the first primitive one in lexicographic order of its coefficient vector
+    ``(c_0, ..., c_{k-1})`` of ``x^k + c_{k-1} x^{k-1} + ... + c_0``; multiplication uses
+    discrete logarithms to the base ``x`` (Lidl and Niederreiter, ch. 2 and 9).
+    """
     _check_order(q)
     pk = prime_power(q)
     if pk is None:
@@ -191,18 +185,19 @@ def galois_field(q: int) -> AbelianGroup:
         g = cyclic(p)
         return AbelianGroup(f"GF({q})", (p,), "field", g.add, g.neg, g.mul, (0,))
     add, neg, _ = _mixed_tables((p,) * k)
-    x_code = p  # the polynomial x
     for poly in itertools.product(range(p), repeat=k):
         if poly[0] == 0:
             continue
-        mul = _poly_mul_table(p, k, poly)
-        # primitive: powers of x run through all q-1 non-zero elements
-        seen, e = set(), 1
-        for _ in range(q - 1):
-            seen.add(e)
-            e = int(mul[e, x_code])
-        if len(seen) == q - 1 and 0 not in seen:
-            return AbelianGroup(f"GF({q})", (p,) * k, "field", add, neg, mul, tuple(poly))
+        powers = _powers_of_x(p, k, poly)
+        if powers is None:
+            continue
+        exp = np.array(powers, dtype=np.int64)
+        log = np.zeros(q, dtype=np.int64)
+        log[exp] = np.arange(q - 1)
+        logs = (log[1:, None] + log[None, 1:]) % (q - 1)
+        mul = np.zeros((q, q), dtype=np.int32)
+        mul[1:, 1:] = exp[logs]
+        return AbelianGroup(f"GF({q})", (p,) * k, "field", add, neg, mul, tuple(poly))
     raise AssertionError(f"no primitive polynomial found for GF({q})")  # pragma: no cover
 
 

@@ -128,13 +128,16 @@ def search_perfect_starter(
     multiplier: int = 1,
     base_nodes: int = 20_000,
     max_run_nodes: int = 5_000_000,
+    max_nodes: int | None = None,
     progress: Progress | None = None,
 ) -> StarterSearchResult:
     """Search ``group`` for a perfect starter (invariant under ``x -> multiplier * x``).
 
     ``budget`` is in seconds of wall time (checked between runs; one run is at most
     ``max_run_nodes`` nodes). ``progress(fraction, message)`` is called after each run with the
-    fraction of the budget used. Every starter returned has been re-checked with
+    fraction of the budget used. ``max_nodes`` (if given) also stops the search after that
+    many nodes in total: a work limit, unlike the clock, gives the same outcome on every
+    machine. Every starter returned has been re-checked with
     :func:`~scheduler.factorization.starters.is_perfect_starter`.
     """
     if isinstance(seed, bool) or not isinstance(seed, int):
@@ -151,6 +154,8 @@ def search_perfect_starter(
     while True:
         runs += 1
         limit = min(max_run_nodes, base_nodes * luby(runs))
+        if max_nodes is not None:
+            limit = max(1, min(limit, max_nodes - nodes))
         status, used, _ = search_kernel(
             m, add, neg, mulu, reps, weights, 0, _run_seed(seed, runs), limit, out
         )
@@ -173,6 +178,6 @@ def search_perfect_starter(
         if progress:
             progress(min(1.0, elapsed / budget),
                      f"searching {group.name}: {runs} runs, {nodes} nodes")
-        if elapsed >= budget:
+        if elapsed >= budget or (max_nodes is not None and nodes >= max_nodes):
             return StarterSearchResult(group.name, multiplier, seed, None, runs, nodes, elapsed,
                                        False)

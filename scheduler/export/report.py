@@ -134,7 +134,7 @@ _PATTERNS = (
     "<defs>"
     '<pattern id="p-hatch" width="6" height="6" patternUnits="userSpaceOnUse" '
     'patternTransform="rotate(45)"><rect width="6" height="6" fill="#FFFFFF"/>'
-    '<line x1="0" y1="0" x2="0" y2="6" stroke="#8A8A8A" stroke-width="2"/></pattern>'
+    '<line x1="0" y1="0" x2="0" y2="6" stroke="#B0B0B0" stroke-width="1.6"/></pattern>'
     '<pattern id="p-cross" width="6" height="6" patternUnits="userSpaceOnUse">'
     f'<rect width="6" height="6" fill="{OI_VERMILLION}"/>'
     '<path d="M0 0L6 6M6 0L0 6" stroke="#FFFFFF" stroke-width="1"/></pattern>'
@@ -218,7 +218,8 @@ def home_away_grid(fairness, side_labels: tuple[str, str] = ("H", "A")) -> Marku
                     f'text-anchor="middle" class="cell" fill="{ink}">{letters.get(ch, ch)}</text>'
                 )
             if r in breaks:
-                marks.cell(f'fill="{OI_BLACK}"', x, y + cell - 5, cell - 1, 3)
+                mark = 3 if small else 1
+                marks.cell(f'fill="{OI_BLACK}"', x, y + cell - 2 - mark, cell - 1, mark)
     if small:
         for r in range(1, rounds + 1):
             x = left + (r - 1) * cell + (cell - 1) / 2
@@ -535,7 +536,7 @@ def _cards(season: Season, fr) -> list[Card]:
                 "When team A's opponent in one round was team B, A meets its next opponent just "
                 "after B did: B's effect (a tired or a confident side) carries over. The value "
                 "is the sum of squares of how often each team passes such an effect to each "
-                "other team; lower is fairer. " + fr.carry_over_convention + ".",
+                "other team; lower is fairer (the exact convention is under the matrix below).",
                 CARRY_OVER_SOURCES,
                 bound_gauge(fr.carry_over_value, low, high) if low is not None else None,
             )

@@ -157,3 +157,41 @@ def test_workbook_cells_are_inert(xlsx_path):
 def test_workbook_bytes_identical(season):
     # Fixed document properties and zip member times (see xlsx module docstring).
     assert workbook_bytes(season) == workbook_bytes(make_season(season.teams))
+
+
+def test_fairness_sheet_holds_the_report_figures(season, tmp_path):
+    from scheduler.fairness import compute_fairness
+
+    fairness = compute_fairness(season)
+    path = tmp_path / "with_fairness.xlsx"
+    write_workbook(season, fairness, path)
+    wb = openpyxl.load_workbook(path)
+    assert wb.sheetnames[:3] == ["Fixtures", "Grid", "Fairness"]
+    ws = wb["Fairness"]
+    figures = {
+        ws.cell(row=r, column=1).value: (ws.cell(row=r, column=2).value,
+                                         ws.cell(row=r, column=3).value)
+        for r in range(2, ws.max_row + 1)
+    }  # fmt: skip
+    assert figures["Breaks (total)"] == (fairness.breaks_total, fairness.breaks_lower_bound)
+    assert figures["Carry-over value"][0] == fairness.carry_over_value
+    assert figures["Perfectly mixing round pairs"][0] == (
+        f"{fairness.perfect_pairs} of {fairness.pairs}"
+    )
+    # The per-team table, read back with pandas, equals the report's team figures.
+    top = next(r for r in range(1, ws.max_row + 1) if ws.cell(row=r, column=1).value == "Team")
+    frame = pd.read_excel(path, sheet_name="Fairness", skiprows=top - 1, engine="openpyxl")
+    frame = frame.dropna(subset=["Team"])
+    assert [restore_cell(t) for t in frame["Team"]] == [t.name for t in fairness.team_figures]
+    assert list(frame["Breaks"]) == [t.breaks for t in fairness.team_figures]
+    assert list(frame["Home"]) == [t.home for t in fairness.team_figures]
+    assert list(frame["Pattern"]) == [t.pattern for t in fairness.team_figures]
+
+
+def test_tricky_name_round_trips_in_team_sheet(season, xlsx_path):
+    wb = openpyxl.load_workbook(xlsx_path)
+    tricky_sheet = next(ws for ws in wb.worksheets[2:] if ws.title.startswith("Saints"))
+    opponents = {restore_cell(c.value) for c in tricky_sheet["F"][1:]}
+    assert opponents == set(season.teams) - {TRICKY}
+    # Other teams' sheets name the tricky team exactly (newline included).
+    assert any(c.value == TRICKY for ws in wb.worksheets[2:] for c in ws["F"][1:])

@@ -263,3 +263,34 @@ def test_state_file_round_trip_and_bad_file(season):
     assert CalendarState.from_json(state.to_json()) == state
     with pytest.raises(InputError, match="calendar state"):
         CalendarState.from_json('{"format": "something else"}', location="x.json")
+
+
+def test_fixed_offset_and_dateless_fixtures():
+    # A start with a fixed UTC offset and no league zone is written in UTC (RFC 5545 §3.3.5
+    # form 2); a fixture with a date but no kick-off is an all-day event (§3.6.1 VALUE=DATE);
+    # a fixture without any date is left out.
+    from dataclasses import replace
+    from datetime import timezone
+
+    base = make_season(("North", "South", "East", "West"), timezone=None)
+    offset = timezone(timedelta(hours=2))
+    fixtures = list(base.fixtures)
+    fixtures[0] = replace(fixtures[0], start=fixtures[0].start.replace(tzinfo=offset))
+    fixtures[1] = replace(fixtures[1], start=None)
+    fixtures[2] = replace(fixtures[2], start=None, date=None)
+    season = replace(base, fixtures=tuple(fixtures))
+    data = league_calendar(season)
+    events = check_rfc5545(data)
+    assert len(events) == len(fixtures) - 1
+    cal, _ = parse_both(data)
+    summary = f"{fixtures[0].home} v {fixtures[0].away}"
+    (first,) = [
+        e
+        for e in cal.walk("VEVENT")
+        if str(e["summary"]) == summary and "leg 1" in str(e["description"])
+    ]
+    assert first.decoded("dtstart").utcoffset() == timedelta(0)
+    assert first.decoded("dtstart") == fixtures[0].start
+    all_day = [e for e in cal.walk("VEVENT") if not isinstance(e.decoded("dtstart"), datetime)]
+    assert [e.decoded("dtstart") for e in all_day] == [fixtures[1].date]
+    assert all_day[0].decoded("dtend") == fixtures[1].date + timedelta(days=1)

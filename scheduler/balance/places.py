@@ -95,9 +95,6 @@ def assign_places(league: League, tt: Timetable, limits: SolveLimits) -> Placeme
         days.setdefault(tt.day[s], []).append(s)
     games = [(s, i, h, a) for s in range(P) for i, (h, a) in enumerate(tt.games[s])]
     opts = {(s, i): options(h) for s, i, h, _ in games}
-    if all(len(o) == 1 for o in opts.values()):
-        chosen = {key: o[0] for key, o in opts.items()}
-        return _result(tt, all_places, chosen, None, None, "optimal")
     for d, rounds in days.items():
         need = sum(len(tt.games[s]) for s in rounds)
         if need > len(everywhere) and not venue_mode:
@@ -106,6 +103,9 @@ def assign_places(league: League, tt: Timetable, limits: SolveLimits) -> Placeme
                 [f"{len(everywhere)} places (courts × time slots) at the venues",
                  f"{need} games on {tt.days[d].isoformat() if tt.days else 'a match day'}"])
 
+    if all(len(o) == 1 for o in opts.values()):
+        chosen = {key: o[0] for key, o in opts.items()}
+        return _result(tt, all_places, chosen, None, None, "optimal")
     m = cp_model.CpModel()
     x: dict[tuple[int, int, int], cp_model.IntVar] = {}
     for s, i, _, _ in games:
@@ -166,6 +166,16 @@ def assign_places(league: League, tt: Timetable, limits: SolveLimits) -> Placeme
     else:
         # no balance wanted: the first places in the venues' order
         m.Minimize(sum(p * lit for (s, i, p), lit in x.items()))
+    if len(league.venues) == 1 and len(times) == 1 and tt.games:
+        # the courts of one venue with one kick-off time are interchangeable: relabel them so
+        # that game i of the first round is on court i (symmetry breaking, no loss)
+        first = min(range(P), key=lambda s: (tt.day[s], s))
+        if len(days[tt.day[first]]) == 1:
+            for i in range(len(tt.games[first])):
+                m.Add(x[(first, i, everywhere[i])] == 1)
+    for key, p in _greedy(games, opts, days, all_places, tt).items():
+        for q in opts[key]:
+            m.AddHint(x[(key[0], key[1], q)], q == p)
     solver = cp_model.CpSolver()
     configure(solver, limits)
     status = solver.Solve(m)
@@ -188,6 +198,42 @@ def assign_places(league: League, tt: Timetable, limits: SolveLimits) -> Placeme
             slot_max = solver.Value(var)
     return _result(tt, all_places, chosen, court_max, slot_max,
                    "optimal" if status == cp_model.OPTIMAL else "feasible")
+
+
+def _greedy(games, opts, days, all_places, tt) -> dict[tuple[int, int], int]:
+    """A start for the solver: each game, in round order, takes the free place whose court and
+    slot its two teams have used least so far (ties: the first place)."""
+    court: dict = {}
+    slot: dict = {}
+    chosen: dict[tuple[int, int], int] = {}
+    for _d, rounds in sorted(days.items()):
+        taken: set[int] = set()
+        times_of: dict[int, set[int]] = {}
+        for s in rounds:
+            used_before = set().union(*(times_of.get(r, set()) for r in rounds if r != s))
+            for i, (h, a) in enumerate(tt.games[s]):
+                best = None
+                for p in opts[(s, i)]:
+                    pl = all_places[p]
+                    if p in taken or _minutes(pl.slot) in used_before:
+                        continue
+                    ck, sk = (pl.venue, pl.court), _minutes(pl.slot)
+                    cost = (court.get((h, ck), 0) + court.get((a, ck), 0)
+                            + slot.get((h, sk), 0) + slot.get((a, sk), 0))
+                    if best is None or cost < best[0]:
+                        best = (cost, p)
+                if best is None:
+                    return chosen
+                p = best[1]
+                pl = all_places[p]
+                ck, sk = (pl.venue, pl.court), _minutes(pl.slot)
+                for t in (h, a):
+                    court[(t, ck)] = court.get((t, ck), 0) + 1
+                    slot[(t, sk)] = slot.get((t, sk), 0) + 1
+                taken.add(p)
+                times_of.setdefault(s, set()).add(sk)
+                chosen[(s, i)] = p
+    return chosen
 
 
 def _result(tt, all_places, chosen, court_max, slot_max, status) -> Placement:

@@ -11,8 +11,10 @@ themselves, they write what ``scheduler.fairness`` measured.
 * ``season_json`` / ``readers``: the season file and schedule readers
 """
 
+from scheduler.export.bundle import write_season_outputs
 from scheduler.export.csv_out import fixtures_csv
 from scheduler.export.ics import CalendarState, league_calendar, plan_calendar, team_calendar
+from scheduler.export.report import render_report
 from scheduler.export.safety import (
     atomic_write_bytes,
     atomic_write_text,
@@ -30,8 +32,10 @@ __all__ = [
     "league_calendar",
     "neutralise_cell",
     "plan_calendar",
+    "render_report",
     "restore_cell",
     "safe_filename",
     "team_calendar",
+    "write_season_outputs",
     "write_workbook",
 ]

@@ -57,7 +57,7 @@ STATE_VERSION = 1
 DEFAULT_GAME_MINUTES = 90
 
 _STAMP_EPOCH = datetime(2000, 1, 1, tzinfo=UTC)
-_STAMP_SPAN = 30 * 365 * 86400
+_STAMP_SPAN = 20 * 365 * 86400  # 2000-2019: never a future time
 
 
 # --------------------------------------------------------------------------- state

@@ -144,3 +144,24 @@ def test_replan_in_folder_updates_calendars(season, tmp_path):
     for team in f.teams:
         team_feed = events(tmp_path / "calendars" / names[team])
         assert str(team_feed[cancelled[0]]["status"]) == "CANCELLED"
+
+
+def test_lost_state_file_falls_back_to_season_json(season, tmp_path):
+    write(season, tmp_path)
+    feed = tmp_path / "calendars" / "league.ics"
+    first = feed.read_bytes()
+    (tmp_path / "calendars" / ".sequence.json").unlink()
+    write(season, tmp_path)  # same plan, state rebuilt from season.json alone
+    assert feed.read_bytes() == first
+    (tmp_path / "calendars" / ".sequence.json").unlink()
+    write(move_fixture(season, 1, 3, revision="r2"), tmp_path)
+    sequences = sorted(int(e["sequence"]) for e in events(feed).values())
+    assert sequences == [0] * (len(season.fixtures) - 1) + [1]
+
+
+def test_damaged_state_file_is_refused(season, tmp_path):
+    write(season, tmp_path)
+    (tmp_path / "calendars" / ".sequence.json").write_text("{broken")
+    with pytest.raises(OutputError, match="damaged"):
+        write(season, tmp_path)
+    write(season, tmp_path, force=True)

@@ -53,6 +53,7 @@ from pathlib import Path
 from zoneinfo import ZoneInfo, ZoneInfoNotFoundError
 
 from scheduler.errors import InputError
+from scheduler.fairness.table import MAX_ROUNDS
 from scheduler.season import Fixture, Season
 
 MAX_FILE_BYTES = 100 * 1024 * 1024
@@ -216,22 +217,34 @@ def _expected_message() -> str:
 _INT = re.compile(r"\d+")
 
 
-def _as_int(value, what: str, loc: str) -> int:
+class _Bad(ValueError):
+    """A cell value that cannot be used; the caller adds the location."""
+
+
+def _as_int(value, what: str) -> int:
+    if type(value) is str and value.isdigit():
+        return int(value)
     if isinstance(value, bool):
-        raise InputError(f"{what} must be a whole number, got {value!r}", location=loc)
+        raise _Bad(f"{what} must be a whole number, got {value!r}")
     if isinstance(value, int):
         return value
     if isinstance(value, float):
         if value.is_integer():
             return int(value)
-        raise InputError(f"{what} must be a whole number, got {value!r}", location=loc)
+        raise _Bad(f"{what} must be a whole number, got {value!r}")
     m = _INT.search(str(value))
     if not m:
-        raise InputError(f"{what} must be a number, got {str(value)!r}", location=loc)
+        raise _Bad(f"{what} must be a number, got {str(value)!r}")
     return int(m.group())
 
 
 def _text(value) -> str:
+    """The cell as text with runs of white space collapsed ("" for an empty cell)."""
+    if type(value) is str:
+        stripped = value.strip()
+        if "  " not in stripped and "\t" not in stripped and "\n" not in stripped:
+            return stripped
+        return " ".join(stripped.split())
     if value is None:
         return ""
     if isinstance(value, float) and value.is_integer():
@@ -267,7 +280,7 @@ def _parse_datetime_text(text: str) -> datetime | None:
         return None
 
 
-def _as_date(value, month_first: bool, loc: str) -> tuple[date | None, datetime | None]:
+def _as_date(value, month_first: bool) -> tuple[date | None, datetime | None]:
     """(date, full datetime when the cell holds one)."""
     if value is None or value == "":
         return None, None
@@ -286,13 +299,13 @@ def _as_date(value, month_first: bool, loc: str) -> tuple[date | None, datetime 
     full = _parse_datetime_text(text)
     if full is not None:
         return full.date(), (full if full.tzinfo else None)
-    raise InputError(f"not a date: {text!r} (use YYYY-MM-DD)", location=loc)
+    raise _Bad(f"not a date: {text!r} (use YYYY-MM-DD)")
 
 
 _TIME = re.compile(r"^(\d{1,2})[:.h](\d{2})(?::(\d{2}))?\s*([ap]\.?m\.?)?$", re.IGNORECASE)
 
 
-def _as_time(value, loc: str) -> tuple[time | None, datetime | None]:
+def _as_time(value) -> tuple[time | None, datetime | None]:
     """(time of day, full aware datetime when the cell holds one with an offset)."""
     if value is None or value == "":
         return None, None
@@ -317,7 +330,7 @@ def _as_time(value, loc: str) -> tuple[time | None, datetime | None]:
     full = _parse_datetime_text(text)
     if full is not None:
         return full.time(), (full if full.tzinfo else None)
-    raise InputError(f"not a time of day: {text!r} (use HH:MM)", location=loc)
+    raise _Bad(f"not a time of day: {text!r} (use HH:MM)")
 
 
 # --------------------------------------------------------------------------- rows -> season
@@ -336,6 +349,13 @@ class _Row:
     day: date | None
     clock: time | None
     start: datetime | None
+
+
+def _blank(cells: list) -> bool:
+    try:
+        return not "".join(cells).strip()
+    except TypeError:
+        return all(_text(c) == "" for c in cells)
 
 
 def _cell(cells: list, col: int | None):
@@ -380,51 +400,79 @@ def _rows_to_schedule(
 
     parsed: list[_Row] = []
     byes: list[tuple[int, int | None, date | None, str]] = []
+    col = {field: found.get(field) for field in SYNONYMS}
+    split_match = "match" in found and not ("home" in found and "away" in found)
+    date_cache: dict = {}
+    time_cache: dict = {}
     for rownum, cells in data_rows:
-        if all(_text(c) == "" for c in cells):
+        if _blank(cells):
             continue
-        if "match" in found and not ("home" in found and "away" in found):
-            text = _text(_cell(cells, found["match"]))
-            parts = _MATCH_SPLIT.split(text, maxsplit=1)
-            if len(parts) != 2:
-                raise InputError(
-                    f"cannot split {text!r} into two teams (write 'Home v Away')",
-                    location=loc(rownum, "match"),
-                )
-            home, away = _text(parts[0]), _text(parts[1])
-        else:
-            home = _text(_cell(cells, found["home"]))
-            away = _text(_cell(cells, found["away"]))
-        rnd = None
-        if "round" in found:
-            raw = _cell(cells, found["round"])
-            if _text(raw) == "":
-                raise InputError("the round is empty", location=loc(rownum, "round"))
-            rnd = _as_int(raw, "the round", loc(rownum, "round"))
-        leg = None
-        if "leg" in found and _text(_cell(cells, found["leg"])) != "":
-            leg = _as_int(_cell(cells, found["leg"]), "the leg", loc(rownum, "leg"))
-        day, full = (None, None)
-        if date_col is not None:
-            day, full = _as_date(_cell(cells, date_col), month_first, loc(rownum, "date"))
-        clock = None
-        if "time" in found:
-            clock, full_t = _as_time(_cell(cells, found["time"]), loc(rownum, "time"))
-            full = full_t or full
-            if full_t is not None and day is None:
-                day = full_t.date()
-        if home.lower() in BYE_WORDS and away.lower() in BYE_WORDS:
+        field = "match"
+        try:
+            if split_match:
+                text = _text(_cell(cells, col["match"]))
+                parts = _MATCH_SPLIT.split(text, maxsplit=1)
+                if len(parts) != 2:
+                    raise _Bad(f"cannot split {text!r} into two teams (write 'Home v Away')")
+                home, away = _text(parts[0]), _text(parts[1])
+            else:
+                home = _text(_cell(cells, col["home"]))
+                away = _text(_cell(cells, col["away"]))
+            rnd = None
+            field = "round"
+            if col["round"] is not None:
+                raw = _cell(cells, col["round"])
+                if _text(raw) == "":
+                    raise _Bad("the round is empty")
+                rnd = _as_int(raw, "the round")
+                if rnd > MAX_ROUNDS:
+                    raise _Bad(
+                        f"round {rnd} is not a plausible round number (at most {MAX_ROUNDS})"
+                    )
+            leg = None
+            field = "leg"
+            if col["leg"] is not None and _text(_cell(cells, col["leg"])) != "":
+                leg = _as_int(_cell(cells, col["leg"]), "the leg")
+            day, full = (None, None)
+            field = "date"
+            if date_col is not None:
+                raw = _cell(cells, date_col)
+                key = raw if isinstance(raw, str) else None
+                if key is not None and key in date_cache:
+                    day, full = date_cache[key]
+                else:
+                    day, full = _as_date(raw, month_first)
+                    if key is not None:
+                        date_cache[key] = (day, full)
+            clock = None
+            field = "time"
+            if col["time"] is not None:
+                raw = _cell(cells, col["time"])
+                key = raw if isinstance(raw, str) else None
+                if key is not None and key in time_cache:
+                    clock, full_t = time_cache[key]
+                else:
+                    clock, full_t = _as_time(raw)
+                    if key is not None:
+                        time_cache[key] = (clock, full_t)
+                full = full_t or full
+                if full_t is not None and day is None:
+                    day = full_t.date()
+        except _Bad as exc:
+            raise InputError(str(exc), location=loc(rownum, field)) from exc
+        home_bye = home.lower() in BYE_WORDS
+        away_bye = away.lower() in BYE_WORDS
+        if home_bye and away_bye:
             continue
-        if away.lower() in BYE_WORDS or home.lower() in BYE_WORDS:
-            team = home if away.lower() in BYE_WORDS else away
-            byes.append((rownum, rnd, day, team))
+        if home_bye or away_bye:
+            byes.append((rownum, rnd, day, home if away_bye else away))
             continue
         start = None
         if full is not None and full.tzinfo is not None:
             start = full.astimezone(zone) if zone else full
         elif zone is not None and day is not None and clock is not None:
             start = datetime.combine(day, clock, tzinfo=zone)
-        slot = _text(_cell(cells, found.get("slot"))) or None
+        slot = _text(_cell(cells, col["slot"])) or None
         if slot is None and clock is not None and start is None:
             slot = clock.strftime("%H:%M")
         parsed.append(
@@ -434,8 +482,8 @@ def _rows_to_schedule(
                 leg=leg,
                 home=home,
                 away=away,
-                venue=_text(_cell(cells, found.get("venue"))) or None,
-                court=_text(_cell(cells, found.get("court"))) or None,
+                venue=_text(_cell(cells, col["venue"])) or None,
+                court=_text(_cell(cells, col["court"])) or None,
                 slot=slot,
                 day=day,
                 clock=clock,
@@ -464,7 +512,11 @@ def _rows_to_schedule(
                 raise InputError("the leg is empty", location=loc(r.rownum, "leg"))
         legs = max(r.leg for r in parsed)
     else:
-        meets = Counter(frozenset((r.home, r.away)) for r in parsed if r.home != r.away)
+        meets = Counter(
+            (r.home, r.away) if r.home < r.away else (r.away, r.home)
+            for r in parsed
+            if r.home != r.away
+        )
         mode = Counter(meets.values()).most_common(1)[0][0] if meets else 1
         rounds = max(r.round for r in parsed)
         if mode > 1 and rounds % mode == 0:

@@ -13,7 +13,11 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from scheduler.errors import InputError
 from scheduler.season import Season
+
+MAX_ROUNDS = 100_000
+"""Largest round number measured (a guard against a mistyped round such as 20250301)."""
 
 
 @dataclass(frozen=True)
@@ -65,6 +69,12 @@ def build_table(season: Season) -> SeasonTable:
     home, away, rnd, leg = home[keep], away[keep], rnd[keep] - 1, leg[keep]
     rounds = int(rnd.max()) + 1 if len(rnd) else 0
     rounds = max(rounds, max((r for r in season.byes if r >= 1), default=0))
+    if rounds > MAX_ROUNDS:
+        where = int(np.argmax(rnd)) if len(rnd) and rnd.max() + 1 == rounds else None
+        at = f"fixture {int(keep[where]) + 1}" if where is not None else "byes"
+        raise InputError(
+            f"round {rounds} is not a plausible round number (at most {MAX_ROUNDS})", location=at
+        )
 
     sign = np.zeros((rounds, n), dtype=np.int8)
     plays = np.zeros((rounds, n), dtype=np.int32)

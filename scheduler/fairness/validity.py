@@ -27,6 +27,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from scheduler.fairness.table import SeasonTable, build_table
 from scheduler.season import Season
 
 MAX_PER_KIND = 100
@@ -141,84 +142,134 @@ def validate_season(season: Season, rows: Sequence[int | None] | None = None) ->
         if f.home == f.away:
             out.add("plays-itself", f"round {f.round}: {f.home} plays itself", [i])
 
-    # A team in more than one game of a round.
-    slots: dict[tuple[int, str], list[int]] = defaultdict(list)
-    for i, f in enumerate(fixtures):
-        slots[(f.round, f.home)].append(i)
-        if f.away != f.home:
-            slots[(f.round, f.away)].append(i)
-    for (rnd, name), idx in sorted(slots.items(), key=lambda kv: (kv[0][0], kv[1][0])):
-        if len(idx) > 1 and rnd >= 1:
-            out.add("plays-twice", f"round {rnd}: {name} plays {_times(len(idx))}", idx)
-
-    _check_pairs(season, out)
-    _check_byes(season, slots, out)
+    table = build_table(season)
+    _check_twice(table, out)
+    _check_pairs(season, table, out)
+    _check_byes(season, table, out)
     return out.result()
 
 
-def _check_pairs(season: Season, out: _Collector) -> None:
-    fixtures = season.fixtures
-    names = list(dict.fromkeys(season.teams))
-    index = {name: k for k, name in enumerate(names)}
-    n = len(names)
-    meetings: dict[tuple[int, int], list[int]] = defaultdict(list)
-    for i, f in enumerate(fixtures):
-        a, b = index.get(f.home), index.get(f.away)
-        if a is None or b is None or a == b:
-            continue
-        meetings[(a, b) if a < b else (b, a)].append(i)
+def _groups(keys: np.ndarray, positions: np.ndarray):
+    """Sort ``keys``; return (unique keys, counts, first position, positions grouped by key)."""
+    order = np.lexsort((positions, keys))
+    keys, positions = keys[order], positions[order]
+    if len(keys) == 0:
+        empty = np.zeros(0, dtype=np.int64)
+        return empty, empty, empty, positions, empty
+    starts = np.flatnonzero(np.concatenate([[True], keys[1:] != keys[:-1]]))
+    counts = np.diff(np.append(starts, len(keys)))
+    return keys[starts], counts, positions[starts], positions, starts
+
+
+def _check_twice(table: SeasonTable, out: _Collector) -> None:
+    """A team in more than one game of a round (vectorised over all fixtures)."""
+    n = max(table.n, 1)
+    other = table.away != table.home
+    keys = np.concatenate([table.round * n + table.home, (table.round * n + table.away)[other]])
+    pos = np.concatenate([table.fixture, table.fixture[other]])
+    uniq, counts, first, grouped, starts = _groups(keys, pos)
+    dup = np.flatnonzero(counts > 1)
+    if not len(dup):
+        return
+    order = np.lexsort((first[dup], uniq[dup] // n))
+    for k in dup[order]:
+        rnd, team = divmod(int(uniq[k]), n)
+        idx = grouped[starts[k] : starts[k] + counts[k]].tolist()
+        out.add("plays-twice", f"round {rnd + 1}: {table.names[team]} plays {_times(len(idx))}",
+                idx)
+
+
+def _check_pairs(season: Season, table: SeasonTable, out: _Collector) -> None:
+    n = table.known
+    names = table.names
     if n < 2:
-        if not fixtures:
+        if not season.fixtures:
             out.add("no-games", "the season has no games")
         return
-    counts = Counter(len(v) for v in meetings.values())
-    zero = n * (n - 1) // 2 - len(meetings)
+    ok = (table.home < n) & (table.away < n) & (table.home != table.away)
+    lo = np.minimum(table.home, table.away)[ok]
+    hi = np.maximum(table.home, table.away)[ok]
+    uniq, counts, first, grouped, starts = _groups(lo * n + hi, table.fixture[ok])
+    zero = n * (n - 1) // 2 - len(uniq)
+    values, freq = np.unique(counts, return_counts=True)
+    tally = dict(zip(values.tolist(), freq.tolist(), strict=True))
     if zero:
-        counts[0] += zero
-    expected = max(counts.items(), key=lambda kv: (kv[1], kv[0]))[0] if counts else 1
+        tally[0] = tally.get(0, 0) + zero
+    expected = max(tally.items(), key=lambda kv: (kv[1], kv[0]))[0] if tally else 1
     expected = max(expected, 1)
     if season.legs != expected:
         out.add(
             "legs",
             f"the season has {season.legs} leg(s) but most pairs meet {_times(expected)}",
         )
-    for (a, b), idx in sorted(meetings.items(), key=lambda kv: kv[1][0]):
-        if len(idx) != expected:
-            out.add(
-                "pair-count",
-                f"{names[a]} and {names[b]} meet {_times(len(idx))}; expected {_times(expected)}",
-                idx,
-            )
+    odd = np.flatnonzero(counts != expected)
+    for k in odd[np.argsort(first[odd], kind="stable")]:
+        a, b = divmod(int(uniq[k]), n)
+        idx = grouped[starts[k] : starts[k] + counts[k]].tolist()
+        out.add(
+            "pair-count",
+            f"{names[a]} and {names[b]} meet {_times(len(idx))}; expected {_times(expected)}",
+            idx,
+        )
     if zero:
-        met = np.zeros((n, n), dtype=bool)
-        if meetings:
-            keys = np.array(list(meetings), dtype=np.int64)
-            met[keys[:, 0], keys[:, 1]] = True
-        a_idx, b_idx = np.nonzero(np.triu(~met, k=1))
-        for a, b in zip(a_idx.tolist(), b_idx.tolist(), strict=True):
-            out.add("missing-game", f"missing game: {names[a]} and {names[b]} never meet")
+        found = 0
+        row_of = uniq // n
+        bounds = np.searchsorted(row_of, np.arange(n + 1))
+        for a in range(n - 1):
+            if found >= MAX_PER_KIND:
+                break
+            partners = uniq[bounds[a] : bounds[a + 1]] % n
+            missing = np.setdiff1d(np.arange(a + 1, n), partners, assume_unique=True)
+            for b in missing.tolist():
+                if found >= MAX_PER_KIND:
+                    break
+                out.add("missing-game", f"missing game: {names[a]} and {names[b]} never meet")
+                found += 1
+        # Counted, not spelled out: the collector sums up the rest.
+        out.counts["missing-game"] += zero - found
 
 
-def _check_byes(season: Season, slots: dict[tuple[int, str], list[int]], out: _Collector) -> None:
-    teams = list(dict.fromkeys(season.teams))
-    known = set(teams)
-    rounds = season.rounds
+def _rounds_phrase(rounds: list[int]) -> str:
+    """"round 4" / "rounds 4-9, 12" for a sorted list of round numbers."""
+    runs: list[str] = []
+    start = prev = rounds[0]
+    for r in [*rounds[1:], None]:
+        if r is not None and r == prev + 1:
+            prev = r
+            continue
+        runs.append(str(start) if start == prev else f"{start}-{prev}")
+        if r is not None:
+            start = prev = r
+    word = "round" if len(rounds) == 1 else "rounds"
+    return f"{word} {', '.join(runs)}"
+
+
+def _check_byes(season: Season, table: SeasonTable, out: _Collector) -> None:
+    n = table.known
+    teams = table.names[:n]
+    index = {t: k for k, t in enumerate(teams)}
+    plays = table.plays[:, :n]
     declared = season.byes
     for rnd, names in sorted(declared.items()):
         for name in names:
-            if name not in known:
+            t = index.get(name)
+            if t is None:
                 out.add("bye", f"round {rnd}: the bye names unknown team {name!r}")
-            elif (rnd, name) in slots:
-                out.add("bye", f"round {rnd}: {name} has a bye but plays", slots[(rnd, name)])
-    played_rounds = {f.round for f in season.fixtures}
-    odd = len(teams) % 2 == 1
-    idle_count: Counter[str] = Counter()
-    for rnd in range(1, rounds + 1):
-        if rnd not in played_rounds:
-            out.add("empty-round", f"round {rnd} has no games")
-            continue
-        idle = [t for t in teams if (rnd, t) not in slots]
-        idle_count.update(idle)
+            elif 1 <= rnd <= table.rounds and plays[rnd - 1, t] > 0:
+                mask = (table.round == rnd - 1) & ((table.home == t) | (table.away == t))
+                out.add("bye", f"round {rnd}: {name} has a bye but plays",
+                        table.fixture[mask].tolist())
+    games = np.bincount(table.round, minlength=table.rounds)
+    empty = (np.flatnonzero(games == 0) + 1).tolist()
+    if empty:
+        out.add("empty-round", f"{_rounds_phrase(empty)} {'has' if len(empty) == 1 else 'have'}"
+                " no games")
+    odd = n % 2 == 1
+    idle_matrix = plays == 0
+    idle_count = idle_matrix[games > 0].sum(axis=0)
+    for r in np.flatnonzero((games > 0) & idle_matrix.any(axis=1)).tolist():
+        rnd = r + 1
+        idle = [teams[t] for t in np.flatnonzero(idle_matrix[r]).tolist()]
         if declared:
             listed = set(declared.get(rnd, ()))
             for t in idle:
@@ -236,12 +287,12 @@ def _check_byes(season: Season, slots: dict[tuple[int, str], list[int]], out: _C
                 f"round {rnd}: {', '.join(idle[:6])}{', ...' if len(idle) > 6 else ''} "
                 f"{'has' if len(idle) == 1 else 'have'} no game",
             )
-    if odd and idle_count:
-        per_team = Counter({t: idle_count.get(t, 0) for t in teams})
-        common = Counter(per_team.values()).most_common(1)[0][0]
-        for t in teams:
-            if per_team[t] != common:
-                out.add(
-                    "bye",
-                    f"{t} sits out {_times(per_team[t])}; the other teams {_times(common)}",
-                )
+    if odd and idle_count.any():
+        values, freq = np.unique(idle_count, return_counts=True)
+        common = int(values[np.argmax(freq)])
+        for t in np.flatnonzero(idle_count != common).tolist():
+            out.add(
+                "bye",
+                f"{teams[t]} sits out {_times(int(idle_count[t]))}; the other teams "
+                f"{_times(common)}",
+            )

@@ -173,6 +173,8 @@ def _write(tmp_path, name, data):
         ("old.xls", b"\xd0\xcf\x11\xe0", ".xls", "old.xls"),
         ("bad.json", "{\"format\": 3}", "not a season file", "format"),
         ("split.csv", "Round,Match\n1,Oak Vale and Mill Lane\n", "cannot split", "row 2"),
+        ("huge.csv", "Round,Home,Away\n1,A,B\n20300301,B,A\n", "not a plausible round",
+         "row 3, column 'Round'"),
     ],
 )
 def test_bad_inputs_raise_located_errors(tmp_path, name, data, phrase, where):

@@ -15,6 +15,7 @@ from dataclasses import fields, replace
 
 import pytest
 
+from scheduler.errors import InputError
 from scheduler.fairness import FairnessReport, compute_fairness
 from scheduler.fairness.validity import validate_season
 from tests.fairness.constructions import (
@@ -191,3 +192,18 @@ def test_report_to_dict_is_plain_and_stable():
         assert key in data
     team = data["team_figures"][0]
     assert team["venues"] == {"Gull Hall": 12}
+
+
+def test_empty_rounds_are_reported_as_ranges():
+    season = _season()
+    moved = tuple(replace(f, round=f.round + 4) if f.round == 5 else f for f in season.fixtures)
+    problems = validate_season(replace(season, fixtures=moved))
+    assert "rounds 5-8 have no games" in [p.message for p in problems]
+
+
+def test_absurd_round_numbers_are_refused():
+    season = _season()
+    fx = (replace(season.fixtures[0], round=20300301), *season.fixtures[1:])
+    with pytest.raises(InputError) as info:
+        compute_fairness(replace(season, fixtures=fx))
+    assert info.value.location == "fixture 1"

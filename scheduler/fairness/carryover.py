@@ -86,5 +86,6 @@ def carry_over_figures(table: SeasonTable, round_leg: np.ndarray, legs: int) -> 
             first_matrix = matrix
         per_leg.append(carry_over_value(matrix))
     value = per_leg[0] if per_leg else None
-    lower, upper = coe_bounds(big_n) if big_n >= 2 else (None, None)
+    # The bounds are stated for leagues of at least 4 (with the bye vertex).
+    lower, upper = coe_bounds(big_n) if big_n >= 4 else (None, None)
     return CarryOverFigures(labels, first_matrix, value, lower, upper, tuple(per_leg))

@@ -55,7 +55,7 @@ def compute_fairness(season: Season) -> FairnessReport:
         )
     brk = break_figures(table.venue_sign)
     bound, bound_source = breaks_lower_bound(n, structure.legs, structure.scheme)
-    mix = mixing_figures(table)
+    mix = mixing_figures(table, structure.round_leg)
     venue_use, court_use, slot_use = usages(season, table)
     btd = btd_check(table, court_use, structure.round_leg, structure.legs)
     rest = rest_figures(season, table)

@@ -48,11 +48,18 @@ class MixingFigures:
     problems: tuple[str, ...]
 
 
-def distinct_pairings(table: SeasonTable) -> tuple[list[int], np.ndarray, int]:
-    """Rounds (0-based) whose pairing appears for the first time, the partner table and N."""
+def distinct_pairings(
+    table: SeasonTable, among: np.ndarray | None = None
+) -> tuple[list[int], np.ndarray, int]:
+    """Rounds (0-based) whose pairing appears for the first time, the partner table and N.
+
+    ``among`` (a boolean mask over the rounds) restricts the rounds looked at.
+    """
     rows, big_n = partner_rows(table)
     played = np.zeros(table.rounds, dtype=bool)
     played[table.round] = True
+    if among is not None:
+        played &= among
     seen: set[bytes] = set()
     first: list[int] = []
     for r in np.flatnonzero(played):
@@ -108,8 +115,14 @@ def union_cycle_counts(partners: np.ndarray, block: int = 1 << 22) -> np.ndarray
     return matrix
 
 
-def mixing_figures(table: SeasonTable) -> MixingFigures:
+def mixing_figures(table: SeasonTable, round_leg: np.ndarray | None = None) -> MixingFigures:
+    """Mixing of the distinct pairings. When a multi-leg season has more distinct pairings than
+    one single round robin (a later leg does not repeat leg 1), only leg 1 is measured."""
     chosen, rows, big_n = distinct_pairings(table)
+    extra = ""
+    if round_leg is not None and len(chosen) > big_n - 1 and round_leg.max(initial=0) > 1:
+        chosen, rows, big_n = distinct_pairings(table, round_leg == 1)
+        extra = "; the later legs do not repeat leg 1's pairings, so leg 1 alone is measured"
     season_rounds = tuple(r + 1 for r in chosen)
     if big_n < 2 or not chosen:
         return MixingFigures(False, season_rounds, 0, 0, False, (), 0, (), "no games", ())
@@ -132,6 +145,7 @@ def mixing_figures(table: SeasonTable) -> MixingFigures:
         )
     else:
         note = "not every round is a complete pairing: pairs of rounds were not examined"
+    note += extra
     return MixingFigures(
         valid=cert.valid,
         rounds=season_rounds,

@@ -108,7 +108,8 @@ class FairnessReport:
     Spieksma 2012), first reached after round ``home_gap_round``.
 
     Mixing over the distinct pairings (``mixing_rounds``: the season round in which each first
-    appears; normally the n-1 rounds of leg 1; an odd league adds a bye vertex):
+    appears; normally the n-1 rounds of leg 1; when later legs bring new pairings, leg 1
+    alone; an odd league adds a bye vertex):
     ``perfect_pairs`` of ``pairs`` pairs of them form one Hamiltonian cycle; ``perfect`` when
     all do. ``imperfect_pairs`` lists (some of, ``imperfect_total`` counts all) the others with
     their cycle lengths. ``mixing_matrix[a][b]`` is the number of cycles of the union of

@@ -130,3 +130,15 @@ def test_invalid_rounds_are_reported_not_counted():
     assert not report.mixing_valid
     assert report.mixing_problems
     assert report.mixing_matrix == ()
+
+
+def test_double_round_robin_with_new_pairings_in_leg_2_measures_leg_1():
+    """Leg 2 built from a different factorization (Russell's GF(8) schedule, venues swapped):
+    the 14 distinct pairings are not one factorization, so leg 1 alone is measured."""
+    n = 8
+    leg1 = canonical_rounds(n)
+    leg2 = [[(a, h) for h, a in rnd] for rnd in gf_rounds(n)]
+    report = compute_fairness(season_of(leg1 + leg2, n, legs=2, scheme="free"))
+    assert report.mixing_rounds == tuple(range(1, n))
+    assert report.mixing_valid and report.perfect and report.pairs == 21
+    assert "leg 1 alone" in report.mixing_note

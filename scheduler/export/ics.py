@@ -36,6 +36,7 @@ from __future__ import annotations
 
 import hashlib
 import json
+import re
 from collections import Counter
 from collections.abc import Iterable, Mapping
 from dataclasses import dataclass, field, replace
@@ -299,9 +300,19 @@ def plan_calendar(
 # --------------------------------------------------------------------------- feeds
 
 
+_CONTROLS = re.compile(r"[\x00-\x08\x0b-\x1f\x7f]")
+
+
+def ical_text(value: object) -> str:
+    """A TEXT value RFC 5545 §3.3.11 allows: line breaks become LF (escaped as ``\\n`` by
+    icalendar) and other control characters, which TEXT may not hold, become U+FFFD."""
+    text = str(value).replace("\r\n", "\n").replace("\r", "\n")
+    return _CONTROLS.sub("\ufffd", text)
+
+
 def _location(record: Mapping[str, object]) -> str | None:
     parts = [str(p) for p in (record.get("venue"), record.get("court")) if p]
-    return ", ".join(parts) if parts else None
+    return ical_text(", ".join(parts)) if parts else None
 
 
 def _event(uid: str, state: EventState, season: Season) -> Event:
@@ -313,15 +324,16 @@ def _event(uid: str, state: EventState, season: Season) -> Event:
     event.add("sequence", state.sequence)
     event.add("status", state.status)
     if rec.get("kind") == "bye":
-        event.add("summary", f"{rec['team']}: bye (round {rec['round']})")
+        event.add("summary", ical_text(f"{rec['team']}: bye (round {rec['round']})"))
         event.add("dtstart", start)
         event.add("dtend", start + timedelta(days=1))
         event.add("transp", "TRANSPARENT")
         event.add(
-            "description", f"{season.league} {season.season_id}\nRound {rec['round']}: no game"
+            "description",
+            ical_text(f"{season.league} {season.season_id}\nRound {rec['round']}: no game"),
         )
         return event
-    event.add("summary", f"{rec['home']} v {rec['away']}")
+    event.add("summary", ical_text(f"{rec['home']} v {rec['away']}"))
     event.add("dtstart", start)
     if isinstance(start, datetime):
         event.add("dtend", start + timedelta(minutes=int(rec.get("minutes") or 0)))
@@ -335,7 +347,7 @@ def _event(uid: str, state: EventState, season: Season) -> Event:
         lines.append(f"Slot: {rec['slot']}")
     if rec.get("court"):
         lines.append(f"Court: {rec['court']}")
-    event.add("description", "\n".join(lines))
+    event.add("description", ical_text("\n".join(lines)))
     return event
 
 
@@ -358,7 +370,7 @@ def _calendar(name: str, season: Season, items: Iterable[tuple[str, EventState]]
     cal.add("calscale", "GREGORIAN")
     cal.add("method", "PUBLISH")
     # A calendar's display name (a common extension, not in RFC 5545) is one line of TEXT.
-    cal.add("x-wr-calname", vText(" ".join(name.split())))
+    cal.add("x-wr-calname", vText(" ".join(ical_text(name).split())))
     years: list[int] = []
     for uid, state in sorted(items, key=_sort_key):
         cal.add_component(_event(uid, state, season))

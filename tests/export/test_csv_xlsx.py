@@ -9,11 +9,14 @@ from __future__ import annotations
 
 import csv
 import io
+import re
 from datetime import date, datetime, time
 
 import openpyxl
 import pandas as pd
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
 from scheduler.export.csv_out import CSV_COLUMNS, fixtures_csv
 from scheduler.export.safety import restore_cell
@@ -195,3 +198,20 @@ def test_tricky_name_round_trips_in_team_sheet(season, xlsx_path):
     assert opponents == set(season.teams) - {TRICKY}
     # Other teams' sheets name the tricky team exactly (newline included).
     assert any(c.value == TRICKY for ws in wb.worksheets[2:] for c in ws["F"][1:])
+
+
+@settings(max_examples=15, deadline=None)
+@given(st.text(st.characters(exclude_categories=("Cs",)), min_size=1, max_size=20))
+def test_any_team_name_survives_csv_and_workbook(name):
+    # The csv module (RFC 4180 quoting) gives every name back exactly; the workbook too, except
+    # for characters XML 1.0 cannot hold (replaced by U+FFFD, W3C XML 1.0 §2.2 Char).
+    teams = tuple(dict.fromkeys((name, "North", "South", "East", "West")))[:4]
+    if len(teams) < 4:
+        return
+    season = make_season(teams, legs=1)
+    rows = list(csv.reader(io.StringIO(fixtures_csv(season), newline="")))
+    assert {restore_cell(c) for r in rows[1:] for c in r[4:6]} == set(teams)
+    wb = openpyxl.load_workbook(io.BytesIO(workbook_bytes(season)))
+    got = {restore_cell(c.value) for row in wb["Fixtures"].iter_rows(min_row=2) for c in row[4:6]}
+    xml_safe = re.sub(r"[\x00-\x08\x0b\x0c\x0e-\x1f]", "\ufffd", name)
+    assert got == (set(teams) - {name}) | {xml_safe}

@@ -11,6 +11,8 @@ import re
 from datetime import date, datetime, timedelta
 
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 from ical.calendar_stream import IcsCalendarStream
 from icalendar import Calendar
 
@@ -294,3 +296,28 @@ def test_fixed_offset_and_dateless_fixtures():
     all_day = [e for e in cal.walk("VEVENT") if not isinstance(e.decoded("dtstart"), datetime)]
     assert [e.decoded("dtstart") for e in all_day] == [fixtures[1].date]
     assert all_day[0].decoded("dtend") == fixtures[1].date + timedelta(days=1)
+
+
+@settings(max_examples=40, deadline=None)
+@given(st.text(st.characters(exclude_categories=("Cs",)), min_size=1, max_size=30))
+def test_any_team_name_gives_a_valid_feed(name):
+    # Property check of RFC 5545 §3.1 / §3.3.11 over arbitrary names: the feed stays valid for
+    # both parsers and the name comes back exactly, except that line breaks become LF and other
+    # control characters (not allowed in TEXT) become U+FFFD.
+    others = [t for t in ("North", "South", "East") if t != name]
+    teams = (name, *others[:3]) if len(others) >= 3 else (name, "Alpha", "Beta", "Gamma")
+    if len(set(teams)) < 4:
+        return
+    season = make_season(teams, legs=1)
+    data = team_calendar(season, name)
+    check_rfc5545(data)
+    cal, strict = parse_both(data)
+    expected = re.sub(r"[\x00-\x08\x0b-\x1f\x7f]", "\ufffd",
+                      name.replace("\r\n", "\n").replace("\r", "\n"))  # fmt: skip
+    opponents = {t for t in teams if t != name}
+    for ev in cal.walk("VEVENT"):
+        summary = str(ev["summary"])
+        assert summary in {f"{expected} v {o}" for o in opponents} | {
+            f"{o} v {expected}" for o in opponents
+        }
+    assert {e.summary for e in strict.events} == {str(e["summary"]) for e in cal.walk("VEVENT")}

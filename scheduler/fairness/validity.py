@@ -7,8 +7,9 @@ each team at most once per round, an odd league has one bye per round; common pr
 * a team playing itself;
 * a round number below 1, a leg number below 1;
 * a team in more than one game of one round;
-* a pair meeting more or fewer times than expected (the most common number of meetings), and
-  missing games (pairs that never meet); a season that declares another number of legs;
+* a pair meeting more or fewer times than expected (the season's number of legs, or the most
+  common number of meetings when no pair meets that often), and missing games (pairs that
+  never meet); a season that declares a number of legs no pair matches;
 * byes inconsistent: a team listed with a bye that plays in that round, a team that sits out
   without a listed bye (when the season lists byes), more than one team sitting out in a round of
   an odd league, teams with unequal numbers of byes, byes naming unknown teams.
@@ -195,12 +196,14 @@ def _check_pairs(season: Season, table: SeasonTable, out: _Collector) -> None:
     tally = dict(zip(values.tolist(), freq.tolist(), strict=True))
     if zero:
         tally[0] = tally.get(0, 0) + zero
-    expected = max(tally.items(), key=lambda kv: (kv[1], kv[0]))[0] if tally else 1
-    expected = max(expected, 1)
+    mode = max(tally.items(), key=lambda kv: (kv[1], kv[0]))[0] if tally else 1
+    # The declared number of legs, unless no pair meets that often (then the most common count).
+    expected = season.legs if tally.get(season.legs, 0) > 0 else max(mode, 1)
     if season.legs != expected:
         out.add(
             "legs",
-            f"the season has {season.legs} leg(s) but most pairs meet {_times(expected)}",
+            f"the season has {season.legs} leg(s) but no pair meets {_times(season.legs)}; "
+            f"most pairs meet {_times(expected)}",
         )
     odd = np.flatnonzero(counts != expected)
     for k in odd[np.argsort(first[odd], kind="stable")]:

@@ -213,3 +213,16 @@ def test_xlsx_without_a_usable_sheet(tmp_path):
     with pytest.raises(InputError) as info:
         read_schedule(path)
     assert "no header row" in str(info.value) and "'Sheet'" in str(info.value)
+
+
+def test_slash_dates_month_first_when_needed(tmp_path):
+    """Slash dates are day first unless a value only makes sense month first (03/25/2030)."""
+    text = (
+        "Round,Date,Home,Away\n1,03/25/2030,Oak Vale,Mill Lane\n"
+        "2,04/01/2030,Mill Lane,Oak Vale\n"
+    )
+    path = _write(tmp_path, "us.csv", text)
+    days = [f.date for f in read_schedule(path).fixtures]
+    assert days == [date(2030, 3, 25), date(2030, 4, 1)]
+    text = "Round,Date,Home,Away\n1,05/04/2030,Oak Vale,Mill Lane\n"
+    assert read_schedule(_write(tmp_path, "eu.csv", text)).fixtures[0].date == date(2030, 4, 5)

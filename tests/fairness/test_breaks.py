@@ -156,3 +156,42 @@ def test_break_rounds_and_pattern():
         breaks = [r + 1 for r in range(1, len(pattern)) if pattern[r] == pattern[r - 1]]
         assert list(fig.break_rounds) == breaks
         assert fig.home == pattern.count("H") and fig.away == pattern.count("A")
+
+
+@pytest.mark.parametrize("n", [3, 5])
+def test_odd_mirrored_minimum_is_n_by_exhaustive_search(n):
+    """Notes section 1 (proved there): an odd mirrored DRR with byes skipped has at least n
+    breaks, and n is reached; an odd SRR can have 0. Search: every round order of the (n+1)-team
+    factorization, every choice of the bye vertex, every venue choice."""
+    base = canonical_rounds(n + 1)
+    m = n
+    best_srr = best_drr = 10**9
+    for dummy in range(1, n + 2):
+        games = [(r, h, a) for r, rnd in enumerate(base) for h, a in rnd if dummy not in (h, a)]
+        g_count = len(games)
+        choices = np.arange(1 << g_count, dtype=np.int64)
+        bits = ((choices[:, None] >> np.arange(g_count)) & 1).astype(bool)
+        for order in itertools.permutations(range(m)):
+            position = {r: p for p, r in enumerate(order)}
+            venue = np.zeros((len(choices), m, n + 2), dtype=np.int8)
+            for g, (r, h, a) in enumerate(games):
+                p = position[r]
+                venue[:, p, h] = np.where(bits[:, g], -1, 1)
+                venue[:, p, a] = np.where(bits[:, g], 1, -1)
+            full = np.concatenate([venue, -venue], axis=1)
+            for seq, is_drr in ((venue, False), (full, True)):
+                total = np.zeros(len(choices), dtype=np.int64)
+                for t in range(1, n + 2):
+                    if t == dummy:
+                        continue
+                    played = seq[:, :, t]
+                    # drop the bye round (the same position in every choice)
+                    cols = np.flatnonzero(played[0] != 0)
+                    s_t = played[:, cols]
+                    total += (s_t[:, 1:] == s_t[:, :-1]).sum(axis=1)
+                if is_drr:
+                    best_drr = min(best_drr, int(total.min()))
+                else:
+                    best_srr = min(best_srr, int(total.min()))
+    assert best_srr == 0 == breaks_lower_bound(n, 1, "single")[0]
+    assert best_drr == n == breaks_lower_bound(n, 2, "mirrored")[0]

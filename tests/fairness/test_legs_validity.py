@@ -207,3 +207,20 @@ def test_absurd_round_numbers_are_refused():
     with pytest.raises(InputError) as info:
         compute_fairness(replace(season, fixtures=fx))
     assert info.value.location == "fixture 1"
+
+
+def test_declared_legs_decide_the_expected_meetings():
+    """A double round robin with half of leg 2 missing: the pairs that meet only once are the
+    problem (the season declares 2 legs), not the ones that meet twice."""
+    rounds = double_round_robin(canonical_rounds(6), "mirrored")
+    season = season_of(rounds[:7], 6, legs=2)
+    season = replace(season, fixtures=tuple(replace(f, leg=1 if f.round <= 5 else 2)
+                                            for f in season.fixtures))
+    problems = validate_season(season)
+    counts = [p for p in problems if p.kind == "pair-count"]
+    assert len(counts) == 15 - 6 and all("meet once; expected twice" in p.message for p in counts)
+    # Labelled single but every pair meets twice: one "legs" problem, pairs judged by 2.
+    full = replace(season_of(rounds, 6, legs=2), legs=1)
+    problems = validate_season(full)
+    assert [p.kind for p in problems] == ["legs"]
+    assert "no pair meets once; most pairs meet twice" in problems[0].message

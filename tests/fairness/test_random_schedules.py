@@ -1,6 +1,7 @@
 """Property tests on random valid single round robins (hypothesis).
 
-Random relabelled and reordered circle schedules with random home/away. Checked against:
+Random relabelled and reordered circle schedules (and, for n = 4, 8, Russell's GF(2^k)
+schedules) with random home/away. Checked against:
 
 * Russell 1980 (Biometrika 67:127-131): n(n-1) <= COE, sum c_ij = n(n-1);
 * Lambrechts, Ficker, Goossens & Spieksma 2018 (Math. Programming 172:277-302): the circle
@@ -17,7 +18,13 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 
 from scheduler.fairness import compute_fairness
-from tests.fairness.constructions import canonical_rounds, ref_breaks, ref_carry_over, season_of
+from tests.fairness.constructions import (
+    canonical_rounds,
+    gf_rounds,
+    ref_breaks,
+    ref_carry_over,
+    season_of,
+)
 
 
 @st.composite
@@ -25,7 +32,9 @@ def random_srr(draw):
     n = draw(st.sampled_from([4, 6, 8, 10, 12, 14]))
     perm = draw(st.permutations(list(range(1, n + 1))))
     order = draw(st.permutations(list(range(n - 1))))
-    base = canonical_rounds(n)
+    # Two different 1-factorizations where available: the circle one and Russell's GF(2^k).
+    use_gf = n in (4, 8) and draw(st.booleans())
+    base = gf_rounds(n) if use_gf else canonical_rounds(n)
     flips = draw(st.lists(st.booleans(), min_size=n * (n - 1) // 2, max_size=n * (n - 1) // 2))
     rounds = []
     k = 0

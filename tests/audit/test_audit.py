@@ -80,3 +80,38 @@ def test_audit_season_in_memory():
     result = audit_season(season)
     assert result.valid and result.path is None
     assert result.fairness.breaks_total == 4
+
+
+def test_reads_the_projects_own_csv_and_xlsx(tmp_path):
+    """The fixtures CSV and the workbook written by scheduler.export read back into the same
+    figures (the exporters' own formats; headers found by the readers' synonyms)."""
+    from datetime import date, datetime, timedelta
+    from zoneinfo import ZoneInfo
+
+    from scheduler.export.csv_out import fixtures_csv
+    from scheduler.export.xlsx import write_workbook
+    from scheduler.season import Fixture, Season
+    from tests.fairness.constructions import double_round_robin
+
+    zone = ZoneInfo("Europe/Oslo")
+    n = 6
+    fixtures = []
+    for r, games in enumerate(double_round_robin(canonical_rounds(n), "mirrored")):
+        day = date(2030, 8, 3) + timedelta(days=7 * r)
+        for h, a in games:
+            fixtures.append(Fixture(
+                r + 1, name(h), name(a), leg=1 if r < n - 1 else 2, venue=f"{name(h)} Ground",
+                date=day, start=datetime(day.year, day.month, day.day, 15, 0, tzinfo=zone)))
+    season = Season("Fjord League", "2030", tuple(name(t) for t in range(1, n + 1)),
+                    tuple(fixtures), legs=2, timezone="Europe/Oslo")
+    report = compute_fairness(season)
+    (tmp_path / "fixtures.csv").write_text(fixtures_csv(season), encoding="utf-8")
+    write_workbook(season, report, tmp_path / "season.xlsx")
+    for file in ("fixtures.csv", "season.xlsx"):
+        result = audit_file(tmp_path / file, timezone="Europe/Oslo")
+        assert result.valid, result.problems
+        got = result.fairness
+        assert (got.breaks_total, got.carry_over_value, got.perfect_pairs, got.scheme) == (
+            report.breaks_total, report.carry_over_value, report.perfect_pairs, "mirrored")
+        assert sorted(f.start for f in result.season.fixtures) == sorted(
+            f.start for f in fixtures)

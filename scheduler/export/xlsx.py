@@ -9,7 +9,8 @@ header row repeated on printed pages and a landscape, fit-to-width page setup.
 
 User text (team, venue, court and slot names) goes through
 :func:`~scheduler.export.safety.neutralise_cell` (formula-injection defence, common practice
-after OWASP "CSV Injection"), and characters that XML 1.0 forbids are replaced by U+FFFD.
+after OWASP "CSV Injection"), characters that XML 1.0 forbids are replaced by U+FFFD and line
+breaks are written as LF.
 
 Byte-identical output: openpyxl stamps ``modified`` with the clock and the zip members with the
 local time. :func:`workbook_bytes` sets the document properties to a time derived from the season
@@ -54,10 +55,14 @@ FIXTURE_HEADERS = ("Round", "Leg", "Date", "Kick-off", "Home", "Away", "Venue", 
 
 
 def user_text(value: str | None) -> str | None:
-    """A cell of user text: neutralised and free of characters XML 1.0 cannot hold."""
+    """A cell of user text: neutralised and free of characters XML 1.0 cannot hold.
+
+    Line breaks become LF (an XML reader turns a raw CR into LF anyway, XML 1.0 §2.11).
+    """
     if value is None:
         return None
-    return neutralise_cell(ILLEGAL_CHARACTERS_RE.sub("\ufffd", value))
+    text = value.replace("\r\n", "\n").replace("\r", "\n")
+    return neutralise_cell(ILLEGAL_CHARACTERS_RE.sub("\ufffd", text))
 
 
 class _FixedTimeZip(zipfile.ZipFile):

@@ -15,7 +15,7 @@ from datetime import date, datetime, time
 import openpyxl
 import pandas as pd
 import pytest
-from hypothesis import given, settings
+from hypothesis import example, given, settings
 from hypothesis import strategies as st
 
 from scheduler.export.csv_out import CSV_COLUMNS, fixtures_csv
@@ -202,9 +202,12 @@ def test_tricky_name_round_trips_in_team_sheet(season, xlsx_path):
 
 @settings(max_examples=15, deadline=None)
 @given(st.text(st.characters(exclude_categories=("Cs",)), min_size=1, max_size=20))
+@example("\r")
+@example("=\r\n@x")
+@example("'+1")
 def test_any_team_name_survives_csv_and_workbook(name):
     # The csv module (RFC 4180 quoting) gives every name back exactly; the workbook too, except
-    # for characters XML 1.0 cannot hold (replaced by U+FFFD, W3C XML 1.0 §2.2 Char).
+    # for characters XML 1.0 cannot hold (U+FFFD, W3C XML 1.0 §2.2 Char) and CR (becomes LF).
     teams = tuple(dict.fromkeys((name, "North", "South", "East", "West")))[:4]
     if len(teams) < 4:
         return
@@ -213,5 +216,6 @@ def test_any_team_name_survives_csv_and_workbook(name):
     assert {restore_cell(c) for r in rows[1:] for c in r[4:6]} == set(teams)
     wb = openpyxl.load_workbook(io.BytesIO(workbook_bytes(season)))
     got = {restore_cell(c.value) for row in wb["Fixtures"].iter_rows(min_row=2) for c in row[4:6]}
-    xml_safe = re.sub(r"[\x00-\x08\x0b\x0c\x0e-\x1f]", "\ufffd", name)
+    lf = name.replace("\r\n", "\n").replace("\r", "\n")  # XML 1.0 §2.11 line-end handling
+    xml_safe = re.sub(r"[\x00-\x08\x0b\x0c\x0e-\x1f]", "\ufffd", lf)
     assert got == (set(teams) - {name}) | {xml_safe}

@@ -11,7 +11,7 @@ import re
 from datetime import date, datetime, timedelta
 
 import pytest
-from hypothesis import given, settings
+from hypothesis import example, given, settings
 from hypothesis import strategies as st
 from ical.calendar_stream import IcsCalendarStream
 from icalendar import Calendar
@@ -300,6 +300,9 @@ def test_fixed_offset_and_dateless_fixtures():
 
 @settings(max_examples=40, deadline=None)
 @given(st.text(st.characters(exclude_categories=("Cs",)), min_size=1, max_size=30))
+@example("a\r\nb;c,d\\e")
+@example("\x07bell")
+@example("é" * 30)
 def test_any_team_name_gives_a_valid_feed(name):
     # Property check of RFC 5545 §3.1 / §3.3.11 over arbitrary names: the feed stays valid for
     # both parsers and the name comes back exactly, except that line breaks become LF and other

@@ -78,7 +78,7 @@ def explain(
             "the format and calendar cannot be scheduled even without the league's rules", []
         )
     if len(conflicts) == 1:
-        message = "this rule cannot hold"
+        message = f"{what}: this one cannot hold"
     else:
         message = f"{what}: these {len(conflicts)} cannot hold together"
     return InfeasibleError(message, conflicts)

@@ -161,11 +161,14 @@ def assign_places(league: League, tt: Timetable, limits: SolveLimits) -> Placeme
                 bound = max(bound, ceil(len(mine) / len(reach)))
         m.Add(top >= bound)
         objective.append((weight, top, label))
-    if objective:
-        m.Minimize(sum(wt * var for wt, var, _ in objective))
+    if not objective:
+        # no balance wanted: the earliest free places, if the simple pass fits everything
+        quick = _greedy(games, opts, days, all_places, tt, balance=False)
+        if len(quick) == len(games):
+            return _result(tt, all_places, quick, None, None, "optimal")
+        m.Minimize(sum(_minutes(all_places[p].slot) * lit for (s, i, p), lit in x.items()))
     else:
-        # no balance wanted: the first places in the venues' order
-        m.Minimize(sum(p * lit for (s, i, p), lit in x.items()))
+        m.Minimize(sum(wt * var for wt, var, _ in objective))
     if len(league.venues) == 1 and len(times) == 1 and tt.games:
         # the courts of one venue with one kick-off time are interchangeable: relabel them so
         # that game i of the first round is on court i (symmetry breaking, no loss)
@@ -200,26 +203,33 @@ def assign_places(league: League, tt: Timetable, limits: SolveLimits) -> Placeme
                    "optimal" if status == cp_model.OPTIMAL else "feasible")
 
 
-def _greedy(games, opts, days, all_places, tt) -> dict[tuple[int, int], int]:
-    """A start for the solver: each game, in round order, takes the free place whose court and
-    slot its two teams have used least so far (ties: the first place)."""
+def _greedy(games, opts, days, all_places, tt, *, balance: bool = True
+            ) -> dict[tuple[int, int], int]:
+    """A start for the solver (and the answer when no balance is wanted): each game, in round
+    order, takes the free place whose court and slot its two teams have used least so far
+    (``balance``) or simply the earliest free place; the rounds of one match day take
+    increasing, disjoint kick-off times. May stop early (then it is only a partial hint)."""
     court: dict = {}
     slot: dict = {}
     chosen: dict[tuple[int, int], int] = {}
     for _d, rounds in sorted(days.items()):
         taken: set[int] = set()
-        times_of: dict[int, set[int]] = {}
+        latest = -2
         for s in rounds:
-            used_before = set().union(*(times_of.get(r, set()) for r in rounds if r != s))
+            mine: set[int] = set()
             for i, (h, a) in enumerate(tt.games[s]):
                 best = None
                 for p in opts[(s, i)]:
                     pl = all_places[p]
-                    if p in taken or _minutes(pl.slot) in used_before:
+                    sk = _minutes(pl.slot)
+                    if p in taken or (sk <= latest and sk not in mine):
                         continue
-                    ck, sk = (pl.venue, pl.court), _minutes(pl.slot)
-                    cost = (court.get((h, ck), 0) + court.get((a, ck), 0)
-                            + slot.get((h, sk), 0) + slot.get((a, sk), 0))
+                    ck = (pl.venue, pl.court)
+                    if balance:
+                        cost = (court.get((h, ck), 0) + court.get((a, ck), 0)
+                                + slot.get((h, sk), 0) + slot.get((a, sk), 0), 0, p)
+                    else:
+                        cost = (0, sk, p)
                     if best is None or cost < best[0]:
                         best = (cost, p)
                 if best is None:
@@ -231,8 +241,9 @@ def _greedy(games, opts, days, all_places, tt) -> dict[tuple[int, int], int]:
                     court[(t, ck)] = court.get((t, ck), 0) + 1
                     slot[(t, sk)] = slot.get((t, sk), 0) + 1
                 taken.add(p)
-                times_of.setdefault(s, set()).add(sk)
+                mine.add(sk)
                 chosen[(s, i)] = p
+            latest = max(mine, default=latest)
     return chosen
 
 

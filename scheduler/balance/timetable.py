@@ -562,7 +562,9 @@ class TimetableModel:
         if status == cp_model.INFEASIBLE and not explain_failure:
             raise InfeasibleError("infeasible on the earliest match days", [])
         if status == cp_model.INFEASIBLE:
-            raise explain(self.book, solver, lambda idx: self._still_infeasible(idx, limits))
+            raise explain(self.book, solver, lambda idx: self._still_infeasible(idx, limits),
+                          what="the league's rules cannot all hold with the round pairings of "
+                               f"{self.fact.method}")
         if status not in (cp_model.OPTIMAL, cp_model.FEASIBLE):
             raise InfeasibleError(
                 "no timetable was found within the time limit; allow more solve_seconds or relax "

@@ -39,6 +39,8 @@ class BreakFigures:
     away: np.ndarray
     gap_max: int
     gap_round: int
+    home_run: np.ndarray
+    away_run: np.ndarray
 
 
 def count_breaks(venue_sign: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
@@ -72,9 +74,33 @@ def home_gap(venue_sign: np.ndarray) -> tuple[int, int]:
     return int(gaps[r]), r + 1
 
 
+def longest_runs(venue_sign: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Longest run of consecutive home games and of away games per team (byes skipped, as for
+    breaks). Limits on such runs are a classic constraint, e.g. at most 3 in the traveling
+    tournament problem (Easton, Nemhauser & Trick, CP 2001, LNCS 2239)."""
+    n = venue_sign.shape[1]
+    home = np.zeros(n, dtype=np.int64)
+    away = np.zeros(n, dtype=np.int64)
+    for t in range(n):
+        seq = venue_sign[:, t]
+        seq = seq[seq != 0]
+        if not len(seq):
+            continue
+        cut = np.flatnonzero(seq[1:] != seq[:-1]) + 1
+        starts = np.concatenate([[0], cut])
+        lengths = np.diff(np.append(starts, len(seq)))
+        kinds = seq[starts]
+        if (kinds == 1).any():
+            home[t] = lengths[kinds == 1].max()
+        if (kinds == -1).any():
+            away[t] = lengths[kinds == -1].max()
+    return home, away
+
+
 def break_figures(venue_sign: np.ndarray) -> BreakFigures:
     per_team, mask = count_breaks(venue_sign)
     gap, gap_round = home_gap(venue_sign)
+    home_run, away_run = longest_runs(venue_sign)
     return BreakFigures(
         per_team=per_team,
         break_mask=mask,
@@ -82,6 +108,8 @@ def break_figures(venue_sign: np.ndarray) -> BreakFigures:
         away=(venue_sign == -1).sum(axis=0).astype(np.int64),
         gap_max=gap,
         gap_round=gap_round,
+        home_run=home_run,
+        away_run=away_run,
     )
 
 

@@ -92,6 +92,8 @@ def compute_fairness(season: Season) -> FairnessReport:
                 rest_days=rest_t,
                 rest_days_min=min(rest_t) if rest_t else None,
                 rest_days_mean=round(sum(rest_t) / len(rest_t), 4) if rest_t else None,
+                home_run_max=int(brk.home_run[t]),
+                away_run_max=int(brk.away_run[t]),
             )
         )
 
@@ -145,4 +147,6 @@ def compute_fairness(season: Season) -> FairnessReport:
         separation_max=sep_max,
         team_figures=tuple(team_figures),
         notes=tuple(notes),
+        home_run_max=int(brk.home_run.max(initial=0)),
+        away_run_max=int(brk.away_run.max(initial=0)),
     )

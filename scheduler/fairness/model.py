@@ -68,7 +68,8 @@ class TeamFigures:
     bye or a round the team does not play, ``X`` for a round in which it plays more than once).
     ``break_rounds`` are the rounds in which a break happens (the second of the two games).
     ``rest_days`` are the days without a game between consecutive games (a game on the next
-    day is 0 rest days); empty when the fixtures carry no dates.
+    day is 0 rest days); empty when the fixtures carry no dates. ``home_run_max`` /
+    ``away_run_max`` are the longest runs of consecutive home / away games (byes skipped).
     """
 
     name: str
@@ -87,6 +88,8 @@ class TeamFigures:
     rest_days: tuple[int, ...]
     rest_days_min: int | None
     rest_days_mean: float | None
+    home_run_max: int = 0
+    away_run_max: int = 0
 
     def to_dict(self) -> dict:
         d = _as_dict(self)
@@ -134,7 +137,8 @@ class FairnessReport:
     Separation (multi-leg seasons): rounds strictly between two consecutive meetings of the same
     pair, least and largest over all pairs (``None`` for a single round robin).
 
-    ``notes`` say what could not be measured and why.
+    ``notes`` say what could not be measured and why. ``home_run_max`` / ``away_run_max``:
+    the longest run of consecutive home / away games of any team (byes skipped).
     """
 
     teams: int
@@ -183,6 +187,8 @@ class FairnessReport:
     separation_max: int | None
     team_figures: tuple[TeamFigures, ...]
     notes: tuple[str, ...] = ()
+    home_run_max: int = 0
+    away_run_max: int = 0
 
     def team(self, name: str) -> TeamFigures:
         for t in self.team_figures:

@@ -195,3 +195,20 @@ def test_odd_mirrored_minimum_is_n_by_exhaustive_search(n):
                     best_srr = min(best_srr, int(total.min()))
     assert best_srr == 0 == breaks_lower_bound(n, 1, "single")[0]
     assert best_drr == n == breaks_lower_bound(n, 2, "mirrored")[0]
+
+
+@pytest.mark.parametrize("n", [4, 8, 12])
+def test_longest_runs(n):
+    """The canonical schedule has at most one break per team, so no run is longer than 2
+    (de Werra 1981); runs are checked against the HAP strings by hand (byes skipped)."""
+    rounds = double_round_robin(canonical_rounds(n), "mirrored")
+    report = compute_fairness(season_of(rounds, n, legs=2))
+    for fig in report.team_figures:
+        played = fig.pattern.replace("B", "")
+        runs = [len(x) for x in played.replace("HA", "H A").replace("AH", "A H").split()]
+        homes = [len(x) for x in played.replace("A", " ").split()]
+        aways = [len(x) for x in played.replace("H", " ").split()]
+        assert fig.home_run_max == max(homes) and fig.away_run_max == max(aways)
+        assert max(runs) == max(fig.home_run_max, fig.away_run_max)
+    srr = compute_fairness(season_of(canonical_rounds(n), n))
+    assert max(srr.home_run_max, srr.away_run_max) == 2

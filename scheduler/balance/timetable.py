@@ -518,7 +518,7 @@ class TimetableModel:
     def _fixed(self, f) -> None:
         m, book = self.model, self.book
         a, b = self.names[f.home], self.names[f.away]
-        where = f"round {f.round}" if f.round is not None else f"on {f.date.isoformat()}"
+        where = f"in round {f.round}" if f.round is not None else f"on {f.date.isoformat()}"
         venue = " (either venue)" if f.any_venue else ""
         lit = book.rule(f"fixed: {f.home} v {f.away} {where}{venue}")
         if f.round is not None:

@@ -94,6 +94,7 @@ def compute_fairness(season: Season) -> FairnessReport:
                 rest_days_mean=round(sum(rest_t) / len(rest_t), 4) if rest_t else None,
                 home_run_max=int(brk.home_run[t]),
                 away_run_max=int(brk.away_run[t]),
+                less_rest_games=rest.less_rest[t],
             )
         )
 
@@ -149,4 +150,5 @@ def compute_fairness(season: Season) -> FairnessReport:
         notes=tuple(notes),
         home_run_max=int(brk.home_run.max(initial=0)),
         away_run_max=int(brk.away_run.max(initial=0)),
+        rest_mismatches=rest.mismatches,
     )

@@ -69,7 +69,8 @@ class TeamFigures:
     ``break_rounds`` are the rounds in which a break happens (the second of the two games).
     ``rest_days`` are the days without a game between consecutive games (a game on the next
     day is 0 rest days); empty when the fixtures carry no dates. ``home_run_max`` /
-    ``away_run_max`` are the longest runs of consecutive home / away games (byes skipped).
+    ``away_run_max`` are the longest runs of consecutive home / away games (byes skipped);
+    ``less_rest_games`` counts the team's games with fewer rest days than its opponent.
     """
 
     name: str
@@ -90,6 +91,7 @@ class TeamFigures:
     rest_days_mean: float | None
     home_run_max: int = 0
     away_run_max: int = 0
+    less_rest_games: int = 0
 
     def to_dict(self) -> dict:
         d = _as_dict(self)
@@ -139,6 +141,8 @@ class FairnessReport:
 
     ``notes`` say what could not be measured and why. ``home_run_max`` / ``away_run_max``:
     the longest run of consecutive home / away games of any team (byes skipped).
+    ``rest_mismatches``: games in which the two teams had different numbers of rest days
+    (``None`` without dates).
     """
 
     teams: int
@@ -189,6 +193,7 @@ class FairnessReport:
     notes: tuple[str, ...] = ()
     home_run_max: int = 0
     away_run_max: int = 0
+    rest_mismatches: int | None = None
 
     def team(self, name: str) -> TeamFigures:
         for t in self.team_figures:

@@ -6,6 +6,10 @@ consecutive days give 0, a weekly rhythm gives 6 (the usual count of "days of re
 practice; the rest-mismatch literature, e.g. Atan & Cavdaroglu 2018, counts days between
 games in the same way, from memory). Two games of one team on the same day give -1 and are
 kept, so the figures show them.
+
+A *rest mismatch* is a game in which one team has had fewer rest days than its opponent (both
+having played before); the literature on time-relaxed schedules tries to avoid them (e.g. Atan &
+Cavdaroglu 2018, Computers & Operations Research, from memory).
 """
 
 from __future__ import annotations
@@ -23,6 +27,10 @@ class RestFigures:
     per_team: tuple[tuple[int, ...], ...]
     league_min: int | None
     league_mean: float | None
+    mismatches: int | None
+    """Games in which both teams played before and their rest days differ."""
+    less_rest: tuple[int, ...]
+    """Per team: games in which it had fewer rest days than its opponent."""
 
 
 def _day(f) -> int | None:
@@ -41,13 +49,16 @@ def rest_figures(season: Season, table: SeasonTable) -> RestFigures:
         count=len(table.fixture),
     )
     n = table.n
-    dated = days >= 0
-    if not dated.any():
-        return RestFigures(tuple(() for _ in range(n)), None, None)
+    dated = np.flatnonzero(days >= 0)
+    if not len(dated):
+        return RestFigures(tuple(() for _ in range(n)), None, None, None, (0,) * n)
+    count = len(dated)
     team = np.concatenate([table.home[dated], table.away[dated]])
     day = np.concatenate([days[dated], days[dated]])
-    order = np.lexsort((day, team))
-    team, day = team[order], day[order]
+    game = np.concatenate([np.arange(count), np.arange(count)])
+    side = np.concatenate([np.zeros(count, dtype=np.int64), np.ones(count, dtype=np.int64)])
+    order = np.lexsort((game, day, team))
+    team, day, game, side = team[order], day[order], game[order], side[order]
     same = team[1:] == team[:-1]
     gaps = day[1:] - day[:-1] - 1
     owner = team[1:][same]
@@ -55,5 +66,22 @@ def rest_figures(season: Season, table: SeasonTable) -> RestFigures:
     bounds = np.searchsorted(owner, np.arange(n + 1))
     per_team = tuple(tuple(values[bounds[t] : bounds[t + 1]].tolist()) for t in range(n))
     if len(values) == 0:
-        return RestFigures(per_team, None, None)
-    return RestFigures(per_team, int(values.min()), float(round(values.mean(), 4)))
+        return RestFigures(per_team, None, None, 0, (0,) * n)
+    # Rest before each game, per side (-1 = no earlier game): mismatches.
+    none = np.iinfo(np.int64).min
+    before = np.full((count, 2), none, dtype=np.int64)
+    idx = np.flatnonzero(same) + 1
+    before[game[idx], side[idx]] = gaps[same]
+    both = (before[:, 0] != none) & (before[:, 1] != none)
+    mismatch = both & (before[:, 0] != before[:, 1])
+    home_less = mismatch & (before[:, 0] < before[:, 1])
+    away_less = mismatch & (before[:, 1] < before[:, 0])
+    worse = np.bincount(table.home[dated][home_less], minlength=n)
+    worse += np.bincount(table.away[dated][away_less], minlength=n)
+    return RestFigures(
+        per_team,
+        int(values.min()),
+        float(round(values.mean(), 4)),
+        int(mismatch.sum()),
+        tuple(int(x) for x in worse.tolist()),
+    )

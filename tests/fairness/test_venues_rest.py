@@ -140,3 +140,32 @@ def test_no_dates_means_no_rest_figures():
     report = compute_fairness(season_of(canonical_rounds(4), 4))
     assert report.rest_days_min is None and report.rest_days_mean is None
     assert any("rest" in note for note in report.notes)
+
+
+def test_rest_mismatches_match_a_plain_count():
+    """Rest mismatch: both teams played before and their rest days differ (plain loop)."""
+    n = 6
+    rng = random.Random(4)
+    rounds = canonical_rounds(n)
+    day = date(2030, 9, 1)
+    fixtures = []
+    for r, games in enumerate(rounds):
+        day += timedelta(days=7)
+        for h, a in games:
+            fixtures.append(Fixture(r + 1, name(h), name(a),
+                                    date=day + timedelta(days=rng.choice([0, 1, 2]))))
+    season = Season("L", "S", tuple(name(t) for t in range(1, n + 1)), tuple(fixtures))
+    report = compute_fairness(season)
+    last: dict[str, date] = {}
+    mismatches = 0
+    less = dict.fromkeys(season.teams, 0)
+    for f in sorted(fixtures, key=lambda f: f.date):
+        if f.home in last and f.away in last:
+            rh = (f.date - last[f.home]).days - 1
+            ra = (f.date - last[f.away]).days - 1
+            if rh != ra:
+                mismatches += 1
+                less[f.home if rh < ra else f.away] += 1
+        last[f.home] = last[f.away] = f.date
+    assert report.rest_mismatches == mismatches > 0
+    assert {t.name: t.less_rest_games for t in report.team_figures} == less

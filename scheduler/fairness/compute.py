@@ -49,7 +49,11 @@ def compute_fairness(season: Season) -> FairnessReport:
         notes.append(f"{left} fixture(s) without a valid round left out")
 
     structure = detect_legs(table)
-    if structure.legs > 1 and season.scheme != structure.scheme and structure.scheme != "free":
+    if (
+        structure.legs > 1
+        and structure.scheme != "free"
+        and season.scheme not in (structure.scheme, "free")
+    ):
         notes.append(
             f"the fixtures follow the {structure.scheme} scheme (the season says {season.scheme})"
         )

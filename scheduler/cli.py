@@ -111,7 +111,7 @@ def new(
     out.print(f"next: edit it, then run  scheduler plan {written} --out season")
 
 
-@app.command()
+@app.command(context_settings={"ignore_unknown_options": True})
 @_guarded
 def factor(
     teams: Annotated[str, typer.Argument(help="Number of teams (2 or more).", metavar="N")],
@@ -214,7 +214,16 @@ def plan(
         result = plan_season(league, seed=seed, time_limit=time_limit, progress=progress)
     season = result.season
     fairness = compute_fairness(season)
-    written = write_season_outputs(season, fairness, out_dir, force=force, config_path=config)
+    sides = league.format.side_labels if league.format.home_meaning == "side" else ("H", "A")
+    written = write_season_outputs(
+        season,
+        fairness,
+        out_dir,
+        force=force,
+        config_path=config,
+        game_minutes=league.calendar.game_minutes,
+        side_labels=sides,
+    )
     if quiet:
         out.print(str(out_dir))
         return

@@ -1,0 +1,165 @@
+"""The ``scheduler`` command end to end, through typer's test runner.
+
+The checks on figures go back to the literature through the library's own tests; here the point
+is the command's contract: fields, exit codes (0 ok, 1 invalid schedule, 2 unusable input),
+one-line errors and no tracebacks.
+"""
+
+from __future__ import annotations
+
+import csv
+import io
+import json
+import math
+from pathlib import Path
+
+import networkx as nx
+import pytest
+from typer.testing import CliRunner
+
+from scheduler.cli import app
+from scheduler.config import sample_path
+
+runner = CliRunner()
+
+
+def run(*args: str):
+    return runner.invoke(app, list(args), catch_exceptions=False)
+
+
+@pytest.mark.parametrize("teams", [2, 3, 8, 9, 16, 21, 28])
+def test_factor_json_fields_and_rounds(teams):
+    result = run("factor", str(teams), "--json")
+    assert result.exit_code == 0, result.output
+    data = json.loads(result.stdout)
+    assert data["teams"] == teams
+    n = teams + teams % 2
+    assert data["pairs"] == math.comb(n - 1, 2)
+    # Covered orders are perfect (Kotzig 1964 for n-1 prime, Anderson 1973 for n/2 prime,
+    # starters for 16 and 28).
+    assert data["perfect"] is True and data["perfect_pairs"] == data["pairs"]
+    assert isinstance(data["method"], str) and data["method"]
+    rounds = data["rounds"]
+    assert len(rounds) == n - 1
+    # Independent check with networkx: every pair of real teams meets exactly once, byes left
+    # out, and each round is a matching of the real teams.
+    graph = nx.MultiGraph()
+    for games in rounds:
+        seen = [v for game in games for v in game]
+        assert len(seen) == len(set(seen))
+        assert all(0 <= v < teams for v in seen)
+        assert len(games) == teams // 2
+        graph.add_edges_from(tuple(g) for g in games)
+    simple = nx.Graph(graph)
+    assert graph.number_of_edges() == simple.number_of_edges() == math.comb(teams, 2)
+
+
+def test_factor_odd_league_rounds_have_one_bye_each():
+    data = json.loads(run("factor", "9", "--json").stdout)
+    for games in data["rounds"]:
+        assert 9 - 2 * len(games) == 1
+
+
+def test_factor_text_output():
+    result = run("factor", "6")
+    assert result.exit_code == 0
+    assert "perfect: yes" in result.stdout
+    assert "round   1:" in result.stdout
+
+
+@pytest.mark.parametrize("bad", ["1", "0", "-4", "3.5", "seven", "10000000", "1e3"])
+def test_factor_bad_input_is_one_clear_line(bad):
+    result = runner.invoke(app, ["factor", bad])
+    assert result.exit_code == 2
+    text = result.stderr.strip()
+    assert text.startswith("error:")
+    assert "Traceback" not in result.output + result.stderr
+    assert len(text.splitlines()) == 1
+
+
+def test_new_writes_a_config_that_plans(tmp_path):
+    target = tmp_path / "league.toml"
+    assert run("new", str(target)).exit_code == 0
+    assert target.read_text(encoding="utf-8").startswith("#")
+    again = runner.invoke(app, ["new", str(target)])
+    assert again.exit_code == 2  # never overwrites
+
+
+def test_plan_writes_every_output_and_audit_reads_it_back(tmp_path):
+    out = tmp_path / "season"
+    result = run("plan", str(sample_path("club_day")), "--out", str(out), "--quiet")
+    assert result.exit_code == 0, result.output
+    for name in ("season.json", "fixtures.csv", "fixtures.xlsx", "report.html"):
+        assert (out / name).stat().st_size > 0
+    assert (out / "calendars" / "league.ics").is_file()
+    season = json.loads((out / "season.json").read_text(encoding="utf-8"))
+    for key in ("breaks_total", "carry_over_value", "perfect_pairs", "pairs"):
+        assert key in season["fairness"]
+
+    audited = run("audit", str(out / "season.json"), "--json")
+    assert audited.exit_code == 0, audited.output
+    figures = json.loads(audited.stdout)
+    assert figures["valid"] is True
+    for key in ("breaks_total", "carry_over_value", "perfect_pairs", "pairs"):
+        assert figures[key] == season["fairness"][key]
+
+    csv_audit = run("audit", str(out / "fixtures.csv"), "--json")
+    assert csv_audit.exit_code == 0
+    assert json.loads(csv_audit.stdout)["breaks_total"] == season["fairness"]["breaks_total"]
+
+
+def test_plan_is_deterministic(tmp_path):
+    outputs = []
+    for name in ("a", "b"):
+        out = tmp_path / name
+        assert (
+            run("plan", str(sample_path("evening_hall")), "--out", str(out), "--quiet").exit_code
+            == 0
+        )
+        outputs.append(out)
+    for rel in ("season.json", "fixtures.csv", "calendars/league.ics"):
+        assert (outputs[0] / rel).read_bytes() == (outputs[1] / rel).read_bytes()
+
+
+def test_audit_invalid_schedule_exits_1_with_rows(tmp_path):
+    out = tmp_path / "season"
+    run("plan", str(sample_path("club_day")), "--out", str(out), "--quiet")
+    rows = list(csv.reader(io.StringIO((out / "fixtures.csv").read_text(encoding="utf-8"))))
+    header, body = rows[0], rows[1:]
+    home = header.index("home")
+    body[1][home] = body[0][home]  # one team now plays twice in round 1
+    broken = tmp_path / "broken.csv"
+    with broken.open("w", newline="", encoding="utf-8") as handle:
+        csv.writer(handle).writerows([header, *body])
+    result = runner.invoke(app, ["audit", str(broken), "--json"])
+    assert result.exit_code == 1
+    data = json.loads(result.stdout)
+    assert data["valid"] is False and data["problems"]
+
+
+@pytest.mark.parametrize(
+    "content",
+    [b"", b"just some words\n", b"\xff\xfe\x00\xd8broken", b"round,home\n1,A\n"],
+)
+def test_audit_unusable_input_exits_2(tmp_path, content):
+    path = tmp_path / "schedule.csv"
+    path.write_bytes(content)
+    result = runner.invoke(app, ["audit", str(path)])
+    assert result.exit_code == 2, result.output
+    assert "Traceback" not in result.output + result.stderr
+
+
+def test_audit_missing_file_exits_2(tmp_path):
+    result = runner.invoke(app, ["audit", str(tmp_path / "nope.csv")])
+    assert result.exit_code == 2
+
+
+def test_plan_bad_config_exits_2_and_writes_nothing(tmp_path):
+    config = tmp_path / "league.toml"
+    text = Path(sample_path("club_day")).read_text(encoding="utf-8")
+    config.write_text(text.replace("legs = 1", "legz = 1"), encoding="utf-8")
+    out = tmp_path / "out"
+    result = runner.invoke(app, ["plan", str(config), "--out", str(out)])
+    assert result.exit_code == 2
+    assert "format.legz" in result.stderr
+    assert not out.exists()

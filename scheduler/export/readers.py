@@ -32,7 +32,9 @@ unless some value of the column only makes sense month first), or spreadsheet da
 UTC offset gives the kick-off directly. Without an offset a kick-off needs a time zone: pass
 ``timezone=`` (an IANA name); otherwise the date is kept and the time becomes the fixture's
 slot label (when there is no slot column). A row whose away side is empty or one of
-:data:`BYE_WORDS` is a bye of the home team.
+:data:`BYE_WORDS` is a bye of the home team. A text cell that the project's exporters made
+inert against formula injection (a leading ``'``, :func:`scheduler.export.safety.neutralise_cell`)
+is restored.
 
 Without a round column the rounds are derived from the dates (each distinct date is one round,
 in date order); without either, reading fails. Without a leg column the legs are inferred: with
@@ -53,6 +55,7 @@ from pathlib import Path
 from zoneinfo import ZoneInfo, ZoneInfoNotFoundError
 
 from scheduler.errors import InputError
+from scheduler.export.safety import restore_cell
 from scheduler.fairness.table import MAX_ROUNDS
 from scheduler.season import Fixture, Season
 
@@ -242,6 +245,9 @@ def _text(value) -> str:
     """The cell as text with runs of white space collapsed ("" for an empty cell)."""
     if type(value) is str:
         stripped = value.strip()
+        if stripped.startswith("'"):
+            # A cell our exporters made inert against formula injection (scheduler.export.safety).
+            stripped = (restore_cell(stripped) or "").strip()
         if "  " not in stripped and "\t" not in stripped and "\n" not in stripped:
             return stripped
         return " ".join(stripped.split())

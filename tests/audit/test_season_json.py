@@ -7,10 +7,13 @@ The text is checked with Python's standard ``json`` module (RFC 8259) and the da
 from __future__ import annotations
 
 import json
+import random
 from datetime import date, datetime
 from zoneinfo import ZoneInfo
 
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
 from scheduler.errors import InputError
 from scheduler.export.readers import read_schedule
@@ -133,3 +136,37 @@ def test_bad_json_names_line_and_column(tmp_path):
     with pytest.raises(InputError) as info:
         load_season_json(path)
     assert "line 3" in str(info.value) and "broken.json" in str(info.value)
+
+
+_names = st.text(
+    alphabet=st.characters(blacklist_categories=("Cs", "Cc")), min_size=1, max_size=12
+).map(str.strip).filter(bool)
+
+
+@settings(max_examples=40, deadline=None)
+@given(
+    names=st.lists(_names, min_size=2, max_size=7, unique=True),
+    seed=st.integers(0, 2**31),
+    with_times=st.booleans(),
+)
+def test_round_trip_of_random_seasons(names, seed, with_times):
+    """dumps -> loads gives an equal Season, and dumping again gives the same text."""
+    rng = random.Random(seed)
+    zone = ZoneInfo("America/Halifax")
+    fixtures = []
+    for r in range(rng.randint(1, 4)):
+        a, b = rng.sample(names, 2)
+        start = None
+        if with_times:
+            start = datetime(2031, 1 + r, 3, rng.randint(8, 21), 15, tzinfo=zone)
+        fixtures.append(Fixture(round=r + 1, home=a, away=b, leg=1,
+                                venue=rng.choice([None, "Bay Hall"]),
+                                court=rng.choice([None, "2"]), slot=rng.choice([None, "late"]),
+                                date=start.date() if start else None, start=start))
+    season = Season(league=rng.choice(names), season_id="x", teams=tuple(names),
+                    fixtures=tuple(fixtures), byes={2: (names[0],)},
+                    timezone="America/Halifax" if with_times else None, seed=seed)
+    text = dumps_season(season, compute_fairness(season))
+    back = loads_season(text)
+    assert back == season
+    assert dumps_season(back, compute_fairness(back)) == text

@@ -18,6 +18,7 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 
 from scheduler.fairness import compute_fairness
+from scheduler.fairness.validity import validate_season
 from tests.fairness.constructions import (
     canonical_rounds,
     gf_rounds,
@@ -62,3 +63,4 @@ def test_bounds_hold_on_random_schedules(case):
     # Reordering and relabelling keep a valid one-factorization with C(n-1, 2) pairs.
     assert report.mixing_valid and report.pairs == (n - 1) * (n - 2) // 2
     assert sum(report.home_counts) == sum(report.away_counts) == n * (n - 1) // 2
+    assert validate_season(season_of(rounds, n)) == []

@@ -20,6 +20,7 @@ rule is read as ``scheduler/config/model.py`` (``Rules``) and the balancer brief
 
 from __future__ import annotations
 
+import itertools
 from collections import Counter, defaultdict
 
 from scheduler.config.model import League
@@ -105,7 +106,7 @@ def check_season(league: League, season: Season) -> list[str]:
                 best = max(best, run)
             if best > limit:
                 bad.append(f"{t}: {best} {word} games in a row (max {limit})")
-        for prev, cur in zip(seq, seq[1:], strict=False):
+        for prev, cur in itertools.pairwise(seq):
             is_break = (prev.home == t) == (cur.home == t)
             if is_break and r.no_breaks_first and cur.round <= r.no_breaks_first + 1:
                 bad.append(f"{t}: break in round {cur.round} (no_breaks_first)")
@@ -119,7 +120,7 @@ def check_season(league: League, season: Season) -> list[str]:
             when[frozenset((f.home, f.away))].append(f.round)
         for pair, rs in when.items():
             rs.sort()
-            for x, y in zip(rs, rs[1:], strict=False):
+            for x, y in itertools.pairwise(rs):
                 if y - x - 1 < r.min_separation:
                     bad.append(f"{sorted(pair)} meet in rounds {x} and {y}")
     # places and times
@@ -150,7 +151,7 @@ def check_season(league: League, season: Season) -> list[str]:
     bad += [f"two games at {k}" for k, v in used.items() if v > 1]
     bad += [f"{k[0]} plays twice at {k[1]}" for k, v in busy.items() if v > 1]
     dates = [f.date for f in sorted(season.fixtures, key=lambda f: f.round)]
-    if any(b < a for a, b in zip(dates, dates[1:], strict=False)):
+    if any(b < a for a, b in itertools.pairwise(dates)):
         bad.append("match days do not follow the round order")
     return bad
 
@@ -160,5 +161,5 @@ def count_breaks(season: Season) -> int:
     total = 0
     for t in season.teams:
         seq = _sequence(season, t)
-        total += sum((a.home == t) == (b.home == t) for a, b in zip(seq, seq[1:], strict=False))
+        total += sum((a.home == t) == (b.home == t) for a, b in itertools.pairwise(seq))
     return total

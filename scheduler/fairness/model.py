@@ -102,7 +102,10 @@ class TeamFigures:
 
 @dataclass(frozen=True)
 class FairnessReport:
-    """Every fairness figure of a season. Lists indexed by team follow ``team_names``.
+    """Every fairness figure of a season. Lists indexed by team follow ``team_names`` (the
+    season's teams, then any name found only in fixtures; ``teams`` counts them all). ``legs``
+    and ``scheme`` (``single``, ``mirrored``, ``french``, ``english``, ``inverted`` or
+    ``free``) are read from the fixtures, not from the season's labels.
 
     Breaks (``bye_convention`` says how byes count): ``breaks_total`` and
     ``breaks_per_team``; ``breaks_lower_bound`` is the least total any season of this shape

@@ -146,6 +146,12 @@ def mixing_figures(table: SeasonTable, round_leg: np.ndarray | None = None) -> M
     else:
         note = "not every round is a complete pairing: pairs of rounds were not examined"
     note += extra
+    if not cert.valid:
+        note += (
+            "; the distinct pairings are not one single round robin (in mixing_problems, vertex "
+            "k is team k of team_names counted from 0, the last vertex of an odd league the bye, "
+            "and round k the (k+1)-th entry of mixing_rounds)"
+        )
     return MixingFigures(
         valid=cert.valid,
         rounds=season_rounds,

@@ -4,8 +4,8 @@ A game's day is ``Fixture.date``, else the (local) date of ``Fixture.start``. Th
 game is the number of whole days without a game since the team's previous game: games on
 consecutive days give 0, a weekly rhythm gives 6 (the usual count of "days of rest", common
 practice; the rest-mismatch literature, e.g. Atan & Cavdaroglu 2018, counts days between
-games in the same way, from memory). Two games of one team on the same day give -1 and are
-kept, so the figures show them.
+games in the same way, from memory). Two games of one team on the same day (a tournament day
+with several rounds) give 0: there is no whole day of rest between them.
 
 A *rest mismatch* is a game in which one team has had fewer rest days than its opponent (both
 having played before); the literature on time-relaxed schedules tries to avoid them (e.g. Atan &
@@ -60,7 +60,7 @@ def rest_figures(season: Season, table: SeasonTable) -> RestFigures:
     order = np.lexsort((game, day, team))
     team, day, game, side = team[order], day[order], game[order], side[order]
     same = team[1:] == team[:-1]
-    gaps = day[1:] - day[:-1] - 1
+    gaps = np.maximum(day[1:] - day[:-1] - 1, 0)
     owner = team[1:][same]
     values = gaps[same]
     bounds = np.searchsorted(owner, np.arange(n + 1))

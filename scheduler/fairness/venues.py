@@ -8,9 +8,11 @@ Labels, read from each fixture:
 * slot: ``Fixture.slot``, or, when the fixture has no slot label but a kick-off, the local
   kick-off time ``"HH:MM"`` (time-slot balance is about kick-off times).
 
-A team's *spread* for courts (slots) is the largest minus the smallest number of its games on
-one court (in one slot), over all courts (slots) of the season; ``None`` when the season names
-none. This is common practice for "each team gets each court about equally often".
+A team's *spread* for slots is the largest minus the smallest number of its games in one slot,
+over all slots of the season; for courts it is taken inside each venue that has two or more
+courts (the largest such spread), since courts of different grounds are not alternatives to
+each other; ``None`` when there is nothing to compare. This is common practice for "each team
+gets each court about equally often".
 
 Balanced tournament design (BTD): 2m teams, m courts, each round uses every court once, and each
 team uses each court at most twice over the single round robin (Schellenberg, van Rees &
@@ -93,7 +95,27 @@ def usages(season: Season, table: SeasonTable) -> tuple[Usage, Usage, Usage]:
     else:
         courts = [f.court for f in used]
     slots = [_slot_label(f) for f in used]
-    return _usage(table, venues), _usage(table, courts), _usage(table, slots)
+    court_usage = _usage(table, courts)
+    return _usage(table, venues), _within_venue_spread(court_usage, used), _usage(table, slots)
+
+
+def _within_venue_spread(courts: Usage, used: list) -> Usage:
+    """The court usage with its spread taken per venue of two or more courts."""
+    venue_of: dict[int, str | None] = {}
+    for f, code in zip(used, courts.codes.tolist(), strict=True):
+        if code >= 0:
+            venue_of.setdefault(code, f.venue)
+    groups: dict[str | None, list[int]] = {}
+    for code, venue in sorted(venue_of.items()):
+        groups.setdefault(venue, []).append(code)
+    spread = None
+    for codes in groups.values():
+        if len(codes) < 2:
+            continue
+        sub = courts.counts[:, codes]
+        part = sub.max(axis=1) - sub.min(axis=1)
+        spread = part if spread is None else np.maximum(spread, part)
+    return Usage(courts.names, courts.counts, spread, courts.codes)
 
 
 def btd_check(table: SeasonTable, courts: Usage, round_leg: np.ndarray, legs: int) -> BtdCheck:

@@ -247,11 +247,15 @@ def audit(
     report: Annotated[
         Path | None, typer.Option(help="Also write the HTML fairness report here.")
     ] = None,
+    timezone: Annotated[
+        str | None,
+        typer.Option(help="IANA time zone of kick-off times written without an offset."),
+    ] = None,
 ) -> None:
     """Check any schedule and print its fairness figures (exit 1 when it is invalid)."""
     from scheduler.audit import audit_file
 
-    result = audit_file(file)
+    result = audit_file(file, timezone=timezone)
     if report is not None and result.fairness is not None:
         from scheduler.export.report import render_report
         from scheduler.export.safety import atomic_write_text

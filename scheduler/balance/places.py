@@ -139,6 +139,7 @@ def assign_places(league: League, tt: Timetable, limits: SolveLimits) -> Placeme
     w = league.priorities
     objective = []
     court_max = slot_max = None
+    bounds: dict[str, int] = {}
     court_keys = sorted({(p.venue, p.court) for p in all_places})
     slot_keys = sorted({_minutes(p.slot) for p in all_places})
     teams = range(len(league.teams))
@@ -160,6 +161,7 @@ def assign_places(league: League, tt: Timetable, limits: SolveLimits) -> Placeme
             if reach:
                 bound = max(bound, ceil(len(mine) / len(reach)))
         m.Add(top >= bound)
+        bounds[label] = bound
         objective.append((weight, top, label))
     if not objective:
         # no balance wanted: the earliest free places, if the simple pass fits everything
@@ -176,9 +178,24 @@ def assign_places(league: League, tt: Timetable, limits: SolveLimits) -> Placeme
         if len(days[tt.day[first]]) == 1:
             for i in range(len(tt.games[first])):
                 m.Add(x[(first, i, everywhere[i])] == 1)
-    for key, p in _greedy(games, opts, days, all_places, tt).items():
+    start = None
+    if objective and len(days) == P:
+        start = _by_assignment(opts, days, all_places, tt, max(0, w.venue_balance),
+                               max(0, w.slot_balance))
+    if start is None:
+        start = _greedy(games, opts, days, all_places, tt)
+    for key, p in start.items():
         for q in opts[key]:
             m.AddHint(x[(key[0], key[1], q)], q == p)
+    complete = len(start) == len(games)
+    start_value: dict[str, int] = {}
+    if complete:
+        for _wt, var, label in objective:
+            start_value[label] = _max_use(start, tt, all_places, label)
+            m.AddHint(var, start_value[label])
+        if all(start_value[label] <= bounds[label] for _wt, _v, label in objective):
+            return _result(tt, all_places, start, start_value.get("court"),
+                           start_value.get("slot"), "optimal")
     solver = cp_model.CpSolver()
     configure(solver, limits)
     status = solver.Solve(m)
@@ -187,6 +204,11 @@ def assign_places(league: League, tt: Timetable, limits: SolveLimits) -> Placeme
             "the courts and time slots cannot hold the games of some match day",
             ["venue capacities (courts × time slots)",
              f"{per_day} round(s) on each match day"])
+    start_score = sum(wt * start_value[label] for wt, _v, label in objective) if complete else None
+    if complete and (status not in (cp_model.OPTIMAL, cp_model.FEASIBLE)
+                     or solver.ObjectiveValue() > start_score):
+        return _result(tt, all_places, start, start_value.get("court"), start_value.get("slot"),
+                       "feasible")
     if status not in (cp_model.OPTIMAL, cp_model.FEASIBLE):
         raise InfeasibleError("no assignment of courts and time slots was found in the time "
                               "limit; allow more solve_seconds", [])
@@ -201,6 +223,43 @@ def assign_places(league: League, tt: Timetable, limits: SolveLimits) -> Placeme
             slot_max = solver.Value(var)
     return _result(tt, all_places, chosen, court_max, slot_max,
                    "optimal" if status == cp_model.OPTIMAL else "feasible")
+
+
+def _by_assignment(opts, days, all_places, tt, wv: int, ws: int
+                   ) -> dict[tuple[int, int], int] | None:
+    """Start for one round per match day: round by round, a minimum-cost assignment of the
+    games to the places (OR-Tools linear sum assignment), the cost of a place being the growth of
+    the two teams' sums of squared court and slot counts (which favours even use)."""
+    from ortools.graph.python import linear_sum_assignment
+
+    court: dict = {}
+    slot: dict = {}
+    chosen: dict[tuple[int, int], int] = {}
+    for _d, rounds in sorted(days.items()):
+        if len(rounds) != 1:
+            return None
+        s = rounds[0]
+        solver = linear_sum_assignment.SimpleLinearSumAssignment()
+        cols = sorted({p for i in range(len(tt.games[s])) for p in opts[(s, i)]})
+        col_of = {p: j for j, p in enumerate(cols)}
+        for i, (h, a) in enumerate(tt.games[s]):
+            for p in opts[(s, i)]:
+                pl = all_places[p]
+                ck, sk = (pl.venue, pl.court), _minutes(pl.slot)
+                cost = wv * (2 * court.get((h, ck), 0) + 2 * court.get((a, ck), 0) + 2)
+                cost += ws * (2 * slot.get((h, sk), 0) + 2 * slot.get((a, sk), 0) + 2)
+                solver.add_arc_with_cost(i, col_of[p], cost * 1000 + col_of[p])
+        if solver.solve() != solver.OPTIMAL:
+            return None
+        for i, (h, a) in enumerate(tt.games[s]):
+            p = cols[solver.right_mate(i)]
+            pl = all_places[p]
+            ck, sk = (pl.venue, pl.court), _minutes(pl.slot)
+            for t in (h, a):
+                court[(t, ck)] = court.get((t, ck), 0) + 1
+                slot[(t, sk)] = slot.get((t, sk), 0) + 1
+            chosen[(s, i)] = p
+    return chosen
 
 
 def _greedy(games, opts, days, all_places, tt, *, balance: bool = True
@@ -245,6 +304,16 @@ def _greedy(games, opts, days, all_places, tt, *, balance: bool = True
                 chosen[(s, i)] = p
             latest = max(mine, default=latest)
     return chosen
+
+
+def _max_use(chosen, tt, all_places, label: str) -> int:
+    use: dict = {}
+    for (s, i), p in chosen.items():
+        pl = all_places[p]
+        key = (pl.venue, pl.court) if label == "court" else _minutes(pl.slot)
+        for t in tt.games[s][i]:
+            use[(t, key)] = use.get((t, key), 0) + 1
+    return max(use.values(), default=0)
 
 
 def _result(tt, all_places, chosen, court_max, slot_max, status) -> Placement:

@@ -29,6 +29,7 @@ from datetime import date
 from ortools.sat.python import cp_model
 
 from scheduler.balance import legs as leg_schemes
+from scheduler.balance.anneal import anneal
 from scheduler.balance.dates import DayModel, candidate_days, day_groups
 from scheduler.balance.explain import RuleBook, explain
 from scheduler.config.model import League
@@ -118,8 +119,10 @@ class TimetableModel:
     """Builds and solves the CP-SAT model for one factorization and one league."""
 
     def __init__(self, league: League, fact: Factorization, *, minimise_breaks: bool = True,
-                 fixed_order: tuple[int, ...] | None = None, earliest_days: bool = False) -> None:
+                 fixed_order: tuple[int, ...] | None = None, earliest_days: bool = False,
+                 effort: float = 2.0) -> None:
         self.earliest_days = earliest_days
+        self.effort = effort
         self.league = league
         self.fact = fact
         self.model = cp_model.CpModel()
@@ -168,9 +171,15 @@ class TimetableModel:
         self.is_canonical = self.fact.rounds == circle_rounds(self.n)
         if self.is_canonical:
             hint_order, hint_home = canonical_hint(self.n)
-        else:
-            hint_order = list(range(R))
+        elif fixed_order is not None:
+            hint_order = list(fixed_order)
             hint_home = _greedy_orientation(self.fact.rounds, hint_order)
+        else:
+            maps = leg_schemes.leg_maps(self.scheme, self.L, R) or tuple(
+                tuple(range(R)) for _ in range(self.L))
+            moves = int(min(400_000, 40_000 + 12_000 * self.effort))
+            hint_order, hint_home, _ = anneal(self.fact.rounds, self.n, maps, self.bye,
+                                              seed=self.league.seed, moves=moves)
         if fixed_order is not None:
             hint_order = list(fixed_order)
             for q, k in enumerate(fixed_order):
@@ -649,7 +658,7 @@ def solve_timetable(league: League, fact: Factorization, limits: SolveLimits, *,
     them is the choice of days opened up (then the model prefers early days).
     """
     first = TimetableModel(league, fact, minimise_breaks=minimise_breaks, fixed_order=fixed_order,
-                           earliest_days=True)
+                           earliest_days=True, effort=limits.deterministic)
     if first.daymodel is None or len(first.days) == len(first.groups):
         return first.solve(limits)
     half = SolveLimits(limits.deterministic / 2, limits.wall / 2, limits.seed)
@@ -657,5 +666,6 @@ def solve_timetable(league: League, fact: Factorization, limits: SolveLimits, *,
         return first.solve(half, explain_failure=False)
     except InfeasibleError:
         pass
-    model = TimetableModel(league, fact, minimise_breaks=minimise_breaks, fixed_order=fixed_order)
+    model = TimetableModel(league, fact, minimise_breaks=minimise_breaks, fixed_order=fixed_order,
+                           effort=limits.deterministic)
     return model.solve(half)

@@ -1,0 +1,104 @@
+"""A start for the timetable model: simulated annealing on round order and venues.
+
+For a factorization other than the circle schedule (where de Werra's canonical orientation is
+known to be optimal) CP-SAT benefits from a good first solution. Minimising breaks for a fixed
+timetable is a MAX-CUT problem (Elf, Jünger & Rinaldi 2003, Oper. Res. Letters 31:343-349, from
+memory), which local search handles well. The moves are: swap the venue of one game; swap two
+rounds of leg 1 (later legs follow the scheme). Acceptance follows the Metropolis rule with a
+geometric cooling schedule (Kirkpatrick, Gelatt & Vecchi 1983, Science 220:671-680). The random
+generator is seeded and the number of moves is fixed, so the result is deterministic.
+"""
+
+from __future__ import annotations
+
+import math
+import random
+from collections.abc import Sequence
+
+
+def anneal(
+    rounds: Sequence[Sequence[tuple[int, int]]],
+    n: int,
+    maps: Sequence[Sequence[int]],
+    bye: int | None,
+    *,
+    seed: int = 0,
+    moves: int = 60000,
+) -> tuple[list[int], dict[tuple[int, int], bool], int]:
+    """Return (leg-1 order, a-is-home for every game (a, b), breaks) with few breaks.
+
+    ``maps[l][q]`` is the leg-1 position copied by leg ``l`` at position ``q`` (venues swapped
+    on odd legs), as in :func:`scheduler.balance.legs.leg_maps`.
+    """
+    R = len(rounds)
+    rng = random.Random(seed)
+    partner = [[-1] * n for _ in range(R)]
+    for k, games in enumerate(rounds):
+        for a, b in games:
+            partner[k][a], partner[k][b] = b, a
+    # home[k][v]: v at home in round k (leg 1); start: alternate greedily in round order
+    home = [[False] * n for _ in range(R)]
+    last: dict[int, bool] = {}
+    for k in range(R):
+        for a, b in rounds[k]:
+            a_home = not last.get(a, rng.random() < 0.5)
+            home[k][a], home[k][b] = a_home, not a_home
+            last[a], last[b] = a_home, not a_home
+    order = list(range(R))
+    L = len(maps)
+    verts = [v for v in range(n) if v != bye]
+
+    def seq_rounds(order_):
+        out = []
+        for leg in range(L):
+            flip = leg % 2 == 1
+            for q in range(R):
+                out.append((order_[maps[leg][q]], flip))
+        return out
+
+    def vbreaks(v, seq):
+        prev = None
+        total = 0
+        for k, flip in seq:
+            if partner[k][v] == bye:
+                continue
+            h = home[k][v] != flip
+            if prev is h:
+                total += 1
+            prev = h
+        return total
+
+    seq = seq_rounds(order)
+    per = {v: vbreaks(v, seq) for v in verts}
+    cur = sum(per.values())
+    best = (cur, list(order), [row[:] for row in home])
+    t0, t1 = 2.0, 0.05
+    games = [(k, a, b) for k in range(R) for a, b in rounds[k] if bye not in (a, b)]
+    for step in range(moves):
+        temp = t0 * (t1 / t0) ** (step / max(1, moves - 1))
+        if rng.random() < 0.08 and R > 2:
+            i, j = rng.sample(range(R), 2)
+            order[i], order[j] = order[j], order[i]
+            new_seq = seq_rounds(order)
+            new_per = {v: vbreaks(v, new_seq) for v in verts}
+            delta = sum(new_per.values()) - cur
+            if delta <= 0 or rng.random() < math.exp(-delta / temp):
+                seq, per, cur = new_seq, new_per, cur + delta
+            else:
+                order[i], order[j] = order[j], order[i]
+        else:
+            k, a, b = games[rng.randrange(len(games))]
+            home[k][a], home[k][b] = home[k][b], home[k][a]
+            na, nb = vbreaks(a, seq), vbreaks(b, seq)
+            delta = na + nb - per[a] - per[b]
+            if delta <= 0 or rng.random() < math.exp(-delta / temp):
+                per[a], per[b] = na, nb
+                cur += delta
+            else:
+                home[k][a], home[k][b] = home[k][b], home[k][a]
+        if cur < best[0]:
+            best = (cur, list(order), [row[:] for row in home])
+    value, order, home = best
+    orientation = {(a, b): home[k][a] for k in range(R) for a, b in rounds[k]
+                   if bye not in (a, b)}
+    return order, orientation, value

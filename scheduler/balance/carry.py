@@ -75,8 +75,10 @@ def improve_order(
     bye: int | None,
     *,
     passes: int = 3,
+    keep_breaks: bool = True,
 ) -> tuple[int, ...]:
-    """A leg-1 order with lower carry-over and no more breaks (see the module docstring)."""
+    """A leg-1 order with lower carry-over and, when ``keep_breaks``, no more breaks (see the
+    module docstring; ``keep_breaks=False`` when carry-over weighs more than breaks)."""
     R = len(order)
     maps = leg_schemes.leg_maps(scheme, legs, R)
 
@@ -98,7 +100,7 @@ def improve_order(
                 if coe >= cur_coe:
                     continue
                 br = _breaks(fact_rounds, home_first, all_orders(trial), bye)
-                if br > cur_br:
+                if keep_breaks and br > cur_br:
                     continue
                 cur, cur_coe, cur_br = trial, coe, br
                 improved = True

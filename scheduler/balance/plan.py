@@ -240,20 +240,24 @@ def _reduce_carry_over(league: League, cand: _Candidate, limits: SolveLimits):
     scheme = league.format.scheme if league.format.legs > 1 else "mirrored"
     bye = fact.n - 1 if len(league.teams) % 2 else None
     before = cand.coe
+    keep = league.priorities.breaks >= league.priorities.carry_over
     order = improve_order(fact.rounds, fact.n, tt.order[0], home, scheme,
-                          max(1, league.format.legs), tt.order[1:], bye)
+                          max(1, league.format.legs), tt.order[1:], bye, keep_breaks=keep)
     if tuple(order) == tuple(tt.order[0]):
-        return tt, (f"carry-over value {before} (Russell 1980); no round swap lowers it without "
-                    "adding breaks")
+        return tt, (f"carry-over value {before} (Russell 1980); no round swap lowers it"
+                    + (" without adding breaks" if keep else ""))
     try:
         new = solve_timetable(league, fact, limits, minimise_breaks=league.priorities.breaks > 0,
                               fixed_order=tuple(order))
     except InfeasibleError:
         return tt, f"carry-over value {before}; a lower-carry-over order breaks a rule, kept"
     after = carry_over_value([fact.rounds[k] for k in new.order[0]], fact.n)
-    if new.breaks <= tt.breaks and after < before:
+    if (new.breaks <= tt.breaks or not keep) and after < before:
         cand.coe = after
-        return new, f"carry-over value lowered from {before} to {after} (Russell 1980)"
+        extra = "" if new.breaks <= tt.breaks else (
+            f"; breaks rose from {tt.breaks} to {new.breaks} because priorities.carry_over "
+            f"({league.priorities.carry_over}) > priorities.breaks ({league.priorities.breaks})")
+        return new, f"carry-over value lowered from {before} to {after} (Russell 1980){extra}"
     return tt, f"carry-over value {before} (Russell 1980)"
 
 

@@ -63,3 +63,17 @@ def test_every_six_team_schedule_has_coe_60():
                                           carry_over=5))
     result = plan_season(lg, time_limit=3)
     assert next(o for o in result.options if o.chosen).carry_over == 60
+
+
+def test_carry_over_first_reorders_the_circle_rounds():
+    # fairness.md §2 [computed]: reordering the rounds of the 8-team circle schedule gives
+    # COE values from 96 to 196 (never the balanced 56); the local search must land in that
+    # range, strictly below the circle maximum 196 (Lambrechts et al. 2018), and
+    # scheduler.fairness must measure the same value.
+    lg = league(8, priorities=Priorities(mixing=1, breaks=1, venue_balance=0, slot_balance=0,
+                                          carry_over=5))
+    result = plan_season(lg, time_limit=4)
+    chosen = next(o for o in result.options if o.chosen)
+    assert 96 <= chosen.carry_over < 196
+    assert compute_fairness(result.season).carry_over_value == chosen.carry_over
+    assert any("carry-over value lowered" in note for note in result.notes)

@@ -24,6 +24,7 @@ def anneal(
     *,
     seed: int = 0,
     moves: int = 60000,
+    start: tuple[Sequence[int], dict[tuple[int, int], bool]] | None = None,
 ) -> tuple[list[int], dict[tuple[int, int], bool], int]:
     """Return (leg-1 order, a-is-home for every game (a, b), breaks) with few breaks.
 
@@ -45,6 +46,12 @@ def anneal(
             home[k][a], home[k][b] = a_home, not a_home
             last[a], last[b] = a_home, not a_home
     order = list(range(R))
+    if start is not None:
+        order = list(start[0])
+        for k in range(R):
+            for a, b in rounds[k]:
+                if (a, b) in start[1]:
+                    home[k][a], home[k][b] = start[1][(a, b)], not start[1][(a, b)]
     L = len(maps)
     verts = [v for v in range(n) if v != bye]
 
@@ -102,3 +109,22 @@ def anneal(
     orientation = {(a, b): home[k][a] for k in range(R) for a, b in rounds[k]
                    if bye not in (a, b)}
     return order, orientation, value
+
+
+def breaks_of(fact_rounds, home_first: dict[tuple[int, int], bool], orders, bye) -> int:
+    """Total breaks (byes skipped) when leg ``l`` plays the rounds ``orders[l]`` and every game
+    ``(a, b)`` has ``a`` at home in leg 1 iff ``home_first[(a, b)]`` (odd legs swap)."""
+    last: dict[int, bool] = {}
+    total = 0
+    for leg, order in enumerate(orders):
+        flip = leg % 2 == 1
+        for k in order:
+            for a, b in fact_rounds[k]:
+                if bye in (a, b):
+                    continue
+                ah = home_first[(a, b)] != flip
+                for v, h in ((a, ah), (b, not ah)):
+                    if last.get(v) is h:
+                        total += 1
+                    last[v] = h
+    return total

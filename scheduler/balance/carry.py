@@ -20,6 +20,7 @@ from __future__ import annotations
 from collections.abc import Sequence
 
 from scheduler.balance import legs as leg_schemes
+from scheduler.balance.anneal import breaks_of
 
 
 def opponents(rounds: Sequence[Sequence[tuple[int, int]]], n: int) -> list[list[int]]:
@@ -47,23 +48,6 @@ def carry_over_value(rounds: Sequence[Sequence[tuple[int, int]]], n: int) -> int
     return sum(v * v for v in c.values())
 
 
-def _breaks(fact_rounds, home_first: dict[tuple[int, int], bool], orders, bye) -> int:
-    last: dict[int, bool] = {}
-    total = 0
-    for leg, order in enumerate(orders):
-        flip = leg_schemes.flipped(leg)
-        for k in order:
-            for a, b in fact_rounds[k]:
-                if bye in (a, b):
-                    continue
-                ah = home_first[(a, b)] != flip
-                for v, h in ((a, ah), (b, not ah)):
-                    if last.get(v) is h:
-                        total += 1
-                    last[v] = h
-    return total
-
-
 def improve_order(
     fact_rounds,
     n: int,
@@ -89,7 +73,7 @@ def improve_order(
 
     cur = list(order)
     cur_coe = carry_over_value([fact_rounds[k] for k in cur], n)
-    cur_br = _breaks(fact_rounds, home_first, all_orders(cur), bye)
+    cur_br = breaks_of(fact_rounds, home_first, all_orders(cur), bye)
     for _ in range(passes):
         improved = False
         for i in range(R):
@@ -99,7 +83,7 @@ def improve_order(
                 coe = carry_over_value([fact_rounds[k] for k in trial], n)
                 if coe >= cur_coe:
                     continue
-                br = _breaks(fact_rounds, home_first, all_orders(trial), bye)
+                br = breaks_of(fact_rounds, home_first, all_orders(trial), bye)
                 if keep_breaks and br > cur_br:
                     continue
                 cur, cur_coe, cur_br = trial, coe, br

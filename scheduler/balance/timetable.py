@@ -29,7 +29,7 @@ from datetime import date
 from ortools.sat.python import cp_model
 
 from scheduler.balance import legs as leg_schemes
-from scheduler.balance.anneal import anneal
+from scheduler.balance.anneal import anneal, breaks_of
 from scheduler.balance.dates import DayModel, candidate_days, day_groups
 from scheduler.balance.explain import RuleBook, explain
 from scheduler.config.model import League
@@ -171,6 +171,8 @@ class TimetableModel:
         self.is_canonical = self.fact.rounds == circle_rounds(self.n)
         if self.is_canonical:
             hint_order, hint_home = canonical_hint(self.n)
+            if self.L > 1 and fixed_order is None:
+                hint_order = self._best_rotation(hint_order, hint_home)
         elif fixed_order is not None:
             hint_order = list(fixed_order)
             hint_home = _greedy_orientation(self.fact.rounds, hint_order)
@@ -203,6 +205,20 @@ class TimetableModel:
                 self.leg_y.append([self.base[mp[q]] for q in range(R)])
         # Y[s][k]: season round s holds factorization round k
         self.Y = [self.leg_y[s // R][s % R] for s in range(self.P)]
+
+    def _best_rotation(self, order: list[int], home) -> list[int]:
+        """The rotation of the canonical order with the fewest season breaks under the scheme
+        (for the English scheme the rotation by one reaches 2n-4 [computed for n = 4..20])."""
+        maps = leg_schemes.leg_maps(self.scheme, self.L, self.R) or tuple(
+            tuple(range(self.R)) for _ in range(self.L))
+        best = None
+        for r in range(self.R):
+            rot = order[r:] + order[:r]
+            value = breaks_of(self.fact.rounds, home,
+                              [[rot[mp[q]] for q in range(self.R)] for mp in maps], self.bye)
+            if best is None or value < best[0]:
+                best = (value, rot)
+        return best[1]
 
     def _build_venues(self) -> None:
         m = self.model

@@ -61,10 +61,11 @@ def test_inverted_drr_has_2n_minus_4_breaks(n):
     assert count_breaks(result.season) == 2 * n - 4
 
 
-@pytest.mark.parametrize("n", [4, 6, 8])
+@pytest.mark.parametrize("n", [4, 6, 8, 10, 12])
 def test_english_drr_has_2n_minus_4_breaks(n):
-    # fairness.md §4, derived and computed for n = 4, 6, 8 (exact CP-SAT optimum).
-    result = _plan(n, legs=2, scheme="english", time_limit=8.0)
+    # fairness.md §4, derived (2n-4 = two legs of n-2) and computed for n = 4, 6, 8; reached
+    # here by the canonical schedule with its round order rotated by one.
+    result = _plan(n, legs=2, scheme="english")
     assert count_breaks(result.season) == 2 * n - 4
 
 

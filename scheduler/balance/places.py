@@ -44,6 +44,7 @@ class Placement:
     court_max: int | None
     slot_max: int | None
     status: str
+    wall_cap_hit: bool = False
 
 
 def _venue_places(league: League, venue_index: int, per_day: int) -> list[Place]:
@@ -221,8 +222,11 @@ def assign_places(league: League, tt: Timetable, limits: SolveLimits) -> Placeme
             court_max = solver.Value(var)
         else:
             slot_max = solver.Value(var)
-    return _result(tt, all_places, chosen, court_max, slot_max,
-                   "optimal" if status == cp_model.OPTIMAL else "feasible")
+    out = _result(tt, all_places, chosen, court_max, slot_max,
+                  "optimal" if status == cp_model.OPTIMAL else "feasible")
+    if status != cp_model.OPTIMAL and solver.WallTime() >= limits.wall * 0.98:
+        out = Placement(out.places, out.court_max, out.slot_max, out.status, True)
+    return out
 
 
 def _by_assignment(opts, days, all_places, tt, wv: int, ws: int

@@ -196,6 +196,14 @@ def plan_season(
                      " not proven optimal within the time limit")
     report("places", 0.75)
     placement = assign_places(league, tt, _limits(total, 0.25, seed))
+    if placement.wall_cap_hit:
+        notes.append("the wall-clock safety limit was hit while placing the games; the result "
+                     "may depend on machine load (allow more solve_seconds)")
+    if placement.court_max is not None or placement.slot_max is not None:
+        figs = [f"{label} {v}" for label, v in (("court", placement.court_max),
+                                                 ("slot", placement.slot_max)) if v is not None]
+        notes.append("most games of one team on one " + " and on one ".join(figs)
+                     + (" (proven best)" if placement.status == "optimal" else ""))
     report("dates", 0.9)
     season = _season(league, chosen, tt, placement, seed, tuple(notes))
     options = tuple(

@@ -41,7 +41,13 @@ Progress = Callable[[str, float], None]
 
 @dataclass(frozen=True)
 class PlanOption:
-    """One alternative the planner considered."""
+    """One alternative the planner considered.
+
+    ``method`` is the factorization's construction, ``perfect_pairs``/``pairs`` its mixing
+    (verifier), ``breaks`` the fewest breaks found with it under the rules (``None`` when the
+    rules cannot hold with it, then ``feasible`` is False), ``break_bound`` the proven lower
+    bound, ``carry_over`` Russell's carry-over value of leg 1 when computed.
+    """
 
     label: str
     method: str
@@ -56,6 +62,9 @@ class PlanOption:
 
 @dataclass(frozen=True)
 class PlanResult:
+    """The planned season, the alternatives considered, ``status`` ("optimal" when every solver
+    stage proved its optimum, else "feasible") and the planner's notes (also in the season)."""
+
     season: Season
     options: tuple[PlanOption, ...]
     status: str

@@ -41,10 +41,10 @@ from scheduler.factorization.verify import partner_table, verify_rounds
 
 Progress = Callable[[float, str], None]
 
-NODES_PER_SECOND = 40_000_000
+NODES_PER_SECOND = 30_000_000
 """Nominal search speed, in node x difference-class steps per second (conservative)."""
 
-MOVES_PER_SECOND = 40_000_000
+MOVES_PER_SECOND = 200_000_000
 """Nominal annealing speed, in (move x rounds x n) steps per second (conservative)."""
 
 CLOCK_CAP = 3.0
@@ -54,6 +54,11 @@ STARTER_SHARE = 0.4
 """Share of the budget spent on the near-perfect starter phase."""
 
 _RUN_NODES = 100_000
+
+PROBE_SHARE = 0.3
+"""Share of the starter work spread over all candidate spaces before keeping the best few."""
+
+KEEP_SPACES = 3
 
 
 def _run_seed(seed: int, phase: int, run: int) -> int:
@@ -120,7 +125,9 @@ def near_perfect_starter(
     """Starter in a group of order ``n - 1`` with as many perfect pairs as found within ``work``.
 
     Multiplier-invariant starters (:func:`starter_candidates`) are tried round-robin, one
-    kernel run each; only starters with more than ``beat`` perfect pairs are kept. Returns the
+    kernel run each, each space raising its own target after every success; after
+    ``PROBE_SHARE`` of the work only the ``KEEP_SPACES`` best spaces go on. Only starters with
+    more than ``beat`` perfect pairs are kept. Returns the
     best starter-induced factorization (or ``None``) and a record of the search.
     """
     m = n - 1
@@ -130,19 +137,21 @@ def near_perfect_starter(
     classes = (m - 1) // 2
     cands = [(g, u, k, kernel_arrays(g, u)) for g, u, k in starter_candidates(m)]
     best = None
-    need_good = beat // m + 1
+    need = [beat // m + 1] * len(cands)
+    own_best = [0] * len(cands)
     record = {"tried": [f"{g.name} u={u}" for g, u, _, _ in cands], "runs": 0, "nodes": 0,
               "clock": False}
     out = np.zeros((classes, 2), dtype=np.int32)
     run = 0
     spent = 0
-    alive = list(range(len(cands)))
-    while spent < work and need_good <= classes and alive:
+    pruned = False
+    alive = [c for c in range(len(cands)) if need[c] <= classes]
+    while spent < work and alive:
         ci = alive[run % len(alive)]
         group, u, _, (add, neg, mulu, reps, weights) = cands[ci]
         run += 1
         status, nodes, badw = search_kernel(
-            m, add, neg, mulu, reps, weights, classes - need_good,
+            m, add, neg, mulu, reps, weights, classes - need[ci],
             _run_seed(seed, 1, run), _RUN_NODES, out,
         )
         spent += int(nodes) * len(reps)
@@ -151,10 +160,19 @@ def near_perfect_starter(
         if status == 1:
             starter = tuple(sorted((int(min(a, b)), int(max(a, b))) for a, b in out))
             good = classes - int(badw)
-            best = (good, group, u, starter)
-            need_good = good + 1
-        elif status == -1:
-            alive.remove(ci)
+            own_best[ci] = good
+            need[ci] = good + 1
+            if best is None or good > best[0]:
+                best = (good, group, u, starter)
+            if good == classes:
+                break
+        if status == -1 or need[ci] > classes:
+            alive.remove(ci)  # this space holds no starter with need[ci] good classes
+        if not pruned and spent > PROBE_SHARE * work:
+            # keep the most promising spaces for the rest of the work
+            pruned = True
+            ranked = sorted(alive, key=lambda c: (-own_best[c], c))[:KEEP_SPACES]
+            alive = [c for c in alive if c in ranked]
         if clock_limit is not None and time.perf_counter() - start > clock_limit:
             record["clock"] = True
             break

@@ -84,9 +84,11 @@ def _factorize(teams: int, seed: int, budget: float, progress: Progress | None) 
     except ImportError:  # the engine's policy is not there yet: the circle schedule
         return circle_factorization(teams + teams % 2)
 
-    def inner(stage: str, fraction: float) -> None:
+    def inner(first, second) -> None:
+        # the engine reports progress(fraction, message)
+        fraction, message = (second, first) if isinstance(first, str) else (first, second)
         if progress is not None:
-            progress(f"factorize: {stage}", 0.25 * max(0.0, min(1.0, fraction)))
+            progress(f"factorize: {message}", 0.2 * max(0.0, min(1.0, float(fraction))))
 
     try:
         return factorize(teams, seed=seed, budget=budget, progress=inner)
@@ -172,7 +174,7 @@ def plan_season(
         cands.append(_Candidate(f"fewest breaks: {gk.method}", gk, verify_rounds(n, gk.rounds)))
     else:
         cands[0].label = found.method
-    report("timetable", 0.25)
+    report("timetable", 0.2)
     share = 0.45 / len(cands)
     for c in cands:
         try:

@@ -601,7 +601,7 @@ class TimetableModel:
         self.model.ClearAssumptions()
         self.model.AddAssumptions([self.book.literals[i] for i in indices])
         solver = cp_model.CpSolver()
-        configure(solver, SolveLimits(min(limits.deterministic, 5.0), min(limits.wall, 20.0),
+        configure(solver, SolveLimits(min(limits.deterministic, 2.0), min(limits.wall, 10.0),
                                       limits.seed))
         status = solver.Solve(self.model)
         return status == cp_model.INFEASIBLE

@@ -112,6 +112,9 @@ def check_season(league: League, season: Season) -> list[str]:
                 bad.append(f"{t}: break in round {cur.round} (no_breaks_first)")
             if is_break and r.no_breaks_last and cur.round > rounds - r.no_breaks_last:
                 bad.append(f"{t}: break in round {cur.round} (no_breaks_last)")
+            if (prev.start and cur.start and prev.date == cur.date
+                    and not prev.start < cur.start):
+                bad.append(f"{t}: round {cur.round} does not start after round {prev.round}")
             if r.min_rest_days is not None and (cur.date - prev.date).days - 1 < r.min_rest_days:
                 bad.append(f"{t}: rest {(cur.date - prev.date).days - 1} days before {cur.date}")
     if r.min_separation is not None and legs > 1:

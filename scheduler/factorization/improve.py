@@ -121,13 +121,15 @@ def near_perfect_starter(
     work: int = 10**8,
     beat: int = 0,
     clock_limit: float | None = None,
+    prune: bool = True,
 ) -> tuple[Factorization | None, dict]:
     """Starter in a group of order ``n - 1`` with as many perfect pairs as found within ``work``.
 
     Multiplier-invariant starters (:func:`starter_candidates`) are tried round-robin, one
     kernel run each, each space raising its own target after every success; after
     ``PROBE_SHARE`` of the work only the ``KEEP_SPACES`` best spaces go on. Only starters with
-    more than ``beat`` perfect pairs are kept. Returns the
+    more than ``beat`` perfect pairs are kept. ``prune=False`` keeps every space to the end
+    (the right choice when only a perfect starter is wanted). Returns the
     best starter-induced factorization (or ``None``) and a record of the search.
     """
     m = n - 1
@@ -168,7 +170,7 @@ def near_perfect_starter(
                 break
         if status == -1 or need[ci] > classes:
             alive.remove(ci)  # this space holds no starter with need[ci] good classes
-        if not pruned and spent > PROBE_SHARE * work:
+        if prune and not pruned and spent > PROBE_SHARE * work:
             # keep the most promising spaces for the rest of the work
             pruned = True
             ranked = sorted(alive, key=lambda c: (-own_best[c], c))[:KEEP_SPACES]

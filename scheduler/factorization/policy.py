@@ -151,7 +151,7 @@ def factorize(
             progress(0.0, f"searching for a perfect starter of order {m}")
         found, record = near_perfect_starter(
             n, seed=seed, work=int(share * NODES_PER_SECOND), beat=m * classes - 1,
-            clock_limit=3 * share,
+            clock_limit=3 * share, prune=False,
         )
         tried.append(f"perfect-starter search (seed {seed}, {record['nodes']} nodes)")
         info["perfect_search"] = record

@@ -267,7 +267,7 @@ def _reduce_carry_over(league: League, cand: _Candidate, limits: SolveLimits):
                     + (" without adding breaks" if keep else ""))
     try:
         new = solve_timetable(league, fact, limits, minimise_breaks=league.priorities.breaks > 0,
-                              fixed_order=tuple(order))
+                              fixed_order=tuple(order), start_home=home)
     except InfeasibleError:
         return tt, f"carry-over value {before}; a lower-carry-over order breaks a rule, kept"
     after = carry_over_value([fact.rounds[k] for k in new.order[0]], fact.n)

@@ -120,8 +120,10 @@ class TimetableModel:
 
     def __init__(self, league: League, fact: Factorization, *, minimise_breaks: bool = True,
                  fixed_order: tuple[int, ...] | None = None, earliest_days: bool = False,
-                 effort: float = 2.0) -> None:
+                 effort: float = 2.0,
+                 start_home: dict[tuple[int, int], bool] | None = None) -> None:
         self.earliest_days = earliest_days
+        self.start_home = start_home
         self.effort = effort
         self.league = league
         self.fact = fact
@@ -175,7 +177,7 @@ class TimetableModel:
                 hint_order = self._best_rotation(hint_order, hint_home)
         elif fixed_order is not None:
             hint_order = list(fixed_order)
-            hint_home = _greedy_orientation(self.fact.rounds, hint_order)
+            hint_home = self.start_home or _greedy_orientation(self.fact.rounds, hint_order)
         else:
             maps = leg_schemes.leg_maps(self.scheme, self.L, R) or tuple(
                 tuple(range(R)) for _ in range(self.L))
@@ -667,14 +669,16 @@ def count_breaks(games, teams: int) -> int:
 
 def solve_timetable(league: League, fact: Factorization, limits: SolveLimits, *,
                     minimise_breaks: bool = True,
-                    fixed_order: tuple[int, ...] | None = None) -> Timetable:
+                    fixed_order: tuple[int, ...] | None = None,
+                    start_home: dict[tuple[int, int], bool] | None = None) -> Timetable:
     """Build and solve the timetable model; raises ``InfeasibleError`` naming the rules.
 
     The earliest match days are tried first (half the limit); only when the rules cannot hold on
     them is the choice of days opened up (then the model prefers early days).
     """
     first = TimetableModel(league, fact, minimise_breaks=minimise_breaks, fixed_order=fixed_order,
-                           earliest_days=True, effort=limits.deterministic)
+                           earliest_days=True, effort=limits.deterministic,
+                           start_home=start_home)
     if first.daymodel is None or len(first.days) == len(first.groups):
         return first.solve(limits)
     half = SolveLimits(limits.deterministic / 2, limits.wall / 2, limits.seed)
@@ -683,5 +687,5 @@ def solve_timetable(league: League, fact: Factorization, limits: SolveLimits, *,
     except InfeasibleError:
         pass
     model = TimetableModel(league, fact, minimise_breaks=minimise_breaks, fixed_order=fixed_order,
-                           effort=limits.deterministic)
+                           effort=limits.deterministic, start_home=start_home)
     return model.solve(half)

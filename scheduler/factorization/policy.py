@@ -27,7 +27,12 @@ from scheduler.errors import InputError
 from scheduler.factorization.anderson import anderson_factorization
 from scheduler.factorization.catalogue import catalogue_factorization
 from scheduler.factorization.circle import circle_factorization
-from scheduler.factorization.improve import NODES_PER_SECOND, best_available, near_perfect_starter
+from scheduler.factorization.improve import (
+    NODES_PER_SECOND,
+    best_available,
+    clock_cap,
+    near_perfect_starter,
+)
 from scheduler.factorization.model import Factorization
 
 Progress = Callable[[float, str], None]
@@ -151,7 +156,7 @@ def factorize(
             progress(0.0, f"searching for a perfect starter of order {m}")
         found, record = near_perfect_starter(
             n, seed=seed, work=int(share * NODES_PER_SECOND), beat=m * classes - 1,
-            clock_limit=3 * share, prune=False,
+            clock_limit=clock_cap(share), prune=False,
         )
         tried.append(f"perfect-starter search (seed {seed}, {record['nodes']} nodes)")
         info["perfect_search"] = record

@@ -179,8 +179,8 @@ class TimetableModel:
             hint_order = list(fixed_order)
             hint_home = self.start_home or _greedy_orientation(self.fact.rounds, hint_order)
         else:
-            maps = leg_schemes.leg_maps(self.scheme, self.L, R) or tuple(
-                tuple(range(R)) for _ in range(self.L))
+            maps = (leg_schemes.leg_maps(self.scheme, self.L, R)
+                    or leg_schemes.leg_maps("inverted", self.L, R))
             moves = int(min(400_000, 40_000 + 12_000 * self.effort))
             hint_order, hint_home, _ = anneal(self.fact.rounds, self.n, maps, self.bye,
                                               seed=self.league.seed, moves=moves)
@@ -195,12 +195,15 @@ class TimetableModel:
         maps = leg_schemes.leg_maps(self.scheme, self.L, R)
         self.leg_y: list[list[list[cp_model.IntVar]]] = []
         if maps is None:
+            # free scheme: start from the inverted order, which reaches 2n-4 breaks with the
+            # canonical schedule (fairness.md §4)
+            start = leg_schemes.leg_maps("inverted", self.L, R)
             self.leg_y.append(self.base)
             for leg in range(1, self.L):
                 y = self._perm(f"y{leg}")
                 for q in range(R):
                     for k in range(R):
-                        m.AddHint(y[q][k], hint_order[q] == k)
+                        m.AddHint(y[q][k], hint_order[start[leg][q]] == k)
                 self.leg_y.append(y)
         else:
             for mp in maps:

@@ -69,6 +69,13 @@ def test_english_drr_has_2n_minus_4_breaks(n):
     assert count_breaks(result.season) == 2 * n - 4
 
 
+@pytest.mark.parametrize("n", [4, 6, 8, 10, 12])
+def test_free_drr_reaches_2n_minus_4(n):
+    # any two-leg DRR needs n-2 breaks per leg (de Werra 1981); the free scheme reaches 2n-4.
+    result = _plan(n, legs=2, scheme="free")
+    assert count_breaks(result.season) == 2 * n - 4
+
+
 @pytest.mark.parametrize("n", [5, 7, 9])
 def test_srr_odd_has_no_breaks(n):
     # de Werra 1981: for an odd number of teams a break-free SRR exists.

@@ -22,7 +22,8 @@ import pytest
 
 from scheduler.factorization.circle import circle_factorization
 from scheduler.factorization.verify import verify_rounds
-from tests.factorization._incidence import automorphism_count
+
+from ._incidence import automorphism_count
 
 
 def _perfect_matchings(vertices):

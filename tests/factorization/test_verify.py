@@ -13,6 +13,7 @@ import networkx as nx
 import numpy as np
 import pytest
 
+from scheduler.errors import InputError
 from scheduler.factorization.circle import circle_factorization
 from scheduler.factorization.verify import hamiltonian_pair_matrix, verify_rounds
 
@@ -94,6 +95,36 @@ def test_listing_is_capped_but_counting_is_not():
     assert len(cert.imperfect) == 3
     assert cert.imperfect_total == len(cycles) == 105 - 60
     assert cert.imperfect[0].label == "+".join(str(c) for c in cycles[(0, 3)])
+
+
+def _nx_is_one_factorization(n, rounds) -> bool:
+    """networkx reference: every round a perfect matching of K_n, all games distinct and
+    together the edge set of K_n."""
+    complete = nx.complete_graph(n)
+    if not all(nx.is_perfect_matching(complete, {tuple(g) for g in r}) for r in rounds):
+        return False
+    games = nx.Graph()
+    games.add_edges_from(g for r in rounds for g in r)
+    total = sum(len(r) for r in rounds)
+    return total == games.number_of_edges() and nx.utils.graphs_equal(games, complete)
+
+
+def test_networkx_reference_agrees_on_validity():
+    good = [list(r) for r in circle_factorization(10).rounds]
+    dup = [list(r) for r in good]
+    dup[1] = dup[2]
+    broken = [list(r) for r in good]
+    broken[4] = [(0, 1), (1, 2), (3, 4), (5, 6), (7, 8)]
+    for rounds, expected in [(good, True), (dup, False), (broken, False)]:
+        assert _nx_is_one_factorization(10, rounds) is expected
+        assert verify_rounds(10, rounds).valid is expected
+
+
+def test_pair_matrix_rejects_non_matchings():
+    with pytest.raises(InputError):
+        hamiltonian_pair_matrix(4, [[(0, 1), (1, 2)], [(0, 2), (1, 3)], [(0, 3), (1, 2)]])
+    with pytest.raises(InputError):
+        hamiltonian_pair_matrix(5, [])
 
 
 def test_duplicated_pair_is_reported():

@@ -75,34 +75,59 @@ def anneal(
             prev = h
         return total
 
+    def index(seq):
+        """Per vertex: its played season positions, and where each round sits among them."""
+        played = {}
+        where = {}
+        for v in verts:
+            pl = [s for s, (k, _f) in enumerate(seq) if partner[k][v] != bye]
+            w: list[list[int]] = [[] for _ in range(R)]
+            for i, s in enumerate(pl):
+                w[seq[s][0]].append(i)
+            played[v], where[v] = pl, w
+        return played, where
+
+    def flip_delta(v, k, seq, played, where):
+        """Change of v's breaks when its venue in round k (every leg) is swapped."""
+        hits = where[v][k]
+        pl = played[v]
+        top = len(pl) - 1
+        touched = set(hits)
+        d = 0
+        for i in sorted({j for h in hits for j in (h - 1, h) if 0 <= j < top}):
+            k1, f1 = seq[pl[i]]
+            k2, f2 = seq[pl[i + 1]]
+            x = home[k1][v] != f1
+            y = home[k2][v] != f2
+            d += ((x != (i in touched)) == (y != ((i + 1) in touched))) - (x == y)
+        return d
+
     seq = seq_rounds(order)
-    per = {v: vbreaks(v, seq) for v in verts}
-    cur = sum(per.values())
+    played, where = index(seq)
+    cur = sum(vbreaks(v, seq) for v in verts)
     best = (cur, list(order), [row[:] for row in home])
-    t0, t1 = 2.0, 0.05
+    t0, t1 = 0.6, 0.1
     games = [(k, a, b) for k in range(R) for a, b in rounds[k] if bye not in (a, b)]
-    for step in range(moves):
-        temp = t0 * (t1 / t0) ** (step / max(1, moves - 1))
-        if rng.random() < 0.08 and R > 2:
+    temp = t0
+    cool = (t1 / t0) ** (1.0 / max(1, moves - 1))
+    for _step in range(moves):
+        temp *= cool
+        if R > 2 and rng.random() < 0.08:
             i, j = rng.sample(range(R), 2)
             order[i], order[j] = order[j], order[i]
             new_seq = seq_rounds(order)
-            new_per = {v: vbreaks(v, new_seq) for v in verts}
-            delta = sum(new_per.values()) - cur
+            delta = sum(vbreaks(v, new_seq) for v in verts) - cur
             if delta <= 0 or rng.random() < math.exp(-delta / temp):
-                seq, per, cur = new_seq, new_per, cur + delta
+                seq, cur = new_seq, cur + delta
+                played, where = index(seq)
             else:
                 order[i], order[j] = order[j], order[i]
         else:
             k, a, b = games[rng.randrange(len(games))]
-            home[k][a], home[k][b] = home[k][b], home[k][a]
-            na, nb = vbreaks(a, seq), vbreaks(b, seq)
-            delta = na + nb - per[a] - per[b]
+            delta = flip_delta(a, k, seq, played, where) + flip_delta(b, k, seq, played, where)
             if delta <= 0 or rng.random() < math.exp(-delta / temp):
-                per[a], per[b] = na, nb
-                cur += delta
-            else:
                 home[k][a], home[k][b] = home[k][b], home[k][a]
+                cur += delta
         if cur < best[0]:
             best = (cur, list(order), [row[:] for row in home])
     value, order, home = best

@@ -181,9 +181,11 @@ class TimetableModel:
         else:
             maps = (leg_schemes.leg_maps(self.scheme, self.L, R)
                     or leg_schemes.leg_maps("inverted", self.L, R))
-            moves = int(min(400_000, 40_000 + 12_000 * self.effort))
-            hint_order, hint_home, _ = anneal(self.fact.rounds, self.n, maps, self.bye,
-                                              seed=self.league.seed, moves=moves)
+            moves = int(min(1_500_000, 60_000 + 30_000 * self.effort))
+            # two independent runs (seeds fixed), the better one wins
+            runs = [anneal(self.fact.rounds, self.n, maps, self.bye,
+                           seed=self.league.seed * 2 + i, moves=moves // 2) for i in range(2)]
+            hint_order, hint_home, _ = min(runs, key=lambda run: run[2])
         if fixed_order is not None:
             hint_order = list(fixed_order)
             for q, k in enumerate(fixed_order):

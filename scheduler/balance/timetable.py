@@ -550,7 +550,9 @@ class TimetableModel:
     def _fixed(self, f) -> None:
         m, book = self.model, self.book
         a, b = self.names[f.home], self.names[f.away]
-        where = f"in round {f.round}" if f.round is not None else f"on {f.date.isoformat()}"
+        where = " ".join(x for x in (
+            f"in round {f.round}" if f.round is not None else "",
+            f"on {f.date.isoformat()}" if f.date is not None else "") if x)
         venue = " (either venue)" if f.any_venue else ""
         lit = book.rule(f"fixed: {f.home} v {f.away} {where}{venue}")
         if f.round is not None:
@@ -561,6 +563,14 @@ class TimetableModel:
             self.meet(a, b, s, lit)
             if not f.any_venue:
                 m.AddImplication(lit, self.TH(a, s))
+            if f.date is not None:  # both a round and a date: that round on that date
+                on = None
+                if self.daymodel is not None and f.date in self.day_index:
+                    on = self.daymodel.on.get((self.group_of[s], self.day_index[f.date]))
+                if on is None:
+                    m.AddBoolOr([lit.Not()])
+                else:
+                    m.AddImplication(lit, on)
             return
         if self.daymodel is None or f.date not in self.day_index:
             m.AddBoolOr([lit.Not()])

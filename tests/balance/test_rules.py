@@ -123,3 +123,12 @@ def test_sample_leagues(name):
     result = plan_season(lg, time_limit=min(lg.solve_seconds, 6))
     assert check_season(lg, result.season) == []
     assert result.season.revision and len(result.season.revision) == 12
+
+
+def test_fixed_fixture_with_round_and_date():
+    # both given: that round, played on that date (so earlier days are skipped)
+    lg = league(6, calendar=SPRING, rules=Rules(fixed=(
+        FixedFixture("Alder Vale", "Brook Farm", round=2, date=date(2027, 1, 23)),)))
+    season = _ok(lg)
+    f = next(f for f in season.fixtures if f.round == 2 and "Alder Vale" in f.teams)
+    assert (f.home, f.away, f.date) == ("Alder Vale", "Brook Farm", date(2027, 1, 23))

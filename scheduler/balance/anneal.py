@@ -5,8 +5,10 @@ known to be optimal) CP-SAT benefits from a good first solution. Minimising brea
 timetable is a MAX-CUT problem (Elf, Jünger & Rinaldi 2003, Oper. Res. Letters 31:343-349, from
 memory), which local search handles well. The moves are: swap the venue of one game; swap two
 rounds of leg 1 (later legs follow the scheme). Acceptance follows the Metropolis rule with a
-geometric cooling schedule (Kirkpatrick, Gelatt & Vecchi 1983, Science 220:671-680). The random
-generator is seeded and the number of moves is fixed, so the result is deterministic.
+geometric cooling schedule (Kirkpatrick, Gelatt & Vecchi 1983, Science 220:671-680); a venue
+swap is evaluated incrementally (only the two teams' neighbouring games change). The random
+generator is seeded and the number of moves is fixed, so the result is deterministic. The hard
+rules are left to the CP-SAT model, which repairs the start where it breaks one.
 """
 
 from __future__ import annotations

@@ -18,7 +18,12 @@ Valid lower bounds from :func:`scheduler.balance.legs.total_break_bound` (de Wer
 Discrete Math. 11:381-395; fairness.md §1, §4) are added as constraints so that CP-SAT can prove
 optimality as soon as it reaches them. The search starts from a hint: for GK_n the canonical
 circle schedule with de Werra's orientation (fairness.md §1 "Canonical schedule"), which has
-exactly ``n - 2`` breaks.
+exactly ``n - 2`` breaks, its round order rotated to suit the leg scheme (the rotation by one
+gives the English scheme 2n-4; the free scheme starts from the inverted order); for other
+factorizations a simulated-annealing start (:mod:`scheduler.balance.anneal`).
+
+Determinism: one CP-SAT worker, a fixed ``random_seed`` and ``max_deterministic_time``; the
+wall-clock limit is only a safety net (reported when hit).
 """
 
 from __future__ import annotations

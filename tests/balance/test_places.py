@@ -81,3 +81,19 @@ def test_venue_mode_plays_at_home_venue_with_capacity():
     assert check_season(lg, result.season) == []
     for f in result.season.fixtures:
         assert f.venue == homes[f.home]
+
+
+def test_venue_mode_shared_two_court_ground_and_odd_league():
+    # capacity 2 (two pitches): both clubs may be at home on the same day, on different pitches;
+    # three clubs there with capacity 2 must never all be at home together.
+    venues = (Venue("Twin Fields", courts=("Pitch 1", "Pitch 2")), Venue("Ground B"),
+              Venue("Ground C"), Venue("Ground D"))
+    homes = {"Alder Vale": "Twin Fields", "Brook Farm": "Twin Fields", "Cobble Hill": "Twin Fields",
+             "Dunmere": "Ground B", "Elm Quay": "Ground C", "Fernwick": "Ground D",
+             "Gorse Bank": "Ground D"}
+    lg = league(7, legs=2, venues=venues, mode="venue", home_venues=homes)
+    result = plan_season(lg, time_limit=4)
+    assert check_season(lg, result.season) == []
+    per_day = Counter((f.date, f.venue) for f in result.season.fixtures)
+    assert per_day and max(n for (d, v), n in per_day.items() if v == "Twin Fields") <= 2
+    assert max(n for (d, v), n in per_day.items() if v == "Ground D") <= 1

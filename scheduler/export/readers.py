@@ -685,7 +685,7 @@ def _kind_of(path: Path, raw: bytes) -> str:
 
 def read_schedule_with_rows(path: str | Path, *, timezone: str | None = None) -> ScheduleFile:
     """Read a CSV, xlsx or season.json schedule, keeping each fixture's source row."""
-    from scheduler.export.season_json import loads_season
+    from scheduler.export.season_json import loads_season_bytes
 
     path = Path(path)
     raw = read_bytes_limited(path)
@@ -693,14 +693,7 @@ def read_schedule_with_rows(path: str | Path, *, timezone: str | None = None) ->
     if kind == "xlsx":
         return _read_xlsx(path, timezone)
     if kind == "json":
-        try:
-            text = raw.decode("utf-8-sig")
-        except UnicodeDecodeError as exc:
-            raise InputError(
-                f"a season file must be UTF-8 (undecodable byte at offset {exc.start})",
-                location=str(path),
-            ) from exc
-        season = loads_season(text, source=str(path))
+        season = loads_season_bytes(raw, source=str(path))
         return ScheduleFile(
             season=season,
             rows=tuple(None for _ in season.fixtures),

@@ -265,12 +265,16 @@ def load_season_json(path: str | Path) -> Season:
     from scheduler.export.readers import read_bytes_limited
 
     path = Path(path)
-    raw = read_bytes_limited(path)
+    return loads_season_bytes(read_bytes_limited(path), source=str(path))
+
+
+def loads_season_bytes(raw: bytes, *, source: str) -> Season:
+    """A season from the bytes of a ``season.json`` (UTF-8 with or without BOM)."""
     try:
         text = raw.decode("utf-8-sig")
     except UnicodeDecodeError as exc:
         raise InputError(
             f"a season file must be UTF-8 (undecodable byte at offset {exc.start})",
-            location=str(path),
+            location=source,
         ) from exc
-    return loads_season(text, source=str(path))
+    return loads_season(text, source=source)

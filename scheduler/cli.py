@@ -129,13 +129,7 @@ def factor(
     if budget <= 0:
         raise InputError(f"--budget must be a positive number of seconds, got {budget}")
     with _progress(not as_json) as progress:
-        callback = None
-        if progress is not None:
-
-            def callback(fraction: float, message: str) -> None:
-                progress(message, fraction)
-
-        fac = factorize(n_teams, seed=seed, budget=budget, progress=callback)
+        fac = factorize(n_teams, seed=seed, budget=budget, progress=progress)
     cert = fac.certificate()
     bye = fac.bye_vertex if n_teams % 2 else None
     rounds = [

@@ -22,7 +22,6 @@ wall-clock cap is only a safety net and the notes say when it was hit.
 from __future__ import annotations
 
 import hashlib
-from collections.abc import Callable
 from dataclasses import dataclass, replace
 
 from scheduler.balance.carry import carry_over_value, improve_order
@@ -34,9 +33,8 @@ from scheduler.errors import InfeasibleError, InputError
 from scheduler.factorization.circle import circle_factorization, circle_rounds
 from scheduler.factorization.model import Certificate, Factorization
 from scheduler.factorization.verify import verify_rounds
+from scheduler.progress import Progress
 from scheduler.season import Fixture, MixingInfo, Season
-
-Progress = Callable[[str, float], None]
 
 
 @dataclass(frozen=True)
@@ -79,21 +77,14 @@ def revision(league: League, seed: int) -> str:
 
 
 def _factorize(teams: int, seed: int, budget: float, progress: Progress | None) -> Factorization:
-    try:
-        from scheduler.factorization import factorize
-    except ImportError:  # the engine's policy is not there yet: the circle schedule
-        return circle_factorization(teams + teams % 2)
+    """The engine's factorization; its progress fills the first fifth of the bar."""
+    from scheduler.factorization import factorize
 
-    def inner(first, second) -> None:
-        # the engine reports progress(fraction, message)
-        fraction, message = (second, first) if isinstance(first, str) else (first, second)
+    def inner(message: str, fraction: float) -> None:
         if progress is not None:
             progress(f"factorize: {message}", 0.2 * max(0.0, min(1.0, float(fraction))))
 
-    try:
-        return factorize(teams, seed=seed, budget=budget, progress=inner)
-    except TypeError:
-        return factorize(teams, seed=seed, budget=budget)
+    return factorize(teams, seed=seed, budget=budget, progress=inner)
 
 
 def _is_circle(fact: Factorization) -> bool:

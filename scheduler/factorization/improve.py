@@ -27,7 +27,6 @@ machine).
 from __future__ import annotations
 
 import time
-from collections.abc import Callable
 
 import numpy as np
 
@@ -39,8 +38,7 @@ from scheduler.factorization.model import Factorization, normalise_round
 from scheduler.factorization.search import kernel_arrays
 from scheduler.factorization.starters import starter_factorization
 from scheduler.factorization.verify import partner_table, verify_rounds
-
-Progress = Callable[[float, str], None]
+from scheduler.progress import Progress
 
 NODES_PER_SECOND = 30_000_000
 """Nominal search speed, in node x difference-class steps per second (conservative)."""
@@ -261,7 +259,7 @@ def best_available(
 
     def report(fraction: float, message: str) -> None:
         if progress:
-            progress(min(1.0, fraction), message)
+            progress(message, min(1.0, fraction))
 
     candidates = [(f, _score(f)) for f in baselines(n)]  # verifier counts
     base_info = {f.method: s for f, s in candidates}

@@ -21,7 +21,6 @@ from __future__ import annotations
 import math
 import numbers
 import time
-from collections.abc import Callable
 
 from scheduler.errors import InputError
 from scheduler.factorization.anderson import anderson_factorization
@@ -34,8 +33,7 @@ from scheduler.factorization.improve import (
     near_perfect_starter,
 )
 from scheduler.factorization.model import Factorization
-
-Progress = Callable[[float, str], None]
+from scheduler.progress import Progress
 
 MAX_TEAMS = 1000
 """Largest league ``factorize`` accepts (``K_1000``: about 500 000 pairs of rounds to verify)."""
@@ -125,7 +123,7 @@ def factorize(
 
     ``budget`` (nominal seconds, converted to fixed work so the result depends only on
     ``teams`` and ``seed``) is used only for orders without a formula or catalogue entry.
-    ``progress(fraction, message)`` is called during searches.
+    ``progress(message, fraction)`` is called during searches.
     """
     teams = _check_teams(teams)
     budget = _check_seed_budget(seed, budget)
@@ -153,7 +151,7 @@ def factorize(
         classes = (m - 1) // 2
         share = budget * PERFECT_SEARCH_SHARE
         if progress:
-            progress(0.0, f"searching for a perfect starter of order {m}")
+            progress(f"searching for a perfect starter of order {m}", 0.0)
         found, record = near_perfect_starter(
             n, seed=seed, work=int(share * NODES_PER_SECOND), beat=m * classes - 1,
             clock_limit=clock_cap(share), prune=False,
@@ -170,15 +168,17 @@ def factorize(
             return _finish(f, teams, info)
         remaining = max(budget - share, 0.1 * budget)
         if progress:
-            progress(PERFECT_SEARCH_SHARE,
-                     f"no perfect starter within {time.perf_counter() - start:.1f}s")
+            progress(
+                f"no perfect starter within {time.perf_counter() - start:.1f}s",
+                PERFECT_SEARCH_SHARE,
+            )
 
     tried.append("best available (GK, GA, near-perfect starters, Kempe annealing)")
 
-    def sub_progress(fraction: float, message: str) -> None:
+    def sub_progress(message: str, fraction: float) -> None:
         if progress:
             done = 1.0 - remaining / budget
-            progress(done + fraction * (remaining / budget), message)
+            progress(message, done + fraction * (remaining / budget))
 
     f = best_available(n, seed=seed, budget=remaining, progress=sub_progress)
     return _finish(f, teams, info)

@@ -23,7 +23,6 @@ every machine; only whether the budget suffices depends on the machine.
 from __future__ import annotations
 
 import time
-from collections.abc import Callable
 from dataclasses import dataclass
 
 import numpy as np
@@ -31,8 +30,7 @@ import numpy as np
 from scheduler.errors import InputError
 from scheduler.factorization.groups import AbelianGroup
 from scheduler.factorization.starters import is_perfect_starter
-
-Progress = Callable[[float, str], None]
+from scheduler.progress import Progress
 
 
 @dataclass(frozen=True)
@@ -134,7 +132,7 @@ def search_perfect_starter(
     """Search ``group`` for a perfect starter (invariant under ``x -> multiplier * x``).
 
     ``budget`` is in seconds of wall time (checked between runs; one run is at most
-    ``max_run_nodes`` nodes). ``progress(fraction, message)`` is called after each run with the
+    ``max_run_nodes`` nodes). ``progress(message, fraction)`` is called after each run with the
     fraction of the budget used. ``max_nodes`` (if given) also stops the search after that
     many nodes in total: a work limit, unlike the clock, gives the same outcome on every
     machine. Every starter returned has been re-checked with
@@ -166,18 +164,18 @@ def search_perfect_starter(
             if not is_perfect_starter(group, starter):  # pragma: no cover - kernel bug guard
                 raise AssertionError(f"search kernel returned a non-perfect starter {starter}")
             if progress:
-                progress(1.0, f"perfect starter found in {group.name} after {runs} runs")
+                progress(f"perfect starter found in {group.name} after {runs} runs", 1.0)
             return StarterSearchResult(
                 group.name, multiplier, seed, starter, runs, nodes, elapsed, False
             )
         if status == -1:
             if progress:
-                progress(1.0, f"no perfect starter of this kind in {group.name}")
+                progress(f"no perfect starter of this kind in {group.name}", 1.0)
             return StarterSearchResult(group.name, multiplier, seed, None, runs, nodes, elapsed,
                                        True)
         if progress:
-            progress(min(1.0, elapsed / budget),
-                     f"searching {group.name}: {runs} runs, {nodes} nodes")
+            message = f"searching {group.name}: {runs} runs, {nodes} nodes"
+            progress(message, min(1.0, elapsed / budget))
         if elapsed >= budget or (max_nodes is not None and nodes >= max_nodes):
             return StarterSearchResult(group.name, multiplier, seed, None, runs, nodes, elapsed,
                                        False)

@@ -68,7 +68,7 @@ def test_multiplier_invariant_result():
 def test_progress_and_work_limit():
     calls = []
     res = search_perfect_starter(cyclic(45), seed=0, budget=30, max_nodes=50_000,
-                                 progress=lambda frac, msg: calls.append((frac, msg)))
+                                 progress=lambda msg, frac: calls.append((frac, msg)))
     assert res.nodes <= 50_000 + 1
     assert calls and all(0.0 <= frac <= 1.0 for frac, _ in calls)
 

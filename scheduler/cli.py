@@ -208,7 +208,6 @@ def plan(
         result = plan_season(league, seed=seed, time_limit=time_limit, progress=progress)
     season = result.season
     fairness = compute_fairness(season)
-    sides = league.format.side_labels if league.format.home_meaning == "side" else ("H", "A")
     written = write_season_outputs(
         season,
         fairness,
@@ -216,7 +215,7 @@ def plan(
         force=force,
         config_path=config,
         game_minutes=league.calendar.game_minutes,
-        side_labels=sides,
+        side_labels=league.format.grid_labels,
     )
     if quiet:
         out.print(str(out_dir))

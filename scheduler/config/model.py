@@ -48,6 +48,12 @@ class Format:
     home_meaning: HomeMeaning = "venue"
     side_labels: tuple[str, str] = ("Home", "Away")
 
+    @property
+    def grid_labels(self) -> tuple[str, str]:
+        """Labels of the home and the away side in grids: the side names when "home" is a side
+        or colour, else ``("H", "A")``."""
+        return self.side_labels if self.home_meaning == "side" else ("H", "A")
+
 
 @dataclass(frozen=True, slots=True)
 class CalendarSpec:

@@ -1,6 +1,7 @@
 """``factorize``: the one-factorization a league of ``teams`` teams should use.
 
-Order of preference (each step re-checked by the independent verifier before it is returned):
+Order of preference (the result carries no claims of its own: ``Factorization.certificate()``
+runs the independent verifier, and the test suite checks every path through it):
 
 1. ``n - 1`` prime: the circle GK_n, perfect (Kotzig 1964; Wallis 1997).
 2. ``n / 2`` prime: Anderson's GA_n, perfect (Anderson 1973).

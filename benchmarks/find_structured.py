@@ -1,0 +1,126 @@
+"""Offline searches for perfect one-factorizations in the structured spaces beyond plain
+cyclic starters (even starters, starters in non-abelian groups, prescribed ``Z_k``) and the
+systematic multiplier sweep of cyclic starters. Prints one ``#`` line per space with the work
+done (runs, nodes, seconds, exhausted = proved empty) and one JSON line per find:
+
+    nice -n 19 python benchmarks/find_structured.py even 38 --seconds 600
+    nice -n 19 python benchmarks/find_structured.py group 13 3 --seconds 600
+    nice -n 19 python benchmarks/find_structured.py orbit 3 13 --seconds 600
+    nice -n 19 python benchmarks/find_structured.py multipliers 39 --seconds 20
+    nice -n 19 python benchmarks/find_structured.py rate
+
+``rate`` prints the node rate of each kernel on K_40-sized spaces and the ratio against the
+cyclic-starter kernel (the reference implementation).
+"""
+
+from __future__ import annotations
+
+import argparse
+import json
+import sys
+import time
+
+from scheduler.factorization.even_starters import search_perfect_even_starter
+from scheduler.factorization.groups import AbelianGroup, cyclic
+from scheduler.factorization.nonabelian_starters import search_perfect_group_starter, semidirect
+from scheduler.factorization.orbit_factorizations import search_perfect_orbit_factorization
+from scheduler.factorization.search import search_perfect_starter
+
+
+def _line(label: str, res) -> None:
+    print(f"# {label}: found={res.found} exhausted={res.exhausted} runs={res.runs} "
+          f"nodes={res.nodes} {res.seconds:.1f}s", file=sys.stderr, flush=True)
+
+
+def cyclic_subgroup_generators(group: AbelianGroup) -> list[tuple[int, int]]:
+    """``(order, generator)`` for each cyclic subgroup of the unit group, largest first."""
+    seen: set[frozenset[int]] = set()
+    gens = []
+    for u in group.units():
+        sub, x = set(), u
+        while True:
+            sub.add(x)
+            x = int(group.mul[x, u])
+            if x == u:
+                break
+        if frozenset(sub) not in seen:
+            seen.add(frozenset(sub))
+            gens.append((len(sub), u))
+    gens.sort(key=lambda t: (-t[0], t[1]))
+    return gens
+
+
+def main() -> None:
+    parser = argparse.ArgumentParser(description=__doc__)
+    parser.add_argument("space", choices=["even", "group", "orbit", "multipliers", "rate"])
+    parser.add_argument("args", type=int, nargs="*")
+    parser.add_argument("--seconds", type=float, default=60.0)
+    parser.add_argument("--seed", type=int, default=0)
+    parser.add_argument("--max-run-nodes", type=int, default=5_000_000)
+    a = parser.parse_args()
+    kw = {"seed": a.seed, "budget": a.seconds, "max_run_nodes": a.max_run_nodes}
+    if a.space == "even":
+        (M,) = a.args
+        res = search_perfect_even_starter(M, **kw)
+        _line(f"even starters Z_{M}", res)
+        if res.found:
+            print(json.dumps({"kind": "even_starter", "n": M + 2, "group": res.group,
+                              "seed": a.seed, "runs": res.runs, "nodes": res.nodes,
+                              "starter": [list(p) for p in res.starter]}))
+    elif a.space == "group":
+        p, q, *rest = a.args
+        group = semidirect(p, q)
+        auto = (rest[0], rest[1]) if rest else (1, 0)
+        res = search_perfect_group_starter(group, automorphism=auto, **kw)
+        _line(f"starters in {group.name}, automorphism {auto}", res)
+        if res.found:
+            print(json.dumps({"kind": "group_starter", "n": p * q + 1, "p": p, "q": q,
+                              "r": group.r, "automorphism": list(auto), "seed": a.seed,
+                              "runs": res.runs, "nodes": res.nodes,
+                              "starter": [list(x) for x in res.starter]}))
+    elif a.space == "orbit":
+        r, k = a.args
+        res = search_perfect_orbit_factorization(r, k, **kw)
+        _line(f"Z_{k}-invariant, {r} cycles + fixed point", res)
+        if res.found:
+            print(json.dumps({"kind": "orbit", "n": r * k + 1, "r": r, "k": k,
+                              "seed": a.seed, "base": [[list(x) for x in b] for b in res.base]}))
+    elif a.space == "multipliers":
+        (m,) = a.args
+        group = cyclic(m)
+        for order, u in cyclic_subgroup_generators(group):
+            if order == 1:
+                continue
+            res = search_perfect_starter(group, multiplier=u, **kw)
+            _line(f"starters in Z_{m}, multiplier {u} (order {order})", res)
+            if res.found:
+                print(json.dumps({"n": m + 1, "group": group.name, "multiplier": u,
+                                  "seed": a.seed, "runs": res.runs, "nodes": res.nodes,
+                                  "starter": [list(x) for x in res.starter]}))
+    else:
+        work = 3_000_000
+        search_perfect_starter(cyclic(15), budget=1)
+        search_perfect_even_starter(14, budget=1)
+        search_perfect_group_starter(semidirect(7, 3), budget=1)
+        search_perfect_orbit_factorization(3, 5, budget=1)
+        rates = {}
+        for label, run in [
+            ("cyclic starters Z_39 (reference)",
+             lambda: search_perfect_starter(cyclic(39), max_nodes=work, budget=60)),
+            ("even starters Z_38", lambda: search_perfect_even_starter(38, max_nodes=work,
+                                                                        budget=60)),
+            ("starters in Z_13 x| Z_3", lambda: search_perfect_group_starter(
+                semidirect(13, 3), max_nodes=work, budget=60)),
+            ("Z_13-invariant, 3 cycles", lambda: search_perfect_orbit_factorization(
+                3, 13, max_nodes=work, budget=60)),
+        ]:
+            t = time.perf_counter()
+            res = run()
+            rates[label] = res.nodes / (time.perf_counter() - t)
+        ref = next(iter(rates.values()))
+        for label, rate in rates.items():
+            print(f"{label:36s} {rate:12,.0f} nodes/s  ratio {rate / ref:5.2f}")
+
+
+if __name__ == "__main__":
+    main()

@@ -1,0 +1,140 @@
+"""Numba kernel of the search for perfect one-factorizations with a prescribed ``Z_k``
+(see :mod:`scheduler.factorization.orbit_factorizations`; imported lazily from there).
+
+Vertices ``i k + x`` (block ``i < r``, ``x`` in ``Z_k``) and ``∞ = r k``. The unknowns are the
+base rounds ``B_0..B_{r-1}`` (``B_i ∋ {∞, i k}``). Path system ``t`` holds a partial union
+``B_i ∪ (B_j + d)``; ``ent_sys[f, :]`` / ``ent_shift[f, :]`` list, for base round ``f``, the
+systems an edge of ``B_f`` goes into and the translation applied to it there. An edge is refused
+as soon as it closes a cycle shorter than ``n`` in any system. Path-system helpers: those of the
+starter kernel (``_search_kernel.py``).
+"""
+
+from __future__ import annotations
+
+import numba
+import numpy as np
+
+from scheduler.factorization._search_kernel import _add_edge, _undo
+
+
+@numba.njit(cache=True)
+def _shift(v, s, k, inf):
+    if v == inf:
+        return v
+    return (v // k) * k + (v % k + s) % k
+
+
+@numba.njit(cache=True)
+def orbit_search_kernel(r, k, orb, n_orb, ent_sys, ent_shift, n_ent, T, seed, node_limit,
+                        out_partner):
+    """Returns ``(status, nodes)``: 1 found (``out_partner[f, v]`` = partner of ``v`` in
+    ``B_f``), 0 node limit hit, -1 the space holds no perfect one-factorization."""
+    np.random.seed(seed)
+    inf = r * k
+    n = inf + 1
+    end = np.empty((T, n), np.int32)
+    size = np.ones((T, n), np.int32)
+    for t in range(T):
+        for v in range(n):
+            end[t, v] = v
+    cap = 4 * T * n + 16
+    trail_t = np.empty(cap, np.int32)
+    trail_v = np.empty(cap, np.int32)
+    trail_e = np.empty(cap, np.int32)
+    trail_s = np.empty(cap, np.int32)
+    top = np.zeros(1, np.int64)
+    partner = np.full((r, n), -1, np.int32)
+    count = np.zeros(r, np.int32)
+    for f in range(r):
+        a = inf
+        b = f * k
+        partner[f, a] = b
+        partner[f, b] = a
+        count[f] = 1
+        for e in range(n_ent[f]):
+            t = ent_sys[f, e]
+            s = ent_shift[f, e]
+            if not _add_edge(t, _shift(a, s, k, inf), _shift(b, s, k, inf), n, end, size,
+                             trail_t, trail_v, trail_e, trail_s, top):
+                return -1, 0
+    top[0] = 0
+    used = np.zeros(n_orb, np.bool_)
+    half = n // 2
+    maxd = r * half + 1
+    cand = np.empty((maxd, n), np.int32)
+    ncand = np.zeros(maxd, np.int32)
+    ci = np.zeros(maxd, np.int32)
+    cf = np.zeros(maxd, np.int32)
+    cx = np.zeros(maxd, np.int32)
+    cy = np.zeros(maxd, np.int32)
+    mark = np.zeros(maxd, np.int64)
+    depth = 0
+    nodes = 0
+    need_gen = True
+    while True:
+        if need_gen:
+            f = 0
+            for g in range(1, r):
+                if count[g] < count[f]:
+                    f = g
+            if count[f] == half:
+                for g in range(r):
+                    for v in range(n):
+                        out_partner[g, v] = partner[g, v]
+                return 1, nodes
+            x = 0
+            while partner[f, x] >= 0:
+                x += 1
+            c = 0
+            for y in range(x + 1, inf):
+                if partner[f, y] < 0 and not used[orb[x, y]]:
+                    cand[depth, c] = y
+                    c += 1
+            for i in range(c - 1, 0, -1):
+                j = np.random.randint(0, i + 1)
+                tmp = cand[depth, i]
+                cand[depth, i] = cand[depth, j]
+                cand[depth, j] = tmp
+            cf[depth] = f
+            cx[depth] = x
+            ncand[depth] = c
+            ci[depth] = 0
+            need_gen = False
+        if ci[depth] >= ncand[depth]:
+            if depth == 0:
+                return -1, nodes
+            depth -= 1
+            _undo(mark[depth], end, size, trail_t, trail_v, trail_e, trail_s, top)
+            f = cf[depth]
+            a = cx[depth]
+            b = cy[depth]
+            partner[f, a] = -1
+            partner[f, b] = -1
+            count[f] -= 1
+            used[orb[a, b]] = False
+            continue
+        f = cf[depth]
+        x = cx[depth]
+        y = cand[depth, ci[depth]]
+        ci[depth] += 1
+        nodes += 1
+        if nodes > node_limit:
+            return 0, nodes
+        mark[depth] = top[0]
+        ok = True
+        for e in range(n_ent[f]):
+            s = ent_shift[f, e]
+            if not _add_edge(ent_sys[f, e], _shift(x, s, k, inf), _shift(y, s, k, inf), n,
+                             end, size, trail_t, trail_v, trail_e, trail_s, top):
+                ok = False
+                break
+        if not ok:
+            _undo(mark[depth], end, size, trail_t, trail_v, trail_e, trail_s, top)
+            continue
+        partner[f, x] = y
+        partner[f, y] = x
+        count[f] += 1
+        used[orb[x, y]] = True
+        cy[depth] = y
+        depth += 1
+        need_gen = True

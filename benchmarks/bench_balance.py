@@ -6,6 +6,11 @@
 2. 16 teams on a perfect one-factorization (the engine's): fewest breaks found in 30 s against
    the n-2 lower bound of a single round robin (de Werra 1981); GK_16 (not perfect, 15 not
    prime) reaches n-2 (the mixing/breaks trade-off of one-factorizations.md §7).
+3. The same for 28 teams on the catalogue's perfect starter-induced factorization (Z_27) and for
+   10 teams on Anderson's GA_10 (Anderson 1973), against n-2 and against GK_n.
+
+Before the colouring-path order search (scheduler.balance.orders), 30 s each: 16 teams 26
+breaks, 28 teams 104, 10 teams 10.
 
 Run: ``python benchmarks/bench_balance.py``.
 """
@@ -71,30 +76,42 @@ def bench_20() -> None:
         print("  note:", note)
 
 
-def bench_16(seconds: float = 30.0) -> None:
-    teams = tuple(Team(n, n[-1] * 3) for n in NAMES[:16])
-    lg = League(name="Sixteen", season="2027", timezone="Europe/London", teams=teams,
-                venues=(Venue("Hall", tuple(f"C{i}" for i in range(8))),),
-                format=Format(home_meaning="side"), calendar=CalendarSpec(start=date(2027, 1, 2)))
-    try:
-        from scheduler.factorization import factorize
+def _side_league(n: int) -> League:
+    teams = tuple(Team(f"Club {i + 1}", f"C{i + 1:02d}") for i in range(n))
+    return League(name=f"{n} teams", season="2027", timezone="Europe/London", teams=teams,
+                  venues=(Venue("Hall", tuple(f"C{i}" for i in range(n // 2))),),
+                  format=Format(home_meaning="side"), calendar=CalendarSpec(start=date(2027, 1, 2)))
 
-        fact = factorize(16, seed=0, budget=10.0)
-    except ImportError:
-        print("16 teams: the factorization engine is not available")
-        return
-    cert = verify_rounds(16, fact.rounds)
+
+def bench_perfect(n: int, fact, seconds: float = 30.0) -> None:
+    """Breaks of a single round robin on a perfect factorization against n-2 and GK_n."""
+    lg = _side_league(n)
+    cert = verify_rounds(n, fact.rounds)
     t0 = time.perf_counter()
     tt = solve_timetable(lg, fact, SolveLimits(seconds, 3 * seconds, 0))
     wall = time.perf_counter() - t0
-    gk = solve_timetable(lg, circle_factorization(16), SolveLimits(5, 20, 0))
-    print(f"16 teams, {fact.method} ({cert.perfect_pairs}/{cert.pairs} perfect pairs): "
-          f"{tt.breaks} breaks in {wall:.1f} s ({tt.status}); lower bound n-2 = 14, "
-          f"ratio {tt.breaks / 14:.3f}")
-    gk_pairs = verify_rounds(16, circle_factorization(16).rounds).perfect_pairs
-    print(f"  reference: circle GK_16 ({gk_pairs}/105 perfect pairs) {gk.breaks} breaks")
+    gk = solve_timetable(lg, circle_factorization(n), SolveLimits(5, 20, 0))
+    print(f"{n} teams, {fact.method} ({cert.perfect_pairs}/{cert.pairs} perfect pairs): "
+          f"{tt.breaks} breaks in {wall:.1f} s ({tt.status}); lower bound n-2 = {n - 2}, "
+          f"ratio {tt.breaks / (n - 2):.3f}")
+    gk_pairs = verify_rounds(n, circle_factorization(n).rounds).perfect_pairs
+    print(f"  reference: circle GK_{n} ({gk_pairs}/{cert.pairs} perfect pairs) {gk.breaks} breaks")
+
+
+def bench_16(seconds: float = 30.0) -> None:
+    from scheduler.factorization import factorize
+
+    bench_perfect(16, factorize(16, seed=0, budget=10.0), seconds)
+
+
+def bench_28_and_10(seconds: float = 30.0) -> None:
+    from scheduler.factorization import anderson_factorization, catalogue_factorization
+
+    bench_perfect(28, catalogue_factorization(28), seconds)
+    bench_perfect(10, anderson_factorization(10), seconds)
 
 
 if __name__ == "__main__":
     bench_20()
     bench_16()
+    bench_28_and_10()

@@ -30,6 +30,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 from datetime import date
+from functools import lru_cache
 
 from ortools.sat.python import cp_model
 
@@ -37,6 +38,7 @@ from scheduler.balance import legs as leg_schemes
 from scheduler.balance.anneal import anneal, breaks_of
 from scheduler.balance.dates import DayModel, candidate_days, day_groups
 from scheduler.balance.explain import RuleBook, explain
+from scheduler.balance.orders import MAX_N, OrderResult, search_order
 from scheduler.config.model import League
 from scheduler.errors import InfeasibleError
 from scheduler.factorization.circle import circle_rounds
@@ -104,6 +106,17 @@ def canonical_hint(n: int) -> tuple[list[int], dict[tuple[int, int], bool]] | No
             lo, hi = min(a, b), max(a, b)
             home[(lo, hi)] = first if a == lo else not first
     return order, home
+
+
+SEARCH_WORK = 7.5e8
+"""Order-search work units per second of deterministic solve limit (about half a second of one
+core); the CP-SAT limit is halved when the search runs, so the total stays about the same."""
+
+
+@lru_cache(maxsize=8)
+def _order_search(rounds, n: int, seed: int, work: float) -> OrderResult:
+    """Cached :func:`scheduler.balance.orders.search_order` (a model may be built twice)."""
+    return search_order(rounds, n, seed=seed, work=work)
 
 
 def _greedy_orientation(rounds, order) -> dict[tuple[int, int], bool]:
@@ -176,6 +189,7 @@ class TimetableModel:
         R, m = self.R, self.model
         self.base = self._perm("y")
         self.is_canonical = self.fact.rounds == circle_rounds(self.n)
+        self.searched = False
         if self.is_canonical:
             hint_order, hint_home = canonical_hint(self.n)
             if self.L > 1 and fixed_order is None:
@@ -187,9 +201,20 @@ class TimetableModel:
             maps = (leg_schemes.leg_maps(self.scheme, self.L, R)
                     or leg_schemes.leg_maps("inverted", self.L, R))
             moves = int(min(1_500_000, 60_000 + 30_000 * self.effort))
-            # two independent runs (seeds fixed), the better one wins
-            runs = [anneal(self.fact.rounds, self.n, maps, self.bye,
-                           seed=self.league.seed * 2 + i, moves=moves // 2) for i in range(2)]
+            if self.odd or self.n > MAX_N:
+                # two independent runs (seeds fixed), the better one wins
+                runs = [anneal(self.fact.rounds, self.n, maps, self.bye,
+                               seed=self.league.seed * 2 + i, moves=moves // 2)
+                        for i in range(2)]
+            else:
+                # order search on the colouring paths (scheduler.balance.orders), then the
+                # venue-flip annealing from it for the whole season (never worse than its start)
+                found = _order_search(self.fact.rounds, self.n, self.league.seed,
+                                      SEARCH_WORK * self.effort)
+                self.searched = True
+                runs = [anneal(self.fact.rounds, self.n, maps, self.bye,
+                               seed=self.league.seed * 2, moves=moves // 4,
+                               start=(found.order, found.home))]
             hint_order, hint_home, _ = min(runs, key=lambda run: run[2])
         if fixed_order is not None:
             hint_order = list(fixed_order)
@@ -604,6 +629,8 @@ class TimetableModel:
     def solve(self, limits: SolveLimits, *, explain_failure: bool = True) -> Timetable:
         self.book.assume_all()
         solver = cp_model.CpSolver()
+        if self.searched:  # the order search took half of the deterministic budget
+            limits = SolveLimits(max(0.5, limits.deterministic / 2), limits.wall, limits.seed)
         configure(solver, limits)
         status = solver.Solve(self.model)
         if status == cp_model.INFEASIBLE and not explain_failure:

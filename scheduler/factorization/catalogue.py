@@ -12,6 +12,13 @@ every entry with the independent verifier.
 That these orders have perfect one-factorizations is known from the literature (reference
 notes §1; e.g. K_16 and K_28 since the 1970s-80s, K_50: E. Ihrig, E. Seah, D. R. Stinson 1987,
 from memory); the catalogue just supplies a concrete one.
+
+The list ``"structured"`` of the same file holds perfect one-factorizations of other kinds
+(:class:`StructuredEntry`), also found by this project's own search
+(``benchmarks/find_structured.py``): ``"group_starter"``, a starter in a non-abelian group
+``Z_p ⋊_r Z_q`` (:mod:`scheduler.factorization.nonabelian_starters`), and ``"even_starter"``,
+an even starter in ``Z_{n-2}`` (:mod:`scheduler.factorization.even_starters`). They serve the
+orders without a plain starter entry.
 """
 
 from __future__ import annotations
@@ -42,13 +49,81 @@ class CatalogueEntry:
     note: str = ""
 
 
-@cache
-def catalogue_entries() -> tuple[CatalogueEntry, ...]:
-    """All entries of the shipped catalogue, in file order."""
+@dataclass(frozen=True)
+class StructuredEntry:
+    """A perfect one-factorization of ``K_n`` of kind ``"group_starter"`` (``group`` is
+    ``(p, q, r)`` for ``Z_p ⋊_r Z_q``; ``automorphism`` the ``(s, c)`` it is invariant under) or
+    ``"even_starter"`` (in ``Z_{n-2}``; ``group`` and ``automorphism`` empty)."""
+
+    n: int
+    kind: str
+    group: tuple[int, ...]
+    automorphism: tuple[int, ...]
+    starter: tuple[tuple[int, int], ...]
+    seed: int
+    runs: int
+    nodes: int
+    found_by: str
+
+
+def _read() -> dict:
     text = resources.files("scheduler.factorization").joinpath("data/catalogue.json").read_text(
         encoding="utf-8"
     )
-    data = json.loads(text)
+    return json.loads(text)
+
+
+@cache
+def structured_entries() -> tuple[StructuredEntry, ...]:
+    """The entries of the ``"structured"`` list of the shipped catalogue, in file order."""
+    return tuple(
+        StructuredEntry(
+            n=int(item["n"]),
+            kind=str(item["kind"]),
+            group=tuple(int(v) for v in item.get("group", ())),
+            automorphism=tuple(int(v) for v in item.get("automorphism", ())),
+            starter=tuple((int(a), int(b)) for a, b in item["starter"]),
+            seed=int(item["seed"]),
+            runs=int(item["runs"]),
+            nodes=int(item["nodes"]),
+            found_by=str(item["found_by"]),
+        )
+        for item in _read().get("structured", [])
+    )
+
+
+def structured_factorization(entry: StructuredEntry) -> Factorization:
+    """The factorization of one structured entry (kernels are not imported)."""
+    found = f"found by {entry.found_by}, seed {entry.seed}"
+    details = {"catalogue": True, "seed": entry.seed, "runs": entry.runs, "nodes": entry.nodes}
+    if entry.kind == "group_starter":
+        from scheduler.factorization.nonabelian_starters import SOURCE as GROUP_SOURCE
+        from scheduler.factorization.nonabelian_starters import (
+            group_starter_factorization,
+            semidirect,
+        )
+
+        group = semidirect(*entry.group)
+        return group_starter_factorization(
+            group, entry.starter, method=f"starter in {group.name} (catalogue)",
+            source=f"{GROUP_SOURCE}; perfect starter {found}",
+            details={**details, "automorphism": list(entry.automorphism)},
+        )
+    if entry.kind == "even_starter":
+        from scheduler.factorization.even_starters import SOURCE as EVEN_SOURCE
+        from scheduler.factorization.even_starters import even_starter_factorization
+
+        return even_starter_factorization(
+            entry.n - 2, entry.starter, method=f"even starter in Z_{entry.n - 2} (catalogue)",
+            source=f"{EVEN_SOURCE}; perfect even starter {found}", details=details,
+        )
+    raise ValueError(f"unknown catalogue kind {entry.kind!r}")  # pragma: no cover
+
+
+@cache
+def catalogue_entries() -> tuple[CatalogueEntry, ...]:
+    """All entries of the shipped catalogue, in file order."""
+    data = _read()
     out = []
     for item in data["entries"]:
         out.append(
@@ -68,8 +143,8 @@ def catalogue_entries() -> tuple[CatalogueEntry, ...]:
 
 
 def catalogue_orders() -> tuple[int, ...]:
-    """Orders ``n`` of ``K_n`` with at least one catalogue entry, ascending."""
-    return tuple(sorted({e.n for e in catalogue_entries()}))
+    """Orders ``n`` of ``K_n`` with at least one catalogue entry (of any kind), ascending."""
+    return tuple(sorted({e.n for e in catalogue_entries()} | {e.n for e in structured_entries()}))
 
 
 def catalogue_entry(n: int) -> CatalogueEntry | None:
@@ -100,6 +175,10 @@ def entry_factorization(entry: CatalogueEntry) -> Factorization:
 
 
 def catalogue_factorization(n: int) -> Factorization | None:
-    """A perfect one-factorization of ``K_n`` from the catalogue, or ``None``."""
+    """A perfect one-factorization of ``K_n`` from the catalogue, or ``None`` (a plain starter
+    entry first, else the first structured entry)."""
     entry = catalogue_entry(n)
-    return entry_factorization(entry) if entry else None
+    if entry:
+        return entry_factorization(entry)
+    other = next((e for e in structured_entries() if e.n == n), None)
+    return structured_factorization(other) if other else None

@@ -21,6 +21,12 @@ from scheduler.errors import InputError
 from scheduler.factorization import even_starters as ev
 from scheduler.factorization import nonabelian_starters as na
 from scheduler.factorization import orbit_factorizations as orb
+from scheduler.factorization.catalogue import (
+    catalogue_orders,
+    structured_entries,
+    structured_factorization,
+)
+from scheduler.factorization.policy import factorize
 from scheduler.factorization.verify import verify_rounds
 
 A006204 = {9: 9, 11: 25, 13: 133, 15: 631}
@@ -194,3 +200,32 @@ def test_orbit_bad_input():
         orb.orbit_table(2, 4)
     with pytest.raises(InputError):
         orb.orbit_rounds(3, 5, [[(0, 15)]])
+
+
+# ---------------------------------------------------------------- shipped structured entries
+
+STRUCTURED = structured_entries()
+
+
+def test_k40_is_served_by_a_structured_entry():
+    """K_40 has a perfect one-factorization (E. Seah & D. R. Stinson, Congr. Numer. c. 1989,
+    from memory); the catalogue's is a starter in Z_13 ⋊ Z_3 found by this project's search."""
+    assert 40 in {e.n for e in STRUCTURED} and 40 in catalogue_orders()
+    for teams in (40, 39):
+        f = factorize(teams)
+        assert f.n == 40 and "Z_13 x|3 Z_3" in f.method and "catalogue" in f.method
+        assert verify_rounds(40, f.rounds).perfect
+
+
+@pytest.mark.parametrize("entry", STRUCTURED, ids=[f"K_{e.n}-{e.kind}" for e in STRUCTURED])
+def test_structured_entry_is_perfect(entry):
+    f = structured_factorization(entry)
+    assert f.n == entry.n
+    cert = verify_rounds(f.n, f.rounds)
+    assert cert.valid and cert.perfect and cert.perfect_pairs == (f.n - 1) * (f.n - 2) // 2
+    assert _nx_perfect(f.n, f.rounds)
+    assert f"seed {entry.seed}" in f.source
+    if entry.kind == "group_starter":
+        g = na.semidirect(*entry.group)
+        assert not np.array_equal(g.mul, g.mul.T)  # genuinely non-abelian
+        assert na.is_perfect_group_starter(g, entry.starter)

@@ -16,6 +16,11 @@ assignment. So the fewest breaks for a fixed order is a shortest path through la
   candidates of round ``r`` are those bipartitions for every other round ``s``; a round between
   two candidate rounds may also take its best response to both neighbours (computed game by
   game). This gives an upper bound for the order and an assignment reaching it.
+- for larger ``n`` also a *beam* path (beam search, Lowerre 1976, from memory): each round
+  keeps the best few colourings reached so far, extended by every best response to them (all
+  of them when at most four games are monochromatic) and by the candidates. Good paths have
+  long runs of 2-break steps through colourings that are not candidates (observed on the
+  16-team catalogue factorization, where the exact path is known), which the beam follows.
 
 Parity (derived here): when the union of two consecutive rounds is one Hamiltonian cycle, the
 number of breaks between them is even (go round the cycle multiplying the colour products of its
@@ -40,6 +45,12 @@ import numpy as np
 
 EXACT_HALF = 8
 """Exact layer DP up to ``n / 2 = 8`` (256 colourings per round)."""
+
+CALL_WORK = 20_000
+"""Work units charged for the Python side of one evaluation (move, call, acceptance)."""
+
+BEAM_WIDTH = 48
+"""Colourings kept per round by the beam path."""
 
 MAX_N = 62
 """Colourings are bit masks in an int64."""
@@ -179,46 +190,111 @@ def _candidate_path(cand, order, ea, eb, F, back, kind):
 
 
 @nb.njit(cache=True)
-def _local_path(cand, order, ea, eb):
-    """The candidate path restricted to each round's bipartitions with its two neighbours in
-    the order (both colours): 4 states per round, a quick proxy for the order search."""
-    R = order.shape[0]
-    INF = 1 << 40
-    st = np.zeros((R, 4), np.int64)
-    for q in range(R):
-        r = order[q]
-        for side in range(2):
-            nb_q = q - 1 if side == 0 else q + 1
-            if nb_q < 0 or nb_q >= R:
-                nb_q = q + 1 if side == 0 else q - 1
-            s = order[nb_q]
-            j = 2 * (s if s < r else s - 1)
-            st[q, 2 * side] = cand[r, j]
-            st[q, 2 * side + 1] = cand[r, j + 1]
-    F = np.full((R, 4), INF, np.int64)
-    for y in range(4):
-        F[0, y] = 0
+def _beam_step(states, vals, cand_s, ea, eb, s, width, out_m, out_v, out_p):
+    """One layer of the beam path: the children of every state in round ``s`` (each best
+    response, all of them when at most four games are monochromatic, and every candidate
+    colouring of ``s``), the ``width`` best distinct ones kept. Returns their number."""
+    half = ea.shape[1]
+    K = states.shape[0]
+    cap = out_m.shape[0]
+    cnt = 0
+    mono = np.empty(half, np.int64)
+    for i in range(K):
+        t = states[i]
+        base = 0
+        nm = 0
+        for e in range(half):
+            a = ea[s, e]
+            b = eb[s, e]
+            ta = (t >> a) & 1
+            tb = (t >> b) & 1
+            if ta != tb:
+                base |= t & ((1 << a) | (1 << b))
+            else:
+                mono[nm] = e
+                nm += 1
+        combos = 1 << nm if nm <= 4 else 2
+        for c in range(combos):
+            m = base
+            for j in range(nm):
+                e = mono[j]
+                bit = (c >> j) & 1 if nm <= 4 else (c + j) & 1
+                m |= (1 << ea[s, e]) if bit else (1 << eb[s, e])
+            if cnt < cap:
+                out_m[cnt] = m
+                out_v[cnt] = vals[i] + nm
+                out_p[cnt] = i
+                cnt += 1
+    for j in range(cand_s.shape[0]):
+        best = 1 << 40
+        arg = 0
+        for i in range(K):
+            v = vals[i] + _popcount(states[i] ^ cand_s[j])
+            if v < best:
+                best = v
+                arg = i
+        if cnt < cap:
+            out_m[cnt] = cand_s[j]
+            out_v[cnt] = best
+            out_p[cnt] = arg
+            cnt += 1
+    # distinct masks, the lowest value (then lowest mask) first; keep ``width``
+    vm = out_v[:cnt]
+    mm = out_m[:cnt]
+    idx = np.argsort(mm, kind="mergesort")
+    idx = idx[np.argsort(vm[idx], kind="mergesort")]
+    kept = 0
+    sel_m = np.empty(width, np.int64)
+    sel_v = np.empty(width, np.int64)
+    sel_p = np.empty(width, np.int64)
+    for r in range(cnt):
+        i = idx[r]
+        dup = False
+        for j in range(kept):
+            if sel_m[j] == mm[i]:
+                dup = True
+                break
+        if dup:
+            continue
+        sel_m[kept] = mm[i]
+        sel_v[kept] = vm[i]
+        sel_p[kept] = out_p[i]
+        kept += 1
+        if kept == width:
+            break
+    out_m[:kept] = sel_m[:kept]
+    out_v[:kept] = sel_v[:kept]
+    out_p[:kept] = sel_p[:kept]
+    return kept
+
+
+@nb.njit(cache=True)
+def _beam_path(cand, order, ea, eb, width, M, V, P, N):
+    """Beam path over the layers: ``M[q, :N[q]]`` the kept colourings of position ``q``,
+    ``V`` their values, ``P`` their parents. Returns (value, index of the best last state)."""
+    R, S = cand.shape
+    cap = M.shape[1]
+    r0 = order[0]
+    for j in range(S):
+        M[0, j] = cand[r0, j]
+        V[0, j] = 0
+        P[0, j] = 0
+    N[0] = S
+    om = np.empty(cap, np.int64)
+    ov = np.empty(cap, np.int64)
+    op = np.empty(cap, np.int64)
     for q in range(1, R):
-        for y in range(4):
-            best = INF
-            for x in range(4):
-                v = F[q - 1, x] + _popcount(st[q - 1, x] ^ st[q, y])
-                if v < best:
-                    best = v
-            if q >= 2:
-                for x in range(4):
-                    if F[q - 2, x] >= best:
-                        continue
-                    c, _m = _free(st[q - 2, x], st[q, y], ea, eb, order[q - 1])
-                    v = F[q - 2, x] + c
-                    if v < best:
-                        best = v
-            F[q, y] = best
-    best = INF
-    for y in range(4):
-        if F[R - 1, y] < best:
-            best = F[R - 1, y]
-    return best
+        k = _beam_step(M[q - 1, :N[q - 1]], V[q - 1, :N[q - 1]], cand[order[q]], ea, eb,
+                       order[q], width, om, ov, op)
+        M[q, :k] = om[:k]
+        V[q, :k] = ov[:k]
+        P[q, :k] = op[:k]
+        N[q] = k
+    best = 0
+    for j in range(N[R - 1]):
+        if V[R - 1, j] < V[R - 1, best]:
+            best = j
+    return V[R - 1, best], best
 
 
 class BreakPaths:
@@ -234,6 +310,16 @@ class BreakPaths:
         self.ea = np.array([[a for a, _ in r] for r in self.rounds], dtype=np.int64)
         self.eb = np.array([[b for _, b in r] for r in self.rounds], dtype=np.int64)
         self.exact = half <= EXACT_HALF
+        full = (1 << n) - 1
+        cand = np.zeros((self.R, 2 * (self.R - 1)), dtype=np.int64)
+        for r in range(self.R):
+            row = []
+            for s in range(self.R):
+                if s != r:
+                    m = self._bipartition(r, s)
+                    row += [m, full ^ m]
+            cand[r] = row
+        self.cand = cand
         if self.exact:
             S = 1 << half
             masks = np.zeros((self.R, S), dtype=np.int64)
@@ -245,16 +331,13 @@ class BreakPaths:
                     masks[r, x] = t
             self.layers = masks
         else:
-            full = (1 << n) - 1
-            cand = np.zeros((self.R, 2 * (self.R - 1)), dtype=np.int64)
-            for r in range(self.R):
-                row = []
-                for s in range(self.R):
-                    if s != r:
-                        m = self._bipartition(r, s)
-                        row += [m, full ^ m]
-                cand[r] = row
             self.layers = cand
+        self.width = BEAM_WIDTH
+        cap = self.width * 16 + cand.shape[1]
+        self._M = np.zeros((self.R, cap), dtype=np.int64)
+        self._V = np.zeros((self.R, cap), dtype=np.int64)
+        self._P = np.zeros((self.R, cap), dtype=np.int64)
+        self._N = np.zeros(self.R, dtype=np.int64)
         S = self.layers.shape[1]
         self._back = np.zeros((self.R, S), dtype=np.int64)
         self._F = np.zeros((self.R, S), dtype=np.int64)
@@ -264,18 +347,8 @@ class BreakPaths:
     def work(self) -> int:
         """Work units of one evaluation (inner-loop steps), for budgeting without a clock."""
         S = self.layers.shape[1]
-        return self.R * S * S // 4 if self.exact else self.R * S * S * (self.n + 4)
-
-    @property
-    def quick_work(self) -> int:
-        """Work units of one :meth:`quick` evaluation."""
-        return self.R * 16 * (self.n + 4) if not self.exact else self.work
-
-    def quick(self, order: Sequence[int]) -> int:
-        """A fast upper bound for ``order`` (the exact value when ``n <= 16``)."""
-        if self.exact:
-            return self.value(order)
-        return int(_local_path(self.layers, np.asarray(order, dtype=np.int64), self.ea, self.eb))
+        kernel = self.R * S * S // 4 if self.exact else self.R * S * S * (self.n + 4)
+        return kernel + CALL_WORK
 
     def _bipartition(self, r: int, s: int) -> int:
         """A 2-colouring proper for rounds r and s (one colour class per cycle, as a mask)."""
@@ -296,6 +369,29 @@ class BreakPaths:
                         colour[w] = 1 - colour[u]
                         stack.append(w)
         return sum(1 << v for v in range(self.n) if colour[v])
+
+    @property
+    def beam_work(self) -> int:
+        """Work units of one :meth:`beam` evaluation."""
+        S = self.cand.shape[1]
+        return self.R * self.width * (20 * self.n + 2 * S + 60) + CALL_WORK
+
+    def beam(self, order: Sequence[int]) -> int:
+        """Value of the beam path for ``order`` (an upper bound)."""
+        o = np.asarray(order, dtype=np.int64)
+        return int(_beam_path(self.cand, o, self.ea, self.eb, self.width, self._M, self._V,
+                              self._P, self._N)[0])
+
+    def beam_colourings(self, order: Sequence[int]) -> tuple[int, list[int]]:
+        """(value, colouring at every position) of the beam path for ``order``."""
+        o = np.asarray(order, dtype=np.int64)
+        value, j = _beam_path(self.cand, o, self.ea, self.eb, self.width, self._M, self._V,
+                              self._P, self._N)
+        t = [0] * self.R
+        for q in range(self.R - 1, -1, -1):
+            t[q] = int(self._M[q, j])
+            j = int(self._P[q, j])
+        return int(value), t
 
     def value(self, order: Sequence[int]) -> int:
         o = np.asarray(order, dtype=np.int64)
@@ -333,8 +429,13 @@ class BreakPaths:
         return int(value), t
 
     def assignment(self, order: Sequence[int]) -> OrderResult:
-        """The home/away assignment of the best path for ``order``."""
+        """The home/away assignment of the best path for ``order`` (for ``n > 16`` the better
+        of the candidate path and the beam path)."""
         value, t = self.colourings(order)
+        if not self.exact:
+            bv, bt = self.beam_colourings(order)
+            if bv < value:
+                value, t = bv, bt
         home: dict[tuple[int, int], bool] = {}
         for q, k in enumerate(order):
             s = t[q] if q % 2 == 0 else ~t[q]
@@ -378,10 +479,10 @@ def search_order(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *, seed: i
     """Simulated annealing over the leg-1 round order, each order scored by its break path
     (module docstring); returns the best order with its home/away assignment.
 
-    For ``n > 16`` a first phase scores orders with the quick 4-state proxy
-    (:meth:`BreakPaths.quick`), a second phase refines with the candidate path. ``work`` is the
-    budget in inner-loop steps (:attr:`BreakPaths.work`), split evenly between the phases; the
-    number of evaluations follows from it (at least 50 per phase), independent of the machine.
+    Orders are scored by the exact path for ``n <= 16``, else by the beam path
+    (:meth:`BreakPaths.beam`). ``work`` is the budget in inner-loop steps
+    (:attr:`BreakPaths.work`, :attr:`BreakPaths.beam_work`); the number of evaluations follows
+    from it (at least 50), independent of the machine.
     """
     paths = BreakPaths(rounds, n)
     R = paths.R
@@ -390,10 +491,8 @@ def search_order(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *, seed: i
         return paths.assignment(order)
     rng = random.Random(seed)
     if not paths.exact:
-        evals = max(50, int(0.5 * work / max(1, paths.quick_work)))
-        _, order = _anneal(paths.quick, order, evals, rng, 3.0, 0.3)
-        evals = max(50, int(0.5 * work / max(1, paths.work)))
-        _, order = _anneal(paths.value, order, evals, rng, 0.6, 0.1)
+        evals = max(50, int(work / max(1, paths.beam_work)))
+        _, order = _anneal(paths.beam, order, evals, rng, 4.0, 0.4)
     else:
         evals = max(50, int(work / max(1, paths.work)))
         _, order = _anneal(paths.value, order, evals, rng, 2.0, 0.2)

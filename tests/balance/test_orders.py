@@ -114,7 +114,24 @@ def test_candidate_search_beats_its_start():
     rounds = anderson_factorization(n).rounds
     paths = BreakPaths(rounds, n)
     assert not paths.exact
-    start = paths.value(list(range(n - 1)))
+    start = paths.beam(list(range(n - 1)))
     got = search_order(rounds, n, seed=0, work=2e8)
     assert n - 2 <= got.breaks <= start
     assert got.breaks == breaks_of(rounds, got.home, [list(got.order)], None)
+
+
+def test_beam_path_is_a_valid_upper_bound():
+    # the beam path keeps proper colourings only (every game of a round joins two colours), so
+    # its value is an upper bound of the exact path and recounts to itself; GA_14 is perfect
+    # (Anderson 1973; 14 = 2*7, 7 prime).
+    n = 14
+    rounds = anderson_factorization(n).rounds
+    paths = BreakPaths(rounds, n)
+    rng = random.Random(5)
+    for _ in range(5):
+        order = rng.sample(range(n - 1), n - 1)
+        value, t = paths.beam_colourings(order)
+        assert value >= paths.value(order) >= n - 2
+        for q, k in enumerate(order):
+            assert all(((t[q] >> a) & 1) != ((t[q] >> b) & 1) for a, b in rounds[k])
+        assert value == sum(bin(t[q] ^ t[q + 1]).count("1") for q in range(n - 2))

@@ -1,4 +1,4 @@
-"""Round order and home/away with few breaks for a fixed one-factorization (even leagues).
+"""Round order and home/away with few breaks for a fixed one-factorization.
 
 *Reformulation* (first-schedule-then-break, Elf, Jünger & Rinaldi 2003, Oper. Res. Letters
 31:343-349, from memory; the colouring view below is derived here). Let ``s_q(v)`` be 1 when
@@ -26,6 +26,9 @@ Parity (derived here): when the union of two consecutive rounds is one Hamiltoni
 number of breaks between them is even (go round the cycle multiplying the colour products of its
 edges), so a perfect one-factorization reaches ``n - 2`` only with steps of 0 and 2 breaks, as
 the circle schedule on ``n - 1`` prime does.
+
+Odd leagues (a bye vertex, byes skipped) use the exact path with every team's colour flipped
+after its bye (:meth:`BreakPaths.flips`), so only ``n <= 16``.
 
 *Order search*: simulated annealing (Kirkpatrick, Gelatt & Vecchi 1983, Science 220:671-680)
 over the leg-1 order with swap, segment-reversal and insertion moves, each order scored by the
@@ -76,7 +79,7 @@ def _popcount(x: int) -> int:
 
 
 @nb.njit(cache=True)
-def _exact_value(masks, order):
+def _exact_value(masks, order, flips, keep):
     """Value of :func:`_exact_path` without the back pointers (a plain min, which vectorises)."""
     R, S = masks.shape
     f = np.zeros(S, np.int64)
@@ -84,11 +87,12 @@ def _exact_value(masks, order):
     for q in range(1, R):
         a = masks[order[q - 1]]
         b = masks[order[q]]
+        fl = flips[q - 1] ^ flips[q]
         for y in range(S):
             best = 1 << 40
-            by = b[y]
+            by = (b[y] ^ fl) & keep
             for x in range(S):
-                v = f[x] + _popcount(a[x] ^ by)
+                v = f[x] + _popcount((a[x] & keep) ^ by)
                 best = min(best, v)
             g[y] = best
         f[:] = g
@@ -96,21 +100,24 @@ def _exact_value(masks, order):
 
 
 @nb.njit(cache=True)
-def _exact_path(masks, order, back):
+def _exact_path(masks, order, flips, keep, back):
     """Shortest path through the colouring layers ``masks[order[q]]``; ``back[q, y]`` gets the
-    best predecessor of state ``y`` at position ``q``. Returns (value, last state)."""
+    best predecessor of state ``y`` at position ``q``. A step costs the Hamming distance of the
+    colourings xor ``flips`` (the byes, see :class:`BreakPaths`) on the bits of ``keep``.
+    Returns (value, last state)."""
     R, S = masks.shape
     f = np.zeros(S, np.int64)
     g = np.empty(S, np.int64)
     for q in range(1, R):
         a = masks[order[q - 1]]
         b = masks[order[q]]
+        fl = flips[q - 1] ^ flips[q]
         for y in range(S):
             best = 1 << 40
             arg = 0
-            by = b[y]
+            by = (b[y] ^ fl) & keep
             for x in range(S):
-                v = f[x] + _popcount(a[x] ^ by)
+                v = f[x] + _popcount((a[x] & keep) ^ by)
                 if v < best:
                     best = v
                     arg = x
@@ -300,10 +307,21 @@ def _beam_path(cand, order, ea, eb, width, M, V, P, N):
 class BreakPaths:
     """The colouring layers of one factorization and the path evaluator for round orders."""
 
-    def __init__(self, rounds: Sequence[Sequence[tuple[int, int]]], n: int) -> None:
+    def __init__(self, rounds: Sequence[Sequence[tuple[int, int]]], n: int,
+                 bye: int | None = None) -> None:
         if n % 2 or n > MAX_N:
             raise ValueError(f"colouring masks need an even n <= {MAX_N}, got {n}")
+        if bye is not None and n // 2 > EXACT_HALF:
+            raise ValueError(f"a bye vertex needs the exact path (n <= {2 * EXACT_HALF})")
         self.n = n
+        self.bye = bye
+        self.keep = ~(1 << bye) if bye is not None else -1
+        self.bye_of = [0] * len(rounds)
+        if bye is not None:
+            for k, games in enumerate(rounds):
+                for a, b in games:
+                    if bye in (a, b):
+                        self.bye_of[k] = a if b == bye else b
         self.R = len(rounds)
         self.rounds = [list(r) for r in rounds]
         half = n // 2
@@ -393,10 +411,23 @@ class BreakPaths:
             j = int(self._P[q, j])
         return int(value), t
 
+    def flips(self, order: Sequence[int]) -> np.ndarray:
+        """Bye convention (byes skipped): vertex ``v`` with its bye at position ``p`` has a break
+        across it when ``t_{p-1}(v) == t_{p+1}(v)``; flipping ``v``'s colour after ``p`` turns
+        that into an ordinary step, the colour at ``p`` being free (its game is with the bye
+        vertex, whose own colour is not counted)."""
+        out = np.zeros(len(order), dtype=np.int64)
+        acc = 0
+        for q, k in enumerate(order):
+            out[q] = acc
+            if self.bye is not None:
+                acc |= 1 << self.bye_of[k]
+        return out
+
     def value(self, order: Sequence[int]) -> int:
         o = np.asarray(order, dtype=np.int64)
         if self.exact:
-            return int(_exact_value(self.layers, o))
+            return int(_exact_value(self.layers, o, self.flips(order), self.keep))
         return int(_candidate_path(self.layers, o, self.ea, self.eb, self._F, self._back,
                                    self._kind)[0])
 
@@ -406,7 +437,7 @@ class BreakPaths:
         R = self.R
         t = [0] * R
         if self.exact:
-            value, y = _exact_path(self.layers, o, self._back)
+            value, y = _exact_path(self.layers, o, self.flips(order), self.keep, self._back)
             for q in range(R - 1, -1, -1):
                 t[q] = int(self.layers[o[q], y])
                 if q:
@@ -440,7 +471,8 @@ class BreakPaths:
         for q, k in enumerate(order):
             s = t[q] if q % 2 == 0 else ~t[q]
             for a, b in self.rounds[k]:
-                home[(a, b)] = bool((s >> a) & 1)
+                if self.bye not in (a, b):
+                    home[(a, b)] = bool((s >> a) & 1)
         return OrderResult(tuple(int(k) for k in order), home, value)
 
 
@@ -475,7 +507,8 @@ def _anneal(score, order: list[int], evals: int, rng: random.Random, t0: float, 
 
 
 def search_order(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *, seed: int = 0,
-                 work: float = 2e9, start: Sequence[int] | None = None) -> OrderResult:
+                 work: float = 2e9, start: Sequence[int] | None = None,
+                 bye: int | None = None) -> OrderResult:
     """Simulated annealing over the leg-1 round order, each order scored by its break path
     (module docstring); returns the best order with its home/away assignment.
 
@@ -484,7 +517,7 @@ def search_order(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *, seed: i
     (:attr:`BreakPaths.work`, :attr:`BreakPaths.beam_work`); the number of evaluations follows
     from it (at least 50), independent of the machine.
     """
-    paths = BreakPaths(rounds, n)
+    paths = BreakPaths(rounds, n, bye)
     R = paths.R
     order = list(start) if start is not None else list(range(R))
     if R < 3:

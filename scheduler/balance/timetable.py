@@ -20,7 +20,10 @@ optimality as soon as it reaches them. The search starts from a hint: for GK_n t
 circle schedule with de Werra's orientation (fairness.md §1 "Canonical schedule"), which has
 exactly ``n - 2`` breaks, its round order rotated to suit the leg scheme (the rotation by one
 gives the English scheme 2n-4; the free scheme starts from the inverted order); for other
-factorizations a simulated-annealing start (:mod:`scheduler.balance.anneal`).
+factorizations the round-order search on colouring paths (:mod:`scheduler.balance.orders`, which
+finds the leg-1 order and venues; the CP-SAT limit is halved to pay for it) followed by the
+venue-flip annealing of :mod:`scheduler.balance.anneal` over the whole season (kept only where
+it is no worse); the annealing alone for odd leagues above 16 vertices.
 
 Determinism: one CP-SAT worker, a fixed ``random_seed`` and ``max_deterministic_time``; the
 wall-clock limit is only a safety net (reported when hit).
@@ -38,7 +41,7 @@ from scheduler.balance import legs as leg_schemes
 from scheduler.balance.anneal import anneal, breaks_of
 from scheduler.balance.dates import DayModel, candidate_days, day_groups
 from scheduler.balance.explain import RuleBook, explain
-from scheduler.balance.orders import MAX_N, OrderResult, search_order
+from scheduler.balance.orders import EXACT_HALF, MAX_N, OrderResult, search_order
 from scheduler.config.model import League
 from scheduler.errors import InfeasibleError
 from scheduler.factorization.circle import circle_rounds
@@ -114,9 +117,9 @@ core); the CP-SAT limit is halved when the search runs, so the total stays about
 
 
 @lru_cache(maxsize=8)
-def _order_search(rounds, n: int, seed: int, work: float) -> OrderResult:
+def _order_search(rounds, n: int, seed: int, work: float, bye: int | None) -> OrderResult:
     """Cached :func:`scheduler.balance.orders.search_order` (a model may be built twice)."""
-    return search_order(rounds, n, seed=seed, work=work)
+    return search_order(rounds, n, seed=seed, work=work, bye=bye)
 
 
 def _greedy_orientation(rounds, order) -> dict[tuple[int, int], bool]:
@@ -201,7 +204,7 @@ class TimetableModel:
             maps = (leg_schemes.leg_maps(self.scheme, self.L, R)
                     or leg_schemes.leg_maps("inverted", self.L, R))
             moves = int(min(1_500_000, 60_000 + 30_000 * self.effort))
-            if self.odd or self.n > MAX_N:
+            if self.n > MAX_N or (self.odd and self.n > 2 * EXACT_HALF):
                 # two independent runs (seeds fixed), the better one wins
                 runs = [anneal(self.fact.rounds, self.n, maps, self.bye,
                                seed=self.league.seed * 2 + i, moves=moves // 2)
@@ -210,7 +213,7 @@ class TimetableModel:
                 # order search on the colouring paths (scheduler.balance.orders), then the
                 # venue-flip annealing from it for the whole season (never worse than its start)
                 found = _order_search(self.fact.rounds, self.n, self.league.seed,
-                                      SEARCH_WORK * self.effort)
+                                      SEARCH_WORK * self.effort, self.bye)
                 self.searched = True
                 runs = [anneal(self.fact.rounds, self.n, maps, self.bye,
                                seed=self.league.seed * 2, moves=moves // 4,

@@ -5,7 +5,8 @@ runs the independent verifier, and the test suite checks every path through it):
 
 1. ``n - 1`` prime: the circle GK_n, perfect (Kotzig 1964; Wallis 1997).
 2. ``n / 2`` prime: Anderson's GA_n, perfect (Anderson 1973).
-3. The shipped catalogue of perfect starters (:mod:`scheduler.factorization.catalogue`).
+3. The shipped catalogue (:mod:`scheduler.factorization.catalogue`): perfect starters, then
+   other structured entries (K_40: a starter in the non-abelian group Z_13 ⋊ Z_3).
 4. For orders where a perfect one-factorization is known to exist but none is at hand:
    a perfect-starter search with half of the budget.
 5. Otherwise the best available one (:func:`~scheduler.factorization.improve.best_available`):

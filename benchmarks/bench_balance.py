@@ -10,7 +10,8 @@
    10 teams on Anderson's GA_10 (Anderson 1973), against n-2 and against GK_n.
 
 Before the colouring-path order search (scheduler.balance.orders), 30 s each: 16 teams 26
-breaks, 28 teams 104, 10 teams 10.
+breaks, 28 teams 104, 10 teams 10. After it: 16 teams 22, 28 teams 80, 10 teams 10 (the exact
+optimum of GA_10 over all orders, computed by Held-Karp in tests/balance/test_orders.py).
 
 Run: ``python benchmarks/bench_balance.py``.
 """

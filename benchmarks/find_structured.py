@@ -11,6 +11,21 @@ done (runs, nodes, seconds, exhausted = proved empty) and one JSON line per find
 
 ``rate`` prints the node rate of each kernel on K_40-sized spaces and the ratio against the
 cyclic-starter kernel (the reference implementation).
+
+Recorded runs (seed 0, 2 shared cores, ``nice -n 19``; "empty" = space exhausted):
+
+* K_40: ``group 13 3`` found the catalogue entry (4094 runs, 393,191,148 nodes, 119 s).
+  ``multipliers 39``: every multiplier space of Z_39 (orders 2, 3, 4, 6, 12) is empty.
+  Z_13 x| Z_3 with an automorphism of order 2, 3, 4, 6, 12 or 13: empty.
+* K_52: ``multipliers 51``: orders 4, 8, 16 and u = 50 empty; u = 16 (9.0e8 nodes, 180 s)
+  and u = 35 (1.0e9 nodes, 180 s) found nothing.
+* K_56: ``multipliers 55``: orders 4, 5, 10, 20 and u = 54 empty; u = 21 (4.9e8 nodes) and
+  u = 34 (5.5e8 nodes), 180 s each, found nothing. ``group 11 5``: 1.58e9 nodes (600 s)
+  nothing; automorphisms of order 5, 10, 11 empty; ``group 11 5 10 0`` (order 2): 1.0e9
+  nodes (240 s) nothing.
+* Even starters: Z_30 (K_32) found after 4.0e7 nodes; Z_34 (K_36) nothing in 2.2e8 nodes
+  (60 s). Prescribed Z_k with 3 cycles: K_16 (k = 5) found in 1.6e6 nodes; K_22, K_28, K_34
+  (k = 7, 9, 11) nothing in 20 s each, so this space was not tried at K_40.
 """
 
 from __future__ import annotations

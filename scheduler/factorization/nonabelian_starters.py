@@ -31,7 +31,8 @@ Results of this project's searches (``benchmarks/find_structured.py``, computed)
 starter in ``Z_13 ⋊_3 Z_3`` (a P1F of ``K_40``, shipped in the catalogue) after 3.9e8 nodes
 with seed 0; no perfect starter of ``Z_13 ⋊_3 Z_3`` is invariant under an automorphism of order
 2, 3, 4, 6, 12 or 13 (each space exhausted); for ``Z_11 ⋊_3 Z_5`` (``K_56``) the spaces with an
-automorphism of order 5, 10 or 11 are empty and 1.6e9 nodes of the plain space found nothing.
+automorphism of order 5, 10 or 11 are empty, and 1.6e9 nodes of the plain space and 1.0e9 of
+the order-2 space (automorphism ``(10, 0)``) found nothing.
 """
 
 from __future__ import annotations

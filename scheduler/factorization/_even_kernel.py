@@ -13,7 +13,12 @@ from __future__ import annotations
 import numba
 import numpy as np
 
-from scheduler.factorization._search_kernel import _add_edge, _undo
+from scheduler.factorization._search_kernel import (
+    _add_edge,
+    _path_state,
+    _shuffle_row,
+    _undo,
+)
 
 
 @numba.njit(cache=True)
@@ -27,17 +32,7 @@ def even_search_kernel(M, mis, seed, shuffle, node_limit, out_pairs):
     inf1 = M
     inf2 = M + 1
     T = h + 1
-    end = np.empty((T, n), np.int32)
-    size = np.ones((T, n), np.int32)
-    for t in range(T):
-        for v in range(n):
-            end[t, v] = v
-    cap = 4 * T * n + 16
-    trail_t = np.empty(cap, np.int32)
-    trail_v = np.empty(cap, np.int32)
-    trail_e = np.empty(cap, np.int32)
-    trail_s = np.empty(cap, np.int32)
-    top = np.zeros(1, np.int64)
+    end, size, trail_t, trail_v, trail_e, trail_s, top = _path_state(T, n)
     ok = True
     for t in range(h):
         g = t + 1
@@ -89,11 +84,7 @@ def even_search_kernel(M, mis, seed, shuffle, node_limit, out_pairs):
                     cand[depth, c] = y
                     c += 1
             if shuffle:
-                for i in range(c - 1, 0, -1):
-                    j = np.random.randint(0, i + 1)
-                    tmp = cand[depth, i]
-                    cand[depth, i] = cand[depth, j]
-                    cand[depth, j] = tmp
+                _shuffle_row(cand, depth, c)
             cx[depth] = x
             ncand[depth] = c
             ci[depth] = 0

@@ -14,7 +14,12 @@ from __future__ import annotations
 import numba
 import numpy as np
 
-from scheduler.factorization._search_kernel import _add_edge, _undo
+from scheduler.factorization._search_kernel import (
+    _add_edge,
+    _path_state,
+    _shuffle_row,
+    _undo,
+)
 
 
 @numba.njit(cache=True)
@@ -32,17 +37,7 @@ def orbit_search_kernel(r, k, orb, n_orb, ent_sys, ent_shift, n_ent, T, seed, no
     np.random.seed(seed)
     inf = r * k
     n = inf + 1
-    end = np.empty((T, n), np.int32)
-    size = np.ones((T, n), np.int32)
-    for t in range(T):
-        for v in range(n):
-            end[t, v] = v
-    cap = 4 * T * n + 16
-    trail_t = np.empty(cap, np.int32)
-    trail_v = np.empty(cap, np.int32)
-    trail_e = np.empty(cap, np.int32)
-    trail_s = np.empty(cap, np.int32)
-    top = np.zeros(1, np.int64)
+    end, size, trail_t, trail_v, trail_e, trail_s, top = _path_state(T, n)
     partner = np.full((r, n), -1, np.int32)
     count = np.zeros(r, np.int32)
     for f in range(r):
@@ -90,11 +85,7 @@ def orbit_search_kernel(r, k, orb, n_orb, ent_sys, ent_shift, n_ent, T, seed, no
                 if partner[f, y] < 0 and not used[orb[x, y]]:
                     cand[depth, c] = y
                     c += 1
-            for i in range(c - 1, 0, -1):
-                j = np.random.randint(0, i + 1)
-                tmp = cand[depth, i]
-                cand[depth, i] = cand[depth, j]
-                cand[depth, j] = tmp
+            _shuffle_row(cand, depth, c)
             cf[depth] = f
             cx[depth] = x
             ncand[depth] = c

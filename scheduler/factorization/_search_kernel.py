@@ -49,6 +49,34 @@ def _undo(mark, end, size, trail_t, trail_v, trail_e, trail_s, top):
 
 
 @numba.njit(cache=True)
+def _path_state(T, n):
+    """Fresh union-find-like path state for ``T`` partial unions on ``n`` vertices: each
+    vertex is the end of its own path of size 1; empty undo trails."""
+    end = np.empty((T, n), np.int32)
+    size = np.ones((T, n), np.int32)
+    for t in range(T):
+        for v in range(n):
+            end[t, v] = v
+    cap = 4 * T * n + 16
+    trail_t = np.empty(cap, np.int32)
+    trail_v = np.empty(cap, np.int32)
+    trail_e = np.empty(cap, np.int32)
+    trail_s = np.empty(cap, np.int32)
+    top = np.zeros(1, np.int64)
+    return end, size, trail_t, trail_v, trail_e, trail_s, top
+
+
+@numba.njit(cache=True)
+def _shuffle_row(cand, depth, c):
+    """Fisher-Yates shuffle of ``cand[depth, :c]`` with numba's seeded generator."""
+    for i in range(c - 1, 0, -1):
+        j = np.random.randint(0, i + 1)
+        tmp = cand[depth, i]
+        cand[depth, i] = cand[depth, j]
+        cand[depth, j] = tmp
+
+
+@numba.njit(cache=True)
 def search_kernel(m, add, neg, mulu, reps, weights, max_bad, seed, node_limit, out_pairs):
     """Returns ``(status, nodes, bad)``: status 1 found (pairs in ``out_pairs``), 0 node limit
     hit, -1 search space exhausted (no such multiplier-invariant starter exists).
@@ -61,17 +89,7 @@ def search_kernel(m, add, neg, mulu, reps, weights, max_bad, seed, node_limit, o
     n = m + 1
     inf = m
     T = reps.shape[0]
-    end = np.empty((T, n), np.int32)
-    size = np.ones((T, n), np.int32)
-    for t in range(T):
-        for v in range(n):
-            end[t, v] = v
-    cap = 4 * T * n + 16
-    trail_t = np.empty(cap, np.int32)
-    trail_v = np.empty(cap, np.int32)
-    trail_e = np.empty(cap, np.int32)
-    trail_s = np.empty(cap, np.int32)
-    top = np.zeros(1, np.int64)
+    end, size, trail_t, trail_v, trail_e, trail_s, top = _path_state(T, n)
     for t in range(T):
         _add_edge(t, inf, 0, n, end, size, trail_t, trail_v, trail_e, trail_s, top)
         _add_edge(t, inf, reps[t], n, end, size, trail_t, trail_v, trail_e, trail_s, top)
@@ -112,11 +130,7 @@ def search_kernel(m, add, neg, mulu, reps, weights, max_bad, seed, node_limit, o
                 if y != x and not used[y] and not dused[add[x, neg[y]]]:
                     cand[depth, c] = y
                     c += 1
-            for i in range(c - 1, 0, -1):
-                j = np.random.randint(0, i + 1)
-                tmp = cand[depth, i]
-                cand[depth, i] = cand[depth, j]
-                cand[depth, j] = tmp
+            _shuffle_row(cand, depth, c)
             cx[depth] = x
             ncand[depth] = c
             ci[depth] = 0

@@ -21,8 +21,8 @@ missing ``m`` to one missing ``u m`` with an isomorphic factorization, so the se
 ``0, ∞1, ∞2, h`` close a 4-cycle in ``F_0 ∪ E``.
 
 References (from memory, unverified): B. A. Anderson, "A class of starter induced
-1-factorizations", *Graphs and Combinatorics* (Proc. Capital Conf. 1973), Lecture Notes in
-Math. 406, Springer 1974, 180-185 (even starters and the 1-factorizations they induce);
+1-factorizations", *Graphs and Combinatorics* (Proc. Capital Conf. 1973), Springer LNM 406
+(1974), 180-185 (even starters and the 1-factorizations they induce);
 J. H. Dinitz, "Starters", in *Handbook of Combinatorial Designs*, 2nd ed., C. J. Colbourn and
 J. H. Dinitz (eds.), Chapman & Hall/CRC 2007, §VI.55. Restarts: M. Luby, A. Sinclair,
 D. Zuckerman, Inform. Process. Lett. 47 (1993), as in :mod:`scheduler.factorization.search`.

@@ -7,8 +7,8 @@ conventions assumed (to be shared with the balancer):
 - ``min_rest_days = k``: at least ``k`` whole days without a game between two games of a team
   (Tuesday then Friday gives 2 rest days);
 - ``min_separation = k``: at least ``k`` rounds strictly between two meetings of the same pair
-  (the "separation" of the reference notes, as in the SE1 constraint class of the ITC2021
-  benchmark: Van Bulck, Goossens, Beliën & Davari, 2021/2023);
+  (the separation constraint of the sports-timetabling literature, e.g. the timetabling
+  competition benchmark of Van Bulck, Goossens, Beliën & Davari, PATAT 2021, from memory);
 - a break is two home games or two away games in consecutive rounds (de Werra 1981).
 """
 

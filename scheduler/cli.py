@@ -34,6 +34,24 @@ err = Console(stderr=True, highlight=False, soft_wrap=True)
 EXIT_OK, EXIT_INVALID, EXIT_INPUT, EXIT_INTERNAL = 0, 1, 2, 3
 
 
+def _version(value: bool) -> None:
+    if value:
+        from scheduler import __version__
+
+        out.print(f"scheduler {__version__}")
+        raise typer.Exit(EXIT_OK)
+
+
+@app.callback()
+def _main(
+    version: Annotated[
+        bool,
+        typer.Option("--version", callback=_version, is_eager=True, help="Print the version."),
+    ] = False,
+) -> None:
+    """Plan fair round-robin seasons and audit any schedule."""
+
+
 def _guarded(command: Callable[..., Any]) -> Callable[..., Any]:
     """Turn library errors into one clear message and an exit code, never a traceback."""
 

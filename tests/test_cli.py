@@ -163,3 +163,10 @@ def test_plan_bad_config_exits_2_and_writes_nothing(tmp_path):
     assert result.exit_code == 2
     assert "format.legz" in result.stderr
     assert not out.exists()
+
+
+def test_version():
+    from scheduler import __version__
+
+    result = run("--version")
+    assert result.exit_code == 0 and __version__ in result.stdout

@@ -38,7 +38,7 @@ import numpy as np
 
 from scheduler.errors import InputError
 from scheduler.factorization.model import Factorization, normalise_round
-from scheduler.factorization.search import luby
+from scheduler.factorization.search import luby, run_seed
 from scheduler.progress import Progress
 
 Pair = tuple[int, int]
@@ -241,8 +241,7 @@ class EvenStarterSearchResult:
         return self.starter is not None
 
 
-def _run_seed(seed: int, run: int) -> int:
-    return (seed * 1_000_003 + run * 7_919 + 54_321) % (2**31 - 1)
+_EVEN_SALT = 54_321
 
 
 def search_perfect_even_starter(
@@ -293,7 +292,9 @@ def search_perfect_even_starter(
         limit = min(max_run_nodes, base_nodes * luby(runs))
         if max_nodes is not None:
             limit = max(1, min(limit, max_nodes - nodes))
-        status, used = even_search_kernel(M, mis, _run_seed(seed, runs), shuffle, limit, out)
+        status, used = even_search_kernel(
+            M, mis, run_seed(seed, runs, _EVEN_SALT), shuffle, limit, out
+        )
         nodes += int(used)
         elapsed = time.perf_counter() - start
         if status == 1:

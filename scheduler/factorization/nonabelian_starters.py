@@ -46,7 +46,7 @@ import numpy as np
 
 from scheduler.errors import InputError
 from scheduler.factorization.model import Factorization, normalise_round
-from scheduler.factorization.search import luby
+from scheduler.factorization.search import luby, run_seed
 from scheduler.progress import Progress
 
 Pair = tuple[int, int]
@@ -292,8 +292,7 @@ class GroupStarterSearchResult:
         return self.starter is not None
 
 
-def _run_seed(seed: int, run: int) -> int:
-    return (seed * 1_000_003 + run * 7_919 + 24_680) % (2**31 - 1)
+_GROUP_SALT = 24_680
 
 
 def search_perfect_group_starter(
@@ -334,7 +333,7 @@ def search_perfect_group_starter(
         if max_nodes is not None:
             limit = max(1, min(limit, max_nodes - nodes))
         status, used, _ = search_kernel(m, add, neg, mulu, reps, weights, 0,
-                                        _run_seed(seed, runs), limit, out)
+                                        run_seed(seed, runs, _GROUP_SALT), limit, out)
         nodes += int(used)
         elapsed = time.perf_counter() - start
         if status == 1:

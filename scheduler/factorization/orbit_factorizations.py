@@ -35,7 +35,7 @@ import numpy as np
 
 from scheduler.errors import InputError
 from scheduler.factorization.model import Factorization, normalise_round
-from scheduler.factorization.search import luby
+from scheduler.factorization.search import luby, run_seed
 from scheduler.progress import Progress
 
 Pair = tuple[int, int]
@@ -246,8 +246,7 @@ class OrbitSearchResult:
         return self.base is not None
 
 
-def _run_seed(seed: int, run: int) -> int:
-    return (seed * 1_000_003 + run * 7_919 + 13_579) % (2**31 - 1)
+_ORBIT_SALT = 13_579
 
 
 def search_perfect_orbit_factorization(
@@ -279,7 +278,7 @@ def search_perfect_orbit_factorization(
         if max_nodes is not None:
             limit = max(1, min(limit, max_nodes - nodes))
         status, used = orbit_search_kernel(r, k, orb, n_orb, ent_sys, ent_shift, n_ent, T,
-                                           _run_seed(seed, runs), limit, out)
+                                           run_seed(seed, runs, _ORBIT_SALT), limit, out)
         nodes += int(used)
         elapsed = time.perf_counter() - start
         if status == 1:

@@ -114,8 +114,10 @@ def kernel_arrays(group: AbelianGroup, multiplier: int = 1):
     )
 
 
-def _run_seed(seed: int, run: int) -> int:
-    return (seed * 1_000_003 + run * 7_919 + 12_345) % (2**31 - 1)
+def run_seed(seed: int, run: int, salt: int = 12_345) -> int:
+    """The numba generator's seed for restart ``run`` of a search seeded ``seed``; each search
+    space has its own ``salt`` so that their runs do not share random streams."""
+    return (seed * 1_000_003 + run * 7_919 + salt) % (2**31 - 1)
 
 
 def search_perfect_starter(
@@ -155,7 +157,7 @@ def search_perfect_starter(
         if max_nodes is not None:
             limit = max(1, min(limit, max_nodes - nodes))
         status, used, _ = search_kernel(
-            m, add, neg, mulu, reps, weights, 0, _run_seed(seed, runs), limit, out
+            m, add, neg, mulu, reps, weights, 0, run_seed(seed, runs), limit, out
         )
         nodes += int(used)
         elapsed = time.perf_counter() - start

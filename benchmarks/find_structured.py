@@ -22,7 +22,9 @@ Recorded runs (seed 0, 2 shared cores, ``nice -n 19``; "empty" = space exhausted
 * K_56: ``multipliers 55``: orders 4, 5, 10, 20 and u = 54 empty; u = 21 (4.9e8 nodes) and
   u = 34 (5.5e8 nodes), 180 s each, found nothing. ``group 11 5``: 1.58e9 nodes (600 s)
   nothing; automorphisms of order 5, 10, 11 empty; ``group 11 5 10 0`` (order 2): 1.0e9
-  nodes (240 s) nothing.
+  nodes (240 s) nothing. ``group 11 5 --seed S`` (plain space, 240 s each, nothing):
+  seed 1 5.27e8 nodes, seed 2 5.52e8, seed 3 5.41e8, seed 4 5.41e8, seed 5 5.68e8,
+  seed 6 5.55e8 (3.28e9 nodes, 1440 s in all).
 * Even starters: Z_30 (K_32) found after 4.0e7 nodes; Z_34 (K_36) nothing in 2.2e8 nodes
   (60 s). Prescribed Z_k with 3 cycles: K_16 (k = 5) found in 1.6e6 nodes; K_22, K_28, K_34
   (k = 7, 9, 11) nothing in 20 s each, so this space was not tried at K_40.

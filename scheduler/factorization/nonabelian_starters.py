@@ -46,7 +46,7 @@ import numpy as np
 
 from scheduler.errors import InputError
 from scheduler.factorization.model import Factorization, normalise_round
-from scheduler.factorization.search import luby, run_seed
+from scheduler.factorization.search import element_orbits, luby, run_seed
 from scheduler.progress import Progress
 
 Pair = tuple[int, int]
@@ -255,22 +255,7 @@ def enumerate_group_starters(group: SemidirectGroup) -> Iterator[tuple[Pair, ...
 
 def _orbits(group: SemidirectGroup, perm: np.ndarray) -> list[tuple[int, int]]:
     """``(smallest code, size)`` of each orbit of ``<g -> g^-1, perm>`` on ``G \\ {e}``."""
-    m = group.order
-    seen = [False] * m
-    out = []
-    for g in range(1, m):
-        if seen[g]:
-            continue
-        stack, seen[g], count = [g], True, 0
-        while stack:
-            x = stack.pop()
-            count += 1
-            for y in (int(group.inv[x]), int(perm[x])):
-                if not seen[y]:
-                    seen[y] = True
-                    stack.append(y)
-        out.append((g, count))
-    return out
+    return element_orbits(group.inv, perm)
 
 
 @dataclass(frozen=True)

@@ -21,7 +21,7 @@ import time
 from pathlib import Path
 
 from scheduler.audit import audit_file
-from scheduler.export.readers import read_schedule_with_rows
+from scheduler.audit.readers import read_schedule_with_rows
 from scheduler.fairness import compute_fairness
 from scheduler.fairness.validity import validate_season
 from scheduler.season import Fixture, Season

@@ -489,6 +489,12 @@ def _read_csv(path: Path, raw: bytes, timezone: str | None,
         rows = [(k + 1, cells) for k, cells in enumerate(csv.reader(io.StringIO(text),
                                                                       delimiter=delimiter))]
     except csv.Error as exc:
+        if "field limit" in str(exc):
+            raise InputError(
+                f"a quoted field is longer than {MAX_CSV_FIELD_CHARS} characters; is this a "
+                "schedule?",
+                location=where,
+            ) from exc
         raise InputError(f"malformed CSV: {exc}", location=where) from exc
     finally:
         csv.field_size_limit(previous_limit)
@@ -574,7 +580,7 @@ def read_schedule_with_rows(
     timezone: str | None = None,
     columns: Mapping[str, str] | None = None,
 ) -> ScheduleFile:
-    """Read a CSV, xlsx or season.json schedule, keeping each fixture's source row.
+    r"""Read a CSV, xlsx or season.json schedule, keeping each fixture's source row.
 
     Parameters
     ----------

@@ -180,6 +180,8 @@ def loads_season(text: str, *, source: str = "season.json") -> Season:
             f"not valid JSON: {exc.msg}",
             location=f"{source}: line {exc.lineno}, column {exc.colno}",
         ) from exc
+    except RecursionError as exc:  # nesting the bracket count could not see
+        raise InputError("the file nests lists or objects too deeply", location=source) from exc
     try:
         return season_from_dict(data)
     except InputError as exc:

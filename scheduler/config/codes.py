@@ -78,7 +78,7 @@ def make_codes(names: Iterable[str], given: Iterable[str | None]) -> tuple[str, 
     Examples
     --------
     >>> make_codes(["Harbour Rovers", "Otters", "Otter Bay"], [None, None, None])
-    ('HAR', 'OTT', 'OTB')
+    ('HAR', 'OTT', 'OBA')
     """
     names = list(names)
     given = list(given)

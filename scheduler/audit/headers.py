@@ -68,7 +68,7 @@ VOCABULARY: dict[str, dict[str, tuple[str, ...]]] = {
     "fr": {
         "round": ("Journée", "Tour", "Numéro de journée"),
         "leg": ("Manche",),
-        "date": ("Date du match",),
+        "date": ("Date", "Date du match"),
         "time": ("Heure", "Horaire", "Coup d'envoi", "Heure du match"),
         "home": ("Domicile", "Équipe à domicile", "Équipe domicile", "Recevant", "Locaux"),
         "away": ("Extérieur", "Équipe extérieure", "Visiteur", "Visiteurs", "Équipe visiteuse"),
@@ -104,7 +104,7 @@ VOCABULARY: dict[str, dict[str, tuple[str, ...]]] = {
     "nl": {
         "round": ("Speelronde", "Ronde", "Speeldag", "Speelweek"),
         "leg": ("Seizoenshelft",),
-        "date": ("Datum wedstrijd",),
+        "date": ("Datum", "Datum wedstrijd"),
         "time": ("Tijd", "Aanvang", "Aftrap", "Begintijd"),
         "home": ("Thuis", "Thuisploeg", "Thuisteam", "Thuisclub"),
         "away": ("Uit", "Uitploeg", "Uitteam", "Bezoekers"),
@@ -114,12 +114,12 @@ VOCABULARY: dict[str, dict[str, tuple[str, ...]]] = {
         "slot": ("Tijdslot", "Tijdvak"),
     },
     "pt": {
-        "round": ("Rodada", "Número da rodada"),
+        "round": ("Rodada", "Jornada", "Número da rodada"),
         "leg": ("Fase",),
-        "date": ("Data do jogo",),
-        "time": ("Horário", "Hora do jogo"),
-        "home": ("Mandante", "Equipa da casa", "Time da casa", "Anfitrião"),
-        "away": ("Visitantes", "Equipa visitante", "Time visitante", "Fora"),
+        "date": ("Data", "Data do jogo"),
+        "time": ("Hora", "Horário", "Hora do jogo"),
+        "home": ("Mandante", "Casa", "Equipa da casa", "Time da casa", "Anfitrião"),
+        "away": ("Visitante", "Visitantes", "Equipa visitante", "Time visitante", "Fora"),
         "match": ("Jogo", "Confronto"),
         "venue": ("Estádio", "Ginásio", "Recinto desportivo"),
         "court": ("Quadra",),
@@ -128,9 +128,8 @@ VOCABULARY: dict[str, dict[str, tuple[str, ...]]] = {
 }
 """Header words per language (ISO 639-1 code) and field, as written in spreadsheets.
 
-Words shared by several languages (``Datum``, ``Data``, ``Hora``, ``Casa``, ``Jornada``,
-``Visitante``) are listed once, under the first language that uses them; every language's own
-test schedule exercises the words its organizers write.
+A word may belong to several languages (``Datum`` is German and Dutch, ``Data`` Italian and
+Portuguese), always for the same field.
 """
 
 
@@ -165,20 +164,22 @@ def normalise_header(header: object) -> str:
     return _IGNORED.sub("", plain)
 
 
-def _lookup() -> dict[str, tuple[str, str]]:
-    table: dict[str, tuple[str, str]] = {}
+def _lookup() -> dict[str, tuple[str, tuple[str, ...]]]:
+    table: dict[str, tuple[str, tuple[str, ...]]] = {}
     for language, fields in VOCABULARY.items():
         for field, words in fields.items():
             for word in words:
                 key = normalise_header(word)
-                if key in table and table[key][0] != field:  # pragma: no cover - guarded by tests
+                known_field, languages = table.get(key, (field, ()))
+                if known_field != field:  # pragma: no cover - guarded by the tests
                     raise AssertionError(f"header word {word!r} means two fields")
-                table.setdefault(key, (field, language))
+                if language not in languages:
+                    table[key] = (field, (*languages, language))
     return table
 
 
-HEADER_LOOKUP: dict[str, tuple[str, str]] = _lookup()
-"""Normalised header word -> (field, language of the word)."""
+HEADER_LOOKUP: dict[str, tuple[str, tuple[str, ...]]] = _lookup()
+"""Normalised header word -> (field, languages the word belongs to)."""
 
 
 def words_of(field: str) -> tuple[str, ...]:
@@ -291,10 +292,24 @@ def expected_message(rows_searched: int, named: Mapping[str, str] | None = None)
 
 
 def languages_of(found: Mapping[str, int], cells: Sequence[object]) -> tuple[str, ...]:
-    """The languages of the header words used in a header row (for the audit's notes)."""
-    seen: list[str] = []
+    """The fewest languages whose words make up a header row (for the audit's notes).
+
+    Greedy cover: the language holding most of the row's words first, then the one holding
+    most of the rest, and so on (ties in the order of :data:`LANGUAGES`).
+
+    Examples
+    --------
+    >>> languages_of({"round": 0, "date": 1, "home": 2}, ["Speelronde", "Datum", "Thuis"])
+    ('nl',)
+    """
+    words = []
     for column in found.values():
         hit = HEADER_LOOKUP.get(normalise_header(cells[column]))
-        if hit and hit[1] not in seen:
-            seen.append(hit[1])
-    return tuple(seen)
+        if hit:
+            words.append(set(hit[1]))
+    chosen: list[str] = []
+    while words:
+        best = max(LANGUAGES, key=lambda code: sum(code in langs for langs in words))
+        chosen.append(best)
+        words = [langs for langs in words if best not in langs]
+    return tuple(chosen)

@@ -169,10 +169,11 @@ def check_csv_fields(text: str, location: str, limit: int | None = None) -> None
     Examples
     --------
     >>> check_csv_fields("round,home,away\n1,A,B\n", "f.csv", limit=5)
-    >>> check_csv_fields("round,home,away\n1,Abcdefgh,B\n", "f.csv", limit=5)
-    Traceback (most recent call last):
-    ...
-    scheduler.errors.InputError: f.csv: a field longer than 5 characters starts on line 2; is this a schedule?
+    >>> try:
+    ...     check_csv_fields("round,home,away\n1,Abcdefgh,B\n", "f.csv", limit=5)
+    ... except InputError as error:
+    ...     print(error.detail)
+    a field longer than 5 characters starts on line 2; is this a schedule?
     """
     limit = MAX_CSV_FIELD_CHARS if limit is None else limit
     if len(text) <= limit:

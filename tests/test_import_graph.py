@@ -3,7 +3,8 @@
 Every module's imports are read with :mod:`ast` (also imports inside functions: they are
 dependencies all the same), the graph is built and checked with networkx
 (``is_directed_acyclic_graph``, ``find_cycle``): the library this project did not write decides
-whether there is a loop. The layers, bottom-up, are :data:`LAYERS`; see ``DEVELOPERS.md``.
+whether there is a loop. The layers, bottom-up, are :data:`LAYERS` (see ``docs/audit-input.md``,
+"Where the input side sits").
 """
 
 from __future__ import annotations

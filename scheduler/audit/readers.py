@@ -29,7 +29,10 @@ hand (``columns={"home": "Heim", ...}``). A single "match" column holding ``"A v
 :mod:`scheduler.audit.values`. Without an offset a kick-off needs a time zone: pass
 ``timezone=`` (an IANA name); otherwise the date is kept and the time becomes the fixture's
 slot label (when there is no slot column). A row whose away side is empty or one of
-:data:`BYE_WORDS` is a bye of the home team.
+:data:`BYE_WORDS` is a bye of the home team. Team names are refused with their row and column
+when they hold control, text-direction or unassigned characters, and are read in Unicode
+Normalization Form C (so "Café" typed two ways is one team), as in league files
+(:mod:`scheduler.config.names`).
 
 Without a round column the rounds are derived from the dates (each distinct date is one round,
 in date order); without either, reading fails. Without a leg column the legs are inferred: with
@@ -75,6 +78,7 @@ from scheduler.audit.values import (
     cell_text,
     month_first,
     parse_date_texts,
+    team_name,
 )
 from scheduler.errors import InputError
 from scheduler.fairness.table import MAX_ROUNDS
@@ -197,6 +201,7 @@ def _rows_to_schedule(
     col = {field: found.get(field) for field in FIELDS}
     split_match = "match" in found and not ("home" in found and "away" in found)
     time_cache: dict[str, tuple[time | None, datetime | None]] = {}
+    names_seen: dict[str, str] = {}
     for rownum, cells in data_rows:
         if _blank(cells):
             continue
@@ -211,6 +216,12 @@ def _rows_to_schedule(
             else:
                 home = cell_text(_cell(cells, col["home"]))
                 away = cell_text(_cell(cells, col["away"]))
+            if not split_match:
+                field = "home"
+            home = team_name(home, names_seen)
+            if not split_match:
+                field = "away"
+            away = team_name(away, names_seen)
             rnd = None
             field = "round"
             if col["round"] is not None:

@@ -20,6 +20,7 @@ from datetime import date, datetime, time
 
 import pandas as pd
 
+from scheduler.config.names import character_problem, normal_form
 from scheduler.export.safety import restore_cell
 
 _INT = re.compile(r"\d+")
@@ -183,3 +184,23 @@ def parse_date_texts(texts: Iterable[str], month_first: bool) -> dict[str, date]
         text: stamp.date()
         for text, stamp in zip(distinct[found], parsed[found], strict=True)
     }
+
+
+def team_name(text: str, seen: dict[str, str]) -> str:
+    """A team name of a schedule cell: refused (:class:`BadCell`) when it holds a control,
+    text-direction or unassigned character, else in Normalization Form C. ``seen`` caches the
+    names already checked.
+
+    Examples
+    --------
+    >>> team_name("Cafe\u0301", {}) == "Caf\u00e9"
+    True
+    """
+    known = seen.get(text)
+    if known is not None:
+        return known
+    problem = character_problem(text)
+    if problem:
+        raise BadCell(f"the team name {text!r} {problem}")
+    seen[text] = normal_form(text)
+    return seen[text]

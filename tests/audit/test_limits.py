@@ -126,3 +126,41 @@ def test_a_normal_workbook_passes_the_size_checks(tmp_path):
     book.save(path)
     limits.check_xlsx_members(path)
     assert read_schedule_with_rows(path).season.fixtures[0].home == "Aschental"
+
+
+@pytest.mark.parametrize(("cell", "what"), [("\u202eWest", "U+202E"), ("Ost\u2066", "U+2066"),
+                                            ("Nord\u0378", "U+0378")])
+def test_bad_characters_in_csv_team_names_are_located(tmp_path, cell, what):
+    path = tmp_path / "names.csv"
+    path.write_text(f"Round,Home,Away\n1,Sued,Mitte\n2,Mitte,{cell}\n", encoding="utf-8")
+    with pytest.raises(InputError) as info:
+        read_schedule_with_rows(path)
+    assert info.value.location.endswith("row 3, column 'Away'") and what in info.value.detail
+    assert _audit(path).exit_code == 2
+
+
+@pytest.mark.parametrize("cell", ["Ost\x00", "Nord\x7f", "West\x01"])
+def test_control_characters_in_csv_are_refused_as_binary(tmp_path, cell):
+    path = tmp_path / "names.csv"
+    path.write_text(f"Round,Home,Away\n1,Sued,{cell}\n", encoding="utf-8")
+    result = _audit(path)
+    assert result.exit_code == 2 and "binary file" in result.output
+
+
+def test_control_characters_in_xlsx_team_names_are_located(tmp_path):
+    book = openpyxl.Workbook()
+    book.active.append(["Round", "Home", "Away"])
+    book.active.append([1, "Nord\x7f", "Sued"])  # DEL: openpyxl writes it, the audit refuses it
+    path = tmp_path / "names.xlsx"
+    book.save(path)
+    with pytest.raises(InputError) as info:
+        read_schedule_with_rows(path)
+    assert info.value.location.endswith("row 2, column 'Home'")
+    assert "U+007F" in info.value.detail
+
+
+def test_team_names_two_ways_are_one_team(tmp_path):
+    path = tmp_path / "cafe.csv"
+    path.write_text("Round,Home,Away\n1,Caf\u00e9,Mitte\n2,Mitte,Cafe\u0301\n", encoding="utf-8")
+    season = read_schedule_with_rows(path).season
+    assert season.teams == ("Caf\u00e9", "Mitte")

@@ -150,6 +150,16 @@ def test_the_refused_set_matches_the_unicode_database():
     assert len(BIDI_CONTROLS) == 12
 
 
+def test_bidi_controls_are_the_explicit_formatting_characters_of_the_database():
+    # The Unicode Character Database's Bidi_Class (via unicodedata): the nine explicit
+    # embedding, override and isolate characters, plus the three implicit marks by name.
+    explicit = {chr(c) for c in range(0x110000) if unicodedata.bidirectional(chr(c)) in (
+        "LRE", "RLE", "PDF", "LRO", "RLO", "LRI", "RLI", "FSI", "PDI")}
+    marks = {unicodedata.lookup(name) for name in (
+        "LEFT-TO-RIGHT MARK", "RIGHT-TO-LEFT MARK", "ARABIC LETTER MARK")}
+    assert BIDI_CONTROLS == explicit | marks
+
+
 def test_names_are_stored_in_nfc_and_duplicates_compare_caselessly(tmp_path):
     decomposed = "Cafe\u0301 Rovers"
     assert unicodedata.normalize("NFC", decomposed) == "Caf\u00e9 Rovers" != decomposed

@@ -171,3 +171,18 @@ def test_cli_columns_option_and_exit_codes(tmp_path):
     assert ok.exit_code == 0, ok.output
     bad = runner.invoke(app, ["audit", str(path), "--columns", "home"])
     assert bad.exit_code == 2 and "--columns" in bad.output
+
+
+def test_xlsx_rows_keep_their_spreadsheet_numbers_with_blank_rows_and_columns(tmp_path):
+    book = openpyxl.Workbook()
+    sheet = book.active
+    sheet["C3"], sheet["D3"], sheet["E3"] = "Runde", "Heim", "Gast"
+    sheet["C4"], sheet["D4"], sheet["E4"] = 1, "Aschental", "Birkenmoor"
+    sheet["C6"], sheet["D6"], sheet["E6"] = 2, "Birkenmoor", "Aschental"
+    path = tmp_path / "versetzt.xlsx"
+    book.save(path)
+    got = read_schedule_with_rows(path)
+    # The reference: openpyxl's own row numbers of the cells holding the home teams.
+    check = openpyxl.load_workbook(path)
+    rows = [cell.row for cell in check.active["D"] if cell.value in ("Aschental", "Birkenmoor")]
+    assert got.rows == tuple(rows) == (4, 6)

@@ -157,7 +157,7 @@ def test_bidi_controls_are_the_explicit_formatting_characters_of_the_database():
         "LRE", "RLE", "PDF", "LRO", "RLO", "LRI", "RLI", "FSI", "PDI")}
     marks = {unicodedata.lookup(name) for name in (
         "LEFT-TO-RIGHT MARK", "RIGHT-TO-LEFT MARK", "ARABIC LETTER MARK")}
-    assert BIDI_CONTROLS == explicit | marks
+    assert explicit | marks == BIDI_CONTROLS
 
 
 def test_names_are_stored_in_nfc_and_duplicates_compare_caselessly(tmp_path):

@@ -297,24 +297,30 @@ def _rows_to_schedule(
     if not parsed:
         raise InputError("the file has a header but no games", location=where)
 
-    if "round" not in found:
-        missing = [r for r in parsed if r.day is None]
-        if missing:
-            raise InputError(
-                "no round column, and this row has no date to derive the round from",
-                location=f"{where}, row {missing[0].rownum}",
-            )
-        order = {d: k + 1 for k, d in enumerate(sorted({r.day for r in parsed}))}
+    # Rounds: written, or one per distinct date in date order.
+    if "round" in found:
+        round_of = [r.round if r.round is not None else 0 for r in parsed]
+    else:
+        days: list[date] = []
         for r in parsed:
-            r.round = order[r.day]
+            if r.day is None:
+                raise InputError(
+                    "no round column, and this row has no date to derive the round from",
+                    location=f"{where}, row {r.rownum}",
+                )
+            days.append(r.day)
+        order = {d: k + 1 for k, d in enumerate(sorted(set(days)))}
+        round_of = [order[d] for d in days]
         notes.append(f"no round column: {len(order)} rounds derived from the dates")
 
     # Legs: written, or inferred from the pair meeting counts.
+    leg_of: list[int] = []
     if "leg" in found:
         for r in parsed:
             if r.leg is None:
                 raise InputError("the leg is empty", location=loc(r.rownum, "leg"))
-        legs = max(r.leg for r in parsed)
+            leg_of.append(r.leg)
+        legs = max(leg_of)
     else:
         meets = Counter(
             (r.home, r.away) if r.home < r.away else (r.away, r.home)
@@ -322,39 +328,38 @@ def _rows_to_schedule(
             if r.home != r.away
         )
         mode = Counter(meets.values()).most_common(1)[0][0] if meets else 1
-        rounds = max(r.round for r in parsed)
+        rounds = max(round_of)
         if mode > 1 and rounds % mode == 0:
             per = rounds // mode
-            for r in parsed:
-                r.leg = (r.round - 1) // per + 1 if r.round >= 1 else 1
+            leg_of = [(rnd - 1) // per + 1 if rnd >= 1 else 1 for rnd in round_of]
             legs = mode
             notes.append(f"no leg column: {mode} legs of {per} rounds inferred")
         else:
-            for r in parsed:
-                r.leg = 1
+            leg_of = [1] * len(parsed)
             legs = 1
 
     teams = list(dict.fromkeys(name for r in parsed for name in (r.home, r.away)))
-    round_of_day = {r.day: r.round for r in parsed if r.day is not None}
+    round_of_day = {r.day: rnd for r, rnd in zip(parsed, round_of, strict=True)
+                    if r.day is not None}
     bye_map: dict[int, list[str]] = {}
-    for rownum, rnd, day, team in byes:
-        if rnd is None:
-            rnd = round_of_day.get(day)
-        if rnd is None:
+    for rownum, bye_round, day, team in byes:
+        if bye_round is None and day is not None:
+            bye_round = round_of_day.get(day)
+        if bye_round is None:
             raise InputError(
                 "a bye without a round (or a date of a round)", location=f"{where}, row {rownum}"
             )
         if team not in teams:
             teams.append(team)
-        bye_map.setdefault(rnd, [])
-        if team not in bye_map[rnd]:
-            bye_map[rnd].append(team)
+        bye_map.setdefault(bye_round, [])
+        if team not in bye_map[bye_round]:
+            bye_map[bye_round].append(team)
     fixtures = tuple(
         Fixture(
-            round=r.round, home=r.home, away=r.away, leg=r.leg, venue=r.venue, court=r.court,
+            round=rnd, home=r.home, away=r.away, leg=leg, venue=r.venue, court=r.court,
             slot=r.slot, date=r.day, start=r.start,
         )
-        for r in parsed
+        for r, rnd, leg in zip(parsed, round_of, leg_of, strict=True)
     )
     venues = tuple(dict.fromkeys(r.venue for r in parsed if r.venue))
     season = Season(

@@ -281,13 +281,13 @@ def reference_problems(doc: LeagueFile) -> list[str]:
             'rules.shared_grounds: only used when format.home_meaning = "venue" '
             "(with sides, every game is at the shared venues anyway)"
         )
-    for i, group in enumerate(rules.shared_grounds):
+    for i, sharing in enumerate(rules.shared_grounds):
         path = f"rules.shared_grounds[{i}]"
-        if len(group) < 2:
+        if len(sharing) < 2:
             problems.append(f"{path}: a shared ground needs at least two teams")
-        for j, name in enumerate(group):
-            problems += _team_ref(f"{path}[{j}]", name, team_names)
-        if len({name_key(g) for g in group}) != len(group):
+        for j, team_name in enumerate(sharing):
+            problems += _team_ref(f"{path}[{j}]", team_name, team_names)
+        if len({name_key(member) for member in sharing}) != len(sharing):
             problems.append(f"{path}: a team is listed twice")
     for i, fixed in enumerate(rules.fixed):
         path = f"rules.fixed[{i}]"

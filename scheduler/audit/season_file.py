@@ -16,6 +16,7 @@ from pathlib import Path
 from zoneinfo import ZoneInfo, ZoneInfoNotFoundError
 
 from scheduler.audit.limits import check_nesting, read_bytes_limited
+from scheduler.config.names import character_problem
 from scheduler.errors import InputError
 from scheduler.season import Fixture, MixingInfo, Season
 
@@ -54,6 +55,15 @@ def _kind_name(kinds) -> str:
     return " or ".join(words.get(k, k.__name__) for k in kinds)
 
 
+def _name(text: str, location: str) -> str:
+    """A team name: refused with its place when it holds control, text-direction or unassigned
+    characters (``scheduler.config.names``)."""
+    problem = character_problem(text)
+    if problem:
+        raise InputError(f"the team name {text!r} {problem}", location=location)
+    return text
+
+
 def _str_list(data: dict, key: str, where: str) -> tuple[str, ...]:
     values = _need(data, key, list, where, optional=True, default=[])
     for i, v in enumerate(values):
@@ -79,8 +89,8 @@ def _fixture(item, i: int, zone) -> Fixture:
         raise InputError("a fixture must be an object", location=where)
     rnd = _need(item, "round", int, where)
     leg = _need(item, "leg", int, where, optional=True, default=1)
-    home = _need(item, "home", str, where)
-    away = _need(item, "away", str, where)
+    home = _name(_need(item, "home", str, where), f"{where}.home")
+    away = _name(_need(item, "away", str, where), f"{where}.away")
     venue = _need(item, "venue", str, where, optional=True)
     court = _need(item, "court", str, where, optional=True)
     slot = _need(item, "slot", str, where, optional=True)
@@ -156,7 +166,9 @@ def season_from_dict(data) -> Season:
     return Season(
         league=_need(data, "league", str, ""),
         season_id=_need(data, "season", str, "", optional=True, default=""),
-        teams=_str_list(data, "teams", ""),
+        teams=tuple(
+            _name(team, f"teams[{i}]") for i, team in enumerate(_str_list(data, "teams", ""))
+        ),
         fixtures=fixtures,
         byes=byes,
         legs=_need(data, "legs", int, "", optional=True, default=1),

@@ -164,3 +164,12 @@ def test_team_names_two_ways_are_one_team(tmp_path):
     path.write_text("Round,Home,Away\n1,Caf\u00e9,Mitte\n2,Mitte,Cafe\u0301\n", encoding="utf-8")
     season = read_schedule_with_rows(path).season
     assert season.teams == ("Caf\u00e9", "Mitte")
+
+
+def test_season_file_team_names_with_controls_are_located():
+    text = json.dumps({"format": "roundrobin-scheduler/season/1", "league": "L",
+                       "teams": ["Ost", "We\u202est"],
+                       "fixtures": [{"round": 1, "home": "Ost", "away": "We\u202est"}]})
+    with pytest.raises(InputError) as info:
+        loads_season(text, source="s.json")
+    assert info.value.location == "s.json: fixtures[0].away" and "U+202E" in info.value.detail

@@ -69,7 +69,7 @@ from scheduler.audit.limits import (
     check_xlsx_members,
     read_bytes_limited,
 )
-from scheduler.audit.season_file import loads_season_bytes
+from scheduler.audit.season_file import loads_season_bytes, season_name_problem
 from scheduler.audit.values import (
     BadCell,
     as_date,
@@ -636,6 +636,9 @@ def read_schedule_with_rows(
         return _read_xlsx(path, timezone, named)
     if kind == "json":
         season = loads_season_bytes(raw, source=str(path))
+        bad_name = season_name_problem(season)
+        if bad_name is not None:
+            raise InputError(bad_name[1], location=f"{path}: {bad_name[0]}")
         return ScheduleFile(
             season=season,
             rows=tuple(None for _ in season.fixtures),

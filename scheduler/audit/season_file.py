@@ -55,15 +55,6 @@ def _kind_name(kinds) -> str:
     return " or ".join(words.get(k, k.__name__) for k in kinds)
 
 
-def _name(text: str, location: str) -> str:
-    """A team name: refused with its place when it holds control, text-direction or unassigned
-    characters (``scheduler.config.names``)."""
-    problem = character_problem(text)
-    if problem:
-        raise InputError(f"the team name {text!r} {problem}", location=location)
-    return text
-
-
 def _str_list(data: dict, key: str, where: str) -> tuple[str, ...]:
     values = _need(data, key, list, where, optional=True, default=[])
     for i, v in enumerate(values):
@@ -89,8 +80,8 @@ def _fixture(item, i: int, zone) -> Fixture:
         raise InputError("a fixture must be an object", location=where)
     rnd = _need(item, "round", int, where)
     leg = _need(item, "leg", int, where, optional=True, default=1)
-    home = _name(_need(item, "home", str, where), f"{where}.home")
-    away = _name(_need(item, "away", str, where), f"{where}.away")
+    home = _need(item, "home", str, where)
+    away = _need(item, "away", str, where)
     venue = _need(item, "venue", str, where, optional=True)
     court = _need(item, "court", str, where, optional=True)
     slot = _need(item, "slot", str, where, optional=True)
@@ -120,6 +111,26 @@ def _fixture(item, i: int, zone) -> Fixture:
         round=rnd, home=home, away=away, leg=leg, venue=venue, court=court, slot=slot,
         date=day, start=start,
     )
+
+
+def season_name_problem(season: Season) -> tuple[str, str] | None:
+    """(place, problem) of the first team name of ``season`` holding a control, text-direction or
+    unassigned character (``scheduler.config.names``), or ``None``.
+
+    Reading a season file back never refuses such names (the writer may hold any season made in
+    memory); the audit of a file from elsewhere does, with this place.
+    """
+    for i, team in enumerate(season.teams):
+        problem = character_problem(team)
+        if problem:
+            return f"teams[{i}]", f"the team name {team!r} {problem}"
+    for i, fixture in enumerate(season.fixtures):
+        for side in ("home", "away"):
+            name = getattr(fixture, side)
+            problem = character_problem(name)
+            if problem:
+                return f"fixtures[{i}].{side}", f"the team name {name!r} {problem}"
+    return None
 
 
 def season_from_dict(data) -> Season:
@@ -166,9 +177,7 @@ def season_from_dict(data) -> Season:
     return Season(
         league=_need(data, "league", str, ""),
         season_id=_need(data, "season", str, "", optional=True, default=""),
-        teams=tuple(
-            _name(team, f"teams[{i}]") for i, team in enumerate(_str_list(data, "teams", ""))
-        ),
+        teams=_str_list(data, "teams", ""),
         fixtures=fixtures,
         byes=byes,
         legs=_need(data, "legs", int, "", optional=True, default=1),

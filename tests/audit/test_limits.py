@@ -166,10 +166,15 @@ def test_team_names_two_ways_are_one_team(tmp_path):
     assert season.teams == ("Caf\u00e9", "Mitte")
 
 
-def test_season_file_team_names_with_controls_are_located():
+def test_audited_season_file_team_names_with_controls_are_located(tmp_path):
     text = json.dumps({"format": "roundrobin-scheduler/season/1", "league": "L",
                        "teams": ["Ost", "We\u202est"],
                        "fixtures": [{"round": 1, "home": "Ost", "away": "We\u202est"}]})
+    # The project's own reader keeps any name (it reads back what the writer wrote) ...
+    assert loads_season(text).teams[1] == "We\u202est"
+    # ... the audit of a file from elsewhere refuses it, with the place.
+    path = tmp_path / "s.json"
+    path.write_text(text, encoding="utf-8")
     with pytest.raises(InputError) as info:
-        loads_season(text, source="s.json")
-    assert info.value.location == "s.json: fixtures[0].away" and "U+202E" in info.value.detail
+        read_schedule_with_rows(path)
+    assert info.value.location == f"{path}: teams[1]" and "U+202E" in info.value.detail

@@ -51,6 +51,7 @@ ahead, which stays far inside the years Python's dates can hold)."""
 MAX_NESTING_DEPTH = 64
 """Deepest nesting of brackets in a league or season file."""
 
+_ISO_DATE = re.compile(r"\s*\d{4}-\d{2}-\d{2}\s*$")
 _QUOTED = re.compile(r'"(?:[^"\\\n]|\\.)*"|\'[^\'\n]*\'')
 _COMMENT = re.compile(r"#[^\n]*")
 
@@ -156,6 +157,6 @@ def _long_lists(value: Any, path: str, depth: int, days: list[int]) -> list[str]
                 problems += _long_lists(item, f"{path}[{i}]", depth + 1, days)
             elif isinstance(item, str) and ".." in item:
                 days[0] += _range_days(item)
-            else:
+            elif isinstance(item, date) or (isinstance(item, str) and _ISO_DATE.match(item)):
                 days[0] += 1
     return problems

@@ -272,3 +272,16 @@ def test_team_codes_for_many_similar_names_are_unique():
     names = [f"Team {i}" for i in range(20_000)]
     got = make_codes(names, [None] * len(names))
     assert len({c.upper() for c in got}) == len(names)
+
+
+def test_only_dates_count_towards_the_date_limit():
+    data = tomllib.loads(TEXT)
+    data["venues"][0]["courts"] = [f"Table {i}" for i in range(limits.MAX_LIST_ENTRIES)]
+    data["calendar"]["excluded"] = [dt.date(2027, 1, 1)] * limits.MAX_LIST_ENTRIES
+    assert limits.count_problems(data) == []  # 10 000 courts are no dates
+    data["rules"]["no_home_games"] = [
+        {"team": "Marrowby Owls", "dates": ["2027-01-01"] * limits.MAX_LIST_ENTRIES}
+        for _ in range(10)
+    ]
+    # 10 000 excluded + 100 000 no-home dates + the sample's own 2 match days.
+    assert "the file names 110002 dates" in limits.count_problems(data)[0]

@@ -9,7 +9,7 @@ The schedule is the circle method with de Werra's home/away rule (de Werra, Anna
 Mathematics 11 (1981) 381-395), built here directly; its check values (n-2 breaks, carry-over
 (n-1)(n^2-6n+12), Lambrechts et al., Math. Programming 172 (2018) 277-302) are asserted.
 
-Run: ``/work/venv/bin/python benchmarks/bench_audit.py [teams] [reference_teams]``.
+Run: ``python benchmarks/bench_audit.py [teams] [reference_teams]``.
 """
 
 from __future__ import annotations
@@ -21,7 +21,7 @@ import time
 from pathlib import Path
 
 from scheduler.audit import audit_file
-from scheduler.export.readers import read_schedule_with_rows
+from scheduler.audit.readers import read_schedule_with_rows
 from scheduler.fairness import compute_fairness
 from scheduler.fairness.validity import validate_season
 from scheduler.season import Fixture, Season

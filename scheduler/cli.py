@@ -214,14 +214,16 @@ def plan(
     quiet: Annotated[bool, typer.Option(help="Print only the output folder.")] = False,
 ) -> None:
     """Plan a season from a league config and write it to the output folder."""
-    from scheduler.balance import plan_season
     from scheduler.config import load_league
-    from scheduler.export import write_season_outputs
-    from scheduler.fairness import compute_fairness
 
     if time_limit is not None and time_limit <= 0:
         raise InputError(f"--time-limit must be a positive number of seconds, got {time_limit}")
+    # The league file's limits are checked before the solver and exporters are even imported.
     league = load_league(config)
+    from scheduler.balance import plan_season
+    from scheduler.export import write_season_outputs
+    from scheduler.fairness import compute_fairness
+
     with _progress(not quiet) as progress:
         result = plan_season(league, seed=seed, time_limit=time_limit, progress=progress)
     season = result.season
@@ -262,11 +264,18 @@ def audit(
         str | None,
         typer.Option(help="IANA time zone of kick-off times written without an offset."),
     ] = None,
+    columns: Annotated[
+        str | None,
+        typer.Option(
+            help="Name the columns by hand, e.g. home=Heim,away=Gast,round=Spieltag,date=Datum "
+            "(fields: round, leg, date, time, home, away, match, venue, court, slot)."
+        ),
+    ] = None,
 ) -> None:
     """Check any schedule and print its fairness figures (exit 1 when it is invalid)."""
-    from scheduler.audit import audit_file
+    from scheduler.audit import audit_file, parse_column_names
 
-    result = audit_file(file, timezone=timezone)
+    result = audit_file(file, timezone=timezone, columns=parse_column_names(columns))
     if report is not None and result.fairness is not None:
         from scheduler.export.report import render_report
         from scheduler.export.safety import atomic_write_text

@@ -13,8 +13,11 @@ from scheduler.calendar.days import (
     rounds_needed,
 )
 from scheduler.calendar.kickoff import game_end, kickoff, local_datetime, parse_slot
+from scheduler.calendar.spec import CalendarLeague, CalendarSpec
 
 __all__ = [
+    "CalendarLeague",
+    "CalendarSpec",
     "days_needed",
     "game_end",
     "kickoff",

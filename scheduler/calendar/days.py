@@ -1,6 +1,6 @@
 """Match days of a season: which dates games may be played on, and how many are needed.
 
-Pure functions of the league's :class:`~scheduler.config.model.CalendarSpec`; no pairing
+Pure functions of the league's :class:`~scheduler.calendar.spec.CalendarSpec`; no pairing
 decisions. The match days are
 
 - exactly ``calendar.dates`` when the league lists them; otherwise
@@ -23,21 +23,21 @@ from datetime import date, timedelta
 
 import holidays as holidays_lib
 
-from scheduler.config.model import CalendarSpec, League
+from scheduler.calendar.spec import CalendarLeague, CalendarSpec
 from scheduler.errors import ConfigError, InputError
 
 MAX_SEARCH_YEARS = 30
 """An open-ended season (no ``calendar.end``) searches at most this many years for match days."""
 
 
-def rounds_needed(league: League) -> int:
+def rounds_needed(league: CalendarLeague) -> int:
     """Rounds of the season: ``legs * (n - 1)`` for even ``n``, ``legs * n`` for odd ``n``."""
     n = len(league.teams)
     per_leg = n - 1 if n % 2 == 0 else n
     return league.format.legs * per_leg
 
 
-def days_needed(league: League) -> int:
+def days_needed(league: CalendarLeague) -> int:
     """Match days the season needs: rounds divided by ``rounds_per_day``, rounded up."""
     per_day = league.calendar.rounds_per_day
     return -(-rounds_needed(league) // per_day)
@@ -59,11 +59,12 @@ def public_holidays(spec: CalendarSpec, first_year: int, last_year: int) -> froz
     return frozenset(days)
 
 
-def _spec_of(league_or_spec: League | CalendarSpec) -> CalendarSpec:
-    if isinstance(league_or_spec, League):
-        return league_or_spec.calendar
+def _spec_of(league_or_spec: CalendarLeague | CalendarSpec) -> CalendarSpec:
     if isinstance(league_or_spec, CalendarSpec):
         return league_or_spec
+    spec = getattr(league_or_spec, "calendar", None)
+    if isinstance(spec, CalendarSpec):
+        return spec
     raise TypeError(f"expected a League or a CalendarSpec, got {type(league_or_spec).__name__}")
 
 
@@ -71,7 +72,9 @@ def _is_candidate(day: date, spec: CalendarSpec, excluded: frozenset[date]) -> b
     return day.weekday() in spec.weekdays and day not in excluded
 
 
-def match_days(league_or_spec: League | CalendarSpec, needed: int | None = None) -> list[date]:
+def match_days(
+    league_or_spec: CalendarLeague | CalendarSpec, needed: int | None = None
+) -> list[date]:
     """The season's match days in date order.
 
     ``needed`` is the number of match days the caller must have. With an open end (no
@@ -81,9 +84,10 @@ def match_days(league_or_spec: League | CalendarSpec, needed: int | None = None)
     when there are fewer than ``needed``.
     """
     spec = _spec_of(league_or_spec)
-    source = league_or_spec.source if isinstance(league_or_spec, League) else None
-    if needed is None and isinstance(league_or_spec, League):
-        needed = days_needed(league_or_spec)
+    league = None if isinstance(league_or_spec, CalendarSpec) else league_or_spec
+    source = league.source if league is not None else None
+    if needed is None and league is not None:
+        needed = days_needed(league)
     if spec.dates:
         days = sorted(set(spec.dates))
     elif spec.end is not None:
@@ -134,7 +138,7 @@ def shortage_message(spec: CalendarSpec, have: int, needed: int) -> str:
     )
 
 
-def round_days(league: League) -> list[date]:
+def round_days(league: CalendarLeague) -> list[date]:
     """The date of each round (index 0 = round 1) when the match days are used in order.
 
     Round ``i`` is on match day ``i // rounds_per_day``. The balancer may instead choose a subset

@@ -21,7 +21,7 @@ import functools
 from datetime import UTC, date, datetime, time, timedelta
 from zoneinfo import ZoneInfo
 
-from scheduler.config.model import League
+from scheduler.calendar.spec import CalendarLeague
 from scheduler.errors import InputError
 
 
@@ -54,7 +54,7 @@ def local_datetime(day: date, clock: time, tz: ZoneInfo) -> datetime:
     return first.astimezone(UTC).astimezone(tz)
 
 
-def kickoff(league: League, day: date, slot: time | str | None = None) -> datetime:
+def kickoff(league: CalendarLeague, day: date, slot: time | str | None = None) -> datetime:
     """When a game of ``league`` on ``day`` in time slot ``slot`` starts (aware datetime).
 
     ``slot`` ``None`` means the league's ``calendar.kickoff``.
@@ -63,7 +63,7 @@ def kickoff(league: League, day: date, slot: time | str | None = None) -> dateti
     return local_datetime(day, clock, zone(league.timezone))
 
 
-def game_end(league: League, start: datetime) -> datetime:
+def game_end(league: CalendarLeague, start: datetime) -> datetime:
     """When a game that starts at ``start`` ends (``calendar.game_minutes`` of elapsed time)."""
     ends = start.astimezone(UTC) + timedelta(minutes=league.calendar.game_minutes)
     return ends.astimezone(start.tzinfo)

@@ -17,6 +17,8 @@ from functools import lru_cache
 
 import holidays as holidays_lib
 
+from scheduler.config.limits import MAX_SEASON_DAYS
+from scheduler.config.names import name_key
 from scheduler.config.schema import LeagueFile, show, suggestion
 
 CODE_RE = re.compile(r"^[A-Za-z0-9][A-Za-z0-9._-]{0,7}$")
@@ -134,11 +136,12 @@ def date_list_problems(
 
 
 def _duplicates(path: str, items: list[str], what: str, field: str = "") -> list[str]:
-    """Repeated names (compared without regard to case)."""
+    """Repeated names, compared by their canonical caseless form (:func:`name_key`: Unicode
+    normalisation and case folding, so "Café" typed two ways and "CAFÉ" are one name)."""
     problems = []
     seen: dict[str, int] = {}
     for i, item in enumerate(items):
-        key = item.casefold()
+        key = name_key(item)
         if key in seen:
             problems.append(
                 f"{path}[{i}]{field}: {show(item)} is listed twice (already at "
@@ -161,7 +164,7 @@ def reference_problems(doc: LeagueFile) -> list[str]:
     problems += timezone_problems(doc.league.timezone)
 
     fmt = doc.format
-    if fmt.side_labels[0].casefold() == fmt.side_labels[1].casefold():
+    if name_key(fmt.side_labels[0]) == name_key(fmt.side_labels[1]):
         problems.append(f"format.side_labels: the two labels must differ, got {fmt.side_labels}")
 
     # --- calendar ---------------------------------------------------------------------------
@@ -175,6 +178,15 @@ def reference_problems(doc: LeagueFile) -> list[str]:
     if cal.start and cal.end and cal.end < cal.start:
         problems.append(
             f"calendar.end: {cal.end.isoformat()} is before calendar.start {cal.start.isoformat()}"
+        )
+    if cal.start and cal.end and (cal.end - cal.start).days > MAX_SEASON_DAYS:
+        problems.append(
+            f"calendar.end: the season from {cal.start.isoformat()} to {cal.end.isoformat()} "
+            f"is {(cal.end - cal.start).days} days long; at most {MAX_SEASON_DAYS} are planned"
+        )
+    if len(dates) > MAX_SEASON_DAYS:
+        problems.append(
+            f"calendar.dates: {len(dates)} match days listed; at most {MAX_SEASON_DAYS} are planned"
         )
     if dates:
         for name in ("weekdays", "excluded", "holidays"):
@@ -237,7 +249,7 @@ def reference_problems(doc: LeagueFile) -> list[str]:
                 f"teams[{i}].code: {show(code)} must be 1-8 letters or digits (also . _ -), "
                 "starting with a letter or digit"
             )
-        key = code.casefold()
+        key = name_key(code)
         if key in seen_codes:
             problems.append(
                 f"teams[{i}].code: {show(code)} is already the code of teams[{seen_codes[key]}]"
@@ -269,13 +281,13 @@ def reference_problems(doc: LeagueFile) -> list[str]:
             'rules.shared_grounds: only used when format.home_meaning = "venue" '
             "(with sides, every game is at the shared venues anyway)"
         )
-    for i, group in enumerate(rules.shared_grounds):
+    for i, sharing in enumerate(rules.shared_grounds):
         path = f"rules.shared_grounds[{i}]"
-        if len(group) < 2:
+        if len(sharing) < 2:
             problems.append(f"{path}: a shared ground needs at least two teams")
-        for j, name in enumerate(group):
-            problems += _team_ref(f"{path}[{j}]", name, team_names)
-        if len({g.casefold() for g in group}) != len(group):
+        for j, team_name in enumerate(sharing):
+            problems += _team_ref(f"{path}[{j}]", team_name, team_names)
+        if len({name_key(member) for member in sharing}) != len(sharing):
             problems.append(f"{path}: a team is listed twice")
     for i, fixed in enumerate(rules.fixed):
         path = f"rules.fixed[{i}]"

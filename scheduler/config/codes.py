@@ -29,10 +29,16 @@ def _ascii_words(name: str) -> list[str]:
     return [w.upper() for w in re.findall(r"[A-Za-z0-9]+", folded)]
 
 
-def _candidates(name: str) -> Iterator[str]:
+def _words(name: str) -> list[str]:
     words = _ascii_words(name)
     if len(words) > 1 and words[0] == "THE":
         words = words[1:]
+    return words
+
+
+def _candidates(name: str) -> Iterator[str]:
+    """Rules 1-3 (the numbered codes of rule 4 are handed out by :func:`make_codes`)."""
+    words = _words(name)
     if not words:
         return
     joined = "".join(words)
@@ -47,19 +53,37 @@ def _candidates(name: str) -> Iterator[str]:
     if len(joined) >= 3:
         for i, j in itertools.combinations(range(1, len(joined)), 2):
             yield joined[0] + joined[i] + joined[j]
-    stem = joined[:2]
-    for k in itertools.count(2):
-        yield f"{stem}{k}"
 
 
 def make_codes(names: Iterable[str], given: Iterable[str | None]) -> tuple[str, ...]:
     """One code per team: the given code where there is one, else a fresh abbreviation.
 
     ``given`` codes are assumed unique already (the checks report clashes among them).
+    Linear in the number of teams: rules 1-3 try at most C(L - 1, 2) + 4 codes for a name of
+    L letters, whatever the league, and the numbers of rule 4 continue per stem where the
+    previous team of that stem stopped (never from 2 again).
+
+    Parameters
+    ----------
+    names
+        The team names, in the league's order.
+    given
+        The code the league file gives each team, or ``None``.
+
+    Returns
+    -------
+    tuple of str
+        One code per team.
+
+    Examples
+    --------
+    >>> make_codes(["Harbour Rovers", "Otters", "Otter Bay"], [None, None, None])
+    ('HAR', 'OTT', 'OBA')
     """
     names = list(names)
     given = list(given)
     taken = {g.upper() for g in given if g}
+    next_number: dict[str, int] = {}
     codes: list[str] = []
     for position, (name, code) in enumerate(zip(names, given, strict=True), start=1):
         if code:
@@ -70,6 +94,14 @@ def make_codes(names: Iterable[str], given: Iterable[str | None]) -> tuple[str, 
             if candidate.upper() not in taken:
                 chosen = candidate
                 break
+        words = _words(name)
+        if chosen is None and words:
+            stem = "".join(words)[:2]
+            k = next_number.get(stem, 2)
+            while f"{stem}{k}".upper() in taken:
+                k += 1
+            next_number[stem] = k + 1
+            chosen = f"{stem}{k}"
         if chosen is None:
             k = position
             while f"T{k:02d}" in taken:

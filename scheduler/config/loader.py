@@ -27,6 +27,7 @@ from pydantic import ValidationError
 from scheduler.config.checks import reference_problems, resolve_holidays, season_window
 from scheduler.config.codes import make_codes
 from scheduler.config.contradictions import season_problems
+from scheduler.config.limits import count_problems
 from scheduler.config.messages import problems_from
 from scheduler.config.model import (
     CalendarSpec,
@@ -75,6 +76,9 @@ def _parse(data: Mapping[str, Any], source: str) -> League:
             [f"expected sections such as league and teams, got {type(data).__name__}"],
             path=source,
         )
+    problems = count_problems(data)
+    if problems:
+        raise ConfigError(problems, path=source)
     try:
         doc = LeagueFile.model_validate(dict(data))
     except ValidationError as exc:

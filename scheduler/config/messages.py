@@ -45,7 +45,9 @@ def _model_in(annotation: Any) -> type[BaseModel] | None:
     return None
 
 
-def model_at(loc: tuple[str | int, ...], root: type[BaseModel] = LeagueFile) -> type | None:
+def model_at(
+    loc: tuple[str | int, ...], root: type[BaseModel] = LeagueFile
+) -> type[BaseModel] | None:
     """The section model that holds the option at ``loc`` (for the list of allowed names)."""
     model: type[BaseModel] | None = root
     for part in loc[:-1]:

@@ -10,6 +10,24 @@ from dataclasses import dataclass, field
 from datetime import date, time
 from typing import Literal
 
+# The calendar section's type belongs to the calendar (which reads it); re-exported here so the
+# whole league configuration is importable from one module.
+from scheduler.calendar.spec import CalendarSpec
+
+__all__ = [
+    "CalendarSpec",
+    "FixedFixture",
+    "Format",
+    "HomeMeaning",
+    "League",
+    "Priorities",
+    "Rules",
+    "Scheme",
+    "Team",
+    "TeamDates",
+    "Venue",
+]
+
 Scheme = Literal["mirrored", "french", "english", "inverted", "free"]
 """How a later leg repeats the pairings of leg 1 (venues swapped); see ``scheduler.balance.legs``.
 """
@@ -53,28 +71,6 @@ class Format:
         """Labels of the home and the away side in grids: the side names when "home" is a side
         or colour, else ``("H", "A")``."""
         return self.side_labels if self.home_meaning == "side" else ("H", "A")
-
-
-@dataclass(frozen=True, slots=True)
-class CalendarSpec:
-    """Which days games may be played and when they start.
-
-    Match days are the dates from ``start`` (up to ``end`` when given) whose weekday is in
-    ``weekdays`` (0 = Monday), minus ``excluded`` and the public holidays of
-    ``holidays_country``/``holidays_subdivision``; or exactly ``dates`` when that is given.
-    ``rounds_per_day`` rounds share one match day.
-    """
-
-    start: date
-    end: date | None = None
-    weekdays: tuple[int, ...] = (5,)
-    excluded: tuple[date, ...] = ()
-    dates: tuple[date, ...] = ()
-    holidays_country: str | None = None
-    holidays_subdivision: str | None = None
-    rounds_per_day: int = 1
-    kickoff: time = time(15, 0)
-    game_minutes: int = 90
 
 
 @dataclass(frozen=True, slots=True)

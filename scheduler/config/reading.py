@@ -23,6 +23,7 @@ from typing import Any
 
 import yaml
 
+from scheduler.config.limits import MAX_LEAGUE_FILE_BYTES, MAX_NESTING_DEPTH, nesting_depth
 from scheduler.errors import ConfigError
 
 TOML_SUFFIXES = (".toml",)
@@ -101,16 +102,30 @@ def parse_text(text: str, kind: str, *, path: str = "<config>") -> dict[str, Any
     """Parse league text of ``kind`` ``"toml"`` or ``"yaml"`` into a dict."""
     if not text.strip():
         raise ConfigError(["the file is empty; start from `scheduler new`"], path=path)
+    depth = nesting_depth(text, comments=True)
+    if depth > MAX_NESTING_DEPTH:
+        raise ConfigError(
+            [f"the file nests lists or tables {depth} levels deep; at most "
+             f"{MAX_NESTING_DEPTH} are read"],
+            path=path,
+        )
+    too_deep = ConfigError(
+        [f"the file nests lists or tables more than {MAX_NESTING_DEPTH} levels deep"], path=path
+    )
     if kind == "toml":
         try:
             data: Any = tomllib.loads(text)
         except tomllib.TOMLDecodeError as exc:
             raise ConfigError([_toml_problem(exc)], path=path) from None
+        except RecursionError:
+            raise too_deep from None
     elif kind == "yaml":
         try:
             documents = list(yaml.load_all(text, Loader=LeagueYamlLoader))
         except yaml.YAMLError as exc:
             raise ConfigError([_yaml_problem(exc)], path=path) from None
+        except RecursionError:  # block nesting by indentation, which has no brackets
+            raise too_deep from None
         documents = [d for d in documents if d is not None]
         if len(documents) > 1:
             raise ConfigError(
@@ -154,6 +169,16 @@ def read_file(path: str | Path) -> dict[str, Any]:
     """Read and parse a league file; every failure is a :class:`ConfigError`."""
     p = Path(path)
     kind = file_kind(p)
+    try:
+        size = p.stat().st_size if p.is_file() else 0
+    except OSError:
+        size = 0
+    if size > MAX_LEAGUE_FILE_BYTES:
+        raise ConfigError(
+            [f"the file is {size / (1024 * 1024):.1f} MB; league files over "
+             f"{MAX_LEAGUE_FILE_BYTES // (1024 * 1024)} MB are not read"],
+            path=str(p),
+        )
     try:
         raw = p.read_bytes()
     except FileNotFoundError:

@@ -28,6 +28,9 @@ from typing import Annotated, Any
 from pydantic import AfterValidator, BaseModel, BeforeValidator, ConfigDict, Field
 from pydantic_core import PydanticCustomError
 
+from scheduler.config.limits import MAX_ADDRESS_CHARS, MAX_NAME_CHARS, MAX_YEAR, MIN_YEAR
+from scheduler.config.names import character_problem, normal_form
+
 SCHEMES = ("mirrored", "french", "english", "inverted", "free")
 HOME_MEANINGS = ("venue", "side")
 GOALS = ("mixing", "breaks", "venue_balance", "slot_balance", "carry_over")
@@ -99,16 +102,26 @@ def _scalar_or_list(value: Any) -> Any:
     return _as_list(value)
 
 
+def _in_range(day: dt.date) -> dt.date:
+    if not MIN_YEAR <= day.year <= MAX_YEAR:
+        raise _fail(
+            f"{day.isoformat()} is outside the supported years {MIN_YEAR} to {MAX_YEAR}"
+        )
+    return day
+
+
 def _parse_date(value: Any) -> dt.date:
     if isinstance(value, dt.datetime):
         raise _fail(f"expected a date without a time of day, got {show(value)}")
     if isinstance(value, dt.date):
-        return value
+        return _in_range(value)
     if isinstance(value, str):
         try:
-            return dt.date.fromisoformat(value.strip())
+            day = dt.date.fromisoformat(value.strip())
         except ValueError:
             pass
+        else:
+            return _in_range(day)
         raise _fail(f"expected a date like 2027-04-17, got {show(value)}")
     raise _fail(f"expected a date like 2027-04-17, got {show(value)}")
 
@@ -126,6 +139,7 @@ def _date_or_range(value: Any) -> tuple[dt.date, ...]:
             raise _fail(
                 f'expected a date range like "2027-07-01..2027-08-31", got {show(value)}'
             ) from None
+        _in_range(a), _in_range(b)
         if b < a:
             raise _fail(f"the range {show(value)} ends before it starts")
         days = (b - a).days + 1
@@ -188,16 +202,32 @@ def _choice(options: tuple[str, ...], what: str):
     return check
 
 
-def _strip_nonempty(value: str) -> str:
+def _clean_text(value: str, limit: int) -> str:
     text = value.strip()
     if not text:
         raise ValueError("must not be empty")
+    problem = character_problem(text)
+    if problem:
+        raise _fail(f"{show(text)} {problem}")
+    text = normal_form(text)
+    if len(text) > limit:
+        raise _fail(f"{show(text)} is {len(text)} characters long; at most {limit} are allowed")
     return text
+
+
+def _strip_nonempty(value: str) -> str:
+    """Names: stripped, not empty, no control or unassigned characters, NFC, short."""
+    return _clean_text(value, MAX_NAME_CHARS)
+
+
+def _address(value: str) -> str:
+    return _clean_text(value, MAX_ADDRESS_CHARS)
 
 
 # ---- reusable field types --------------------------------------------------------------------
 
 Text = Annotated[str, AfterValidator(_strip_nonempty)]
+AddressText = Annotated[str, AfterValidator(_address)]
 Date = Annotated[dt.date, BeforeValidator(_date)]
 DateList = Annotated[
     list[Annotated[tuple[dt.date, ...], BeforeValidator(_date_or_range)]],
@@ -257,7 +287,7 @@ class VenueSection(Section):
     name: Text
     courts: Annotated[TextList, Field(min_length=1)] = ["Main"]
     slots: Annotated[list[Clock], BeforeValidator(_as_list)] = []
-    address: Text | None = None
+    address: AddressText | None = None
 
 
 class TeamSection(Section):

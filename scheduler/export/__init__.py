@@ -8,7 +8,7 @@ themselves, they write what ``scheduler.fairness`` measured.
 * ``report``: :func:`render_report` (one self-contained HTML page)
 * ``bundle``: :func:`write_season_outputs` (the output folder, every file written atomically)
 * ``safety``: formula-injection defence, safe file names, atomic writes
-* ``season_json`` / ``readers``: the season file and schedule readers
+* ``season_json``: the season file (its reading side is ``scheduler.audit.season_file``)
 """
 
 from scheduler.export.bundle import write_season_outputs

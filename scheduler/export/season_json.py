@@ -23,7 +23,8 @@ Layout (format tag :data:`FORMAT`; keys always in this order)::
     }
 
 "place" and "time" are written for readers' convenience and ignored when reading; "fairness"
-is ignored too (figures are always recomputed from the fixtures). Output is deterministic:
+is ignored too (figures are always recomputed from the fixtures). Reading is
+``scheduler.audit.season_file`` (re-exported here). Output is deterministic:
 fixtures in the season's order, UTF-8 without ASCII escapes, two-space indent, one trailing
 newline (JSON: RFC 8259; date-times: ISO 8601 / RFC 3339 with offset).
 """
@@ -31,19 +32,32 @@ newline (JSON: RFC 8259; date-times: ISO 8601 / RFC 3339 with offset).
 from __future__ import annotations
 
 import json
-from datetime import date, datetime
-from pathlib import Path
-from zoneinfo import ZoneInfo, ZoneInfoNotFoundError
 
-from scheduler.errors import InputError
+# The reading side lives with the audit's input side; it is re-exported here so callers that
+# read back the season they wrote (the output folder) keep one import.
+from scheduler.audit.season_file import (
+    FORMAT,
+    FORMAT_PREFIX,
+    SUPPORTED_VERSIONS,
+    load_season_json,
+    loads_season,
+    loads_season_bytes,
+    season_from_dict,
+)
 from scheduler.fairness.model import FairnessReport
-from scheduler.season import Fixture, MixingInfo, Season
+from scheduler.season import Fixture, Season
 
-FORMAT = "roundrobin-scheduler/season/1"
-"""The format tag written into every file; the number after the last slash is the version."""
-
-FORMAT_PREFIX = "roundrobin-scheduler/season/"
-SUPPORTED_VERSIONS = (1,)
+__all__ = [
+    "FORMAT",
+    "FORMAT_PREFIX",
+    "SUPPORTED_VERSIONS",
+    "dumps_season",
+    "load_season_json",
+    "loads_season",
+    "loads_season_bytes",
+    "season_from_dict",
+    "season_to_dict",
+]
 
 
 def _fixture_dict(f: Fixture) -> dict:
@@ -97,184 +111,3 @@ def dumps_season(season: Season, fairness: FairnessReport | None = None) -> str:
     """``season.json`` text: deterministic, UTF-8 (no ASCII escapes), indent 2, final newline."""
     data = season_to_dict(season, fairness)
     return json.dumps(data, ensure_ascii=False, indent=2, allow_nan=False) + "\n"
-
-
-# --------------------------------------------------------------------------- reading
-
-
-def _need(data: dict, key: str, kinds, where: str, *, optional: bool = False, default=None):
-    if key not in data or data[key] is None:
-        if optional:
-            return default
-        raise InputError(f"missing {key!r}", location=f"{where}.{key}" if where else key)
-    value = data[key]
-    if isinstance(value, bool) and bool not in (kinds if isinstance(kinds, tuple) else (kinds,)):
-        raise InputError(f"{key!r} must be {_kind_name(kinds)}", location=_loc(where, key))
-    if not isinstance(value, kinds):
-        raise InputError(
-            f"{key!r} must be {_kind_name(kinds)}, got {type(value).__name__}",
-            location=_loc(where, key),
-        )
-    return value
-
-
-def _loc(where: str, key: str) -> str:
-    return f"{where}.{key}" if where else key
-
-
-def _kind_name(kinds) -> str:
-    kinds = kinds if isinstance(kinds, tuple) else (kinds,)
-    words = {str: "text", int: "a whole number", bool: "true or false", list: "a list",
-             dict: "an object"}
-    return " or ".join(words.get(k, k.__name__) for k in kinds)
-
-
-def _str_list(data: dict, key: str, where: str) -> tuple[str, ...]:
-    values = _need(data, key, list, where, optional=True, default=[])
-    for i, v in enumerate(values):
-        if not isinstance(v, str):
-            raise InputError(
-                f"entries of {key!r} must be text", location=f"{_loc(where, key)}[{i}]"
-            )
-    return tuple(values)
-
-
-def _zone(name: str | None):
-    if not name:
-        return None
-    try:
-        return ZoneInfo(name)
-    except (ZoneInfoNotFoundError, ValueError) as exc:
-        raise InputError(f"unknown time zone {name!r}", location="timezone") from exc
-
-
-def _fixture(item, i: int, zone) -> Fixture:
-    where = f"fixtures[{i}]"
-    if not isinstance(item, dict):
-        raise InputError("a fixture must be an object", location=where)
-    rnd = _need(item, "round", int, where)
-    leg = _need(item, "leg", int, where, optional=True, default=1)
-    home = _need(item, "home", str, where)
-    away = _need(item, "away", str, where)
-    venue = _need(item, "venue", str, where, optional=True)
-    court = _need(item, "court", str, where, optional=True)
-    slot = _need(item, "slot", str, where, optional=True)
-    day_text = _need(item, "date", str, where, optional=True)
-    start_text = _need(item, "start", str, where, optional=True)
-    day = None
-    if day_text is not None:
-        try:
-            day = date.fromisoformat(day_text)
-        except ValueError as exc:
-            raise InputError(f"not an ISO date: {day_text!r}", location=f"{where}.date") from exc
-    start = None
-    if start_text is not None:
-        try:
-            start = datetime.fromisoformat(start_text)
-        except ValueError as exc:
-            raise InputError(
-                f"not an ISO date-time: {start_text!r}", location=f"{where}.start"
-            ) from exc
-        if start.tzinfo is None:
-            raise InputError(
-                f"the start {start_text!r} has no UTC offset", location=f"{where}.start"
-            )
-        if zone is not None:
-            start = start.astimezone(zone)
-    return Fixture(
-        round=rnd, home=home, away=away, leg=leg, venue=venue, court=court, slot=slot,
-        date=day, start=start,
-    )
-
-
-def season_from_dict(data) -> Season:
-    """Rebuild a :class:`Season` from :func:`season_to_dict` output; located
-    :class:`InputError` on anything malformed. Kick-offs are put in the season's time zone."""
-    if not isinstance(data, dict):
-        raise InputError("a season file must hold one JSON object", location="(top level)")
-    tag = data.get("format")
-    if not isinstance(tag, str) or not tag.startswith(FORMAT_PREFIX):
-        raise InputError(
-            f"not a season file of this tool (format tag {tag!r}, expected {FORMAT!r})",
-            location="format",
-        )
-    version = tag[len(FORMAT_PREFIX):]
-    if not version.isdigit() or int(version) not in SUPPORTED_VERSIONS:
-        raise InputError(
-            f"season file version {version!r} is not supported (supported: "
-            f"{', '.join(map(str, SUPPORTED_VERSIONS))})",
-            location="format",
-        )
-    timezone = _need(data, "timezone", str, "", optional=True)
-    zone = _zone(timezone)
-    raw_fixtures = _need(data, "fixtures", list, "")
-    fixtures = tuple(_fixture(item, i, zone) for i, item in enumerate(raw_fixtures))
-    raw_byes = _need(data, "byes", dict, "", optional=True, default={})
-    byes: dict[int, tuple[str, ...]] = {}
-    for key, names in raw_byes.items():
-        if not str(key).lstrip("-").isdigit():
-            raise InputError(f"bye round {key!r} is not a number", location=f"byes.{key}")
-        if not isinstance(names, list) or not all(isinstance(x, str) for x in names):
-            raise InputError("byes must list team names", location=f"byes.{key}")
-        byes[int(key)] = tuple(names)
-    byes = dict(sorted(byes.items()))
-    mixing = None
-    raw_mixing = _need(data, "mixing", dict, "", optional=True)
-    if raw_mixing is not None:
-        mixing = MixingInfo(
-            method=_need(raw_mixing, "method", str, "mixing"),
-            source=_need(raw_mixing, "source", str, "mixing"),
-            perfect=_need(raw_mixing, "perfect", bool, "mixing"),
-            perfect_pairs=_need(raw_mixing, "perfect_pairs", int, "mixing"),
-            pairs=_need(raw_mixing, "pairs", int, "mixing"),
-        )
-    return Season(
-        league=_need(data, "league", str, ""),
-        season_id=_need(data, "season", str, "", optional=True, default=""),
-        teams=_str_list(data, "teams", ""),
-        fixtures=fixtures,
-        byes=byes,
-        legs=_need(data, "legs", int, "", optional=True, default=1),
-        scheme=_need(data, "scheme", str, "", optional=True, default="mirrored"),
-        timezone=timezone,
-        venues=_str_list(data, "venues", ""),
-        mixing=mixing,
-        seed=_need(data, "seed", int, "", optional=True, default=0),
-        notes=_str_list(data, "notes", ""),
-        revision=_need(data, "revision", str, "", optional=True, default=""),
-    )
-
-
-def loads_season(text: str, *, source: str = "season.json") -> Season:
-    """Parse ``season.json`` text (``source`` names it in error locations)."""
-    try:
-        data = json.loads(text)
-    except json.JSONDecodeError as exc:
-        raise InputError(
-            f"not valid JSON: {exc.msg}",
-            location=f"{source}: line {exc.lineno}, column {exc.colno}",
-        ) from exc
-    try:
-        return season_from_dict(data)
-    except InputError as exc:
-        raise InputError(exc.detail, location=f"{source}: {exc.location}") from exc
-
-
-def load_season_json(path: str | Path) -> Season:
-    """Read a ``season.json`` file (size-limited, UTF-8 with or without BOM)."""
-    from scheduler.export.readers import read_bytes_limited
-
-    path = Path(path)
-    return loads_season_bytes(read_bytes_limited(path), source=str(path))
-
-
-def loads_season_bytes(raw: bytes, *, source: str) -> Season:
-    """A season from the bytes of a ``season.json`` (UTF-8 with or without BOM)."""
-    try:
-        text = raw.decode("utf-8-sig")
-    except UnicodeDecodeError as exc:
-        raise InputError(
-            f"a season file must be UTF-8 (undecodable byte at offset {exc.start})",
-            location=source,
-        ) from exc
-    return loads_season(text, source=source)

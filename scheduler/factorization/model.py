@@ -8,48 +8,17 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field
 
+# The verifier's result types live with the verifier; they are re-exported here so the value
+# types of the engine stay importable from one module.
+from scheduler.factorization.verify import Certificate, ImperfectPair, verify_rounds
+
+__all__ = ["Certificate", "Factorization", "Game", "ImperfectPair", "Round", "normalise_round"]
+
 Game = tuple[int, int]
 """A game between two vertices, stored with the smaller vertex first."""
 
 Round = tuple[Game, ...]
 """A perfect matching of K_n: n/2 games, sorted."""
-
-
-@dataclass(frozen=True, slots=True)
-class ImperfectPair:
-    """Two rounds whose union is not one Hamiltonian cycle; ``cycles`` are its cycle lengths."""
-
-    first: int
-    second: int
-    cycles: tuple[int, ...]
-
-    @property
-    def label(self) -> str:
-        """Cycle lengths joined with ``+``, e.g. ``"4+6"``."""
-        return "+".join(str(c) for c in self.cycles)
-
-
-@dataclass(frozen=True)
-class Certificate:
-    """What the independent verifier established about a factorization.
-
-    ``valid`` means: every round is a perfect matching of K_n and every pair of vertices meets in
-    exactly one round. ``perfect_pairs`` counts pairs of rounds whose union is a Hamiltonian
-    cycle, out of ``pairs`` = C(n-1, 2). ``imperfect`` lists (some of) the other pairs with their
-    cycle lengths; ``imperfect_total`` is their full number.
-    """
-
-    n: int
-    valid: bool
-    perfect_pairs: int
-    pairs: int
-    problems: tuple[str, ...] = ()
-    imperfect: tuple[ImperfectPair, ...] = ()
-    imperfect_total: int = 0
-
-    @property
-    def perfect(self) -> bool:
-        return self.valid and self.perfect_pairs == self.pairs
 
 
 @dataclass(frozen=True)
@@ -89,8 +58,6 @@ class Factorization:
 
     def certificate(self, *, max_listed: int = 50) -> Certificate:
         """Run the independent verifier (``scheduler.factorization.verify``)."""
-        from scheduler.factorization.verify import verify_rounds
-
         return verify_rounds(self.n, self.rounds, max_listed=max_listed)
 
     def relabel(self, mapping: list[int] | tuple[int, ...]) -> Factorization:

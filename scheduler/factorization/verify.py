@@ -33,17 +33,54 @@ Rounds and vertices in messages are numbered from 0, as in
 from __future__ import annotations
 
 from collections.abc import Iterable, Sequence
+from dataclasses import dataclass
 
 import numpy as np
 
 from scheduler.errors import InputError
-from scheduler.factorization.model import Certificate, ImperfectPair
 
 MAX_PROBLEMS = 30
 """How many problems are spelled out; the rest are summarised in one line."""
 
 _BLOCK = 1 << 16
 """Pairs of rounds walked together in one numpy block."""
+
+
+@dataclass(frozen=True, slots=True)
+class ImperfectPair:
+    """Two rounds whose union is not one Hamiltonian cycle; ``cycles`` are its cycle lengths."""
+
+    first: int
+    second: int
+    cycles: tuple[int, ...]
+
+    @property
+    def label(self) -> str:
+        """Cycle lengths joined with ``+``, e.g. ``"4+6"``."""
+        return "+".join(str(c) for c in self.cycles)
+
+
+@dataclass(frozen=True)
+class Certificate:
+    """What the independent verifier established about a factorization.
+
+    ``valid`` means: every round is a perfect matching of K_n and every pair of vertices meets in
+    exactly one round. ``perfect_pairs`` counts pairs of rounds whose union is a Hamiltonian
+    cycle, out of ``pairs`` = C(n-1, 2). ``imperfect`` lists (some of) the other pairs with their
+    cycle lengths; ``imperfect_total`` is their full number.
+    """
+
+    n: int
+    valid: bool
+    perfect_pairs: int
+    pairs: int
+    problems: tuple[str, ...] = ()
+    imperfect: tuple[ImperfectPair, ...] = ()
+    imperfect_total: int = 0
+
+    @property
+    def perfect(self) -> bool:
+        return self.valid and self.perfect_pairs == self.pairs
 
 
 class _Problems:

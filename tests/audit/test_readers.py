@@ -13,9 +13,9 @@ from zoneinfo import ZoneInfo
 import openpyxl
 import pytest
 
+from scheduler.audit import limits
+from scheduler.audit.readers import read_schedule, read_schedule_with_rows
 from scheduler.errors import InputError
-from scheduler.export import readers
-from scheduler.export.readers import read_schedule, read_schedule_with_rows
 from scheduler.export.season_json import dumps_season
 from tests.fairness.constructions import canonical_rounds, double_round_robin
 
@@ -193,16 +193,16 @@ def test_missing_file(tmp_path):
 
 def test_file_too_big_is_refused_before_reading(tmp_path, monkeypatch):
     path = _write(tmp_path, "big.csv", "Round,Home,Away\n" + "1,A,B\n" * 100)
-    monkeypatch.setattr(readers, "MAX_FILE_BYTES", 64)
+    monkeypatch.setattr(limits, "MAX_FILE_BYTES", 64)
     monkeypatch.setattr(type(path), "read_bytes", lambda self: pytest.fail("file was read"))
     with pytest.raises(InputError) as info:
         read_schedule(path)
     assert "64 bytes" in str(info.value) and "big.csv" in info.value.location
-    assert readers.MAX_FILE_BYTES == 64 and "100 MB" not in str(info.value)
+    assert limits.MAX_FILE_BYTES == 64 and "100 MB" not in str(info.value)
 
 
 def test_default_limit_is_100_mb():
-    assert readers.MAX_FILE_BYTES == 100 * 1024 * 1024
+    assert limits.MAX_FILE_BYTES == 100 * 1024 * 1024
 
 
 def test_xlsx_without_a_usable_sheet(tmp_path):

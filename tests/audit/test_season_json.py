@@ -15,8 +15,8 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
+from scheduler.audit.readers import read_schedule
 from scheduler.errors import InputError
-from scheduler.export.readers import read_schedule
 from scheduler.export.season_json import (
     FORMAT,
     dumps_season,

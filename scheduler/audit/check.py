@@ -1,7 +1,7 @@
 """Audit any schedule file: is it a valid round robin, and how fair is it?
 
 :func:`audit_file` reads a CSV, xlsx or season.json schedule
-(:func:`scheduler.export.readers.read_schedule_with_rows`), checks it
+(:func:`scheduler.audit.readers.read_schedule_with_rows`), checks it
 (:func:`scheduler.fairness.validity.validate_season`, problems naming the source rows) and
 measures it (:func:`scheduler.fairness.compute_fairness`). The figures are measured even for an
 invalid schedule, as far as they can be (a team playing twice in a round, for example, makes
@@ -12,11 +12,11 @@ invalid schedule to exit code 1.
 
 from __future__ import annotations
 
-from collections.abc import Sequence
+from collections.abc import Mapping, Sequence
 from dataclasses import dataclass
 from pathlib import Path
 
-from scheduler.export.readers import ScheduleFile, read_schedule_with_rows
+from scheduler.audit.readers import ScheduleFile, read_schedule_with_rows
 from scheduler.fairness import FairnessReport, compute_fairness
 from scheduler.fairness.validity import Problem, validate_season
 from scheduler.season import Season
@@ -89,9 +89,35 @@ def audit_season(season: Season, rows: Sequence[int | None] | None = None) -> Au
     )
 
 
-def audit_file(path: str | Path, *, timezone: str | None = None) -> AuditResult:
-    """Read, check and measure the schedule in ``path`` (CSV, xlsx or season.json)."""
-    source = read_schedule_with_rows(path, timezone=timezone)
+def audit_file(
+    path: str | Path,
+    *,
+    timezone: str | None = None,
+    columns: Mapping[str, str] | None = None,
+) -> AuditResult:
+    """Read, check and measure the schedule in ``path`` (CSV, xlsx or season.json).
+
+    Parameters
+    ----------
+    path
+        The schedule file.
+    timezone
+        IANA time zone of kick-off times written without a UTC offset.
+    columns
+        Fields named by hand (field -> header text), for headers outside the vocabulary of
+        :mod:`scheduler.audit.headers`.
+
+    Returns
+    -------
+    AuditResult
+        Validity, problems naming the source rows, and the fairness figures.
+
+    Raises
+    ------
+    InputError
+        Unusable input (the CLI's exit code 2), with its location.
+    """
+    source = read_schedule_with_rows(path, timezone=timezone, columns=columns)
     rows = source.rows if any(r is not None for r in source.rows) else None
     result = audit_season(source.season, rows)
     return AuditResult(

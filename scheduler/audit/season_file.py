@@ -1,0 +1,227 @@
+"""Read ``season.json``, the project's own season file, back into a :class:`Season`.
+
+The layout is documented with the writer (``scheduler.export.season_json``); both share the
+format tag :data:`FORMAT`. Every malformed document raises a located
+:class:`~scheduler.errors.InputError` (``fixtures[3].start``); the text is refused before parsing
+when it is bigger than the limits of ``scheduler.audit.limits`` or nested deeper than
+:data:`~scheduler.audit.limits.MAX_NESTING_DEPTH`. "place", "time" and "fairness" are ignored:
+the figures are always recomputed from the fixtures.
+"""
+
+from __future__ import annotations
+
+import json
+from datetime import date, datetime
+from pathlib import Path
+from zoneinfo import ZoneInfo, ZoneInfoNotFoundError
+
+from scheduler.audit.limits import check_nesting, read_bytes_limited
+from scheduler.config.names import character_problem
+from scheduler.errors import InputError
+from scheduler.season import Fixture, MixingInfo, Season
+
+FORMAT = "roundrobin-scheduler/season/1"
+"""The format tag written into every file; the number after the last slash is the version."""
+
+FORMAT_PREFIX = "roundrobin-scheduler/season/"
+SUPPORTED_VERSIONS = (1,)
+
+
+
+def _need(data: dict, key: str, kinds, where: str, *, optional: bool = False, default=None):
+    if key not in data or data[key] is None:
+        if optional:
+            return default
+        raise InputError(f"missing {key!r}", location=f"{where}.{key}" if where else key)
+    value = data[key]
+    if isinstance(value, bool) and bool not in (kinds if isinstance(kinds, tuple) else (kinds,)):
+        raise InputError(f"{key!r} must be {_kind_name(kinds)}", location=_loc(where, key))
+    if not isinstance(value, kinds):
+        raise InputError(
+            f"{key!r} must be {_kind_name(kinds)}, got {type(value).__name__}",
+            location=_loc(where, key),
+        )
+    return value
+
+
+def _loc(where: str, key: str) -> str:
+    return f"{where}.{key}" if where else key
+
+
+def _kind_name(kinds) -> str:
+    kinds = kinds if isinstance(kinds, tuple) else (kinds,)
+    words = {str: "text", int: "a whole number", bool: "true or false", list: "a list",
+             dict: "an object"}
+    return " or ".join(words.get(k, k.__name__) for k in kinds)
+
+
+def _str_list(data: dict, key: str, where: str) -> tuple[str, ...]:
+    values = _need(data, key, list, where, optional=True, default=[])
+    for i, v in enumerate(values):
+        if not isinstance(v, str):
+            raise InputError(
+                f"entries of {key!r} must be text", location=f"{_loc(where, key)}[{i}]"
+            )
+    return tuple(values)
+
+
+def _zone(name: str | None):
+    if not name:
+        return None
+    try:
+        return ZoneInfo(name)
+    except (ZoneInfoNotFoundError, ValueError) as exc:
+        raise InputError(f"unknown time zone {name!r}", location="timezone") from exc
+
+
+def _fixture(item, i: int, zone) -> Fixture:
+    where = f"fixtures[{i}]"
+    if not isinstance(item, dict):
+        raise InputError("a fixture must be an object", location=where)
+    rnd = _need(item, "round", int, where)
+    leg = _need(item, "leg", int, where, optional=True, default=1)
+    home = _need(item, "home", str, where)
+    away = _need(item, "away", str, where)
+    venue = _need(item, "venue", str, where, optional=True)
+    court = _need(item, "court", str, where, optional=True)
+    slot = _need(item, "slot", str, where, optional=True)
+    day_text = _need(item, "date", str, where, optional=True)
+    start_text = _need(item, "start", str, where, optional=True)
+    day = None
+    if day_text is not None:
+        try:
+            day = date.fromisoformat(day_text)
+        except ValueError as exc:
+            raise InputError(f"not an ISO date: {day_text!r}", location=f"{where}.date") from exc
+    start = None
+    if start_text is not None:
+        try:
+            start = datetime.fromisoformat(start_text)
+        except ValueError as exc:
+            raise InputError(
+                f"not an ISO date-time: {start_text!r}", location=f"{where}.start"
+            ) from exc
+        if start.tzinfo is None:
+            raise InputError(
+                f"the start {start_text!r} has no UTC offset", location=f"{where}.start"
+            )
+        if zone is not None:
+            start = start.astimezone(zone)
+    return Fixture(
+        round=rnd, home=home, away=away, leg=leg, venue=venue, court=court, slot=slot,
+        date=day, start=start,
+    )
+
+
+def season_name_problem(season: Season) -> tuple[str, str] | None:
+    """(place, problem) of the first team name of ``season`` holding a control, text-direction or
+    unassigned character (``scheduler.config.names``), or ``None``.
+
+    Reading a season file back never refuses such names (the writer may hold any season made in
+    memory); the audit of a file from elsewhere does, with this place.
+    """
+    for i, team in enumerate(season.teams):
+        problem = character_problem(team)
+        if problem:
+            return f"teams[{i}]", f"the team name {team!r} {problem}"
+    for i, fixture in enumerate(season.fixtures):
+        for side in ("home", "away"):
+            name = getattr(fixture, side)
+            problem = character_problem(name)
+            if problem:
+                return f"fixtures[{i}].{side}", f"the team name {name!r} {problem}"
+    return None
+
+
+def season_from_dict(data) -> Season:
+    """Rebuild a :class:`Season` from :func:`season_to_dict` output; located
+    :class:`InputError` on anything malformed. Kick-offs are put in the season's time zone."""
+    if not isinstance(data, dict):
+        raise InputError("a season file must hold one JSON object", location="(top level)")
+    tag = data.get("format")
+    if not isinstance(tag, str) or not tag.startswith(FORMAT_PREFIX):
+        raise InputError(
+            f"not a season file of this tool (format tag {tag!r}, expected {FORMAT!r})",
+            location="format",
+        )
+    version = tag[len(FORMAT_PREFIX):]
+    if not version.isdigit() or int(version) not in SUPPORTED_VERSIONS:
+        raise InputError(
+            f"season file version {version!r} is not supported (supported: "
+            f"{', '.join(map(str, SUPPORTED_VERSIONS))})",
+            location="format",
+        )
+    timezone = _need(data, "timezone", str, "", optional=True)
+    zone = _zone(timezone)
+    raw_fixtures = _need(data, "fixtures", list, "")
+    fixtures = tuple(_fixture(item, i, zone) for i, item in enumerate(raw_fixtures))
+    raw_byes = _need(data, "byes", dict, "", optional=True, default={})
+    byes: dict[int, tuple[str, ...]] = {}
+    for key, names in raw_byes.items():
+        if not str(key).lstrip("-").isdigit():
+            raise InputError(f"bye round {key!r} is not a number", location=f"byes.{key}")
+        if not isinstance(names, list) or not all(isinstance(x, str) for x in names):
+            raise InputError("byes must list team names", location=f"byes.{key}")
+        byes[int(key)] = tuple(names)
+    byes = dict(sorted(byes.items()))
+    mixing = None
+    raw_mixing = _need(data, "mixing", dict, "", optional=True)
+    if raw_mixing is not None:
+        mixing = MixingInfo(
+            method=_need(raw_mixing, "method", str, "mixing"),
+            source=_need(raw_mixing, "source", str, "mixing"),
+            perfect=_need(raw_mixing, "perfect", bool, "mixing"),
+            perfect_pairs=_need(raw_mixing, "perfect_pairs", int, "mixing"),
+            pairs=_need(raw_mixing, "pairs", int, "mixing"),
+        )
+    return Season(
+        league=_need(data, "league", str, ""),
+        season_id=_need(data, "season", str, "", optional=True, default=""),
+        teams=_str_list(data, "teams", ""),
+        fixtures=fixtures,
+        byes=byes,
+        legs=_need(data, "legs", int, "", optional=True, default=1),
+        scheme=_need(data, "scheme", str, "", optional=True, default="mirrored"),
+        timezone=timezone,
+        venues=_str_list(data, "venues", ""),
+        mixing=mixing,
+        seed=_need(data, "seed", int, "", optional=True, default=0),
+        notes=_str_list(data, "notes", ""),
+        revision=_need(data, "revision", str, "", optional=True, default=""),
+    )
+
+
+def loads_season(text: str, *, source: str = "season.json") -> Season:
+    """Parse ``season.json`` text (``source`` names it in error locations)."""
+    check_nesting(text, source)
+    try:
+        data = json.loads(text)
+    except json.JSONDecodeError as exc:
+        raise InputError(
+            f"not valid JSON: {exc.msg}",
+            location=f"{source}: line {exc.lineno}, column {exc.colno}",
+        ) from exc
+    except RecursionError as exc:  # nesting the bracket count could not see
+        raise InputError("the file nests lists or objects too deeply", location=source) from exc
+    try:
+        return season_from_dict(data)
+    except InputError as exc:
+        raise InputError(exc.detail, location=f"{source}: {exc.location}") from exc
+
+
+def load_season_json(path: str | Path) -> Season:
+    """Read a ``season.json`` file (size-limited, UTF-8 with or without BOM)."""
+    path = Path(path)
+    return loads_season_bytes(read_bytes_limited(path), source=str(path))
+
+
+def loads_season_bytes(raw: bytes, *, source: str) -> Season:
+    """A season from the bytes of a ``season.json`` (UTF-8 with or without BOM)."""
+    try:
+        text = raw.decode("utf-8-sig")
+    except UnicodeDecodeError as exc:
+        raise InputError(
+            f"a season file must be UTF-8 (undecodable byte at offset {exc.start})",
+            location=source,
+        ) from exc
+    return loads_season(text, source=source)

@@ -214,10 +214,10 @@ def plan(
     quiet: Annotated[bool, typer.Option(help="Print only the output folder.")] = False,
 ) -> None:
     """Plan a season from a league config and write it to the output folder."""
-    from scheduler.balance import plan_season
     from scheduler.config import load_league
     from scheduler.export import write_season_outputs
     from scheduler.fairness import compute_fairness
+    from scheduler.plan import plan_season
 
     if time_limit is not None and time_limit <= 0:
         raise InputError(f"--time-limit must be a positive number of seconds, got {time_limit}")

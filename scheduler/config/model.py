@@ -11,7 +11,7 @@ from datetime import date, time
 from typing import Literal
 
 Scheme = Literal["mirrored", "french", "english", "inverted", "free"]
-"""How a later leg repeats the pairings of leg 1 (venues swapped); see ``scheduler.balance.legs``.
+"""How a later leg repeats the pairings of leg 1 (venues swapped); see ``scheduler.leg_schemes``.
 """
 
 HomeMeaning = Literal["venue", "side"]

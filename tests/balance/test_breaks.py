@@ -14,9 +14,9 @@ from __future__ import annotations
 
 import pytest
 
-from scheduler.balance import plan_season
 from scheduler.config.model import Priorities
 from scheduler.fairness import compute_fairness
+from scheduler.plan import plan_season
 
 from .helpers import league
 from .rule_checker import check_season, count_breaks

@@ -11,9 +11,9 @@ from datetime import date
 
 import pytest
 
-from scheduler.balance import plan_season
 from scheduler.config.model import CalendarSpec, FixedFixture, Rules, TeamDates
 from scheduler.errors import InfeasibleError
+from scheduler.plan import plan_season
 
 from .helpers import league
 

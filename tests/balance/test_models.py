@@ -16,14 +16,14 @@ from datetime import date, time
 
 import pytest
 
-from scheduler.balance import legs as leg_schemes
-from scheduler.balance import plan_season
+from scheduler import leg_schemes
 from scheduler.balance.anneal import anneal, breaks_of
-from scheduler.balance.timetable import canonical_hint
+from scheduler.balance.starting_point import canonical_hint
 from scheduler.config.model import CalendarSpec, Rules, Venue
 from scheduler.errors import InfeasibleError
 from scheduler.factorization import factorize
 from scheduler.factorization.circle import circle_rounds
+from scheduler.plan import plan_season
 
 from .helpers import league
 from .rule_checker import check_season

@@ -7,13 +7,12 @@ from datetime import date, time
 
 import pytest
 
-from scheduler.balance import PlanResult, plan_season, revision
-from scheduler.balance import legs as leg_schemes
-from scheduler.balance.plan import _Candidate, _choose
+from scheduler import leg_schemes
 from scheduler.config.model import CalendarSpec, Priorities, Rules, Venue
 from scheduler.factorization.anderson import anderson_factorization
 from scheduler.factorization.circle import circle_factorization
 from scheduler.factorization.verify import verify_rounds
+from scheduler.plan import PlanResult, _Candidate, _choose, plan_season, revision
 
 from .helpers import league
 from .rule_checker import check_season

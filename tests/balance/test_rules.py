@@ -10,8 +10,8 @@ from pathlib import Path
 
 import pytest
 
-from scheduler.balance import plan_season
 from scheduler.config.model import CalendarSpec, FixedFixture, Rules, TeamDates
+from scheduler.plan import plan_season
 
 from .helpers import league
 from .rule_checker import check_season, count_breaks

@@ -16,6 +16,7 @@ from collections.abc import Sequence
 from dataclasses import dataclass
 from pathlib import Path
 
+from scheduler.config.model import League
 from scheduler.export.readers import ScheduleFile, read_schedule_with_rows
 from scheduler.fairness import FairnessReport, compute_fairness
 from scheduler.fairness.validity import Problem, validate_season
@@ -65,16 +66,23 @@ class AuditResult:
             "fairness_note": self.fairness_note,
             "notes": list(self.source.notes) if self.source else [],
         }
+        if f is not None and f.rule_checks is not None:
+            out["rules"] = [check.to_dict() for check in f.rule_checks]
         if full:
             out["problem_details"] = [p.to_dict() for p in self.problems]
             out["fairness"] = f.to_dict() if f else None
         return out
 
 
-def audit_season(season: Season, rows: Sequence[int | None] | None = None) -> AuditResult:
-    """Audit a season held in memory (``rows``: optional source row of each fixture)."""
+def audit_season(season: Season, rows: Sequence[int | None] | None = None,
+                 league: League | None = None) -> AuditResult:
+    """Audit a season held in memory (``rows``: optional source row of each fixture). With
+    ``league``, the season is also checked against that league's hard rules
+    (``fairness.rule_checks``); a broken rule makes it invalid."""
     problems = tuple(validate_season(season, rows))
-    fairness = compute_fairness(season) if season.fixtures else None
+    fairness = compute_fairness(season, league) if season.fixtures else None
+    broken = bool(fairness and fairness.rule_checks
+                  and not all(check.kept for check in fairness.rule_checks))
     note = ""
     if problems and fairness is not None:
         note = "the schedule is not a valid round robin: the figures describe it as it stands"
@@ -82,18 +90,20 @@ def audit_season(season: Season, rows: Sequence[int | None] | None = None) -> Au
         note = "no games: nothing to measure"
     return AuditResult(
         season=season,
-        valid=not problems,
+        valid=not problems and not broken,
         problems=problems,
         fairness=fairness,
         fairness_note=note,
     )
 
 
-def audit_file(path: str | Path, *, timezone: str | None = None) -> AuditResult:
-    """Read, check and measure the schedule in ``path`` (CSV, xlsx or season.json)."""
+def audit_file(path: str | Path, *, timezone: str | None = None,
+               league: League | None = None) -> AuditResult:
+    """Read, check and measure the schedule in ``path`` (CSV, xlsx or season.json); with
+    ``league``, also against that league's hard rules."""
     source = read_schedule_with_rows(path, timezone=timezone)
     rows = source.rows if any(r is not None for r in source.rows) else None
-    result = audit_season(source.season, rows)
+    result = audit_season(source.season, rows, league)
     return AuditResult(
         season=result.season,
         valid=result.valid,

@@ -33,7 +33,8 @@ class BreakFreeEnds(HardRule):
         r = league.rules
         parts = []
         if r.no_breaks_first:
-            parts.append(f"no break in rounds 2..{r.no_breaks_first + 1}")
+            parts.append("no break in round 2" if r.no_breaks_first == 1
+                         else f"no break in rounds 2..{r.no_breaks_first + 1}")
         if r.no_breaks_last:
             parts.append(f"no break in the last {plural(r.no_breaks_last, 'round')}")
         return "; ".join(parts)

@@ -34,6 +34,8 @@ wall-clock cap is only a safety net and the notes say when it was hit.
 from __future__ import annotations
 
 import hashlib
+import itertools
+from collections.abc import Iterator
 from dataclasses import dataclass, replace
 
 from scheduler.balance.carry import improve_order
@@ -276,15 +278,33 @@ def _calendar_clashes(league: League) -> None:
                               [f"min_rest_days = {value}: {clash}"])
 
 
-def _other_factorizations(n: int, tried: list[Factorization]) -> list[Factorization]:
-    """Further one-factorizations of K_n to try when the rules cannot hold with the first ones:
-    GK_n, Anderson's GA_n (n = 2p, p odd) and the catalogue's perfect one, each once."""
+def _searched_starter(n: int, seed: int) -> Factorization | None:
+    """A perfect starter of Z_(n-1) found by a short seeded search (numba is imported here,
+    only when the fall-back runs), as a factorization; ``None`` when none turns up."""
+    from scheduler.factorization.groups import cyclic
+    from scheduler.factorization.search import search_perfect_starter
+    from scheduler.factorization.starters import starter_factorization
+
+    group = cyclic(n - 1)
+    found = search_perfect_starter(group, seed=seed + 1, budget=1.0)
+    if found.starter is None:
+        return None
+    return starter_factorization(group, found.starter,
+                                 method=f"searched starter in Z_{n - 1} (seed {seed + 1})")
+
+
+def _other_factorizations(n: int, tried: list[Factorization],
+                          seed: int = 0) -> Iterator[Factorization]:
+    """Further one-factorizations of K_n to try when the rules cannot hold with the first ones,
+    made only when needed: GK_n, Anderson's GA_n (n = 2p, p odd), the catalogue's perfect one and
+    a perfect starter of Z_(n-1) from a short seeded search; rounds already tried are skipped."""
     seen = [f.rounds for f in tried]
-    out: list[Factorization] = []
     makers = [circle_factorization]
     if n >= 6 and (n // 2) % 2 == 1:
         makers.append(anderson_factorization)
     makers.append(catalogue_factorization)
+    if 6 <= n <= 40:
+        makers.append(lambda size: _searched_starter(size, seed))
     for make in makers:
         try:
             fact = make(n)
@@ -293,8 +313,11 @@ def _other_factorizations(n: int, tried: list[Factorization]) -> list[Factorizat
         if fact is None or fact.rounds in seen:
             continue
         seen.append(fact.rounds)
-        out.append(fact)
-    return out
+        yield fact
+
+
+FALLBACKS = 3
+"""At most this many further factorizations are solved when the first ones clash."""
 
 
 def _try_other_factorizations(league: League, cands: list[_Candidate], total: float,
@@ -303,12 +326,12 @@ def _try_other_factorizations(league: League, cands: list[_Candidate], total: fl
     until one does; a clash that does not depend on the pairings is not retried."""
     if not any(c.error is not None and c.error.conflicts for c in cands):
         return  # no rule clash (the time limit ran out): other pairings would not be faster
-    others = _other_factorizations(cands[0].fact.n, [c.fact for c in cands])
-    for fact in others:
+    others = _other_factorizations(cands[0].fact.n, [c.fact for c in cands], seed)
+    for fact in itertools.islice(others, FALLBACKS):
         cand = _Candidate(f"fallback: {fact.method}", fact, verify_rounds(fact.n, fact.rounds))
         cands.append(cand)
         try:
-            cand.tt = solve_timetable(league, fact, _limits(total, 0.45 / len(others), seed),
+            cand.tt = solve_timetable(league, fact, _limits(total, 0.45 / FALLBACKS, seed),
                                       minimise_breaks=league.priorities.breaks > 0)
         except InfeasibleError as exc:
             cand.error = exc

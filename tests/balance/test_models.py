@@ -1,6 +1,6 @@
 """The balancer's building blocks against published facts.
 
-- The canonical schedule (circle method with de Werra's orientation, fairness.md §1; de Werra
+- The canonical schedule (circle method with de Werra's orientation, docs/leg-schemes.md; de Werra
   1981, Annals of Discrete Math. 11:381-395): n-2 breaks, exactly two teams without a break,
   every other team with exactly one, (n-2)/2 or n/2 home games per team.
 - The annealing start never exceeds the Post & Woeginger bound: every timetable admits a
@@ -35,7 +35,7 @@ def test_canonical_schedule_check_values(n):
     rounds = circle_rounds(n)
     assert sorted(order) == list(range(n - 1))
     assert breaks_of(rounds, home, [order], None) == n - 2
-    # mirrored double round robin: 3n-6 (fairness.md §1 check values)
+    # mirrored double round robin: 3n-6 (docs/leg-schemes.md check values)
     assert breaks_of(rounds, home, [order, order], None) == 3 * n - 6
     per_team = []
     homes = []

@@ -113,7 +113,7 @@ def test_plan_lists_both_options_when_the_engine_finds_a_non_circle_factorizatio
 
 
 @pytest.mark.parametrize("scheme,expected", [
-    # fairness.md §4 table: leg 2 = leg-1 rounds (1-based) in this order
+    # docs/leg-schemes.md table: leg 2 = leg-1 rounds (1-based) in this order
     ("mirrored", (1, 2, 3, 4, 5)), ("french", (2, 3, 4, 5, 1)),
     ("english", (5, 1, 2, 3, 4)), ("inverted", (5, 4, 3, 2, 1))])
 def test_leg_orders_match_the_schemes(scheme, expected):
@@ -123,7 +123,7 @@ def test_leg_orders_match_the_schemes(scheme, expected):
 
 
 def test_separations_match_the_table():
-    # fairness.md §4: mirrored n-2 everywhere; French n-3 (2n-4 for round 1); English 0 for the
+    # docs/leg-schemes.md: mirrored n-2 everywhere; French n-3 (2n-4 for round 1); English 0 for the
     # pairs of round n-1, otherwise n-1; inverted 2n-2-2k.
     n = 6
     R = n - 1

@@ -100,7 +100,7 @@ def test_min_separation_with_free_scheme():
 
 
 def test_separation_is_fixed_by_mirrored_scheme():
-    # fairness.md §4: mirrored keeps every pair exactly n-2 rounds apart
+    # docs/leg-schemes.md: mirrored keeps every pair exactly n-2 rounds apart
     lg = league(6, legs=2, scheme="mirrored", rules=Rules(min_separation=4))
     season = _ok(lg)
     rounds = {}

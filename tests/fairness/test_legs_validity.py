@@ -1,6 +1,6 @@
 """Legs, schemes and separation; the validity check; the report's JSON form.
 
-Separation values per scheme come from the project notes' table (section 4, index maps as in
+Separation values per scheme come from docs/leg-schemes.md (section 2, index maps as in
 Goossens & Spieksma, J. Scheduling 15 (2012) 641-651; recorded there from memory): mirrored
 n-2 for every pair; French n-3, and 2n-4 for the pairs of round 1; English 0 for the pairs of
 round n-1, otherwise n-1; inverted 2n-2-2k, so 0 to 2n-4. They are re-derived here by brute

@@ -71,13 +71,4 @@ def check_rules(league: League, season: Season) -> tuple[RuleCheck, ...]:
     return tuple(out)
 
 
-def rule_of_statement(league: League, statement: str) -> HardRule | None:
-    """The rule whose constraint carries ``statement`` (the text of an assumption literal)."""
-    for rule in RULES:
-        if rule.relaxation(league, statement) is not None:
-            return rule
-    return None
-
-
-__all__ = ["RULES", "HardRule", "RuleCheck", "TimetableView", "Violation", "check_rules",
-           "rule_of_statement"]
+__all__ = ["RULES", "HardRule", "RuleCheck", "TimetableView", "Violation", "check_rules"]

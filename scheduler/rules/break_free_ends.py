@@ -42,14 +42,16 @@ class BreakFreeEnds(HardRule):
     def add_constraints(self, model: TimetableView) -> None:
         r, cp, rounds = model.league.rules, model.cp, model.season_rounds
         if r.no_breaks_first:
-            literal = model.switch(f"no_breaks_first = {r.no_breaks_first} (no break in rounds "
-                                   f"2..{r.no_breaks_first + 1})")
+            where = ("round 2" if r.no_breaks_first == 1
+                     else f"rounds 2..{r.no_breaks_first + 1}")
+            literal = model.switch(f"no_breaks_first = {r.no_breaks_first} (no break in {where})")
             for s in range(1, min(rounds, r.no_breaks_first + 1)):
                 for v in model.vertices:
                     cp.AddImplication(literal, model.break_at(s, v).Not())
         if r.no_breaks_last:
+            last = "round" if r.no_breaks_last == 1 else f"{r.no_breaks_last} rounds"
             literal = model.switch(f"no_breaks_last = {r.no_breaks_last} (no break in the last "
-                                   f"{r.no_breaks_last} rounds)")
+                                   f"{last})")
             for s in range(max(1, rounds - r.no_breaks_last), rounds):
                 for v in model.vertices:
                     cp.AddImplication(literal, model.break_at(s, v).Not())

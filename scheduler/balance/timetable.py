@@ -16,16 +16,9 @@ from scheduler.balance.timetable_model import Timetable, TimetableModel
 from scheduler.config.model import League
 from scheduler.errors import InfeasibleError
 from scheduler.factorization.model import Factorization
-from scheduler.home_away import total_breaks
 
 __all__ = ["SolveLimits", "Timetable", "TimetableModel", "canonical_hint", "configure",
-           "count_breaks", "solve_timetable"]
-
-
-def count_breaks(games, teams: int) -> int:
-    """Total breaks over games actually played (byes skipped), counted in the second game
-    (:func:`scheduler.home_away.total_breaks`)."""
-    return total_breaks(games, teams)
+           "solve_timetable"]
 
 
 def solve_timetable(league: League, fact: Factorization, limits: SolveLimits, *,

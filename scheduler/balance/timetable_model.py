@@ -389,7 +389,9 @@ class TimetableModel:
         self.cp.ClearAssumptions()
         self.cp.AddAssumptions([self.book.literals[i] for i in indices])
         solver = cp_model.CpSolver()
-        configure(solver, SolveLimits(min(limits.deterministic, 2.0), min(limits.wall, 10.0),
+        # the deterministic limit decides (reproducible answers); the wall clock is only a
+        # generous safety net, so that a loaded machine does not change the explanation
+        configure(solver, SolveLimits(min(limits.deterministic, 2.0), max(limits.wall, 30.0),
                                       limits.seed))
         return solver.Solve(self.cp) == cp_model.INFEASIBLE
 

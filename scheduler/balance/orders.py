@@ -78,8 +78,9 @@ class OrderResult:
 class BreakPaths:
     """The colouring layers of one factorization and the path evaluator for round orders."""
 
-    def __init__(self, rounds: Sequence[Sequence[tuple[int, int]]], n: int,
-                 bye: int | None = None) -> None:
+    def __init__(
+        self, rounds: Sequence[Sequence[tuple[int, int]]], n: int, bye: int | None = None
+    ) -> None:
         if n % 2 or n > MAX_N:
             raise ValueError(f"colouring masks need an even n <= {MAX_N}, got {n}")
         if bye is not None and n // 2 > EXACT_HALF:
@@ -93,17 +94,17 @@ class BreakPaths:
                 for a, b in games:
                     if bye in (a, b):
                         self.bye_of[k] = a if b == bye else b
-        self.R = len(rounds)
+        self.round_count = len(rounds)
         self.rounds = [list(r) for r in rounds]
         half = n // 2
-        self.ea = np.array([[a for a, _ in r] for r in self.rounds], dtype=np.int64)
-        self.eb = np.array([[b for _, b in r] for r in self.rounds], dtype=np.int64)
+        self.first_vertex = np.array([[a for a, _ in r] for r in self.rounds], dtype=np.int64)
+        self.second_vertex = np.array([[b for _, b in r] for r in self.rounds], dtype=np.int64)
         self.exact = half <= EXACT_HALF
         full = (1 << n) - 1
-        cand = np.zeros((self.R, 2 * (self.R - 1)), dtype=np.int64)
-        for r in range(self.R):
+        cand = np.zeros((self.round_count, 2 * (self.round_count - 1)), dtype=np.int64)
+        for r in range(self.round_count):
             row = []
-            for s in range(self.R):
+            for s in range(self.round_count):
                 if s != r:
                     m = self._bipartition(r, s)
                     row += [m, full ^ m]
@@ -111,32 +112,36 @@ class BreakPaths:
         self.cand = cand
         if self.exact:
             S = 1 << half
-            masks = np.zeros((self.R, S), dtype=np.int64)
-            for r in range(self.R):
+            masks = np.zeros((self.round_count, S), dtype=np.int64)
+            for r in range(self.round_count):
                 for x in range(S):
                     t = 0
                     for i in range(half):
-                        t |= 1 << int(self.ea[r, i] if (x >> i) & 1 else self.eb[r, i])
+                        t |= 1 << int(
+                            self.first_vertex[r, i] if (x >> i) & 1 else self.second_vertex[r, i]
+                        )
                     masks[r, x] = t
             self.layers = masks
         else:
             self.layers = cand
         self.width = BEAM_WIDTH
         cap = self.width * 16 + cand.shape[1]
-        self._M = np.zeros((self.R, cap), dtype=np.int64)
-        self._V = np.zeros((self.R, cap), dtype=np.int64)
-        self._P = np.zeros((self.R, cap), dtype=np.int64)
-        self._N = np.zeros(self.R, dtype=np.int64)
+        self._beam_masks = np.zeros((self.round_count, cap), dtype=np.int64)
+        self._beam_values = np.zeros((self.round_count, cap), dtype=np.int64)
+        self._beam_parents = np.zeros((self.round_count, cap), dtype=np.int64)
+        self._beam_sizes = np.zeros(self.round_count, dtype=np.int64)
         S = self.layers.shape[1]
-        self._back = np.zeros((self.R, S), dtype=np.int64)
-        self._F = np.zeros((self.R, S), dtype=np.int64)
-        self._kind = np.zeros((self.R, S), dtype=np.int64)
+        self._back = np.zeros((self.round_count, S), dtype=np.int64)
+        self._path_values = np.zeros((self.round_count, S), dtype=np.int64)
+        self._kind = np.zeros((self.round_count, S), dtype=np.int64)
 
     @property
     def work(self) -> int:
         """Work units of one evaluation (inner-loop steps), for budgeting without a clock."""
         S = self.layers.shape[1]
-        kernel = self.R * S * S // 4 if self.exact else self.R * S * S * (self.n + 4)
+        kernel = (
+            self.round_count * S * S // 4 if self.exact else self.round_count * S * S * (self.n + 4)
+        )
         return kernel + CALL_WORK
 
     def _bipartition(self, r: int, s: int) -> int:
@@ -163,23 +168,43 @@ class BreakPaths:
     def beam_work(self) -> int:
         """Work units of one :meth:`beam` evaluation."""
         S = self.cand.shape[1]
-        return self.R * self.width * (20 * self.n + 2 * S + 60) + CALL_WORK
+        return self.round_count * self.width * (20 * self.n + 2 * S + 60) + CALL_WORK
 
     def beam(self, order: Sequence[int]) -> int:
         """Value of the beam path for ``order`` (an upper bound)."""
         o = np.asarray(order, dtype=np.int64)
-        return int(_kernel()._beam_path(self.cand, o, self.ea, self.eb, self.width, self._M,
-                                        self._V, self._P, self._N)[0])
+        return int(
+            _kernel()._beam_path(
+                self.cand,
+                o,
+                self.first_vertex,
+                self.second_vertex,
+                self.width,
+                self._beam_masks,
+                self._beam_values,
+                self._beam_parents,
+                self._beam_sizes,
+            )[0]
+        )
 
     def beam_colourings(self, order: Sequence[int]) -> tuple[int, list[int]]:
         """(value, colouring at every position) of the beam path for ``order``."""
         o = np.asarray(order, dtype=np.int64)
-        value, j = _kernel()._beam_path(self.cand, o, self.ea, self.eb, self.width, self._M,
-                                        self._V, self._P, self._N)
-        t = [0] * self.R
-        for q in range(self.R - 1, -1, -1):
-            t[q] = int(self._M[q, j])
-            j = int(self._P[q, j])
+        value, j = _kernel()._beam_path(
+            self.cand,
+            o,
+            self.first_vertex,
+            self.second_vertex,
+            self.width,
+            self._beam_masks,
+            self._beam_values,
+            self._beam_parents,
+            self._beam_sizes,
+        )
+        t = [0] * self.round_count
+        for q in range(self.round_count - 1, -1, -1):
+            t[q] = int(self._beam_masks[q, j])
+            j = int(self._beam_parents[q, j])
         return int(value), t
 
     def flips(self, order: Sequence[int]) -> np.ndarray:
@@ -199,24 +224,41 @@ class BreakPaths:
         o = np.asarray(order, dtype=np.int64)
         if self.exact:
             return int(_kernel()._exact_value(self.layers, o, self.flips(order), self.keep))
-        return int(_kernel()._candidate_path(self.layers, o, self.ea, self.eb, self._F, self._back,
-                                   self._kind)[0])
+        return int(
+            _kernel()._candidate_path(
+                self.layers,
+                o,
+                self.first_vertex,
+                self.second_vertex,
+                self._path_values,
+                self._back,
+                self._kind,
+            )[0]
+        )
 
     def colourings(self, order: Sequence[int]) -> tuple[int, list[int]]:
         """(value, the colouring mask at every position) of the best path for ``order``."""
         o = np.asarray(order, dtype=np.int64)
-        R = self.R
+        R = self.round_count
         t = [0] * R
         if self.exact:
-            value, y = _kernel()._exact_path(self.layers, o, self.flips(order), self.keep,
-                                             self._back)
+            value, y = _kernel()._exact_path(
+                self.layers, o, self.flips(order), self.keep, self._back
+            )
             for q in range(R - 1, -1, -1):
                 t[q] = int(self.layers[o[q], y])
                 if q:
                     y = int(self._back[q, y])
             return int(value), t
-        value, y = _kernel()._candidate_path(self.layers, o, self.ea, self.eb, self._F, self._back,
-                                   self._kind)
+        value, y = _kernel()._candidate_path(
+            self.layers,
+            o,
+            self.first_vertex,
+            self.second_vertex,
+            self._path_values,
+            self._back,
+            self._kind,
+        )
         q = R - 1
         while q >= 0:
             t[q] = int(self.layers[o[q], y])
@@ -227,7 +269,11 @@ class BreakPaths:
                 q, y = q - 1, x
             else:
                 u = int(self.layers[o[q - 2], x])
-                t[q - 1] = int(_kernel()._free(u, t[q], self.ea, self.eb, int(o[q - 1]))[1])
+                t[q - 1] = int(
+                    _kernel()._free(u, t[q], self.first_vertex, self.second_vertex, int(o[q - 1]))[
+                        1
+                    ]
+                )
                 q, y = q - 2, x
         return int(value), t
 
@@ -256,7 +302,7 @@ def _move(order: list[int], rng: random.Random) -> list[int]:
     if kind < 1 / 3:
         p[i], p[j] = p[j], p[i]
     elif kind < 2 / 3:
-        p[i:j + 1] = p[i:j + 1][::-1]
+        p[i : j + 1] = p[i : j + 1][::-1]
     elif rng.random() < 0.5:
         p.insert(j, p.pop(i))
     else:
@@ -278,9 +324,15 @@ def _anneal(score, order: list[int], evals: int, rng: random.Random, t0: float, 
     return best, best_order
 
 
-def search_order(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *, seed: int = 0,
-                 work: float = 2e9, start: Sequence[int] | None = None,
-                 bye: int | None = None) -> OrderResult:
+def search_order(
+    rounds: Sequence[Sequence[tuple[int, int]]],
+    n: int,
+    *,
+    seed: int = 0,
+    work: float = 2e9,
+    start: Sequence[int] | None = None,
+    bye: int | None = None,
+) -> OrderResult:
     """Simulated annealing over the leg-1 round order, each order scored by its break path
     (module docstring); returns the best order with its home/away assignment.
 
@@ -290,7 +342,7 @@ def search_order(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *, seed: i
     from it (at least 50), independent of the machine.
     """
     paths = BreakPaths(rounds, n, bye)
-    R = paths.R
+    R = paths.round_count
     order = list(start) if start is not None else list(range(R))
     if R < 3:
         return paths.assignment(order)

@@ -1,0 +1,62 @@
+"""``scheduler audit --league``: an audited schedule gets the checklist of that league's hard
+rules; a broken rule makes it invalid (exit 1) and says where and by whom."""
+
+from __future__ import annotations
+
+import json
+from pathlib import Path
+
+import pytest
+from typer.testing import CliRunner
+
+from scheduler.cli import app
+from scheduler.config import sample_path
+
+runner = CliRunner()
+
+
+@pytest.fixture(scope="module")
+def planned(tmp_path_factory) -> tuple[Path, Path]:
+    tmp = tmp_path_factory.mktemp("audit-league")
+    config = Path(sample_path("evening_hall"))
+    out = tmp / "season"
+    result = runner.invoke(app, ["plan", str(config), "--out", str(out), "--quiet"],
+                           catch_exceptions=False)
+    assert result.exit_code == 0, result.output
+    return config, out / "season.json"
+
+
+def test_the_planned_schedule_keeps_its_league_rules(planned):
+    config, season_json = planned
+    result = runner.invoke(app, ["audit", str(season_json), "--json", "--league", str(config)],
+                           catch_exceptions=False)
+    assert result.exit_code == 0, result.output
+    rules = json.loads(result.stdout)["rules"]
+    assert rules and all(check["kept"] for check in rules)
+    assert any(check["rule"] == "rest_days" for check in rules)
+
+
+def test_a_stricter_league_finds_the_broken_rule(planned, tmp_path):
+    config, season_json = planned
+    text = config.read_text(encoding="utf-8")
+    assert "min_rest_days = 5" in text
+    strict = tmp_path / "strict.toml"
+    # weekly Tuesday games leave 6 rest days, so 12 cannot be kept
+    strict.write_text(text.replace("min_rest_days = 5", "min_rest_days = 12"), encoding="utf-8")
+    result = runner.invoke(app, ["audit", str(season_json), "--json", "--league", str(strict)],
+                           catch_exceptions=False)
+    assert result.exit_code == 1, result.output
+    rules = {check["rule"]: check for check in json.loads(result.stdout)["rules"]}
+    assert not rules["rest_days"]["kept"]
+    first = rules["rest_days"]["violations"][0]
+    assert first["team"] and first["round"] and "6 rest days" in first["what"]
+    plain = runner.invoke(app, ["audit", str(season_json), "--league", str(strict)],
+                          catch_exceptions=False)
+    assert "BROKEN" in plain.stdout and "rules of this league" in plain.stdout
+
+
+def test_without_league_there_is_no_checklist(planned):
+    _, season_json = planned
+    result = runner.invoke(app, ["audit", str(season_json), "--json"], catch_exceptions=False)
+    assert result.exit_code == 0
+    assert "rules" not in json.loads(result.stdout)

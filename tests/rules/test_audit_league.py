@@ -15,15 +15,29 @@ from scheduler.config import sample_path
 runner = CliRunner()
 
 
+PLAN_OUTPUT: list[str] = []
+
+
 @pytest.fixture(scope="module")
 def planned(tmp_path_factory) -> tuple[Path, Path]:
     tmp = tmp_path_factory.mktemp("audit-league")
     config = Path(sample_path("evening_hall"))
     out = tmp / "season"
-    result = runner.invoke(app, ["plan", str(config), "--out", str(out), "--quiet"],
+    result = runner.invoke(app, ["plan", str(config), "--out", str(out)],
                            catch_exceptions=False)
     assert result.exit_code == 0, result.output
+    PLAN_OUTPUT.append(result.stdout)
     return config, out / "season.json"
+
+
+def test_plan_prints_the_checklist_and_no_missing_figure(planned):
+    text = PLAN_OUTPUT[0]
+    assert "rules of this league:" in text
+    assert "kept: at least 5 rest days between two games of a team" in text
+    assert "None" not in text
+    _, season_json = planned
+    report = (season_json.parent / "report.html").read_text(encoding="utf-8")
+    assert "Rules of this league" in report
 
 
 def test_the_planned_schedule_keeps_its_league_rules(planned):

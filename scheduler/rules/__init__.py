@@ -8,6 +8,8 @@ entry here, its tests in ``tests/rules/``.
 
 from __future__ import annotations
 
+from typing import TYPE_CHECKING
+
 from scheduler.config.model import League
 from scheduler.rules.base import HardRule, RuleCheck, TimetableView, Violation
 from scheduler.rules.break_free_ends import BreakFreeEnds
@@ -19,7 +21,9 @@ from scheduler.rules.separation import Separation
 from scheduler.rules.shared_grounds import SharedGrounds
 from scheduler.rules.unavailable_days import UnavailableDays
 from scheduler.rules.venue_capacity import VenueCapacity
-from scheduler.season import Season
+
+if TYPE_CHECKING:  # the season type only: rules import nothing above config at run time
+    from scheduler.season import Season
 
 RULES: tuple[HardRule, ...] = (
     RunLimits(),

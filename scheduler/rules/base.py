@@ -17,10 +17,12 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 from datetime import date
-from typing import Any, ClassVar, Protocol
+from typing import TYPE_CHECKING, Any, ClassVar, Protocol
 
 from scheduler.config.model import League
-from scheduler.season import Fixture, Season
+
+if TYPE_CHECKING:  # the season type only: rules import nothing above config at run time
+    from scheduler.season import Fixture, Season
 
 
 @dataclass(frozen=True, slots=True)

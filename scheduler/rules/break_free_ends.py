@@ -10,10 +10,13 @@ from __future__ import annotations
 
 import itertools
 from dataclasses import dataclass
+from typing import TYPE_CHECKING
 
 from scheduler.config.model import League
 from scheduler.rules.base import HardRule, TimetableView, Violation, plural, team_games
-from scheduler.season import Season
+
+if TYPE_CHECKING:  # the season type only: rules import nothing above config at run time
+    from scheduler.season import Season
 
 
 def _season_rounds(season: Season) -> int:

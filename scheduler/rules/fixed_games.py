@@ -4,10 +4,13 @@ unless ``any_venue``."""
 from __future__ import annotations
 
 from dataclasses import dataclass
+from typing import TYPE_CHECKING
 
 from scheduler.config.model import FixedFixture, League
 from scheduler.rules.base import HardRule, TimetableView, Violation
-from scheduler.season import Season
+
+if TYPE_CHECKING:  # the season type only: rules import nothing above config at run time
+    from scheduler.season import Season
 
 
 def _where(fixture: FixedFixture) -> str:

@@ -18,10 +18,13 @@ import itertools
 from collections.abc import Sequence
 from dataclasses import dataclass
 from datetime import date
+from typing import TYPE_CHECKING
 
 from scheduler.config.model import League
 from scheduler.rules.base import HardRule, TimetableView, Violation, plural, team_games
-from scheduler.season import Season
+
+if TYPE_CHECKING:  # the season type only: rules import nothing above config at run time
+    from scheduler.season import Season
 
 WEEKDAY_NAMES = ("Mondays", "Tuesdays", "Wednesdays", "Thursdays", "Fridays", "Saturdays",
                  "Sundays")

@@ -8,10 +8,13 @@ traveling tournament problem (Easton, Nemhauser & Trick, CP 2001, LNCS 2239, fro
 from __future__ import annotations
 
 from dataclasses import dataclass
+from typing import TYPE_CHECKING
 
 from scheduler.config.model import League
 from scheduler.rules.base import HardRule, TimetableView, Violation, team_games
-from scheduler.season import Season
+
+if TYPE_CHECKING:  # the season type only: rules import nothing above config at run time
+    from scheduler.season import Season
 
 
 def _limits(league: League) -> list[tuple[int, bool, str]]:

@@ -8,10 +8,13 @@ from __future__ import annotations
 
 from collections import defaultdict
 from dataclasses import dataclass
+from typing import TYPE_CHECKING
 
 from scheduler.config.model import League
 from scheduler.rules.base import HardRule, TimetableView, Violation
-from scheduler.season import Season
+
+if TYPE_CHECKING:  # the season type only: rules import nothing above config at run time
+    from scheduler.season import Season
 
 
 @dataclass(frozen=True)

@@ -5,11 +5,14 @@ from __future__ import annotations
 
 from collections import Counter
 from dataclasses import dataclass
+from typing import TYPE_CHECKING
 
 from scheduler.config.model import League
 from scheduler.rules.base import HardRule, TimetableView, Violation, plural
 from scheduler.rules.shared_grounds import home_days_at_most
-from scheduler.season import Season
+
+if TYPE_CHECKING:  # the season type only: rules import nothing above config at run time
+    from scheduler.season import Season
 
 
 def capacity_groups(league: League) -> list[tuple[str, int, list[int]]]:

@@ -35,7 +35,7 @@ from __future__ import annotations
 
 import hashlib
 import itertools
-from collections.abc import Iterator
+from collections.abc import Callable, Iterator
 from dataclasses import dataclass, replace
 
 from scheduler.balance.carry import improve_order
@@ -299,7 +299,7 @@ def _other_factorizations(n: int, tried: list[Factorization],
     made only when needed: GK_n, Anderson's GA_n (n = 2p, p odd), the catalogue's perfect one and
     a perfect starter of Z_(n-1) from a short seeded search; rounds already tried are skipped."""
     seen = [f.rounds for f in tried]
-    makers = [circle_factorization]
+    makers: list[Callable[[int], Factorization | None]] = [circle_factorization]
     if n >= 6 and (n // 2) % 2 == 1:
         makers.append(anderson_factorization)
     makers.append(catalogue_factorization)

@@ -113,6 +113,7 @@ def starting_point(fact: Factorization, *, scheme: str, legs: int, bye: int | No
         return StartingPoint(order, start_home or greedy_orientation(fact.rounds, order), False)
     maps = (leg_schemes.leg_maps(scheme, legs, rounds_per_leg)
             or leg_schemes.leg_maps("inverted", legs, rounds_per_leg))
+    assert maps is not None  # the inverted scheme always has maps
     moves = int(min(1_500_000, 60_000 + 30_000 * effort))
     searched = False
     if n > MAX_N or (bye is not None and n > 2 * EXACT_HALF):

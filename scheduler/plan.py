@@ -174,9 +174,35 @@ def plan_season(
 ) -> PlanResult:
     """Plan a complete season for ``league`` (see the module docstring for the stages).
 
-    Raises :class:`~scheduler.errors.InfeasibleError` (with the conflicting rules in plain words)
-    when the hard rules cannot all hold, :class:`~scheduler.errors.InputError` for a league that
-    cannot be planned at all.
+    Parameters
+    ----------
+    league : League
+        A validated league (``scheduler.config.load_league``).
+    seed : int, optional
+        Overrides ``league.seed``; the same league and seed give the same season.
+    time_limit : float, optional
+        Overrides ``league.solve_seconds`` (deterministic solver time, shared by the stages).
+    progress : callable, optional
+        ``progress(stage, fraction)`` for a progress bar.
+
+    Returns
+    -------
+    PlanResult
+        The season, the options considered (:class:`PlanOption`), the status and the notes.
+
+    Raises
+    ------
+    InfeasibleError
+        When the hard rules cannot all hold (a minimal set of them in plain words, after every
+        available factorization was tried), or the calendar alone makes a rule impossible.
+    InputError
+        For a league that cannot be planned at all (fewer than two teams).
+
+    References
+    ----------
+    D. de Werra, "Scheduling in sports", Annals of Discrete Mathematics 11 (1981) 381-395;
+    K. G. Russell, Biometrika 67 (1980) 127-131; U. Junker, "QUICKXPLAIN", AAAI 2004 (from
+    memory).
     """
     seed = league.seed if seed is None else int(seed)
     total = float(time_limit if time_limit is not None else league.solve_seconds)

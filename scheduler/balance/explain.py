@@ -28,7 +28,8 @@ from scheduler.errors import InfeasibleError
 from scheduler.rules import RULES
 
 MAX_CHECKS = 40
-"""Re-solves allowed for minimising one clash (each capped at a couple of seconds)."""
+"""Re-solves allowed for minimising one clash at most (each capped at two deterministic
+seconds); the timetable model allows fewer for a short solve limit."""
 
 
 @dataclass
@@ -104,17 +105,19 @@ def explain(
     *,
     what: str = "the league's rules cannot all hold",
     league: League | None = None,
+    checks: int = MAX_CHECKS,
 ) -> InfeasibleError:
     """Build the error after an INFEASIBLE solve.
 
     ``resolve(indices)`` re-solves with only those statements assumed and returns True when that
-    is still proven infeasible (used to shrink the clash to a minimal one).
+    is still proven infeasible (used to shrink the clash to a minimal one, at most ``checks``
+    times).
     """
     index_of = {lit.Index(): i for i, lit in enumerate(book.literals)}
     core = sorted(index_of[v] for v in solver.SufficientAssumptionsForInfeasibility()
                   if v in index_of)
     if core and len(core) > 1:
-        core = quickxplain(core, resolve)
+        core = quickxplain(core, resolve, budget=checks)
     conflicts = [book.texts[i] for i in core]
     if not conflicts:
         return InfeasibleError(

@@ -372,7 +372,8 @@ class TimetableModel:
         if status == cp_model.INFEASIBLE:
             raise explain(self.book, solver, lambda idx: self._still_infeasible(idx, limits),
                           what="the league's rules cannot all hold with the round pairings of "
-                               f"{self.fact.method}", league=self.league)
+                               f"{self.fact.method}", league=self.league,
+                          checks=min(40, max(12, 2 * int(limits.deterministic))))
         if status not in (cp_model.OPTIMAL, cp_model.FEASIBLE):
             raise InfeasibleError(
                 "no timetable was found within the time limit; allow more solve_seconds or relax "

@@ -88,6 +88,12 @@ def audit_season(season: Season, rows: Sequence[int | None] | None = None,
         note = "the schedule is not a valid round robin: the figures describe it as it stands"
     elif fairness is None:
         note = "no games: nothing to measure"
+    if league is not None and set(league.team_names) != set(season.teams):
+        missing = sorted(set(league.team_names) - set(season.teams))
+        note = "; ".join(x for x in (note, "the league file names teams the schedule does not: "
+                                     + ", ".join(missing[:5]) if missing else
+                                     "the schedule has teams the league file does not name")
+                         if x)
     return AuditResult(
         season=season,
         valid=not problems and not broken,

@@ -74,3 +74,16 @@ def test_without_league_there_is_no_checklist(planned):
     result = runner.invoke(app, ["audit", str(season_json), "--json"], catch_exceptions=False)
     assert result.exit_code == 0
     assert "rules" not in json.loads(result.stdout)
+
+
+def test_a_league_of_other_teams_is_noted():
+    from scheduler.audit import audit_season
+    from scheduler.config.model import League, Rules, Team
+    from scheduler.season import Fixture, Season
+
+    league = League("L", "2027", "UTC", (Team("Alder Vale", "ALD"), Team("Cobble Hill", "COB")),
+                    (), rules=Rules(max_home_run=1))
+    season = Season("L", "2027", ("Alder Vale", "Brook Farm"),
+                    (Fixture(1, "Alder Vale", "Brook Farm"),))
+    result = audit_season(season, league=league)
+    assert "Cobble Hill" in result.fairness_note

@@ -22,7 +22,6 @@ import time
 from datetime import date
 from datetime import time as clock
 
-from scheduler.balance import plan_season
 from scheduler.balance.timetable import SolveLimits, solve_timetable
 from scheduler.config.model import (
     CalendarSpec,
@@ -37,6 +36,7 @@ from scheduler.config.model import (
 )
 from scheduler.factorization.circle import circle_factorization
 from scheduler.factorization.verify import verify_rounds
+from scheduler.plan import plan_season
 
 NAMES = [f"Club {c}" for c in "ABCDEFGHIJKLMNOPQRST"]
 

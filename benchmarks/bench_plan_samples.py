@@ -14,10 +14,10 @@ import time
 from itertools import pairwise
 from pathlib import Path
 
-from scheduler.balance import plan_season
 from scheduler.config import load_league, sample_names, sample_path
 from scheduler.export import write_season_outputs
 from scheduler.fairness import compute_fairness
+from scheduler.plan import plan_season
 
 TARGET_SECONDS = 20.0
 

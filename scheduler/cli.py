@@ -220,14 +220,14 @@ def plan(
         raise InputError(f"--time-limit must be a positive number of seconds, got {time_limit}")
     # The league file's limits are checked before the solver and exporters are even imported.
     league = load_league(config)
-    from scheduler.balance import plan_season
     from scheduler.export import write_season_outputs
     from scheduler.fairness import compute_fairness
+    from scheduler.plan import plan_season
 
     with _progress(not quiet) as progress:
         result = plan_season(league, seed=seed, time_limit=time_limit, progress=progress)
     season = result.season
-    fairness = compute_fairness(season)
+    fairness = compute_fairness(season, league)
     written = write_season_outputs(
         season,
         fairness,
@@ -241,12 +241,10 @@ def plan(
         out.print(str(out_dir))
         return
     _print_fairness(fairness, title=f"{season.league} {season.season_id}")
+    _print_rule_checks(fairness.rule_checks)
     for option in result.options:
         mark = "chosen" if option.chosen else "considered"
-        out.print(
-            f"{mark}: {_plain(option.label)}: perfect pairs {option.perfect_pairs}/{option.pairs}, "
-            f"breaks {option.breaks}"
-        )
+        out.print(f"{mark}: {_plain(option.label)}: {_plain(option.figures())}")
     for note in result.notes:
         out.print(f"note: {_plain(note)}")
     out.print(f"wrote {len(written)} files to {out_dir}")
@@ -271,11 +269,18 @@ def audit(
             "(fields: round, leg, date, time, home, away, match, venue, court, slot)."
         ),
     ] = None,
+    league_file: Annotated[
+        Path | None,
+        typer.Option("--league", help="League config whose hard rules the schedule must keep."),
+    ] = None,
 ) -> None:
     """Check any schedule and print its fairness figures (exit 1 when it is invalid)."""
     from scheduler.audit import audit_file, parse_column_names
+    from scheduler.config import load_league
 
-    result = audit_file(file, timezone=timezone, columns=parse_column_names(columns))
+    league = load_league(league_file) if league_file is not None else None
+    result = audit_file(file, timezone=timezone, columns=parse_column_names(columns),
+                        league=league)
     if report is not None and result.fairness is not None:
         from scheduler.export.report import render_report
         from scheduler.export.safety import atomic_write_text
@@ -294,9 +299,24 @@ def audit(
                 out.print(f"  - {_plain(str(problem))}")
         if result.fairness is not None:
             _print_fairness(result.fairness, title=str(file.name))
+            _print_rule_checks(result.fairness.rule_checks)
         if report is not None and result.fairness is not None:
             out.print(f"wrote {report}")
     raise typer.Exit(EXIT_OK if result.valid else EXIT_INVALID)
+
+
+def _print_rule_checks(checks: Any) -> None:
+    """The league's own hard rules: kept, or broken where and by whom (a few places each)."""
+    if not checks:
+        return
+    out.print("rules of this league:")
+    for check in checks:
+        mark = "kept" if check.kept else f"BROKEN ({len(check.violations)}x)"
+        out.print(f"  {mark}: {_plain(check.statement)}")
+        for v in check.violations[:5]:
+            where = ", ".join(x for x in (f"round {v.round}" if v.round else "",
+                                          v.date.isoformat() if v.date else "") if x)
+            out.print(f"    - {_plain(v.team)} ({where}): {_plain(v.what)}")
 
 
 def _print_fairness(fairness: Any, *, title: str) -> None:

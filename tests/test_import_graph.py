@@ -21,7 +21,13 @@ ROOT = Path(__file__).resolve().parents[1]
 PACKAGE = ROOT / "scheduler"
 
 LAYERS: tuple[tuple[str, ...], ...] = (
-    ("scheduler.errors", "scheduler.progress"),
+    # Plain values and pure arithmetic that every room shares: the errors, the progress
+    # convention, the Season value (rules and fairness check *any* season, so the value sits
+    # below them), and the one home of the leg schemes, the break count and the carry-over value.
+    (
+        "scheduler.errors", "scheduler.progress", "scheduler.season", "scheduler",
+        "scheduler.leg_schemes", "scheduler.home_away", "scheduler.carry_over",
+    ),
     # The calendar reads only its own CalendarSpec (and any league-like object): the league
     # configuration checks a league's dates with it, and the balancer's day model uses it, so it
     # sits below both (the pipeline runs it later, but depends on nothing above errors).
@@ -29,7 +35,6 @@ LAYERS: tuple[tuple[str, ...], ...] = (
     ("scheduler.config", "scheduler.factorization"),
     ("scheduler.rules",),
     ("scheduler.balance",),
-    ("scheduler.season", "scheduler"),
     ("scheduler.fairness",),
     ("scheduler.export", "scheduler.audit"),
     ("scheduler.plan",),

@@ -17,6 +17,7 @@ from dataclasses import dataclass
 from pathlib import Path
 
 from scheduler.audit.readers import ScheduleFile, read_schedule_with_rows
+from scheduler.config.model import League
 from scheduler.fairness import FairnessReport, compute_fairness
 from scheduler.fairness.validity import Problem, validate_season
 from scheduler.season import Season
@@ -65,24 +66,37 @@ class AuditResult:
             "fairness_note": self.fairness_note,
             "notes": list(self.source.notes) if self.source else [],
         }
+        if f is not None and f.rule_checks is not None:
+            out["rules"] = [check.to_dict() for check in f.rule_checks]
         if full:
             out["problem_details"] = [p.to_dict() for p in self.problems]
             out["fairness"] = f.to_dict() if f else None
         return out
 
 
-def audit_season(season: Season, rows: Sequence[int | None] | None = None) -> AuditResult:
-    """Audit a season held in memory (``rows``: optional source row of each fixture)."""
+def audit_season(season: Season, rows: Sequence[int | None] | None = None,
+                 league: League | None = None) -> AuditResult:
+    """Audit a season held in memory (``rows``: optional source row of each fixture). With
+    ``league``, the season is also checked against that league's hard rules
+    (``fairness.rule_checks``); a broken rule makes it invalid."""
     problems = tuple(validate_season(season, rows))
-    fairness = compute_fairness(season) if season.fixtures else None
+    fairness = compute_fairness(season, league) if season.fixtures else None
+    broken = bool(fairness and fairness.rule_checks
+                  and not all(check.kept for check in fairness.rule_checks))
     note = ""
     if problems and fairness is not None:
         note = "the schedule is not a valid round robin: the figures describe it as it stands"
     elif fairness is None:
         note = "no games: nothing to measure"
+    if league is not None and set(league.team_names) != set(season.teams):
+        missing = sorted(set(league.team_names) - set(season.teams))
+        note = "; ".join(x for x in (note, "the league file names teams the schedule does not: "
+                                     + ", ".join(missing[:5]) if missing else
+                                     "the schedule has teams the league file does not name")
+                         if x)
     return AuditResult(
         season=season,
-        valid=not problems,
+        valid=not problems and not broken,
         problems=problems,
         fairness=fairness,
         fairness_note=note,
@@ -94,6 +108,7 @@ def audit_file(
     *,
     timezone: str | None = None,
     columns: Mapping[str, str] | None = None,
+    league: League | None = None,
 ) -> AuditResult:
     """Read, check and measure the schedule in ``path`` (CSV, xlsx or season.json).
 
@@ -106,6 +121,8 @@ def audit_file(
     columns
         Fields named by hand (field -> header text), for headers outside the vocabulary of
         :mod:`scheduler.audit.headers`.
+    league
+        When given, the schedule is also checked against this league's hard rules.
 
     Returns
     -------
@@ -119,7 +136,7 @@ def audit_file(
     """
     source = read_schedule_with_rows(path, timezone=timezone, columns=columns)
     rows = source.rows if any(r is not None for r in source.rows) else None
-    result = audit_season(source.season, rows)
+    result = audit_season(source.season, rows, league)
     return AuditResult(
         season=result.season,
         valid=result.valid,

@@ -1,9 +1,11 @@
-"""Balance: turn a one-factorization and a league's rules into a season (OR-Tools CP-SAT).
+"""Balance: turn a one-factorization and a league's rules into a timetable (OR-Tools CP-SAT).
 
-``plan_season(league)`` runs the whole pipeline: factorization, round order and home/away with
-the fewest breaks, venues/courts/slots, match days and kick-off times.
+The models only: round order, home/away and match days (:mod:`.timetable`), venues, courts and
+slots (:mod:`.places`), the carry-over search (:mod:`.carry`). The whole pipeline runs in
+:func:`scheduler.plan.plan_season`.
 """
 
-from scheduler.balance.plan import PlanOption, PlanResult, plan_season, revision
+from scheduler.balance.solver import SolveLimits
+from scheduler.balance.timetable import Timetable, solve_timetable
 
-__all__ = ["PlanOption", "PlanResult", "plan_season", "revision"]
+__all__ = ["SolveLimits", "Timetable", "solve_timetable"]

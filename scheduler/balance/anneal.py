@@ -17,6 +17,8 @@ import math
 import random
 from collections.abc import Sequence
 
+from scheduler.home_away import total_breaks
+
 
 def anneal(
     rounds: Sequence[Sequence[tuple[int, int]]],
@@ -31,7 +33,7 @@ def anneal(
     """Return (leg-1 order, a-is-home for every game (a, b), breaks) with few breaks.
 
     ``maps[l][q]`` is the leg-1 position copied by leg ``l`` at position ``q`` (venues swapped
-    on odd legs), as in :func:`scheduler.balance.legs.leg_maps`.
+    on odd legs), as in :func:`scheduler.leg_schemes.leg_maps`.
     """
     R = len(rounds)
     rng = random.Random(seed)
@@ -140,18 +142,18 @@ def anneal(
 
 def breaks_of(fact_rounds, home_first: dict[tuple[int, int], bool], orders, bye) -> int:
     """Total breaks (byes skipped) when leg ``l`` plays the rounds ``orders[l]`` and every game
-    ``(a, b)`` has ``a`` at home in leg 1 iff ``home_first[(a, b)]`` (odd legs swap)."""
-    last: dict[int, bool] = {}
-    total = 0
+    ``(a, b)`` has ``a`` at home in leg 1 iff ``home_first[(a, b)]`` (odd legs swap); counted by
+    :func:`scheduler.home_away.total_breaks`."""
+    games = []
+    vertices = 0
     for leg, order in enumerate(orders):
-        flip = leg % 2 == 1
+        swapped = leg % 2 == 1
         for k in order:
+            played = []
             for a, b in fact_rounds[k]:
+                vertices = max(vertices, a + 1, b + 1)
                 if bye in (a, b):
                     continue
-                ah = home_first[(a, b)] != flip
-                for v, h in ((a, ah), (b, not ah)):
-                    if last.get(v) is h:
-                        total += 1
-                    last[v] = h
-    return total
+                played.append((a, b) if home_first[(a, b)] != swapped else (b, a))
+            games.append(played)
+    return total_breaks(games, vertices)

@@ -6,8 +6,9 @@ in some round and ``j`` in the next, with the last round of the single round rob
 the first (the cyclic convention of the later literature). The carry-over effects value is
 ``COE = Σ c[i][j]²``; for ``n`` teams (``n`` even) ``n(n-1) <= COE <= (n-1)(n² - 6n + 12)``,
 the upper value being the circle method's (Lambrechts, Ficker, Goossens & Spieksma 2018,
-Math. Programming 172:277-302; closed form computed in fairness.md §2). It is measured on leg 1
-over the ``n`` vertices of the factorization (an odd league's bye counts as a dummy team).
+Math. Programming 172:277-302, from memory); the one definition is :mod:`scheduler.carry_over`.
+It is measured on leg 1 over the ``n`` vertices of the factorization (an odd league's bye counts
+as a dummy team).
 
 The local search swaps two rounds of leg 1 (first improvement, pairs in a fixed order, a fixed
 number of passes: deterministic) and keeps a swap only when the carry-over value falls and the
@@ -19,33 +20,9 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 
-from scheduler.balance import legs as leg_schemes
+from scheduler import leg_schemes
 from scheduler.balance.anneal import breaks_of
-
-
-def opponents(rounds: Sequence[Sequence[tuple[int, int]]], n: int) -> list[list[int]]:
-    """``opp[r][v]`` for rounds given as games of vertices ``0..n-1``."""
-    table = []
-    for games in rounds:
-        row = [-1] * n
-        for a, b in games:
-            row[a], row[b] = b, a
-        table.append(row)
-    return table
-
-
-def carry_over_value(rounds: Sequence[Sequence[tuple[int, int]]], n: int) -> int:
-    """Russell's COE = Σ c_ij² over one single round robin (cyclic)."""
-    opp = opponents(rounds, n)
-    R = len(opp)
-    c: dict[tuple[int, int], int] = {}
-    for r in range(R):
-        nxt = opp[(r + 1) % R]
-        cur = opp[r]
-        for t in range(n):
-            key = (cur[t], nxt[t])
-            c[key] = c.get(key, 0) + 1
-    return sum(v * v for v in c.values())
+from scheduler.carry_over import carry_over_of_rounds
 
 
 def improve_order(
@@ -72,7 +49,7 @@ def improve_order(
         return [[o[mp[q]] for q in range(R)] for mp in maps]
 
     cur = list(order)
-    cur_coe = carry_over_value([fact_rounds[k] for k in cur], n)
+    cur_coe = carry_over_of_rounds([fact_rounds[k] for k in cur], n)
     cur_br = breaks_of(fact_rounds, home_first, all_orders(cur), bye)
     for _ in range(passes):
         improved = False
@@ -80,7 +57,7 @@ def improve_order(
             for j in range(i + 1, R):
                 trial = list(cur)
                 trial[i], trial[j] = trial[j], trial[i]
-                coe = carry_over_value([fact_rounds[k] for k in trial], n)
+                coe = carry_over_of_rounds([fact_rounds[k] for k in trial], n)
                 if coe >= cur_coe:
                     continue
                 br = breaks_of(fact_rounds, home_first, all_orders(trial), bye)

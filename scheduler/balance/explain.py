@@ -1,14 +1,19 @@
-"""Infeasibility explained in the league's own words.
+"""Infeasibility explained in the league's own words, with a minimal set of rules.
 
-Every hard rule is added to the CP-SAT model under its own *assumption literal* (the constraints
-are ``OnlyEnforceIf(literal)`` and the literal is passed to ``AddAssumptions``). When the model is
+Every statement of a hard rule is added to the CP-SAT model under its own *assumption literal*
+(the constraints are ``OnlyEnforceIf(literal)`` and the literal is passed to
+``AddAssumptions``); rules the league switches off add no literal at all. When the model is
 infeasible, ``CpSolver.SufficientAssumptionsForInfeasibility()`` returns a subset of assumptions
-that cannot all hold; it is shrunk further by deletion (drop one rule, re-solve, keep it out if the
-rest is still infeasible), and the remaining rules are reported.
+that cannot all hold; it is shrunk to a *minimal* one with QuickXplain (U. Junker, "QUICKXPLAIN:
+preferred explanations and relaxations for over-constrained problems", AAAI 2004, from memory):
+divide the candidates in two halves, find what the second half must contribute given the first,
+then what the first must contribute given that, recursively; each test is a re-solve with only
+those assumptions. When every test is decided, dropping any one statement of the result removes
+the clash (the result is minimal); a test that runs out of time counts as "not proven
+infeasible", so the result is always a set proven to clash.
 
-Source: the assumption/core interface of OR-Tools CP-SAT (``AddAssumptions``,
-``SufficientAssumptionsForInfeasibility``); deletion-based core minimisation is the textbook
-"deletion filter" (Chinneck & Dravnieks 1991, ORSA J. Computing 3(2):157-168, from memory).
+Where a rule offers an obvious smallest relaxation (one more home game in a row, one rest day
+fewer...), the message names it beside the clash (:meth:`scheduler.rules.HardRule.relaxation`).
 """
 
 from __future__ import annotations
@@ -18,12 +23,18 @@ from dataclasses import dataclass, field
 
 from ortools.sat.python import cp_model
 
+from scheduler.config.model import League
 from scheduler.errors import InfeasibleError
+from scheduler.rules import RULES
+
+MAX_CHECKS = 40
+"""Re-solves allowed for minimising one clash at most (each capped at two deterministic
+seconds); the timetable model allows fewer for a short solve limit."""
 
 
 @dataclass
 class RuleBook:
-    """The assumption literals of one model and the plain-words text of each rule."""
+    """The assumption literals of one model and the plain-words text of each statement."""
 
     model: cp_model.CpModel
     literals: list[cp_model.IntVar] = field(default_factory=list)
@@ -50,28 +61,63 @@ class RuleBook:
         self.model.AddAssumptions(self.literals)
 
 
+def quickxplain(candidates: list[int], clashes: Callable[[list[int]], bool],
+                budget: int = MAX_CHECKS) -> list[int]:
+    """A minimal subset of ``candidates`` for which ``clashes`` holds (Junker 2004).
+
+    ``clashes(subset)`` must be monotone (a superset of a clashing set clashes) and true for the
+    whole of ``candidates``. After ``budget`` calls the remaining tests are answered "no
+    clash", which keeps the result clashing but maybe not minimal.
+
+    Examples
+    --------
+    >>> quickxplain(list(range(8)), lambda s: {2, 5} <= set(s))
+    [2, 5]
+    """
+    calls = [0]
+
+    def test(subset: list[int]) -> bool:
+        if calls[0] >= budget:
+            return False
+        calls[0] += 1
+        return clashes(subset)
+
+    def search(background: list[int], added: bool, pool: list[int]) -> list[int]:
+        if added and background and test(background):
+            return []
+        if len(pool) == 1:
+            return list(pool)
+        half = len(pool) // 2
+        first, second = pool[:half], pool[half:]
+        need_second = search(background + first, bool(first), second)
+        need_first = search(background + need_second, bool(need_second), first)
+        return need_first + need_second
+
+    if not candidates:
+        return []
+    return sorted(search([], False, list(candidates)))
+
+
 def explain(
     book: RuleBook,
     solver: cp_model.CpSolver,
     resolve: Callable[[list[int]], bool],
     *,
     what: str = "the league's rules cannot all hold",
+    league: League | None = None,
+    checks: int = MAX_CHECKS,
 ) -> InfeasibleError:
     """Build the error after an INFEASIBLE solve.
 
-    ``resolve(indices)`` re-solves with only those rules assumed and returns True when that is
-    still proven infeasible (used to shrink the core).
+    ``resolve(indices)`` re-solves with only those statements assumed and returns True when that
+    is still proven infeasible (used to shrink the clash to a minimal one, at most ``checks``
+    times).
     """
     index_of = {lit.Index(): i for i, lit in enumerate(book.literals)}
     core = sorted(index_of[v] for v in solver.SufficientAssumptionsForInfeasibility()
                   if v in index_of)
-    if core and len(core) <= 12:
-        kept = list(core)
-        for i in list(core):
-            trial = [j for j in kept if j != i]
-            if trial and resolve(trial):
-                kept = trial
-        core = kept
+    if core and len(core) > 1:
+        core = quickxplain(core, resolve, budget=checks)
     conflicts = [book.texts[i] for i in core]
     if not conflicts:
         return InfeasibleError(
@@ -81,4 +127,15 @@ def explain(
         message = f"{what}: this one cannot hold"
     else:
         message = f"{what}: these {len(conflicts)} cannot hold together"
+    if league is not None:
+        tries = []
+        for text in conflicts:
+            for rule in RULES:
+                change = rule.relaxation(league, text)
+                if change is not None:
+                    tries.append(change)
+                    break
+        if tries:
+            message += ("; the smallest changes to "
+                        "try: " + ", ".join(dict.fromkeys(tries)))
     return InfeasibleError(message, conflicts)

@@ -43,7 +43,6 @@ import random
 from collections.abc import Sequence
 from dataclasses import dataclass
 
-import numba as nb
 import numpy as np
 
 EXACT_HALF = 8
@@ -59,6 +58,13 @@ MAX_N = 62
 """Colourings are bit masks in an int64."""
 
 
+def _kernel():
+    """The numba kernels, imported on first use (only the search pays numba's import)."""
+    from scheduler.balance import _order_kernel
+
+    return _order_kernel
+
+
 @dataclass(frozen=True)
 class OrderResult:
     """A leg-1 round order, the venue of every game (``(a, b) -> a is at home``) and its breaks
@@ -69,246 +75,12 @@ class OrderResult:
     breaks: int
 
 
-@nb.njit(cache=True)
-def _popcount(x: int) -> int:
-    c = 0
-    while x:
-        x &= x - 1
-        c += 1
-    return c
-
-
-@nb.njit(cache=True)
-def _exact_value(masks, order, flips, keep):
-    """Value of :func:`_exact_path` without the back pointers (a plain min, which vectorises)."""
-    R, S = masks.shape
-    f = np.zeros(S, np.int64)
-    g = np.empty(S, np.int64)
-    for q in range(1, R):
-        a = masks[order[q - 1]]
-        b = masks[order[q]]
-        fl = flips[q - 1] ^ flips[q]
-        for y in range(S):
-            best = 1 << 40
-            by = (b[y] ^ fl) & keep
-            for x in range(S):
-                v = f[x] + _popcount((a[x] & keep) ^ by)
-                best = min(best, v)
-            g[y] = best
-        f[:] = g
-    return f.min()
-
-
-@nb.njit(cache=True)
-def _exact_path(masks, order, flips, keep, back):
-    """Shortest path through the colouring layers ``masks[order[q]]``; ``back[q, y]`` gets the
-    best predecessor of state ``y`` at position ``q``. A step costs the Hamming distance of the
-    colourings xor ``flips`` (the byes, see :class:`BreakPaths`) on the bits of ``keep``.
-    Returns (value, last state)."""
-    R, S = masks.shape
-    f = np.zeros(S, np.int64)
-    g = np.empty(S, np.int64)
-    for q in range(1, R):
-        a = masks[order[q - 1]]
-        b = masks[order[q]]
-        fl = flips[q - 1] ^ flips[q]
-        for y in range(S):
-            best = 1 << 40
-            arg = 0
-            by = (b[y] ^ fl) & keep
-            for x in range(S):
-                v = f[x] + _popcount((a[x] & keep) ^ by)
-                if v < best:
-                    best = v
-                    arg = x
-            g[y] = best
-            back[q, y] = arg
-        f[:] = g
-    last = 0
-    for y in range(S):
-        if f[y] < f[last]:
-            last = y
-    return f[last], last
-
-
-@nb.njit(cache=True)
-def _free(u, w, ea, eb, r):
-    """Best colouring of round ``r`` between the colourings ``u`` and ``w``: (cost, mask)."""
-    c = 0
-    mask = 0
-    for i in range(ea.shape[1]):
-        a = ea[r, i]
-        b = eb[r, i]
-        ua = (u >> a) & 1
-        wa = (w >> a) & 1
-        ub = (u >> b) & 1
-        wb = (w >> b) & 1
-        c1 = (ua != 1) + (wa != 1) + (ub != 0) + (wb != 0)
-        c2 = (ua != 0) + (wa != 0) + (ub != 1) + (wb != 1)
-        if c1 <= c2:
-            c += c1
-            mask |= 1 << a
-        else:
-            c += c2
-            mask |= 1 << b
-    return c, mask
-
-
-@nb.njit(cache=True)
-def _candidate_path(cand, order, ea, eb, F, back, kind):
-    """Shortest path over candidate colourings, a single free round allowed between two
-    candidate rounds. ``kind[q, y]`` is 1 (from ``q - 1``) or 2 (from ``q - 2`` through a free
-    round); ``back[q, y]`` the predecessor state. Returns (value, last state)."""
-    R, S = cand.shape
-    INF = 1 << 40
-    for y in range(S):
-        F[0, y] = 0
-    for q in range(1, R):
-        b = cand[order[q]]
-        a = cand[order[q - 1]]
-        for y in range(S):
-            best = INF
-            arg = 0
-            kd = 1
-            for x in range(S):
-                v = F[q - 1, x] + _popcount(a[x] ^ b[y])
-                if v < best:
-                    best = v
-                    arg = x
-            if q >= 2:
-                a2 = cand[order[q - 2]]
-                for x in range(S):
-                    if F[q - 2, x] >= best:
-                        continue
-                    c, _m = _free(a2[x], b[y], ea, eb, order[q - 1])
-                    v = F[q - 2, x] + c
-                    if v < best:
-                        best = v
-                        arg = x
-                        kd = 2
-            F[q, y] = best
-            back[q, y] = arg
-            kind[q, y] = kd
-    last = 0
-    for y in range(S):
-        if F[R - 1, y] < F[R - 1, last]:
-            last = y
-    return F[R - 1, last], last
-
-
-@nb.njit(cache=True)
-def _beam_step(states, vals, cand_s, ea, eb, s, width, out_m, out_v, out_p):
-    """One layer of the beam path: the children of every state in round ``s`` (each best
-    response, all of them when at most four games are monochromatic, and every candidate
-    colouring of ``s``), the ``width`` best distinct ones kept. Returns their number."""
-    half = ea.shape[1]
-    K = states.shape[0]
-    cap = out_m.shape[0]
-    cnt = 0
-    mono = np.empty(half, np.int64)
-    for i in range(K):
-        t = states[i]
-        base = 0
-        nm = 0
-        for e in range(half):
-            a = ea[s, e]
-            b = eb[s, e]
-            ta = (t >> a) & 1
-            tb = (t >> b) & 1
-            if ta != tb:
-                base |= t & ((1 << a) | (1 << b))
-            else:
-                mono[nm] = e
-                nm += 1
-        combos = 1 << nm if nm <= 4 else 2
-        for c in range(combos):
-            m = base
-            for j in range(nm):
-                e = mono[j]
-                bit = (c >> j) & 1 if nm <= 4 else (c + j) & 1
-                m |= (1 << ea[s, e]) if bit else (1 << eb[s, e])
-            if cnt < cap:
-                out_m[cnt] = m
-                out_v[cnt] = vals[i] + nm
-                out_p[cnt] = i
-                cnt += 1
-    for j in range(cand_s.shape[0]):
-        best = 1 << 40
-        arg = 0
-        for i in range(K):
-            v = vals[i] + _popcount(states[i] ^ cand_s[j])
-            if v < best:
-                best = v
-                arg = i
-        if cnt < cap:
-            out_m[cnt] = cand_s[j]
-            out_v[cnt] = best
-            out_p[cnt] = arg
-            cnt += 1
-    # distinct masks, the lowest value (then lowest mask) first; keep ``width``
-    vm = out_v[:cnt]
-    mm = out_m[:cnt]
-    idx = np.argsort(mm, kind="mergesort")
-    idx = idx[np.argsort(vm[idx], kind="mergesort")]
-    kept = 0
-    sel_m = np.empty(width, np.int64)
-    sel_v = np.empty(width, np.int64)
-    sel_p = np.empty(width, np.int64)
-    for r in range(cnt):
-        i = idx[r]
-        dup = False
-        for j in range(kept):
-            if sel_m[j] == mm[i]:
-                dup = True
-                break
-        if dup:
-            continue
-        sel_m[kept] = mm[i]
-        sel_v[kept] = vm[i]
-        sel_p[kept] = out_p[i]
-        kept += 1
-        if kept == width:
-            break
-    out_m[:kept] = sel_m[:kept]
-    out_v[:kept] = sel_v[:kept]
-    out_p[:kept] = sel_p[:kept]
-    return kept
-
-
-@nb.njit(cache=True)
-def _beam_path(cand, order, ea, eb, width, M, V, P, N):
-    """Beam path over the layers: ``M[q, :N[q]]`` the kept colourings of position ``q``,
-    ``V`` their values, ``P`` their parents. Returns (value, index of the best last state)."""
-    R, S = cand.shape
-    cap = M.shape[1]
-    r0 = order[0]
-    for j in range(S):
-        M[0, j] = cand[r0, j]
-        V[0, j] = 0
-        P[0, j] = 0
-    N[0] = S
-    om = np.empty(cap, np.int64)
-    ov = np.empty(cap, np.int64)
-    op = np.empty(cap, np.int64)
-    for q in range(1, R):
-        k = _beam_step(M[q - 1, :N[q - 1]], V[q - 1, :N[q - 1]], cand[order[q]], ea, eb,
-                       order[q], width, om, ov, op)
-        M[q, :k] = om[:k]
-        V[q, :k] = ov[:k]
-        P[q, :k] = op[:k]
-        N[q] = k
-    best = 0
-    for j in range(N[R - 1]):
-        if V[R - 1, j] < V[R - 1, best]:
-            best = j
-    return V[R - 1, best], best
-
-
 class BreakPaths:
     """The colouring layers of one factorization and the path evaluator for round orders."""
 
-    def __init__(self, rounds: Sequence[Sequence[tuple[int, int]]], n: int,
-                 bye: int | None = None) -> None:
+    def __init__(
+        self, rounds: Sequence[Sequence[tuple[int, int]]], n: int, bye: int | None = None
+    ) -> None:
         if n % 2 or n > MAX_N:
             raise ValueError(f"colouring masks need an even n <= {MAX_N}, got {n}")
         if bye is not None and n // 2 > EXACT_HALF:
@@ -322,17 +94,17 @@ class BreakPaths:
                 for a, b in games:
                     if bye in (a, b):
                         self.bye_of[k] = a if b == bye else b
-        self.R = len(rounds)
+        self.round_count = len(rounds)
         self.rounds = [list(r) for r in rounds]
         half = n // 2
-        self.ea = np.array([[a for a, _ in r] for r in self.rounds], dtype=np.int64)
-        self.eb = np.array([[b for _, b in r] for r in self.rounds], dtype=np.int64)
+        self.first_vertex = np.array([[a for a, _ in r] for r in self.rounds], dtype=np.int64)
+        self.second_vertex = np.array([[b for _, b in r] for r in self.rounds], dtype=np.int64)
         self.exact = half <= EXACT_HALF
         full = (1 << n) - 1
-        cand = np.zeros((self.R, 2 * (self.R - 1)), dtype=np.int64)
-        for r in range(self.R):
+        cand = np.zeros((self.round_count, 2 * (self.round_count - 1)), dtype=np.int64)
+        for r in range(self.round_count):
             row = []
-            for s in range(self.R):
+            for s in range(self.round_count):
                 if s != r:
                     m = self._bipartition(r, s)
                     row += [m, full ^ m]
@@ -340,32 +112,36 @@ class BreakPaths:
         self.cand = cand
         if self.exact:
             S = 1 << half
-            masks = np.zeros((self.R, S), dtype=np.int64)
-            for r in range(self.R):
+            masks = np.zeros((self.round_count, S), dtype=np.int64)
+            for r in range(self.round_count):
                 for x in range(S):
                     t = 0
                     for i in range(half):
-                        t |= 1 << int(self.ea[r, i] if (x >> i) & 1 else self.eb[r, i])
+                        t |= 1 << int(
+                            self.first_vertex[r, i] if (x >> i) & 1 else self.second_vertex[r, i]
+                        )
                     masks[r, x] = t
             self.layers = masks
         else:
             self.layers = cand
         self.width = BEAM_WIDTH
         cap = self.width * 16 + cand.shape[1]
-        self._M = np.zeros((self.R, cap), dtype=np.int64)
-        self._V = np.zeros((self.R, cap), dtype=np.int64)
-        self._P = np.zeros((self.R, cap), dtype=np.int64)
-        self._N = np.zeros(self.R, dtype=np.int64)
+        self._beam_masks = np.zeros((self.round_count, cap), dtype=np.int64)
+        self._beam_values = np.zeros((self.round_count, cap), dtype=np.int64)
+        self._beam_parents = np.zeros((self.round_count, cap), dtype=np.int64)
+        self._beam_sizes = np.zeros(self.round_count, dtype=np.int64)
         S = self.layers.shape[1]
-        self._back = np.zeros((self.R, S), dtype=np.int64)
-        self._F = np.zeros((self.R, S), dtype=np.int64)
-        self._kind = np.zeros((self.R, S), dtype=np.int64)
+        self._back = np.zeros((self.round_count, S), dtype=np.int64)
+        self._path_values = np.zeros((self.round_count, S), dtype=np.int64)
+        self._kind = np.zeros((self.round_count, S), dtype=np.int64)
 
     @property
     def work(self) -> int:
         """Work units of one evaluation (inner-loop steps), for budgeting without a clock."""
         S = self.layers.shape[1]
-        kernel = self.R * S * S // 4 if self.exact else self.R * S * S * (self.n + 4)
+        kernel = (
+            self.round_count * S * S // 4 if self.exact else self.round_count * S * S * (self.n + 4)
+        )
         return kernel + CALL_WORK
 
     def _bipartition(self, r: int, s: int) -> int:
@@ -392,23 +168,43 @@ class BreakPaths:
     def beam_work(self) -> int:
         """Work units of one :meth:`beam` evaluation."""
         S = self.cand.shape[1]
-        return self.R * self.width * (20 * self.n + 2 * S + 60) + CALL_WORK
+        return self.round_count * self.width * (20 * self.n + 2 * S + 60) + CALL_WORK
 
     def beam(self, order: Sequence[int]) -> int:
         """Value of the beam path for ``order`` (an upper bound)."""
         o = np.asarray(order, dtype=np.int64)
-        return int(_beam_path(self.cand, o, self.ea, self.eb, self.width, self._M, self._V,
-                              self._P, self._N)[0])
+        return int(
+            _kernel()._beam_path(
+                self.cand,
+                o,
+                self.first_vertex,
+                self.second_vertex,
+                self.width,
+                self._beam_masks,
+                self._beam_values,
+                self._beam_parents,
+                self._beam_sizes,
+            )[0]
+        )
 
     def beam_colourings(self, order: Sequence[int]) -> tuple[int, list[int]]:
         """(value, colouring at every position) of the beam path for ``order``."""
         o = np.asarray(order, dtype=np.int64)
-        value, j = _beam_path(self.cand, o, self.ea, self.eb, self.width, self._M, self._V,
-                              self._P, self._N)
-        t = [0] * self.R
-        for q in range(self.R - 1, -1, -1):
-            t[q] = int(self._M[q, j])
-            j = int(self._P[q, j])
+        value, j = _kernel()._beam_path(
+            self.cand,
+            o,
+            self.first_vertex,
+            self.second_vertex,
+            self.width,
+            self._beam_masks,
+            self._beam_values,
+            self._beam_parents,
+            self._beam_sizes,
+        )
+        t = [0] * self.round_count
+        for q in range(self.round_count - 1, -1, -1):
+            t[q] = int(self._beam_masks[q, j])
+            j = int(self._beam_parents[q, j])
         return int(value), t
 
     def flips(self, order: Sequence[int]) -> np.ndarray:
@@ -427,24 +223,42 @@ class BreakPaths:
     def value(self, order: Sequence[int]) -> int:
         o = np.asarray(order, dtype=np.int64)
         if self.exact:
-            return int(_exact_value(self.layers, o, self.flips(order), self.keep))
-        return int(_candidate_path(self.layers, o, self.ea, self.eb, self._F, self._back,
-                                   self._kind)[0])
+            return int(_kernel()._exact_value(self.layers, o, self.flips(order), self.keep))
+        return int(
+            _kernel()._candidate_path(
+                self.layers,
+                o,
+                self.first_vertex,
+                self.second_vertex,
+                self._path_values,
+                self._back,
+                self._kind,
+            )[0]
+        )
 
     def colourings(self, order: Sequence[int]) -> tuple[int, list[int]]:
         """(value, the colouring mask at every position) of the best path for ``order``."""
         o = np.asarray(order, dtype=np.int64)
-        R = self.R
+        R = self.round_count
         t = [0] * R
         if self.exact:
-            value, y = _exact_path(self.layers, o, self.flips(order), self.keep, self._back)
+            value, y = _kernel()._exact_path(
+                self.layers, o, self.flips(order), self.keep, self._back
+            )
             for q in range(R - 1, -1, -1):
                 t[q] = int(self.layers[o[q], y])
                 if q:
                     y = int(self._back[q, y])
             return int(value), t
-        value, y = _candidate_path(self.layers, o, self.ea, self.eb, self._F, self._back,
-                                   self._kind)
+        value, y = _kernel()._candidate_path(
+            self.layers,
+            o,
+            self.first_vertex,
+            self.second_vertex,
+            self._path_values,
+            self._back,
+            self._kind,
+        )
         q = R - 1
         while q >= 0:
             t[q] = int(self.layers[o[q], y])
@@ -455,7 +269,11 @@ class BreakPaths:
                 q, y = q - 1, x
             else:
                 u = int(self.layers[o[q - 2], x])
-                t[q - 1] = int(_free(u, t[q], self.ea, self.eb, int(o[q - 1]))[1])
+                t[q - 1] = int(
+                    _kernel()._free(u, t[q], self.first_vertex, self.second_vertex, int(o[q - 1]))[
+                        1
+                    ]
+                )
                 q, y = q - 2, x
         return int(value), t
 
@@ -484,7 +302,7 @@ def _move(order: list[int], rng: random.Random) -> list[int]:
     if kind < 1 / 3:
         p[i], p[j] = p[j], p[i]
     elif kind < 2 / 3:
-        p[i:j + 1] = p[i:j + 1][::-1]
+        p[i : j + 1] = p[i : j + 1][::-1]
     elif rng.random() < 0.5:
         p.insert(j, p.pop(i))
     else:
@@ -506,9 +324,15 @@ def _anneal(score, order: list[int], evals: int, rng: random.Random, t0: float, 
     return best, best_order
 
 
-def search_order(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *, seed: int = 0,
-                 work: float = 2e9, start: Sequence[int] | None = None,
-                 bye: int | None = None) -> OrderResult:
+def search_order(
+    rounds: Sequence[Sequence[tuple[int, int]]],
+    n: int,
+    *,
+    seed: int = 0,
+    work: float = 2e9,
+    start: Sequence[int] | None = None,
+    bye: int | None = None,
+) -> OrderResult:
     """Simulated annealing over the leg-1 round order, each order scored by its break path
     (module docstring); returns the best order with its home/away assignment.
 
@@ -518,7 +342,7 @@ def search_order(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *, seed: i
     from it (at least 50), independent of the machine.
     """
     paths = BreakPaths(rounds, n, bye)
-    R = paths.R
+    R = paths.round_count
     order = list(start) if start is not None else list(range(R))
     if R < 3:
         return paths.assignment(order)

@@ -20,29 +20,27 @@ from datetime import date
 
 from scheduler.config.model import League
 from scheduler.errors import ConfigError
+from scheduler.leg_schemes import FIXED_SCHEMES, least_separation
 
 
 def _plural(n: int, word: str) -> str:
     return f"{n} {word}" if n == 1 else f"{n} {word}s"
 
 
-def leg_separation(scheme: str, per_leg: int) -> int | None:
-    """Smallest number of rounds strictly between the two meetings of a pair, legs 1 and 2.
+def leg_separation(scheme: str, per_leg: int, legs: int = 2) -> int | None:
+    """Smallest number of rounds strictly between two meetings of a pair that ``scheme`` allows
+    with ``per_leg`` rounds in a leg (:func:`scheduler.leg_schemes.least_separation`; derived in
+    ``docs/leg-schemes.md``): mirrored ``per_leg - 1``, French ``per_leg - 2``, English and
+    inverted 0; ``None`` for ``free``, which fixes nothing.
 
-    ``per_leg`` is the number of rounds in one leg (m). Leg 2 repeats the leg-1 rounds in the
-    order of the scheme (Goossens & Spieksma, "Soccer schedules in Europe: an overview",
-    J. Scheduling 15:641-651, 2012; index maps as in /work/shared/reference/fairness.md §4):
-    mirrored 1..m (every pair m-1 apart), French 2..m, 1 (m-2 for all but the round-1 pairs),
-    English m, 1..m-1 (the last-round pairs meet back to back: 0), inverted m..1 (0).
-    ``free`` fixes nothing (``None``).
+    Examples
+    --------
+    >>> leg_separation("french", 9), leg_separation("free", 9) is None
+    (7, True)
     """
-    if scheme == "mirrored":
-        return per_leg - 1
-    if scheme == "french":
-        return max(per_leg - 2, 0) if per_leg >= 2 else 0
-    if scheme in ("english", "inverted"):
-        return 0
-    return None
+    if scheme not in FIXED_SCHEMES or per_leg < 1:
+        return None
+    return least_separation(scheme, max(2, legs), per_leg)
 
 
 def season_problems(league: League) -> list[str]:
@@ -195,7 +193,7 @@ def season_problems(league: League) -> list[str]:
                 f"rules.{name}: the season has only {_plural(rounds, 'round')}, got {value}"
             )
     if rules.min_separation and fmt.legs >= 2:
-        most = leg_separation(fmt.scheme, per_leg)
+        most = leg_separation(fmt.scheme, per_leg, fmt.legs)
         if most is not None and rules.min_separation > most:
             problems.append(
                 f"rules.min_separation: with scheme = {fmt.scheme!r} some pairs have only "

@@ -29,7 +29,7 @@ __all__ = [
 ]
 
 Scheme = Literal["mirrored", "french", "english", "inverted", "free"]
-"""How a later leg repeats the pairings of leg 1 (venues swapped); see ``scheduler.balance.legs``.
+"""How a later leg repeats the pairings of leg 1 (venues swapped); see ``scheduler.leg_schemes``.
 """
 
 HomeMeaning = Literal["venue", "side"]

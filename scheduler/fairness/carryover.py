@@ -29,6 +29,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from scheduler.carry_over import carry_over_matrix, carry_over_value
 from scheduler.fairness.legs import partner_rows
 from scheduler.fairness.table import SeasonTable
 
@@ -53,22 +54,6 @@ class CarryOverFigures:
 def coe_bounds(n: int) -> tuple[int, int]:
     """Russell's lower bound n(n-1) and the circle method's maximum (n-1)(n^2-6n+12)."""
     return n * (n - 1), (n - 1) * (n * n - 6 * n + 12)
-
-
-def carry_over_matrix(partners: np.ndarray) -> np.ndarray:
-    """Cyclic carry-over matrix of a ``(rounds, N)`` partner table (-1 = no opponent)."""
-    m, big_n = partners.shape
-    if m == 0 or big_n == 0:
-        return np.zeros((big_n, big_n), dtype=np.int64)
-    i = partners
-    j = np.roll(partners, -1, axis=0)
-    ok = (i >= 0) & (j >= 0)
-    flat = i[ok] * big_n + j[ok]
-    return np.bincount(flat, minlength=big_n * big_n).reshape(big_n, big_n).astype(np.int64)
-
-
-def carry_over_value(matrix: np.ndarray) -> int:
-    return int((matrix.astype(np.int64) ** 2).sum())
 
 
 def carry_over_figures(table: SeasonTable, round_leg: np.ndarray, legs: int) -> CarryOverFigures:

@@ -10,6 +10,7 @@ from __future__ import annotations
 
 import numpy as np
 
+from scheduler.config.model import League
 from scheduler.fairness.breaks import break_figures, breaks_lower_bound
 from scheduler.fairness.carryover import CONVENTION, carry_over_figures
 from scheduler.fairness.legs import detect_legs, separation
@@ -18,6 +19,7 @@ from scheduler.fairness.model import BYE_CONVENTION, FairnessReport, TeamFigures
 from scheduler.fairness.rest import rest_figures
 from scheduler.fairness.table import build_table
 from scheduler.fairness.venues import btd_check, usages
+from scheduler.rules import check_rules
 from scheduler.season import Season
 
 
@@ -34,8 +36,21 @@ def _pairs(names: tuple[str, ...], row: np.ndarray) -> tuple[tuple[str, int], ..
     return tuple((names[k], int(v)) for k, v in enumerate(row.tolist()) if v)
 
 
-def compute_fairness(season: Season) -> FairnessReport:
-    """All fairness figures of ``season`` (see :class:`FairnessReport` for each one)."""
+def compute_fairness(season: Season, league: League | None = None) -> FairnessReport:
+    """All fairness figures of ``season`` (see :class:`FairnessReport` for each one).
+
+    Parameters
+    ----------
+    season : Season
+        Any season, planned or read by the audit.
+    league : League, optional
+        The league whose hard rules the season must keep; when given, ``rule_checks`` holds the
+        checklist of those rules (:func:`scheduler.rules.check_rules`), else it is ``None``.
+
+    Returns
+    -------
+    FairnessReport
+    """
     table = build_table(season)
     n = table.n
     notes: list[str] = []
@@ -155,4 +170,5 @@ def compute_fairness(season: Season) -> FairnessReport:
         home_run_max=int(brk.home_run.max(initial=0)),
         away_run_max=int(brk.away_run.max(initial=0)),
         rest_mismatches=rest.mismatches,
+        rule_checks=check_rules(league, season) if league is not None else None,
     )

@@ -4,11 +4,10 @@
 * The leg of a round is the ``leg`` written on its fixtures when the fixtures name more than
   one leg; otherwise, with k > 1 legs and a number of rounds divisible by k, the rounds are cut
   into k equal consecutive blocks.
-* The scheme of a two-leg season compares each leg-2 round's pairing with the leg-1 rounds
-  (venues swapped in every game): leg 2 = leg-1 rounds 1, 2, ..., n-1 is *mirrored*;
-  2, ..., n-1, 1 *french*; n-1, 1, ..., n-2 *english*; n-1, ..., 1 *inverted*; anything else
-  *free*. The index maps follow Goossens & Spieksma, "Soccer schedules in Europe: an overview",
-  J. Scheduling 15 (2012) 641-651 (as recorded in the project notes, section 4).
+* The scheme compares each later round's pairing with the leg-1 rounds (venues swapped in every
+  game of legs 2, 4, ...): leg 2 = leg-1 rounds 1, 2, ..., n-1 is *mirrored*; 2, ..., n-1, 1
+  *french*; n-1, 1, ..., n-2 *english*; n-1, ..., 1 *inverted*; later legs repeat the step
+  (:mod:`scheduler.leg_schemes`, ``docs/leg-schemes.md``); anything else is *free*.
 
 A round's *pairing key* is its row of partners (with the bye vertex for an odd league), so two
 rounds have the same key exactly when they pair the same teams.
@@ -21,6 +20,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from scheduler.fairness.table import SeasonTable
+from scheduler.leg_schemes import flipped, scheme_of_maps
 
 
 @dataclass(frozen=True)
@@ -87,38 +87,33 @@ def detect_legs(table: SeasonTable) -> LegStructure:
 
 
 def _detect_scheme(table: SeasonTable, round_leg: np.ndarray, legs: int) -> str:
+    """The fixed scheme every later leg follows (:func:`scheduler.leg_schemes.leg_maps`: the
+    pairings of leg 1 in the scheme's order, venues swapped on every other leg), else "free"."""
     if legs == 1:
         return "single"
-    if legs != 2:
-        return "free"
     leg1 = np.flatnonzero(round_leg == 1)
-    leg2 = np.flatnonzero(round_leg == 2)
-    if len(leg1) == 0 or len(leg1) != len(leg2):
+    if len(leg1) == 0:
         return "free"
     rows, _ = partner_rows(table)
     key1 = {rows[r].tobytes(): i for i, r in enumerate(leg1)}
-    sigma = []
-    for r in leg2:
-        i = key1.get(rows[r].tobytes())
-        if i is None:
-            return "free"
-        sigma.append(i)
-    # Venues swapped in every game of leg 2 against its leg-1 round.
     sign = table.venue_sign
-    if not np.array_equal(sign[leg2], -sign[leg1[sigma]]):
-        return "free"
-    m = len(leg1)
-    s = np.arange(m)
-    sigma_arr = np.asarray(sigma)
-    for name, target in (
-        ("mirrored", s),
-        ("french", (s + 1) % m),
-        ("english", (s - 1) % m),
-        ("inverted", m - 1 - s),
-    ):
-        if np.array_equal(sigma_arr, target):
-            return name
-    return "free"
+    maps = []
+    for leg in range(2, legs + 1):
+        rounds = np.flatnonzero(round_leg == leg)
+        if len(rounds) != len(leg1):
+            return "free"
+        copied = []
+        for r in rounds:
+            i = key1.get(rows[r].tobytes())
+            if i is None:
+                return "free"
+            copied.append(i)
+        # Venues swapped in every game of an even-numbered leg, kept in an odd-numbered one.
+        factor = -1 if flipped(leg - 1) else 1
+        if not np.array_equal(sign[rounds], factor * sign[leg1[copied]]):
+            return "free"
+        maps.append(tuple(copied))
+    return scheme_of_maps((tuple(range(len(leg1))), *maps))
 
 
 def separation(table: SeasonTable) -> tuple[int | None, int | None]:

@@ -15,7 +15,7 @@ each team at most once per round, an odd league has one bye per round; common pr
   an odd league, teams with unequal numbers of byes, byes naming unknown teams.
 
 Messages name rows of the source file when the caller passes them (``rows``: one source row per
-fixture, as returned by :func:`scheduler.export.readers.read_schedule_with_rows`), otherwise
+fixture, as returned by :func:`scheduler.audit.readers.read_schedule_with_rows`), otherwise
 fixture numbers (1-based positions in ``Season.fixtures``). Each kind of problem is spelled out
 at most :data:`MAX_PER_KIND` times; the rest are summed up in one more problem.
 """

@@ -1,7 +1,9 @@
-"""An independent checker of a Season against its League's hard rules.
+"""An independent checker of a Season against its League: the round-robin structure and places
+here, the league's hard rules through their own checks (:func:`scheduler.rules.check_rules`,
+which read the fixtures only and import nothing from ``scheduler.balance``). Those checks are
+cross-checked against the rules' definitions in ``tests/rules/test_cross_check.py``.
 
-Plain code on the fixtures only: it does not import anything from ``scheduler.balance``. Each
-rule is read as ``scheduler/config/model.py`` (``Rules``) and the balancer brief define it:
+What is checked (the hard rules as ``docs/rules.md`` defines them):
 
 - round robin: every pair meets once per leg, nobody plays twice in a round, byes complete;
 - unavailable: no game of the team on that date;
@@ -24,6 +26,7 @@ import itertools
 from collections import Counter, defaultdict
 
 from scheduler.config.model import League
+from scheduler.rules import check_rules
 from scheduler.season import Season
 
 
@@ -63,69 +66,16 @@ def check_season(league: League, season: Season) -> list[str]:
     for f in season.fixtures:
         if f.leg != (f.round - 1) // R + 1:
             bad.append(f"round {f.round} labelled leg {f.leg}")
-    r = league.rules
-    for td in r.unavailable:
-        for f in season.fixtures:
-            if td.team in (f.home, f.away) and f.date in td.dates:
-                bad.append(f"{td.team} plays on {f.date} (unavailable)")
-    for td in r.no_home_games:
-        for f in season.fixtures:
-            if f.home == td.team and f.date in td.dates:
-                bad.append(f"{td.team} at home on {f.date}")
-    for grp in league.shared_ground_groups:
-        by_day: dict = defaultdict(set)
-        for f in season.fixtures:
-            if f.home in grp:
-                by_day[f.date].add(f.home)
-        for d, hosts in by_day.items():
-            if len(hosts) > 1:
-                bad.append(f"shared ground {grp}: {sorted(hosts)} at home on {d}")
-    for fx in r.fixed:
-        ok = False
-        for f in season.fixtures:
-            if {f.home, f.away} != {fx.home, fx.away}:
-                continue
-            if fx.round is not None and f.round != fx.round:
-                continue
-            if fx.date is not None and f.date != fx.date:
-                continue
-            if not fx.any_venue and f.home != fx.home:
-                continue
-            ok = True
-        if not ok:
-            bad.append(f"fixed fixture {fx} not in the season")
+    # the league's hard rules: their own independent checks (scheduler.rules, fixtures only),
+    # cross-checked against a from-the-definition computation in tests/rules/test_cross_check.py
+    for check in check_rules(league, season):
+        bad += [f"{check.rule}: {v.team} round {v.round} {v.date}: {v.what}"
+                for v in check.violations]
     for t in names:
-        seq = _sequence(season, t)
-        venues = [f.home == t for f in seq]
-        for limit, want, word in ((r.max_home_run, True, "home"), (r.max_away_run, False, "away")):
-            if limit is None:
-                continue
-            run = best = 0
-            for v in venues:
-                run = run + 1 if v is want else 0
-                best = max(best, run)
-            if best > limit:
-                bad.append(f"{t}: {best} {word} games in a row (max {limit})")
-        for prev, cur in itertools.pairwise(seq):
-            is_break = (prev.home == t) == (cur.home == t)
-            if is_break and r.no_breaks_first and cur.round <= r.no_breaks_first + 1:
-                bad.append(f"{t}: break in round {cur.round} (no_breaks_first)")
-            if is_break and r.no_breaks_last and cur.round > rounds - r.no_breaks_last:
-                bad.append(f"{t}: break in round {cur.round} (no_breaks_last)")
+        for prev, cur in itertools.pairwise(_sequence(season, t)):
             if (prev.start and cur.start and prev.date == cur.date
                     and not prev.start < cur.start):
                 bad.append(f"{t}: round {cur.round} does not start after round {prev.round}")
-            if r.min_rest_days is not None and (cur.date - prev.date).days - 1 < r.min_rest_days:
-                bad.append(f"{t}: rest {(cur.date - prev.date).days - 1} days before {cur.date}")
-    if r.min_separation is not None and legs > 1:
-        when: dict = defaultdict(list)
-        for f in season.fixtures:
-            when[frozenset((f.home, f.away))].append(f.round)
-        for pair, rs in when.items():
-            rs.sort()
-            for x, y in itertools.pairwise(rs):
-                if y - x - 1 < r.min_separation:
-                    bad.append(f"{sorted(pair)} meet in rounds {x} and {y}")
     # places and times
     venues = {v.name: v for v in league.venues}
     used = Counter()
@@ -160,7 +110,8 @@ def check_season(league: League, season: Season) -> list[str]:
 
 
 def count_breaks(season: Season) -> int:
-    """Total breaks over the games played (byes skipped), counted in the second game."""
+    """Total breaks over the games played (byes skipped), counted in the second game (plain
+    code from the definition, de Werra 1981)."""
     total = 0
     for t in season.teams:
         seq = _sequence(season, t)

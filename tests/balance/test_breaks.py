@@ -3,8 +3,8 @@
 Sources: D. de Werra, "Scheduling in sports", Annals of Discrete Math. 11 (1981) 381-395:
 a single round robin (SRR) of n teams (n even) has at least n-2 breaks, reached by the canonical
 schedule; a mirrored double round robin has at least 3n-6 (de Werra's bound, proof re-derived in
-fairness.md §1). French 2n, English and inverted 2n-4: derived in fairness.md §4 (the French
-proof re-checked case by case in scheduler.balance.legs; 2n-4 = two legs of n-2 each), not found
+docs/leg-schemes.md). French 2n, English and inverted 2n-4: derived in docs/leg-schemes.md
+(2n-4 = two legs of n-2 each; checked exhaustively in tests/balance/test_leg_schemes.py), not found
 stated in a published source. Odd n: a break-free SRR exists (de Werra 1981), with the bye on
 the circle's fixed vertex.
 Breaks are counted twice: by this suite's own rule checker and by scheduler.fairness.
@@ -14,9 +14,9 @@ from __future__ import annotations
 
 import pytest
 
-from scheduler.balance import plan_season
 from scheduler.config.model import Priorities
 from scheduler.fairness import compute_fairness
+from scheduler.plan import plan_season
 
 from .helpers import league
 from .rule_checker import check_season, count_breaks
@@ -48,14 +48,14 @@ def test_mirrored_drr_has_3n_minus_6_breaks(n):
 
 @pytest.mark.parametrize("n", [4, 6, 8, 10])
 def test_french_drr_has_2n_breaks(n):
-    # fairness.md §4, derived: every team has at least 2 breaks under the French scheme.
+    # docs/leg-schemes.md, derived: every team has at least 2 breaks under the French scheme.
     result = _plan(n, legs=2, scheme="french")
     assert count_breaks(result.season) == 2 * n
 
 
 @pytest.mark.parametrize("n", [4, 6, 8, 10, 12])
 def test_inverted_drr_has_2n_minus_4_breaks(n):
-    # fairness.md §4, derived (two SRR legs of n-2 each; the junction repeats one game with
+    # docs/leg-schemes.md, derived (two SRR legs of n-2 each; the junction repeats one game with
     # swapped venues, so it is never a break).
     result = _plan(n, legs=2, scheme="inverted")
     assert count_breaks(result.season) == 2 * n - 4
@@ -63,7 +63,7 @@ def test_inverted_drr_has_2n_minus_4_breaks(n):
 
 @pytest.mark.parametrize("n", [4, 6, 8, 10, 12])
 def test_english_drr_has_2n_minus_4_breaks(n):
-    # fairness.md §4, derived (2n-4 = two legs of n-2) and computed for n = 4, 6, 8; reached
+    # docs/leg-schemes.md, derived (2n-4 = two legs of n-2) and computed for n = 4, 6, 8; reached
     # here by the canonical schedule with its round order rotated by one.
     result = _plan(n, legs=2, scheme="english")
     assert count_breaks(result.season) == 2 * n - 4
@@ -87,7 +87,7 @@ def test_srr_odd_has_no_breaks(n):
 
 @pytest.mark.parametrize("n", [5, 7])
 def test_mirrored_odd_has_n_breaks(n):
-    # fairness.md §1 (proved there): with byes skipped every team breaks at the leg junction,
+    # docs/leg-schemes.md (proved there): with byes skipped every team breaks at the leg junction,
     # so a mirrored DRR of an odd league has at least n breaks; n is reached.
     result = _plan(n, legs=2)
     assert count_breaks(result.season) == n

@@ -12,11 +12,11 @@ from __future__ import annotations
 
 import pytest
 
-from scheduler.balance import plan_season
-from scheduler.balance.carry import carry_over_value
+from scheduler.carry_over import carry_over_of_rounds as carry_over_value
 from scheduler.config.model import Priorities
 from scheduler.factorization.circle import circle_rounds
 from scheduler.fairness import compute_fairness
+from scheduler.plan import plan_season
 
 from .helpers import league
 

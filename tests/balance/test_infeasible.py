@@ -11,9 +11,9 @@ from datetime import date
 
 import pytest
 
-from scheduler.balance import plan_season
 from scheduler.config.model import CalendarSpec, FixedFixture, Rules, TeamDates
 from scheduler.errors import InfeasibleError
+from scheduler.plan import plan_season
 
 from .helpers import league
 
@@ -92,7 +92,7 @@ def test_too_many_unavailable_dates_for_the_calendar():
 
 
 def test_min_separation_against_english_scheme():
-    # fairness.md §4: the English scheme plays the pairs of round n-1 again in round n
+    # docs/leg-schemes.md: the English scheme plays the pairs of round n-1 again in round n
     conflicts = _conflicts(league(6, legs=2, scheme="english", rules=Rules(min_separation=1)))
     assert len(conflicts) == 1 and conflicts[0].startswith("min_separation = 1")
 

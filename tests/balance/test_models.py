@@ -1,6 +1,6 @@
 """The balancer's building blocks against published facts.
 
-- The canonical schedule (circle method with de Werra's orientation, fairness.md §1; de Werra
+- The canonical schedule (circle method with de Werra's orientation, docs/leg-schemes.md; de Werra
   1981, Annals of Discrete Math. 11:381-395): n-2 breaks, exactly two teams without a break,
   every other team with exactly one, (n-2)/2 or n/2 home games per team.
 - The annealing start never exceeds the Post & Woeginger bound: every timetable admits a
@@ -16,14 +16,14 @@ from datetime import date, time
 
 import pytest
 
-from scheduler.balance import legs as leg_schemes
-from scheduler.balance import plan_season
+from scheduler import leg_schemes
 from scheduler.balance.anneal import anneal, breaks_of
-from scheduler.balance.timetable import canonical_hint
+from scheduler.balance.starting_point import canonical_hint
 from scheduler.config.model import CalendarSpec, Rules, Venue
 from scheduler.errors import InfeasibleError
 from scheduler.factorization import factorize
 from scheduler.factorization.circle import circle_rounds
+from scheduler.plan import plan_season
 
 from .helpers import league
 from .rule_checker import check_season
@@ -35,7 +35,7 @@ def test_canonical_schedule_check_values(n):
     rounds = circle_rounds(n)
     assert sorted(order) == list(range(n - 1))
     assert breaks_of(rounds, home, [order], None) == n - 2
-    # mirrored double round robin: 3n-6 (fairness.md §1 check values)
+    # mirrored double round robin: 3n-6 (docs/leg-schemes.md check values)
     assert breaks_of(rounds, home, [order, order], None) == 3 * n - 6
     per_team = []
     homes = []

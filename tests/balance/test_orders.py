@@ -180,7 +180,7 @@ def test_search_reaches_the_exact_optimum_of_ga10():
 
 @pytest.mark.parametrize("n", [8, 10])
 def test_bye_path_matches_cpsat(n):
-    # odd league of n - 1 teams on K_n with the bye vertex n - 1, byes skipped (fairness.md §1
+    # odd league of n - 1 teams on K_n with the bye vertex n - 1, byes skipped (docs/leg-schemes.md
     # convention); the exact path with the bye flips against CP-SAT on the plain model.
     rounds = anderson_factorization(n).rounds if n == 10 else circle_rounds(n)
     bye = n - 1

@@ -13,9 +13,9 @@ from datetime import time
 
 import pytest
 
-from scheduler.balance import plan_season
 from scheduler.config.model import Priorities, Venue
 from scheduler.fairness import compute_fairness
+from scheduler.plan import plan_season
 
 from .helpers import league
 from .rule_checker import check_season

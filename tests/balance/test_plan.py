@@ -7,13 +7,12 @@ from datetime import date, time
 
 import pytest
 
-from scheduler.balance import PlanResult, plan_season, revision
-from scheduler.balance import legs as leg_schemes
-from scheduler.balance.plan import _Candidate, _choose
+from scheduler import leg_schemes
 from scheduler.config.model import CalendarSpec, Priorities, Rules, Venue
 from scheduler.factorization.anderson import anderson_factorization
 from scheduler.factorization.circle import circle_factorization
 from scheduler.factorization.verify import verify_rounds
+from scheduler.plan import PlanResult, _Candidate, _choose, plan_season, revision
 
 from .helpers import league
 from .rule_checker import check_season
@@ -114,7 +113,7 @@ def test_plan_lists_both_options_when_the_engine_finds_a_non_circle_factorizatio
 
 
 @pytest.mark.parametrize("scheme,expected", [
-    # fairness.md §4 table: leg 2 = leg-1 rounds (1-based) in this order
+    # docs/leg-schemes.md table: leg 2 = leg-1 rounds (1-based) in this order
     ("mirrored", (1, 2, 3, 4, 5)), ("french", (2, 3, 4, 5, 1)),
     ("english", (5, 1, 2, 3, 4)), ("inverted", (5, 4, 3, 2, 1))])
 def test_leg_orders_match_the_schemes(scheme, expected):
@@ -124,7 +123,7 @@ def test_leg_orders_match_the_schemes(scheme, expected):
 
 
 def test_separations_match_the_table():
-    # fairness.md §4: mirrored n-2 everywhere; French n-3 (2n-4 for round 1); English 0 for the
+    # docs/leg-schemes.md: mirrored n-2 everywhere; French n-3 (2n-4 for round 1); English 0 for the
     # pairs of round n-1, otherwise n-1; inverted 2n-2-2k.
     n = 6
     R = n - 1

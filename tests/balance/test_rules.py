@@ -10,8 +10,8 @@ from pathlib import Path
 
 import pytest
 
-from scheduler.balance import plan_season
 from scheduler.config.model import CalendarSpec, FixedFixture, Rules, TeamDates
+from scheduler.plan import plan_season
 
 from .helpers import league
 from .rule_checker import check_season, count_breaks
@@ -100,7 +100,7 @@ def test_min_separation_with_free_scheme():
 
 
 def test_separation_is_fixed_by_mirrored_scheme():
-    # fairness.md §4: mirrored keeps every pair exactly n-2 rounds apart
+    # docs/leg-schemes.md: mirrored keeps every pair exactly n-2 rounds apart
     lg = league(6, legs=2, scheme="mirrored", rules=Rules(min_separation=4))
     season = _ok(lg)
     rounds = {}

@@ -2,8 +2,8 @@
 
 Sources: D. de Werra, "Scheduling in sports", Annals of Discrete Mathematics 11 (1981)
 381-395 (n-2 for an even SRR, at most two break-free teams; 3n-6 for a mirrored DRR); the
-project notes (fairness.md sections 1 and 4) for the canonical schedule's check values, the odd
-leagues and the French / English / inverted bounds, which the notes derive and which are
+derivations in docs/leg-schemes.md for the canonical schedule's check values, the odd
+leagues and the French / English / inverted bounds, which are
 re-checked here by exhaustive search over every timetable and venue choice for n = 4 and 6.
 """
 
@@ -116,7 +116,8 @@ def _min_breaks_all_schedules(n: int) -> dict[str, int]:
 @pytest.mark.parametrize("n", [4, 6])
 def test_lower_bounds_equal_exhaustive_minimum(n):
     """The bounds used in the report (de Werra n-2 and 3n-6; French 2n, English and inverted
-    2n-4 from the notes' table: n=4: 2, 6, 8, 4, 4; n=6: 4, 12, 12, 8, 8) are the exact minima."""
+    2n-4 from docs/leg-schemes.md: n=4: 2, 6, 8, 4, 4; n=6: 4, 12, 12, 8, 8) are the exact
+    minima."""
     best = _min_breaks_all_schedules(n)
     table = {4: (2, 6, 8, 4, 4), 6: (4, 12, 12, 8, 8)}[n]
     assert tuple(best[s] for s in ("single", "mirrored", "french", "english", "inverted")) == table

@@ -1,6 +1,6 @@
 """Legs, schemes and separation; the validity check; the report's JSON form.
 
-Separation values per scheme come from the project notes' table (section 4, index maps as in
+Separation values per scheme come from docs/leg-schemes.md (section 2, index maps as in
 Goossens & Spieksma, J. Scheduling 15 (2012) 641-651; recorded there from memory): mirrored
 n-2 for every pair; French n-3, and 2n-4 for the pairs of round 1; English 0 for the pairs of
 round n-1, otherwise n-1; inverted 2n-2-2k, so 0 to 2n-4. They are re-derived here by brute
@@ -224,3 +224,46 @@ def test_declared_legs_decide_the_expected_meetings():
     problems = validate_season(full)
     assert [p.kind for p in problems] == ["legs"]
     assert "no pair meets once; most pairs meet twice" in problems[0].message
+
+
+def _three_legs(rounds, scheme: str):
+    """Legs 2 and 3 follow the scheme's index maps (scheduler.leg_schemes, docs/leg-schemes.md):
+    leg l copies leg-1 position sigma^l(s), venues swapped in leg 2 only."""
+    from scheduler.leg_schemes import flipped, leg_maps
+
+    maps = leg_maps(scheme, 3, len(rounds))
+    out = []
+    for leg, leg_map in enumerate(maps):
+        for p in leg_map:
+            out.append([(a, h) if flipped(leg) else (h, a) for h, a in rounds[p]])
+    return out
+
+
+@pytest.mark.parametrize("scheme", ["mirrored", "french", "english", "inverted"])
+def test_three_leg_scheme_read_from_fixtures(scheme):
+    n = 6
+    rounds = _three_legs(canonical_rounds(n), scheme)
+    report = compute_fairness(season_of(rounds, n, legs=3, scheme=scheme))
+    assert report.legs == 3 and report.scheme == scheme
+    assert report.breaks_total >= report.breaks_lower_bound
+
+
+def test_three_leg_mirrored_bound_is_the_settled_one():
+    """(n-2)(2L-1) = 20 for 6 teams and 3 mirrored legs, reached by the canonical schedule with
+    de Werra's orientation (docs/leg-schemes.md, Theorem C); the older L(n-2) = 12 was weaker."""
+    n = 6
+    rounds = _three_legs(canonical_rounds(n), "mirrored")
+    report = compute_fairness(season_of(rounds, n, legs=3))
+    assert report.breaks_lower_bound == (n - 2) * (2 * 3 - 1) == 20
+    assert report.breaks_total >= 20
+
+
+def test_legs_that_are_not_a_scheme_are_free():
+    n = 6
+    base = canonical_rounds(n)
+    rounds = _three_legs(base, "mirrored")
+    third = 2 * (n - 1)  # first round of leg 3: swap two of its rounds
+    rounds[third], rounds[third + 1] = rounds[third + 1], rounds[third]
+    report = compute_fairness(season_of(rounds, n, legs=3))
+    assert report.scheme == "free"
+    assert report.breaks_lower_bound == 3 * (n - 2)

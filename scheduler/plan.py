@@ -1,17 +1,29 @@
-"""Season planning: a League in, a complete Season out.
+"""Season planning, the whole pipeline in one place: a League in, a complete Season out.
+
+config -> factorization -> balance -> calendar -> season (the fairness figures and the rules'
+checklist are computed from the season by ``scheduler.fairness.compute_fairness``). The
+balancer (:mod:`scheduler.balance`) only builds and solves its models; this module chooses what
+to ask it, in this order.
+
+0. *calendar*: rules that the calendar alone makes impossible (``min_rest_days`` longer than the
+   gaps between the match days allow) are reported before anything is solved
+   (:func:`scheduler.rules.rest_days.calendar_clash`): no factorization can help.
 
 Stages (each reported through ``progress(stage, fraction)``):
 
 1. *factorize*: the engine's best one-factorization of K_n (perfect where one is known); when it
    is not the circle schedule GK_n, GK_n is considered as well, because GK_n with de Werra's
    orientation reaches the fewest breaks (n - 2 per single round robin, de Werra 1981) while it
-   is perfect only when n - 1 is prime (Kotzig 1964). A probe (one-factorizations.md §7) found no
-   perfect 10-team schedule on the canonical minimum-break home/away patterns, so the two goals
-   can conflict; the choice follows ``league.priorities`` (mixing against breaks) and is stated
-   in the notes with both figures.
+   is perfect only when n - 1 is prime (Kotzig 1964). A search found no perfect 10-team
+   schedule on the canonical minimum-break home/away patterns, so the two goals can conflict;
+   the choice follows ``league.priorities`` (mixing against breaks) and is stated in the notes
+   with both figures.
 2. *timetable*: round order, home/away and match days under the hard rules
    (:mod:`scheduler.balance.timetable`), then a carry-over local search when its weight is > 0
-   (:mod:`scheduler.balance.carry`).
+   (:mod:`scheduler.balance.carry`). When the rules cannot hold with any of those
+   factorizations, the other available ones (GK_n, Anderson's GA_n, the catalogue's) are tried
+   before a clash is reported; the clash names a minimal set of rules
+   (:mod:`scheduler.balance.explain`).
 3. *places*: venue, court and time slot (:mod:`scheduler.balance.places`).
 4. *dates*: kick-off datetimes from ``scheduler.calendar``.
 
@@ -22,18 +34,24 @@ wall-clock cap is only a safety net and the notes say when it was hit.
 from __future__ import annotations
 
 import hashlib
+import itertools
+from collections.abc import Callable, Iterator
 from dataclasses import dataclass, replace
 
-from scheduler.balance.carry import carry_over_value, improve_order
-from scheduler.balance.dates import kickoff
+from scheduler.balance.carry import improve_order
+from scheduler.balance.dates import candidate_days, day_groups, kickoff
 from scheduler.balance.places import Placement, assign_places
 from scheduler.balance.timetable import SolveLimits, Timetable, solve_timetable
+from scheduler.carry_over import carry_over_of_rounds
 from scheduler.config.model import League
-from scheduler.errors import InfeasibleError, InputError
+from scheduler.errors import ConfigError, InfeasibleError, InputError
+from scheduler.factorization.anderson import anderson_factorization
+from scheduler.factorization.catalogue import catalogue_factorization
 from scheduler.factorization.circle import circle_factorization, circle_rounds
 from scheduler.factorization.model import Certificate, Factorization
 from scheduler.factorization.verify import verify_rounds
 from scheduler.progress import Progress
+from scheduler.rules.rest_days import calendar_clash
 from scheduler.season import Fixture, MixingInfo, Season
 
 
@@ -56,6 +74,22 @@ class PlanOption:
     carry_over: int | None
     chosen: bool
     feasible: bool = True
+
+    def figures(self) -> str:
+        """The option's figures in words, never a missing value printed as "None".
+
+        Examples
+        --------
+        >>> PlanOption("x", "x", 3, 3, None, 4, None, False, False).figures()
+        'perfect pairs 3/3, no timetable keeps every rule with these pairings'
+        """
+        text = f"perfect pairs {self.perfect_pairs}/{self.pairs}"
+        if self.breaks is None:
+            return text + ", no timetable keeps every rule with these pairings"
+        text += f", breaks {self.breaks} (lower bound {self.break_bound})"
+        if self.carry_over is not None:
+            text += f", carry-over {self.carry_over}"
+        return text
 
 
 @dataclass(frozen=True)
@@ -140,9 +174,35 @@ def plan_season(
 ) -> PlanResult:
     """Plan a complete season for ``league`` (see the module docstring for the stages).
 
-    Raises :class:`~scheduler.errors.InfeasibleError` (with the conflicting rules in plain words)
-    when the hard rules cannot all hold, :class:`~scheduler.errors.InputError` for a league that
-    cannot be planned at all.
+    Parameters
+    ----------
+    league : League
+        A validated league (``scheduler.config.load_league``).
+    seed : int, optional
+        Overrides ``league.seed``; the same league and seed give the same season.
+    time_limit : float, optional
+        Overrides ``league.solve_seconds`` (deterministic solver time, shared by the stages).
+    progress : callable, optional
+        ``progress(stage, fraction)`` for a progress bar.
+
+    Returns
+    -------
+    PlanResult
+        The season, the options considered (:class:`PlanOption`), the status and the notes.
+
+    Raises
+    ------
+    InfeasibleError
+        When the hard rules cannot all hold (a minimal set of them in plain words, after every
+        available factorization was tried), or the calendar alone makes a rule impossible.
+    InputError
+        For a league that cannot be planned at all (fewer than two teams).
+
+    References
+    ----------
+    D. de Werra, "Scheduling in sports", Annals of Discrete Mathematics 11 (1981) 381-395;
+    K. G. Russell, Biometrika 67 (1980) 127-131; U. Junker, "QUICKXPLAIN", AAAI 2004 (from
+    memory).
     """
     seed = league.seed if seed is None else int(seed)
     total = float(time_limit if time_limit is not None else league.solve_seconds)
@@ -155,6 +215,7 @@ def plan_season(
             progress(stage, fraction)
 
     notes: list[str] = []
+    _calendar_clashes(league)
     report("factorize", 0.0)
     found = _factorize(teams, seed, max(0.5, 0.2 * total), progress)
     n = found.n
@@ -174,14 +235,16 @@ def plan_season(
         except InfeasibleError as exc:
             c.error = exc
     if all(c.tt is None for c in cands):
-        raise cands[0].error
+        _try_other_factorizations(league, cands, total, seed)
+    if all(c.tt is None for c in cands):
+        raise _clash(cands)
     chosen, why = _choose(cands, league)
     tt = chosen.tt
     assert tt is not None
-    chosen.coe = carry_over_value(_leg1_rounds(chosen.fact, tt), n)
+    chosen.coe = carry_over_of_rounds(_leg1_rounds(chosen.fact, tt), n)
     for c in cands:
         if c.tt is not None and c.coe is None:
-            c.coe = carry_over_value(_leg1_rounds(c.fact, c.tt), n)
+            c.coe = carry_over_of_rounds(_leg1_rounds(c.fact, c.tt), n)
     if len(cands) > 1:
         notes.extend(_tradeoff_notes(cands, chosen, why))
     report("timetable: carry-over", 0.6)
@@ -220,12 +283,112 @@ def plan_season(
     return PlanResult(season, options, status, tuple(notes))
 
 
+def _calendar_clashes(league: League) -> None:
+    """Rules the calendar alone makes impossible, reported before any solving (no pairing of
+    the teams can help): ``min_rest_days`` longer than the match days allow."""
+    value = league.rules.min_rest_days
+    if not value or league.calendar.rounds_per_day > 1:
+        return
+    teams = len(league.teams)
+    rounds = max(1, league.format.legs) * (teams - 1 + teams % 2)
+    try:
+        days = candidate_days(league, rounds)
+    except ConfigError:
+        return  # the calendar's own error is reported by the model with its location
+    groups = len(day_groups(rounds, 1))
+    if len(days) < groups:
+        return
+    clash = calendar_clash(value, days, groups)
+    if clash is not None:
+        raise InfeasibleError("the calendar cannot keep the rest-day rule, whatever the pairings",
+                              [f"min_rest_days = {value}: {clash}"])
+
+
+def _searched_starter(n: int, seed: int) -> Factorization | None:
+    """A perfect starter of Z_(n-1) found by a short seeded search (numba is imported here,
+    only when the fall-back runs), as a factorization; ``None`` when none turns up."""
+    from scheduler.factorization.groups import cyclic
+    from scheduler.factorization.search import search_perfect_starter
+    from scheduler.factorization.starters import starter_factorization
+
+    group = cyclic(n - 1)
+    found = search_perfect_starter(group, seed=seed + 1, budget=1.0)
+    if found.starter is None:
+        return None
+    return starter_factorization(group, found.starter,
+                                 method=f"searched starter in Z_{n - 1} (seed {seed + 1})")
+
+
+def _other_factorizations(n: int, tried: list[Factorization],
+                          seed: int = 0) -> Iterator[Factorization]:
+    """Further one-factorizations of K_n to try when the rules cannot hold with the first ones,
+    made only when needed: GK_n, Anderson's GA_n (n = 2p, p odd), the catalogue's perfect one and
+    a perfect starter of Z_(n-1) from a short seeded search; rounds already tried are skipped."""
+    seen = [f.rounds for f in tried]
+    makers: list[Callable[[int], Factorization | None]] = [circle_factorization]
+    if n >= 6 and (n // 2) % 2 == 1:
+        makers.append(anderson_factorization)
+    makers.append(catalogue_factorization)
+    if 6 <= n <= 40:
+        makers.append(lambda size: _searched_starter(size, seed))
+    for make in makers:
+        try:
+            fact = make(n)
+        except (ValueError, KeyError):
+            continue
+        if fact is None or fact.rounds in seen:
+            continue
+        seen.append(fact.rounds)
+        yield fact
+
+
+FALLBACKS = 3
+"""At most this many further factorizations are solved when the first ones clash."""
+
+
+def _try_other_factorizations(league: League, cands: list[_Candidate], total: float,
+                              seed: int) -> None:
+    """When no candidate keeps the rules, try the other factorizations (appended to ``cands``)
+    until one does; a clash that does not depend on the pairings is not retried."""
+    if not any(c.error is not None and c.error.conflicts for c in cands):
+        return  # no rule clash (the time limit ran out): other pairings would not be faster
+    others = _other_factorizations(cands[0].fact.n, [c.fact for c in cands], seed)
+    for fact in itertools.islice(others, FALLBACKS):
+        cand = _Candidate(f"fallback: {fact.method}", fact, verify_rounds(fact.n, fact.rounds))
+        cands.append(cand)
+        try:
+            cand.tt = solve_timetable(league, fact, _limits(total, 0.45 / FALLBACKS, seed),
+                                      minimise_breaks=league.priorities.breaks > 0)
+        except InfeasibleError as exc:
+            cand.error = exc
+            continue
+        return
+
+
+def _clash(cands: list[_Candidate]) -> InfeasibleError:
+    """The error to report when no factorization keeps the rules: the first clash found, saying
+    which pairings were tried."""
+    first = next((c.error for c in cands if c.error is not None and c.error.conflicts),
+                 cands[0].error)
+    assert first is not None
+    if len(cands) == 1:
+        return first
+    tried = ", ".join(c.fact.method for c in cands)
+    message = str(first).split("\n", 1)[0]
+    return InfeasibleError(f"{message} (tried the round pairings of: {tried})",
+                           list(first.conflicts))
+
+
 def _leg1_rounds(fact: Factorization, tt: Timetable):
     return [fact.rounds[k] for k in tt.order[0]]
 
 
 def _tradeoff_notes(cands: list[_Candidate], chosen: _Candidate, why: str | None) -> list[str]:
     out = []
+    failed = [c for c in cands if c.tt is None]
+    if failed and chosen.label.startswith("fallback"):
+        return [f"no timetable keeps every rule with the round pairings of "
+                f"{', '.join(c.fact.method for c in failed)}; planned with {chosen.fact.method}"]
     a, b = cands[0], cands[1]
     if a.tt is None or b.tt is None:
         bad = a if a.tt is None else b
@@ -261,7 +424,7 @@ def _reduce_carry_over(league: League, cand: _Candidate, limits: SolveLimits):
                               fixed_order=tuple(order), start_home=home)
     except InfeasibleError:
         return tt, f"carry-over value {before}; a lower-carry-over order breaks a rule, kept"
-    after = carry_over_value([fact.rounds[k] for k in new.order[0]], fact.n)
+    after = carry_over_of_rounds([fact.rounds[k] for k in new.order[0]], fact.n)
     if (new.breaks <= tt.breaks or not keep) and after < before:
         cand.coe = after
         extra = "" if new.breaks <= tt.breaks else (

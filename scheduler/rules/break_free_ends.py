@@ -1,0 +1,87 @@
+"""No breaks at the start or the end: ``no_breaks_first = k`` forbids a break in rounds
+2..k+1, ``no_breaks_last = k`` in the last ``k`` rounds.
+
+A break is two home or two away games in a row, counted in the second (de Werra 1981; byes
+skipped, ``scheduler/home_away.py``). Leagues often ask for this so that the table is not
+distorted early or late (common practice).
+"""
+
+from __future__ import annotations
+
+import itertools
+from dataclasses import dataclass
+from typing import TYPE_CHECKING
+
+from scheduler.config.model import League
+from scheduler.rules.base import HardRule, TimetableView, Violation, plural, team_games
+
+if TYPE_CHECKING:  # the season type only: rules import nothing above config at run time
+    from scheduler.season import Season
+
+
+def _season_rounds(season: Season) -> int:
+    return max((f.round for f in season.fixtures), default=0)
+
+
+@dataclass(frozen=True)
+class BreakFreeEnds(HardRule):
+    key = "break_free_ends"
+    title = "no breaks at the start or the end"
+    config_fields = ("rules.no_breaks_first", "rules.no_breaks_last")
+
+    def is_on(self, league: League) -> bool:
+        return bool(league.rules.no_breaks_first or league.rules.no_breaks_last)
+
+    def statement(self, league: League) -> str:
+        r = league.rules
+        parts = []
+        if r.no_breaks_first:
+            parts.append("no break in round 2" if r.no_breaks_first == 1
+                         else f"no break in rounds 2..{r.no_breaks_first + 1}")
+        if r.no_breaks_last:
+            parts.append(f"no break in the last {plural(r.no_breaks_last, 'round')}")
+        return "; ".join(parts)
+
+    def add_constraints(self, model: TimetableView) -> None:
+        r, cp, rounds = model.league.rules, model.cp, model.season_rounds
+        if r.no_breaks_first:
+            where = ("round 2" if r.no_breaks_first == 1
+                     else f"rounds 2..{r.no_breaks_first + 1}")
+            literal = model.switch(f"no_breaks_first = {r.no_breaks_first} (no break in {where})")
+            for s in range(1, min(rounds, r.no_breaks_first + 1)):
+                for v in model.vertices:
+                    cp.AddImplication(literal, model.break_at(s, v).Not())
+        if r.no_breaks_last:
+            last = "round" if r.no_breaks_last == 1 else f"{r.no_breaks_last} rounds"
+            literal = model.switch(f"no_breaks_last = {r.no_breaks_last} (no break in the last "
+                                   f"{last})")
+            for s in range(max(1, rounds - r.no_breaks_last), rounds):
+                for v in model.vertices:
+                    cp.AddImplication(literal, model.break_at(s, v).Not())
+
+    def check(self, league: League, season: Season) -> tuple[Violation, ...]:
+        r = league.rules
+        last_round = _season_rounds(season)
+        out = []
+        for team in season.teams:
+            for prev, cur in itertools.pairwise(team_games(season, team)):
+                if (prev.home == team) != (cur.home == team):
+                    continue
+                venue = "home" if cur.home == team else "away"
+                if r.no_breaks_first and cur.round <= r.no_breaks_first + 1:
+                    out.append(Violation(team, cur.round, cur.date,
+                                         f"break ({venue} twice in a row) in round {cur.round}, "
+                                         f"within the first {r.no_breaks_first + 1} rounds"))
+                elif r.no_breaks_last and cur.round > last_round - r.no_breaks_last:
+                    out.append(Violation(team, cur.round, cur.date,
+                                         f"break ({venue} twice in a row) in round {cur.round}, "
+                                         f"within the last {plural(r.no_breaks_last, 'round')}"))
+        return tuple(out)
+
+    def relaxation(self, league: League, statement: str) -> str | None:
+        r = league.rules
+        for name, value in (("no_breaks_first", r.no_breaks_first),
+                            ("no_breaks_last", r.no_breaks_last)):
+            if value and statement.startswith(f"{name} = {value}"):
+                return f"{name} = {value - 1}"
+        return None

@@ -1,0 +1,126 @@
+"""Rest days: at least ``min_rest_days`` whole days without a game between two games of a team.
+
+Tuesday then Friday gives 2 rest days: ``(d2 - d1).days - 1``. In any two consecutive rounds of
+a league of three or more teams some team plays in both (at most one bye per round), so the rule
+is exactly a gap of ``value + 1`` days between the match days of consecutive rounds, and two
+rounds on one match day break it (``scheduler/balance/dates.py``). ``min_rest_days = 0`` with
+one round a match day holds by construction: the rule is then off.
+
+Before any solving, :func:`calendar_clash` finds the calendars on which the rule cannot hold
+whatever the pairings: the longest chain of candidate match days whose gaps are all at least
+``value + 1`` days (taken greedily, which is optimal for a chain with minimum gaps: an exchange
+argument, common practice) is shorter than the season.
+"""
+
+from __future__ import annotations
+
+import itertools
+from collections.abc import Sequence
+from dataclasses import dataclass
+from datetime import date
+from typing import TYPE_CHECKING
+
+from scheduler.config.model import League
+from scheduler.rules.base import HardRule, TimetableView, Violation, plural, team_games
+
+if TYPE_CHECKING:  # the season type only: rules import nothing above config at run time
+    from scheduler.season import Season
+
+WEEKDAY_NAMES = ("Mondays", "Tuesdays", "Wednesdays", "Thursdays", "Fridays", "Saturdays",
+                 "Sundays")
+
+
+@dataclass(frozen=True)
+class RestDays(HardRule):
+    key = "rest_days"
+    title = "rest days between games"
+    config_fields = ("rules.min_rest_days", "calendar.rounds_per_day")
+
+    def is_on(self, league: League) -> bool:
+        value = league.rules.min_rest_days
+        if value is None:
+            return False
+        return value > 0 or league.calendar.rounds_per_day > 1
+
+    def statement(self, league: League) -> str:
+        value = league.rules.min_rest_days or 0
+        return f"at least {plural(value, 'rest day')} between two games of a team"
+
+    def add_constraints(self, model: TimetableView) -> None:
+        value = model.league.rules.min_rest_days
+        if value is None or model.days is None:
+            return
+        text = f"min_rest_days = {value}"
+        if model.rounds_per_day > 1:
+            model.impossible(f"{text} (with {model.rounds_per_day} rounds on each match day)")
+            return
+        if value == 0:
+            return  # consecutive rounds are on different days: nothing to require
+        clash = calendar_clash(value, model.days.days, len(model.day_groups))
+        if clash is not None:
+            model.impossible(f"{text}: {clash}")
+            return
+        literal = model.switch(text)
+        ordinal = model.days.ordinal
+        for g in range(len(model.day_groups) - 1):
+            model.cp.Add(ordinal[g + 1] - ordinal[g] >= value + 1).OnlyEnforceIf(literal)
+
+    def check(self, league: League, season: Season) -> tuple[Violation, ...]:
+        value = league.rules.min_rest_days
+        if value is None:
+            return ()
+        out = []
+        for team in season.teams:
+            for prev, cur in itertools.pairwise(team_games(season, team)):
+                if prev.date is None or cur.date is None:
+                    continue
+                rest = (cur.date - prev.date).days - 1
+                if rest < value:
+                    out.append(Violation(team, cur.round, cur.date,
+                                         f"{plural(max(rest, 0), 'rest day')} since "
+                                         f"{prev.date.isoformat()} (at least {value})"
+                                         if rest >= 0 else
+                                         f"a second game on {cur.date.isoformat()} "
+                                         f"(at least {plural(value, 'rest day')})"))
+        return tuple(out)
+
+    def relaxation(self, league: League, statement: str) -> str | None:
+        value = league.rules.min_rest_days
+        if value and statement.startswith(f"min_rest_days = {value}"):
+            return f"min_rest_days = {value - 1}"
+        return None
+
+
+def longest_rested_chain(value: int, days: Sequence[date]) -> int:
+    """How many of ``days`` (sorted) can be used in order with at least ``value`` free days
+    between consecutive ones (greedy from the first day).
+
+    Examples
+    --------
+    >>> from datetime import date, timedelta
+    >>> saturdays = [date(2026, 9, 5) + timedelta(weeks=w) for w in range(10)]
+    >>> longest_rested_chain(6, saturdays), longest_rested_chain(8, saturdays)
+    (10, 5)
+    """
+    count, last = 0, None
+    for d in days:
+        if last is None or (d - last).days - 1 >= value:
+            count, last = count + 1, d
+    return count
+
+
+def calendar_clash(value: int, days: Sequence[date], rounds: int) -> str | None:
+    """Why the calendar alone makes ``min_rest_days = value`` impossible for ``rounds`` match
+    days, or ``None`` when it does not."""
+    fit = longest_rested_chain(value, days)
+    if fit >= rounds or not days:
+        return None
+    weekdays = sorted({d.weekday() for d in days})
+    gaps = [(b - a).days - 1 for a, b in itertools.pairwise(days)]
+    widest = max(gaps, default=0)
+    on = (f"match days are {', '.join(WEEKDAY_NAMES[w] for w in weekdays)}"
+          if len(weekdays) <= 3 else "the calendar's match days")
+    return (f"{on} ({days[0].isoformat()} to {days[-1].isoformat()}), at most "
+            f"{plural(widest, 'free day')} apart; with {value} rest days only {fit} of the "
+            f"{rounds} match days fit. This is the calendar, not the pairings: add match days "
+            f"(a later end, more weekdays) or lower min_rest_days")

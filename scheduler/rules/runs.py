@@ -1,0 +1,96 @@
+"""Runs: at most ``max_home_run`` home games and ``max_away_run`` away games in a row.
+
+Runs are counted over the games a team actually plays (a bye is skipped, as for breaks; see
+``scheduler/home_away.py``). A limit on such runs is a classic constraint, e.g. at most 3 in the
+traveling tournament problem (Easton, Nemhauser & Trick, CP 2001, LNCS 2239, from memory).
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from typing import TYPE_CHECKING
+
+from scheduler.config.model import League
+from scheduler.rules.base import HardRule, TimetableView, Violation, team_games
+
+if TYPE_CHECKING:  # the season type only: rules import nothing above config at run time
+    from scheduler.season import Season
+
+
+def _limits(league: League) -> list[tuple[int, bool, str]]:
+    r = league.rules
+    return [(value, home, word) for value, home, word in
+            ((r.max_home_run, True, "home"), (r.max_away_run, False, "away")) if value is not None]
+
+
+@dataclass(frozen=True)
+class RunLimits(HardRule):
+    key = "runs"
+    title = "runs of home or away games"
+    config_fields = ("rules.max_home_run", "rules.max_away_run")
+
+    def is_on(self, league: League) -> bool:
+        return bool(_limits(league))
+
+    def statement(self, league: League) -> str:
+        return "; ".join(f"at most {value} {word} games in a row"
+                         for value, _, word in _limits(league))
+
+    def add_constraints(self, model: TimetableView) -> None:
+        for value, home, word in _limits(model.league):
+            literal = model.switch(f"max_{word}_run = {value} for every team")
+            if value < 1:
+                model.cp.AddBoolOr([literal.Not()])
+                continue
+            for v in model.vertices:
+                _run_limit(model, v, value, home, literal)
+
+    def check(self, league: League, season: Season) -> tuple[Violation, ...]:
+        out = []
+        for team in season.teams:
+            games = team_games(season, team)
+            for value, home, word in _limits(league):
+                run = 0
+                for f in games:
+                    run = run + 1 if (f.home == team) is home else 0
+                    if run == value + 1:
+                        out.append(Violation(team, f.round, f.date,
+                                             f"{value + 1} {word} games in a row "
+                                             f"(at most {value})"))
+        return tuple(out)
+
+    def relaxation(self, league: League, statement: str) -> str | None:
+        for value, _, word in _limits(league):
+            if statement.startswith(f"max_{word}_run = {value}"):
+                return f"max_{word}_run = {value + 1}"
+        return None
+
+
+def _run_limit(model: TimetableView, v: int, value: int, home: bool, literal) -> None:
+    """At most ``value`` consecutive home (or away) games of vertex ``v`` under ``literal``."""
+    cp, rounds = model.cp, model.season_rounds
+    if not model.odd:
+        # every vertex plays every round: any value + 1 consecutive rounds hold both venues
+        for s in range(rounds - value):
+            window = [model.vertex_home(u, v) for u in range(s, s + value + 1)]
+            if home:
+                cp.Add(sum(window) <= value).OnlyEnforceIf(literal)
+            else:
+                cp.Add(sum(window) >= 1).OnlyEnforceIf(literal)
+        return
+    # odd league: a counter of the current run that a bye leaves unchanged
+    previous = None
+    for s in range(rounds):
+        run = cp.NewIntVar(0, value, f"{'home' if home else 'away'}_run_of_vertex{v}_round{s}")
+        plays = model.vertex_plays(s, v)
+        at_home = model.vertex_home(s, v)
+        same = at_home if home else at_home.Not()
+        if previous is None:
+            cp.Add(run == 1).OnlyEnforceIf([literal, plays, same])
+            cp.Add(run == 0).OnlyEnforceIf([literal, plays, same.Not()])
+            cp.Add(run == 0).OnlyEnforceIf([literal, plays.Not()])
+        else:
+            cp.Add(run == previous + 1).OnlyEnforceIf([literal, plays, same])
+            cp.Add(run == 0).OnlyEnforceIf([literal, plays, same.Not()])
+            cp.Add(run == previous).OnlyEnforceIf([literal, plays.Not()])
+        previous = run

@@ -1,0 +1,80 @@
+"""Separation: at least ``min_separation`` rounds strictly between two meetings of a pair.
+
+The separation constraint of the sports-timetabling literature (e.g. the timetabling
+competition benchmark of Van Bulck, Goossens, Beliën & Davari, PATAT 2021, from memory). In a
+fixed leg scheme the separation follows from the scheme alone (``scheduler/leg_schemes.py``,
+``docs/leg-schemes.md``); only the free scheme leaves it to the solver.
+"""
+
+from __future__ import annotations
+
+import itertools
+from collections import defaultdict
+from dataclasses import dataclass
+from typing import TYPE_CHECKING
+
+from scheduler import leg_schemes
+from scheduler.config.model import League
+from scheduler.rules.base import HardRule, TimetableView, Violation, plural
+
+if TYPE_CHECKING:  # the season type only: rules import nothing above config at run time
+    from scheduler.season import Season
+
+
+@dataclass(frozen=True)
+class Separation(HardRule):
+    key = "separation"
+    title = "rounds between two meetings of the same teams"
+    config_fields = ("rules.min_separation", "format.legs", "format.scheme")
+
+    def is_on(self, league: League) -> bool:
+        value = league.rules.min_separation
+        return value is not None and value > 0 and league.format.legs > 1
+
+    def statement(self, league: League) -> str:
+        value = league.rules.min_separation or 0
+        return f"at least {plural(value, 'round')} between two meetings of the same teams"
+
+    def add_constraints(self, model: TimetableView) -> None:
+        value = model.league.rules.min_separation
+        if value is None or model.legs <= 1:
+            return
+        text = f"min_separation = {value}"
+        if model.scheme in leg_schemes.FIXED_SCHEMES:
+            least = leg_schemes.least_separation(model.scheme, model.legs, model.rounds_per_leg)
+            if least is not None and least < value:
+                model.impossible(f"{text} (the {model.scheme} scheme keeps some pairs only "
+                                 f"{least} rounds apart)")
+            return
+        literal = model.switch(text)
+        rounds = model.rounds_per_leg
+        for leg in range(model.legs - 1):
+            for k in range(rounds):
+                gap = rounds + model.position_in_leg(leg + 1, k) - model.position_in_leg(leg, k) - 1
+                model.cp.Add(gap >= value).OnlyEnforceIf(literal)
+
+    def check(self, league: League, season: Season) -> tuple[Violation, ...]:
+        value = league.rules.min_separation
+        if value is None:
+            return ()
+        when = defaultdict(list)
+        for f in season.fixtures:
+            when[tuple(sorted((f.home, f.away)))].append(f)
+        out = []
+        for (a, b), games in sorted(when.items()):
+            games.sort(key=lambda f: f.round)
+            for x, y in itertools.pairwise(games):
+                between = y.round - x.round - 1
+                if between < value:
+                    out.append(Violation(f"{a}, {b}", y.round, y.date,
+                                         f"meet in rounds {x.round} and {y.round}, "
+                                         f"{plural(between, 'round')} apart (at least {value})"))
+        return tuple(out)
+
+    def relaxation(self, league: League, statement: str) -> str | None:
+        value = league.rules.min_separation
+        if value and statement.startswith(f"min_separation = {value}"):
+            if league.format.scheme in leg_schemes.FIXED_SCHEMES and "scheme" in statement:
+                return 'scheme = "free" or a lower min_separation'
+            return f"min_separation = {value - 1}"
+        return None

@@ -1,0 +1,76 @@
+"""Shared grounds: at most one team of a group is at home on a match day.
+
+The groups are ``rules.shared_grounds`` plus, when home means a venue, the teams sharing a home
+venue with room for one game a day (``League.shared_ground_groups``).
+"""
+
+from __future__ import annotations
+
+from collections import defaultdict
+from dataclasses import dataclass
+from typing import TYPE_CHECKING
+
+from scheduler.config.model import League
+from scheduler.rules.base import HardRule, TimetableView, Violation
+
+if TYPE_CHECKING:  # the season type only: rules import nothing above config at run time
+    from scheduler.season import Season
+
+
+@dataclass(frozen=True)
+class SharedGrounds(HardRule):
+    key = "shared_grounds"
+    title = "teams sharing a ground"
+    config_fields = ("rules.shared_grounds", "teams.home_venue", "venues")
+
+    def is_on(self, league: League) -> bool:
+        return bool(league.shared_ground_groups)
+
+    def statement(self, league: League) -> str:
+        return "; ".join("at most one of " + ", ".join(group) + " at home on a match day"
+                         for group in league.shared_ground_groups)
+
+    def named_teams(self, league: League) -> set[str]:
+        return {name for group in league.shared_ground_groups for name in group}
+
+    def add_constraints(self, model: TimetableView) -> None:
+        for group in model.league.shared_ground_groups:
+            members = [model.team_index[name] for name in group]
+            literal = model.switch("shared ground: at most one of " + ", ".join(group)
+                                   + " at home on a match day")
+            home_days_at_most(model, members, 1, literal, per_team=True)
+
+    def check(self, league: League, season: Season) -> tuple[Violation, ...]:
+        out = []
+        for group in league.shared_ground_groups:
+            hosts: dict = defaultdict(dict)
+            for f in season.fixtures:
+                if f.home in group:
+                    hosts[f.date if f.date is not None else f.round].setdefault(f.home, f)
+            for day, by_team in hosts.items():
+                if len(by_team) > 1:
+                    first = min(by_team.values(), key=lambda f: f.round)
+                    where = day.isoformat() if hasattr(day, "isoformat") else f"round {day}"
+                    out.append(Violation(", ".join(sorted(by_team)), first.round, first.date,
+                                         f"{len(by_team)} teams of one ground at home on "
+                                         f"{where}"))
+        return tuple(out)
+
+
+def home_days_at_most(model: TimetableView, members: list[int], cap: int, literal, *,
+                      per_team: bool) -> None:
+    """Under ``literal``: on every match day at most ``cap`` of ``members`` at home
+    (``per_team``: counting teams) or at most ``cap`` home games of theirs (counting games)."""
+    cp = model.cp
+    for rounds in model.day_groups:
+        if per_team and len(rounds) > 1:
+            home_that_day = []
+            for t in members:
+                at_home = cp.NewBoolVar(f"team{t}_at_home_on_day_of_round{rounds[0]}")
+                for s in rounds:
+                    cp.AddImplication(model.team_home(t, s), at_home)
+                home_that_day.append(at_home)
+            cp.Add(sum(home_that_day) <= cap).OnlyEnforceIf(literal)
+        else:
+            cp.Add(sum(model.team_home(t, s) for t in members for s in rounds) <= cap
+                   ).OnlyEnforceIf(literal)

@@ -239,14 +239,16 @@ def plan(
         out.print(str(out_dir))
         return
     _print_fairness(fairness, title=f"{season.league} {season.season_id}")
+    from scheduler.fairness.names import plain_text
+
     for option in result.options:
         mark = "chosen" if option.chosen else "considered"
         out.print(
-            f"{mark}: {_plain(option.label)}: perfect pairs {option.perfect_pairs}/{option.pairs}, "
-            f"breaks {option.breaks}"
+            f"{mark}: {_plain(plain_text(option.label))}: pairs of rounds that mix perfectly "
+            f"{option.perfect_pairs} of {option.pairs}, breaks {option.breaks}"
         )
     for note in result.notes:
-        out.print(f"note: {_plain(note)}")
+        out.print(f"note: {_plain(plain_text(note))}")
     out.print(f"wrote {len(written)} files to {out_dir}")
 
 
@@ -291,38 +293,20 @@ def audit(
 
 
 def _print_fairness(fairness: Any, *, title: str) -> None:
-    """The headline figures as a table (the full set is in season.json and the report)."""
+    """The measured figures as a table, named as in every other output
+    (:mod:`scheduler.fairness.names`); the full set is in season.json and the report."""
+    from scheduler.fairness.names import figure_lines
+
     table = Table(title=f"Fairness: {_plain(title)}", show_header=True, header_style="bold")
     table.add_column("figure")
     table.add_column("value", justify="right")
-    table.add_column("reference")
-    for label, value, reference in _headline_rows(fairness.summary()):
-        table.add_row(label, value, reference)
+    table.add_column("where it stands")
+    table.add_column("measured over")
+    table.add_row("teams", str(fairness.teams), "", "")
+    table.add_row("rounds", str(fairness.rounds), "", "")
+    for line in figure_lines(fairness):
+        table.add_row(line.name, line.value, _plain(line.brief), _plain(line.over_brief))
     out.print(table)
-
-
-def _headline_rows(f: dict) -> list[tuple[str, str, str]]:
-    """Rows of the headline table from ``FairnessReport.summary()``."""
-    rows = [
-        ("teams", str(f["teams"]), ""),
-        ("rounds", str(f["rounds"]), ""),
-        (
-            "perfect pairs of rounds",
-            f"{f['perfect_pairs']}/{f['pairs']}",
-            "perfect mixing" if f["perfect"] else "not perfect",
-        ),
-        ("breaks", str(f["breaks_total"]), f"lower bound {f['breaks_lower_bound']}"),
-        ("largest home-count gap", str(f["home_gap_max"]), "after any round"),
-    ]
-    if f["carry_over_value"] is not None:
-        low, high = f["carry_over_lower_bound"], f["carry_over_upper_bound"]
-        bounds = f"bounds {low}..{high}" if low is not None and high is not None else ""
-        rows.append(("carry-over value", str(f["carry_over_value"]), bounds))
-    if f["rest_days_min"] is not None:
-        rows.append(("fewest rest days", str(f["rest_days_min"]), "league rules come first"))
-    if f["separation_min"] is not None:
-        rows.append(("fewest rounds between meetings", str(f["separation_min"]), ""))
-    return rows
 
 
 def main() -> None:

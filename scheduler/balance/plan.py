@@ -208,6 +208,11 @@ def plan_season(
                      + (" (proven best)" if placement.status == "optimal" else ""))
     report("dates", 0.9)
     season = _season(league, chosen, tt, placement, seed, tuple(notes))
+    from scheduler.fairness.notes import silent_effect_notes
+
+    effects = silent_effect_notes(league, season)
+    season = replace(season, notes=season.notes + effects)
+    notes.extend(effects)
     options = tuple(
         PlanOption(
             label=c.label, method=c.fact.method, perfect_pairs=c.cert.perfect_pairs,
@@ -302,4 +307,19 @@ def _season(league: League, cand: _Candidate, tt: Timetable, placement: Placemen
         byes=byes, legs=max(1, league.format.legs),
         scheme=league.format.scheme, timezone=league.timezone,
         venues=tuple(v.name for v in league.venues), mixing=mixing, seed=seed, notes=notes,
-        revision=revision(league, seed))
+        revision=revision(league, seed), home_meaning=league.format.home_meaning,
+        side_labels=league.format.side_labels,
+        venue_addresses={v.name: v.address for v in league.venues if v.address},
+        venue_coordinates={v.name: (v.latitude, v.longitude) for v in league.venues
+                           if v.latitude is not None and v.longitude is not None},
+        rule_limits=_rule_limits(league),
+        calendar_end=league.calendar.end or max(league.calendar.dates, default=None))
+
+
+def _rule_limits(league: League) -> tuple[tuple[str, int], ...]:
+    r = league.rules
+    pairs = (("max_home_run", r.max_home_run), ("max_away_run", r.max_away_run),
+             ("min_rest_days", r.min_rest_days), ("min_separation", r.min_separation),
+             ("no_breaks_first", r.no_breaks_first or None),
+             ("no_breaks_last", r.no_breaks_last or None))
+    return tuple((name, int(value)) for name, value in pairs if value is not None)

@@ -1,5 +1,6 @@
 """The season report page (scheduler.export.report): self-contained, escaped, well-formed SVG,
-guarantees first, figures taken from the FairnessReport and matching published bounds."""
+kept rules first and apart from the measured figures, figures taken from the FairnessReport and
+matching published bounds, every sentence true for the data shown."""
 
 from __future__ import annotations
 
@@ -76,9 +77,14 @@ def test_every_svg_is_well_formed_xml(page):
         assert root.find("{http://www.w3.org/2000/svg}title") is not None
 
 
-def test_guarantees_come_first(page):
-    order = [page.index(f'id="{s}"') for s in ("guarantees", "grid", "carry", "mixing", "places")]
+def test_rules_first_then_measured_figures(page):
+    sections = ("rules", "figures", "grid", "carry", "mixing", "places")
+    order = [page.index(f'id="{s}"') for s in sections]
     assert order == sorted(order)
+    assert "Guarantees" not in page
+    rules = page[page.index('id="rules"') : page.index('id="figures"')]
+    # Measured figures (breaks, carry-over) are not listed among the kept rules.
+    assert "Breaks" not in rules and "Carry-over" not in rules
 
 
 def test_carry_over_bounds_match_the_literature(page, fairness):
@@ -90,7 +96,10 @@ def test_carry_over_bounds_match_the_literature(page, fairness):
     assert fairness.carry_over_value == 196
     card = page[page.index("<h3>Carry-over</h3>") :]
     card = card[: card.index("</article>")]
-    assert "between 56 = n(n−1) and 196 = (n−1)(n²−6n+12)" in card
+    assert "lower bound 56, worst possible 196" in card
+    # 196 is the maximum (Lambrechts et al. 2018): the card must not call it merely "above".
+    assert "the worst possible" in card and "above the lower bound" not in card
+    assert "Measured over: leg 1" in card
     assert "Russell" in card and "Lambrechts" in card
 
 
@@ -101,7 +110,7 @@ def test_breaks_and_mixing_cards_show_report_figures(page, fairness):
     assert f"lower bound {fairness.breaks_lower_bound}" in card
     # de Werra (1981): a mirrored double round robin of n even teams has at least 3n-6 breaks.
     assert fairness.breaks_lower_bound == 3 * 8 - 6
-    mixing = page[page.index("<h3>Mixing certificate</h3>") :]
+    mixing = page[page.index("<h3>Mixing</h3>") :]
     mixing = mixing[: mixing.index("</article>")]
     # K_8 from the circle method is perfect (n-1 = 7 prime; Kotzig 1964 / Wallis 1997).
     assert f"{fairness.perfect_pairs} of {fairness.pairs}" in mixing and fairness.perfect

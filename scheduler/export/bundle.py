@@ -34,12 +34,12 @@ from scheduler.export.ics import (
     league_calendar,
     plan_calendar,
     team_calendar,
+    team_file_stems,
 )
 from scheduler.export.safety import (
     atomic_write_bytes,
     atomic_write_text,
     name_digest,
-    safe_filenames,
 )
 from scheduler.export.xlsx import workbook_bytes
 from scheduler.season import Season
@@ -56,7 +56,7 @@ _RESERVED_STEMS = {"league"}
 
 def team_feed_names(season: Season) -> dict[str, str]:
     """Team -> file name of its feed inside ``calendars/`` (unique, never ``league.ics``)."""
-    stems = safe_filenames(season.teams)
+    stems = team_file_stems(season.teams)
     names = {}
     for team, stem in stems.items():
         if stem.lower() in _RESERVED_STEMS:

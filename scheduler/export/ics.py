@@ -47,6 +47,7 @@ from icalendar import Calendar, Event, vText
 
 from scheduler.errors import InputError
 from scheduler.export.csv_out import league_zone, local_start
+from scheduler.export.safety import safe_filenames
 from scheduler.season import Fixture, Season
 
 PRODID = "-//roundrobin-scheduler//Season calendars 1.0//EN"
@@ -301,6 +302,47 @@ def plan_calendar(
                 old.sequence + 1, bumped(old), old.digest, "CANCELLED", old.record
             )
     return CalendarState(season.league, season.season_id, events)
+
+
+# --------------------------------------------------------------------------- file names
+
+_STEM_SLUG_MAX = 40
+_STEM_TAIL = 14
+
+
+def _full_slug(name: str) -> str:
+    import unicodedata
+
+    ascii_text = unicodedata.normalize("NFKD", name).encode("ascii", "ignore").decode("ascii")
+    return re.sub(r"[^a-z0-9]+", "-", ascii_text.lower()).strip("-")
+
+
+def team_file_stems(names: Iterable[str]) -> dict[str, str]:
+    """File-name stems of team feeds that keep the distinguishing end of long names.
+
+    The stems are those of :func:`scheduler.export.safety.safe_filenames` (unique, safe on
+    every file system, a hash of the name added whenever the stem is not the name itself);
+    where that cut a long name short at its end, the middle of the name gives way instead, so
+    "Marlwick and District Sunday League Girls A" and "... Girls B" give
+    ``marlwick-and-district-su--league-girls-a-<hash>`` and ``...-girls-b-<hash>``.
+
+    Examples
+    --------
+    >>> stems = team_file_stems(["Marlwick and District Sunday League Girls A"])
+    >>> stems["Marlwick and District Sunday League Girls A"][:-9]
+    'marlwick-and-district-su--league-girls-a'
+    """
+    stems = safe_filenames(names)
+    out: dict[str, str] = {}
+    for name, stem in stems.items():
+        slug = _full_slug(name)
+        if len(slug) > _STEM_SLUG_MAX and "-" in stem:
+            digest = stem.rsplit("-", 1)[1]
+            head = slug[: _STEM_SLUG_MAX - _STEM_TAIL - 2].rstrip("-")
+            tail = slug[-_STEM_TAIL:].lstrip("-")
+            stem = f"{head}--{tail}-{digest}"
+        out[name] = stem
+    return out
 
 
 # --------------------------------------------------------------------------- feeds

@@ -15,7 +15,8 @@ two numbers of that report.
 
 Colours: the Okabe–Ito palette (M. Okabe and K. Ito, "Color Universal Design", 2002/2008), chosen
 to stay distinguishable for the common forms of colour-vision deficiency, and a single-hue
-sequential ramp of our own for counts (near white to a dark slate blue, :data:`RAMP_DARK`). Colour never carries meaning alone: cells also carry letters (H, A, B)
+sequential ramp of our own for counts (near white to a dark slate blue, :data:`RAMP_DARK`).
+Colour never carries meaning alone: cells also carry letters (H, A, B)
 or numbers, and byes, breaks and imperfect pairs get hatching or marks (the redundant-encoding
 advice of accessibility practice, e.g. WCAG 2.1 success criterion 1.4.1 "Use of Color").
 Above ``TEXT_LIMIT`` rows the pictures keep their colours and patterns but drop per-cell text,
@@ -34,8 +35,8 @@ from markupsafe import Markup, escape
 from scheduler.fairness.names import (
     carry_over_over,
     figure_lines,
-    mixing_over,
     method_phrase,
+    mixing_over,
     plain_source,
     plain_text,
 )
@@ -587,8 +588,8 @@ def _cards(season: Season, fr) -> list[Card]:
                 "Two rounds mix perfectly when, taken together, their games form one single cycle "
                 "through all teams: then no smaller group of teams plays only among itself over "
                 "those two rounds, and results stay comparable across the table. A schedule in "
-                f"which every pair of rounds does this is called perfect. {line.standing[:1].upper()}"
-                f"{line.standing[1:]}." + engine,
+                "which every pair of rounds does this is called perfect. "
+                f"{line.standing[:1].upper()}{line.standing[1:]}." + engine,
                 MIXING_SOURCES,
                 over=line.over,
             )

@@ -252,7 +252,8 @@ def figure_lines(fr) -> list[FigureLine]:
 
     bound = fr.breaks_lower_bound
     if fr.breaks_total <= bound:
-        standing, tone = f"at the lower bound {bound}: the fewest possible (lower is better)", "good"
+        standing = f"at the lower bound {bound}: the fewest possible (lower is better)"
+        tone = "good"
         brief = "at the lower bound: the fewest possible"
     else:
         brief = f"lower bound {bound}; lower is better"
@@ -299,8 +300,8 @@ def figure_lines(fr) -> list[FigureLine]:
         elif value >= high:
             brief = f"the worst possible (range {low}–{high}; lower is better)"
             standing = (
-                f"the worst possible: {high} is the highest value any single round robin of this size can "
-                f"have (the lower bound is {low}; lower is better)"
+                f"the worst possible: {high} is the highest value any single round robin of "
+                f"this size can have (the lower bound is {low}; lower is better)"
             )
             tone = "fair"
         else:

@@ -85,11 +85,33 @@ def _plain(text: str) -> str:
     return text.replace("[", "\\[")
 
 
+PROGRESS_MODES = ("auto", "bar", "plain", "json", "none")
+
+
 @contextmanager
-def _progress(enabled: bool) -> Iterator[Callable[[str, float], None] | None]:
-    """A progress display on stderr; yields a ``(message, fraction)`` callback."""
-    if not enabled or not err.is_terminal:
+def _progress(
+    enabled: bool, mode: str = "auto"
+) -> Iterator[Callable[[str, float], None] | None]:
+    """A progress display on stderr; yields a ``(message, fraction)`` callback.
+
+    ``mode``: ``auto`` (a bar on a terminal, plain lines every few seconds otherwise, nothing
+    when not ``enabled``), ``bar``, ``plain``, ``json`` (JSON Lines for tools, see
+    :mod:`scheduler.progress`) or ``none``. An explicit mode wins over ``enabled``.
+    """
+    if mode not in PROGRESS_MODES:
+        raise InputError(
+            f"--progress must be one of {', '.join(PROGRESS_MODES)}, got {mode!r}",
+            location="--progress",
+        )
+    if mode == "none" or (mode == "auto" and not enabled):
         yield None
+        return
+    if mode == "json" or mode == "plain" or (mode == "auto" and not err.is_terminal):
+        from scheduler.progress import JsonProgress, PlainProgress
+
+        display = JsonProgress if mode == "json" else PlainProgress
+        with display(sys.stderr) as show:
+            yield show
         return
     from rich.progress import BarColumn, Progress, TextColumn, TimeElapsedColumn
 
@@ -212,6 +234,14 @@ def plan(
         bool, typer.Option(help="Replace an output folder that holds another league's season.")
     ] = False,
     quiet: Annotated[bool, typer.Option(help="Print only the output folder.")] = False,
+    progress_mode: Annotated[
+        str,
+        typer.Option(
+            "--progress",
+            help="Progress on stderr: auto (a bar on a terminal, plain lines every few seconds "
+            "otherwise), bar, plain, json (JSON Lines for tools) or none.",
+        ),
+    ] = "auto",
 ) -> None:
     """Plan a season from a league config and write it to the output folder."""
     from scheduler.balance import plan_season
@@ -222,7 +252,7 @@ def plan(
     if time_limit is not None and time_limit <= 0:
         raise InputError(f"--time-limit must be a positive number of seconds, got {time_limit}")
     league = load_league(config)
-    with _progress(not quiet) as progress:
+    with _progress(not quiet, progress_mode) as progress:
         result = plan_season(league, seed=seed, time_limit=time_limit, progress=progress)
     season = result.season
     fairness = compute_fairness(season)

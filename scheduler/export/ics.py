@@ -323,14 +323,14 @@ def team_file_stems(names: Iterable[str]) -> dict[str, str]:
     The stems are those of :func:`scheduler.export.safety.safe_filenames` (unique, safe on
     every file system, a hash of the name added whenever the stem is not the name itself);
     where that cut a long name short at its end, the middle of the name gives way instead, so
-    "Marlwick and District Sunday League Girls A" and "... Girls B" give
-    ``marlwick-and-district-su--league-girls-a-<hash>`` and ``...-girls-b-<hash>``.
+    "Marlwick and District Saturday League Girls A" and "... Girls B" give
+    ``marlwick-and-district-sa--league-girls-a-<hash>`` and ``...-girls-b-<hash>``.
 
     Examples
     --------
-    >>> stems = team_file_stems(["Marlwick and District Sunday League Girls A"])
-    >>> stems["Marlwick and District Sunday League Girls A"][:-9]
-    'marlwick-and-district-su--league-girls-a'
+    >>> stems = team_file_stems(["Marlwick and District Saturday League Girls A"])
+    >>> stems["Marlwick and District Saturday League Girls A"][:-9]
+    'marlwick-and-district-sa--league-girls-a'
     """
     stems = safe_filenames(names)
     out: dict[str, str] = {}

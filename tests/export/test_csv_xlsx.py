@@ -269,8 +269,8 @@ def test_grid_splits_by_rounds_with_the_team_column_repeated():
 
 
 def test_long_names_keep_their_distinguishing_end():
-    long_a = "Marlwick and District Sunday League Girls A"
-    long_b = "Marlwick and District Sunday League Girls B"
+    long_a = "Marlwick and District Saturday League Girls A"
+    long_b = "Marlwick and District Saturday League Girls B"
     season = make_season((long_a, long_b, "Ashford Rovers", "Brookvale"))
     wb = openpyxl.load_workbook(io.BytesIO(workbook_bytes(season)))
     titles = wb.sheetnames[2:]

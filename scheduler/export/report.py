@@ -626,7 +626,7 @@ def _cards(season: Season, fr) -> list[Card]:
             .capitalize(),
             f"{min(homes, default=0)}–{max(homes, default=0)} {home_word} games per team",
             f"{line.name}: {line.value}",
-            "even" if spread <= 1 else "uneven",
+            "even totals" if spread <= 1 else "uneven totals",
             "good" if spread <= 1 and line.tone == "good" else "fair",
             f"How many {home_word} games each team has, and the {line.name}: the largest "
             f"difference in {home_word} games between two teams in the table after any round. "

@@ -171,7 +171,10 @@ def _page_header(ws: Worksheet, season: Season, title: str) -> None:
 
 
 def _fixtures_sheet(ws: Worksheet, season: Season) -> None:
-    _header(ws, FIXTURE_HEADERS)
+    headers = list(FIXTURE_HEADERS)
+    if season.home_meaning == "side":  # the columns are named by the league's sides
+        headers[4], headers[5] = season.side_labels
+    _header(ws, headers)
     for r, row in enumerate(fixture_rows(season), start=2):
         f = row.fixture
         values = (

@@ -289,6 +289,8 @@ def test_side_leagues_name_the_sides_in_grid_and_team_sheets():
               for c in range(2, grid.max_column + 1)}  # fmt: skip
     f = season.fixtures[0]
     assert f"White v {f.away}" in values and f"Black v {f.home}" in values
+    fixtures = wb["Fixtures"]
+    assert (fixtures["E1"].value, fixtures["F1"].value) == ("White", "Black")
     sheet = wb.worksheets[2]
     assert sheet["E1"].value == "Side"
     assert {c.value for c in sheet["E"][1:]} <= {"White", "Black", "bye"}

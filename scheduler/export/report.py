@@ -530,6 +530,9 @@ def _rules(season: Season, fr) -> list[RuleLine]:
         if text is None:
             continue
         rule = text.format(v=limit)
+        if season.home_meaning == "side":
+            rule = rule.replace("home games", f"{season.side_labels[0]} games")
+            rule = rule.replace("away games", f"{season.side_labels[1]} games")
         if name == "max_home_run":
             kept, evidence = fr.home_run_max <= limit, f"longest home run: {fr.home_run_max}"
         elif name == "max_away_run":
@@ -594,6 +597,8 @@ def _cards(season: Season, fr) -> list[Card]:
                 over=line.over,
             )
         )
+    home_word, away_word = (w if season.home_meaning == "side" else w.lower()
+                            for w in _sides(season))
     # Breaks.
     line = lines["breaks_total"]
     cards.append(
@@ -603,8 +608,8 @@ def _cards(season: Season, fr) -> list[Card]:
             f"lower bound {fr.breaks_lower_bound}",
             "at the lower bound" if line.tone == "good" else "above the lower bound",
             line.tone,
-            "A break is two home games, or two away games, in a row for one team; lower is "
-            "better. "
+            f"A break is two {home_word} games, or two {away_word} games, in a row for one "
+            "team; lower is better. "
             + (
                 f"No season of this shape can have fewer than {fr.breaks_lower_bound}. "
                 if fr.breaks_lower_bound > 0
@@ -618,12 +623,12 @@ def _cards(season: Season, fr) -> list[Card]:
     # Home/away balance.
     homes = fr.home_counts
     spread = (max(homes) - min(homes)) if homes else 0
-    home_word, away_word = (w.lower() for w in _sides(season))
     line = lines["home_gap_max"]
     cards.append(
         Card(
-            "Home and away" if season.home_meaning != "side" else f"{home_word} and {away_word}"
-            .capitalize(),
+            "Home and away"
+            if season.home_meaning != "side"
+            else f"{season.side_labels[0]} and {season.side_labels[1]}",
             f"{min(homes, default=0)}–{max(homes, default=0)} {home_word} games per team",
             f"{line.name}: {line.value}",
             "even totals" if spread <= 1 else "uneven totals",
@@ -672,8 +677,8 @@ def _cards(season: Season, fr) -> list[Card]:
     cards.append(
         Card(
             "Courts and kick-off times",
-            ", ".join(parts) or "none named",
-            "",
+            parts[0] if parts else "none named",
+            "; ".join(parts[1:]),
             verdict,
             tone,
             text,

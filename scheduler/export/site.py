@@ -26,6 +26,13 @@ from dataclasses import dataclass
 from scheduler.export.csv_out import FixtureRow, fixture_rows
 from scheduler.season import Season
 
+SITE_CAUTION = (
+    "A schedule can put players at risk: too little rest between games, long trips, or late "
+    "kick-offs for youth teams. The rules of your league, your governing body and local "
+    "regulations (for example on minimum rest, youth kick-off times and travel) take precedence "
+    "over this schedule."
+)
+
 SITE_FOLDER = "site"
 INDEX_PAGE = "index.html"
 TEAM_FOLDER = "teams"
@@ -124,7 +131,7 @@ def site_files(
     >>> sorted(files)[:2]  # doctest: +SKIP
     ['site/index.html', 'site/teams/ashford-rovers-1a2b3c4d.html']
     """
-    from scheduler.export.report import REST_CAUTION, _environment
+    from scheduler.export.report import _environment
 
     env = _environment()
     feeds = _feed_names(season, feed_names)
@@ -145,7 +152,7 @@ def site_files(
         "title": title,
         "sides": sides,
         "side_meaning": season.home_meaning == "side",
-        "caution": REST_CAUTION,
+        "caution": SITE_CAUTION,
     }
     files: dict[str, bytes] = {}
     index = env.get_template("site_index.html.j2").render(

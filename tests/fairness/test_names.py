@@ -95,18 +95,21 @@ def test_carry_over_between_the_bounds_says_so():
     assert "between the lower bound 56 and the worst possible 196" in line.standing
 
 
-def test_terminal_uses_the_same_names(tmp_path):
+def test_terminal_uses_the_same_names(tmp_path, monkeypatch):
     # The audit's table, through typer's test runner: names from FIGURES, the direction said,
     # none of the old names.
     from typer.testing import CliRunner
 
+    from scheduler import cli
     from scheduler.cli import app
     from scheduler.export.csv_out import fixtures_csv
+
+    monkeypatch.setattr(cli.out, "width", 250)  # one line per table row
 
     season = make_season(tuple(f"Club {i}" for i in range(8)), legs=1)
     path = tmp_path / "ext.csv"
     path.write_text(fixtures_csv(season), encoding="utf-8", newline="")
-    result = CliRunner().invoke(app, ["audit", str(path)], terminal_width=200)
+    result = CliRunner().invoke(app, ["audit", str(path)])
     assert result.exit_code == 0, result.output
     for key in ("perfect_pairs", "breaks_total", "carry_over_value", "home_gap_max"):
         assert figure_name(key) in result.output, key

@@ -252,8 +252,37 @@ def _grid_sheet(ws: Worksheet, season: Season, side_labels: tuple[str, str]) -> 
     ws.print_title_cols = "A:A"
     for first in range(1 + GRID_ROUNDS_PER_PAGE, rounds + 1, GRID_ROUNDS_PER_PAGE):
         ws.col_breaks.append(Break(id=first))  # a break after column `first` (round first-1)
-    ws.page_setup.fitToWidth = max(1, -(-rounds // GRID_ROUNDS_PER_PAGE))
-    ws.page_setup.fitToHeight = 0
+    # Spreadsheet programs ignore manual page breaks under "fit to pages", so the Grid is
+    # scaled instead: the team column and one page's rounds fill the printable width.
+    ws.sheet_properties.pageSetUpPr.fitToPage = False
+    ws.page_setup.scale = grid_print_scale(ws, rounds)
+
+
+def column_pixels(width: float) -> float:
+    """Screen pixels of a column ``width`` characters wide (ECMA-376 §18.3.1.13: the width is
+    counted in widths of the digit "0" of the default font, 7 pixels for 11-point Calibri, plus
+    5 pixels of padding; from memory)."""
+    return width * 7 + 5
+
+
+def grid_print_scale(ws: Worksheet, rounds: int) -> int:
+    """The print scale (percent, 10 to 100) at which the team column and any
+    :data:`GRID_ROUNDS_PER_PAGE` rounds fit the printable width of a landscape A4 page."""
+    margins = (ws.page_margins.left or 0.7) + (ws.page_margins.right or 0.7)
+    printable = (297 / 25.4 - margins) * 96  # landscape A4 (ISO 216), in 96-dpi pixels
+
+    def width(col: int) -> float:
+        return column_pixels(ws.column_dimensions[get_column_letter(col)].width or 8.43)
+
+    widest = 0.0
+    for first in range(2, rounds + 2, GRID_ROUNDS_PER_PAGE):
+        page = width(1) + sum(
+            width(c) for c in range(first, min(first + GRID_ROUNDS_PER_PAGE, rounds + 2))
+        )
+        widest = max(widest, page)
+    if widest <= 0:
+        return 100
+    return max(10, min(100, int(printable / widest * 100)))
 
 
 def _team_sheet(ws: Worksheet, season: Season, team: str, side_labels: tuple[str, str]) -> None:

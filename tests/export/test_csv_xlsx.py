@@ -261,9 +261,24 @@ def test_grid_splits_by_rounds_with_the_team_column_repeated():
     from scheduler.export.xlsx import GRID_ROUNDS_PER_PAGE
 
     assert breaks == list(range(1 + GRID_ROUNDS_PER_PAGE, season.rounds + 1, GRID_ROUNDS_PER_PAGE))
-    pages = -(-season.rounds // GRID_ROUNDS_PER_PAGE)
-    assert grid.page_setup.fitToWidth == pages and grid.page_setup.fitToHeight == 0
+    # Manual breaks are ignored under "fit to pages" (common spreadsheet behaviour, from
+    # memory), so the Grid is scaled: team column + one page of rounds fit landscape A4
+    # (297 mm wide, ISO 216) inside the margins, at 96 pixels per inch.
+    from scheduler.export.xlsx import column_pixels
+
+    assert not grid.sheet_properties.pageSetUpPr.fitToPage
     assert grid.page_setup.orientation == "landscape"
+    scale = int(grid.page_setup.scale)
+    assert 10 <= scale <= 100
+    printable = (297 / 25.4 - grid.page_margins.left - grid.page_margins.right) * 96
+    team = column_pixels(grid.column_dimensions["A"].width)
+    for first in range(2, season.rounds + 2, GRID_ROUNDS_PER_PAGE):
+        cols = range(first, min(first + GRID_ROUNDS_PER_PAGE, season.rounds + 2))
+        page = team + sum(
+            column_pixels(grid.column_dimensions[openpyxl.utils.get_column_letter(c)].width)
+            for c in cols
+        )
+        assert page * scale / 100 <= printable
     widths = [grid.column_dimensions[c].width for c in "BCDEFGHI"]
     assert max(widths) <= 22
 

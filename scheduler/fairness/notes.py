@@ -34,6 +34,7 @@ from zoneinfo import ZoneInfo, ZoneInfoNotFoundError
 
 from scheduler.calendar import match_days
 from scheduler.config.model import League
+from scheduler.errors import SchedulerError
 from scheduler.season import Season
 
 EARLY_END_DAYS = 14
@@ -67,8 +68,13 @@ def _calendar_days(league: League, last: date) -> list[date]:
     if spec.dates or spec.end is not None:
         return match_days(spec, 0)
     needed = 64
+    days: list[date] = []
     while True:
-        days = match_days(spec, needed)
+        try:
+            more = match_days(spec, needed)
+        except SchedulerError:  # the calendar ran out of days before `needed`: keep what we have
+            return days
+        days = more
         if not days or days[-1] >= last or len(days) < needed or needed > _MAX_DAYS:
             return days
         needed *= 2

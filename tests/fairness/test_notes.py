@@ -163,3 +163,10 @@ def test_planned_season_carries_the_notes_to_json_and_report(league):
     assert all(n in data["notes"] for n in expected)
     page = render_report(season, compute_fairness(season))
     assert "Cedar Hill is unavailable" in page
+
+
+def test_open_ended_calendar_finds_the_empty_day(league):
+    open_end = replace(league, calendar=replace(league.calendar, end=None))
+    season = hand_season([date(2031, 3, 16), last_sunday(2031, 3), date(2031, 4, 6)])
+    kinds = [e.kind for e in silent_effects(open_end, season)]
+    assert "empty-day" in kinds and "early-end" not in kinds

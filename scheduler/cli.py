@@ -85,11 +85,33 @@ def _plain(text: str) -> str:
     return text.replace("[", "\\[")
 
 
+PROGRESS_MODES = ("auto", "bar", "plain", "json", "none")
+
+
 @contextmanager
-def _progress(enabled: bool) -> Iterator[Callable[[str, float], None] | None]:
-    """A progress display on stderr; yields a ``(message, fraction)`` callback."""
-    if not enabled or not err.is_terminal:
+def _progress(
+    enabled: bool, mode: str = "auto"
+) -> Iterator[Callable[[str, float], None] | None]:
+    """A progress display on stderr; yields a ``(message, fraction)`` callback.
+
+    ``mode``: ``auto`` (a bar on a terminal, plain lines every few seconds otherwise, nothing
+    when not ``enabled``), ``bar``, ``plain``, ``json`` (JSON Lines for tools, see
+    :mod:`scheduler.progress`) or ``none``. An explicit mode wins over ``enabled``.
+    """
+    if mode not in PROGRESS_MODES:
+        raise InputError(
+            f"--progress must be one of {', '.join(PROGRESS_MODES)}, got {mode!r}",
+            location="--progress",
+        )
+    if mode == "none" or (mode == "auto" and not enabled):
         yield None
+        return
+    if mode == "json" or mode == "plain" or (mode == "auto" and not err.is_terminal):
+        from scheduler.progress import JsonProgress, PlainProgress
+
+        display = JsonProgress if mode == "json" else PlainProgress
+        with display(sys.stderr) as show:
+            yield show
         return
     from rich.progress import BarColumn, Progress, TextColumn, TimeElapsedColumn
 
@@ -212,6 +234,14 @@ def plan(
         bool, typer.Option(help="Replace an output folder that holds another league's season.")
     ] = False,
     quiet: Annotated[bool, typer.Option(help="Print only the output folder.")] = False,
+    progress_mode: Annotated[
+        str,
+        typer.Option(
+            "--progress",
+            help="Progress on stderr: auto (a bar on a terminal, plain lines every few seconds "
+            "otherwise), bar, plain, json (JSON Lines for tools) or none.",
+        ),
+    ] = "auto",
 ) -> None:
     """Plan a season from a league config and write it to the output folder."""
     from scheduler.config import load_league
@@ -224,7 +254,7 @@ def plan(
     from scheduler.fairness import compute_fairness
     from scheduler.plan import plan_season
 
-    with _progress(not quiet) as progress:
+    with _progress(not quiet, progress_mode) as progress:
         result = plan_season(league, seed=seed, time_limit=time_limit, progress=progress)
     season = result.season
     fairness = compute_fairness(season, league)
@@ -242,11 +272,13 @@ def plan(
         return
     _print_fairness(fairness, title=f"{season.league} {season.season_id}")
     _print_rule_checks(fairness.rule_checks)
+    from scheduler.fairness.names import plain_text
+
     for option in result.options:
         mark = "chosen" if option.chosen else "considered"
-        out.print(f"{mark}: {_plain(option.label)}: {_plain(option.figures())}")
+        out.print(f"{mark}: {_plain(plain_text(option.label))}: {_plain(option.figures())}")
     for note in result.notes:
-        out.print(f"note: {_plain(note)}")
+        out.print(f"note: {_plain(plain_text(note))}")
     out.print(f"wrote {len(written)} files to {out_dir}")
 
 
@@ -320,38 +352,20 @@ def _print_rule_checks(checks: Any) -> None:
 
 
 def _print_fairness(fairness: Any, *, title: str) -> None:
-    """The headline figures as a table (the full set is in season.json and the report)."""
+    """The measured figures as a table, named as in every other output
+    (:mod:`scheduler.fairness.names`); the full set is in season.json and the report."""
+    from scheduler.fairness.names import figure_lines
+
     table = Table(title=f"Fairness: {_plain(title)}", show_header=True, header_style="bold")
     table.add_column("figure")
     table.add_column("value", justify="right")
-    table.add_column("reference")
-    for label, value, reference in _headline_rows(fairness.summary()):
-        table.add_row(label, value, reference)
+    table.add_column("where it stands")
+    table.add_column("measured over")
+    table.add_row("teams", str(fairness.teams), "", "")
+    table.add_row("rounds", str(fairness.rounds), "", "")
+    for line in figure_lines(fairness):
+        table.add_row(line.name, line.value, _plain(line.brief), _plain(line.over_brief))
     out.print(table)
-
-
-def _headline_rows(f: dict) -> list[tuple[str, str, str]]:
-    """Rows of the headline table from ``FairnessReport.summary()``."""
-    rows = [
-        ("teams", str(f["teams"]), ""),
-        ("rounds", str(f["rounds"]), ""),
-        (
-            "perfect pairs of rounds",
-            f"{f['perfect_pairs']}/{f['pairs']}",
-            "perfect mixing" if f["perfect"] else "not perfect",
-        ),
-        ("breaks", str(f["breaks_total"]), f"lower bound {f['breaks_lower_bound']}"),
-        ("largest home-count gap", str(f["home_gap_max"]), "after any round"),
-    ]
-    if f["carry_over_value"] is not None:
-        low, high = f["carry_over_lower_bound"], f["carry_over_upper_bound"]
-        bounds = f"bounds {low}..{high}" if low is not None and high is not None else ""
-        rows.append(("carry-over value", str(f["carry_over_value"]), bounds))
-    if f["rest_days_min"] is not None:
-        rows.append(("fewest rest days", str(f["rest_days_min"]), "league rules come first"))
-    if f["separation_min"] is not None:
-        rows.append(("fewest rounds between meetings", str(f["separation_min"]), ""))
-    return rows
 
 
 def main() -> None:

@@ -76,19 +76,22 @@ class PlanOption:
     feasible: bool = True
 
     def figures(self) -> str:
-        """The option's figures in words, never a missing value printed as "None".
+        """The option's figures in words, named as in every other output
+        (:mod:`scheduler.fairness.names`), never a missing value printed as "None".
 
         Examples
         --------
-        >>> PlanOption("x", "x", 3, 3, None, 4, None, False, False).figures()
-        'perfect pairs 3/3, no timetable keeps every rule with these pairings'
+        >>> PlanOption("x", "x", 3, 3, None, 4, None, False, False).figures().split(", ")
+        ['pairs of rounds that mix perfectly 3 of 3', 'no timetable keeps every rule with these pairings']
         """
-        text = f"perfect pairs {self.perfect_pairs}/{self.pairs}"
+        from scheduler.fairness.names import figure_name
+
+        text = f"{figure_name('perfect_pairs')} {self.perfect_pairs} of {self.pairs}"
         if self.breaks is None:
             return text + ", no timetable keeps every rule with these pairings"
-        text += f", breaks {self.breaks} (lower bound {self.break_bound})"
+        text += f", {figure_name('breaks_total')} {self.breaks} (lower bound {self.break_bound})"
         if self.carry_over is not None:
-            text += f", carry-over {self.carry_over}"
+            text += f", {figure_name('carry_over_value')} {self.carry_over}"
         return text
 
 
@@ -271,6 +274,11 @@ def plan_season(
                      + (" (proven best)" if placement.status == "optimal" else ""))
     report("dates", 0.9)
     season = _season(league, chosen, tt, placement, seed, tuple(notes))
+    from scheduler.fairness.notes import silent_effect_notes
+
+    effects = silent_effect_notes(league, season)
+    season = replace(season, notes=season.notes + effects)
+    notes.extend(effects)
     options = tuple(
         PlanOption(
             label=c.label, method=c.fact.method, perfect_pairs=c.cert.perfect_pairs,
@@ -465,4 +473,10 @@ def _season(league: League, cand: _Candidate, tt: Timetable, placement: Placemen
         byes=byes, legs=max(1, league.format.legs),
         scheme=league.format.scheme, timezone=league.timezone,
         venues=tuple(v.name for v in league.venues), mixing=mixing, seed=seed, notes=notes,
-        revision=revision(league, seed))
+        revision=revision(league, seed), home_meaning=league.format.home_meaning,
+        side_labels=league.format.side_labels,
+        venue_addresses={v.name: v.address for v in league.venues if v.address},
+        venue_coordinates={v.name: (v.latitude, v.longitude) for v in league.venues
+                           if v.latitude is not None and v.longitude is not None},
+        calendar_end=league.calendar.end or max(league.calendar.dates, default=None))
+

@@ -64,6 +64,14 @@ class Season:
     ``byes`` maps a round to the teams that sit out in it (empty for an even league).
     ``legs`` is the number of legs (1 = single round robin). ``timezone`` is an IANA name.
     ``notes`` are human-readable remarks from the planner (trade-offs, relaxed priorities).
+
+    What the outputs show, filled by the planner from the league file (the defaults fit a
+    schedule read from elsewhere, whose league file is unknown): ``home_meaning`` is
+    ``"venue"`` (the home team hosts) or ``"side"`` ("home" is a side or colour, for example
+    White); ``side_labels`` name the home and the away side in that case (``("Home", "Away")``
+    otherwise); ``venue_addresses`` maps a venue to its postal address and
+    ``venue_coordinates`` to its (latitude, longitude) in degrees, for calendar entries.
+    ``calendar_end`` is the last date the league file allows (``None`` when open or unknown).
     """
 
     league: str
@@ -79,6 +87,16 @@ class Season:
     seed: int = 0
     notes: tuple[str, ...] = ()
     revision: str = ""
+    home_meaning: str = "venue"
+    side_labels: tuple[str, str] = ("Home", "Away")
+    venue_addresses: dict[str, str] = field(default_factory=dict)
+    venue_coordinates: dict[str, tuple[float, float]] = field(default_factory=dict)
+    calendar_end: date | None = None
+
+    @property
+    def planned(self) -> bool:
+        """True for a season planned by this program (it has a plan revision)."""
+        return bool(self.revision)
 
     @property
     def rounds(self) -> int:

@@ -149,7 +149,14 @@ def build_league(doc: LeagueFile, source: str | None = None) -> League:
         for t, code in zip(doc.teams, codes, strict=True)
     )
     venues = tuple(
-        Venue(name=v.name, courts=tuple(v.courts), slots=tuple(v.slots), address=v.address)
+        Venue(
+            name=v.name,
+            courts=tuple(v.courts),
+            slots=tuple(v.slots),
+            address=v.address,
+            latitude=v.latitude,
+            longitude=v.longitude,
+        )
         for v in doc.venues
     )
     r = doc.rules

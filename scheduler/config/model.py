@@ -52,6 +52,8 @@ class Venue:
     courts: tuple[str, ...] = ("Main",)
     slots: tuple[time, ...] = ()
     address: str | None = None
+    latitude: float | None = None
+    longitude: float | None = None
 
     @property
     def capacity(self) -> int:

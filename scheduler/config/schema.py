@@ -25,7 +25,14 @@ import re
 from difflib import get_close_matches
 from typing import Annotated, Any
 
-from pydantic import AfterValidator, BaseModel, BeforeValidator, ConfigDict, Field
+from pydantic import (
+    AfterValidator,
+    BaseModel,
+    BeforeValidator,
+    ConfigDict,
+    Field,
+    model_validator,
+)
 from pydantic_core import PydanticCustomError
 
 from scheduler.config.limits import MAX_ADDRESS_CHARS, MAX_NAME_CHARS, MAX_YEAR, MIN_YEAR
@@ -288,6 +295,16 @@ class VenueSection(Section):
     courts: Annotated[TextList, Field(min_length=1)] = ["Main"]
     slots: Annotated[list[Clock], BeforeValidator(_as_list)] = []
     address: AddressText | None = None
+    latitude: Annotated[float, Field(ge=-90, le=90)] | None = None
+    longitude: Annotated[float, Field(ge=-180, le=180)] | None = None
+
+    @model_validator(mode="after")
+    def _both_coordinates(self) -> VenueSection:
+        if (self.latitude is None) != (self.longitude is None):
+            raise PydanticCustomError(
+                "coordinates", "give both latitude and longitude, or neither"
+            )
+        return self
 
 
 class TeamSection(Section):

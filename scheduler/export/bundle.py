@@ -34,13 +34,14 @@ from scheduler.export.ics import (
     league_calendar,
     plan_calendar,
     team_calendar,
+    team_file_stems,
 )
 from scheduler.export.safety import (
     atomic_write_bytes,
     atomic_write_text,
     name_digest,
-    safe_filenames,
 )
+from scheduler.export.site import site_files, site_paths
 from scheduler.export.xlsx import workbook_bytes
 from scheduler.season import Season
 
@@ -56,7 +57,7 @@ _RESERVED_STEMS = {"league"}
 
 def team_feed_names(season: Season) -> dict[str, str]:
     """Team -> file name of its feed inside ``calendars/`` (unique, never ``league.ics``)."""
-    stems = safe_filenames(season.teams)
+    stems = team_file_stems(season.teams)
     names = {}
     for team, stem in stems.items():
         if stem.lower() in _RESERVED_STEMS:
@@ -76,6 +77,7 @@ def output_paths(season: Season, out_dir: str | os.PathLike[str]) -> list[Path]:
         cal / LEAGUE_FEED,
         *(cal / name for name in team_feed_names(season).values()),
         out / REPORT_FILE,
+        *(out / rel for rel in site_paths(season, team_feed_names(season))),
         out / SEASON_FILE,
     ]
 
@@ -209,6 +211,9 @@ def write_season_outputs(
             from scheduler.export.report import render_report
 
             written.append(atomic_write_text(out / REPORT_FILE, render_report(season, fairness)))
+        for rel, data in site_files(season, fairness, feed_names=team_feed_names(season)).items():
+            (out / rel).parent.mkdir(parents=True, exist_ok=True)
+            written.append(atomic_write_bytes(out / rel, data))
         written.append(atomic_write_text(out / SEASON_FILE, dumps_season(season, fairness)))
     except OSError as exc:
         raise OutputError(f"cannot write into {out}: {exc}") from exc

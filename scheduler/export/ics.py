@@ -47,6 +47,7 @@ from icalendar import Calendar, Event, vText
 
 from scheduler.errors import InputError
 from scheduler.export.csv_out import league_zone, local_start
+from scheduler.export.safety import safe_filenames
 from scheduler.season import Fixture, Season
 
 PRODID = "-//roundrobin-scheduler//Season calendars 1.0//EN"
@@ -213,6 +214,12 @@ def _fixture_records(season: Season, minutes: int) -> dict[str, dict[str, object
             "minutes": minutes if isinstance(start, datetime) else None,
             **_start_record(start),
         }
+        # Only when known, so that feeds of leagues without addresses keep their digests.
+        if f.venue and season.venue_addresses.get(f.venue):
+            records[uid]["address"] = season.venue_addresses[f.venue]
+        if f.venue and f.venue in season.venue_coordinates:
+            latitude, longitude = season.venue_coordinates[f.venue]
+            records[uid]["geo"] = [float(latitude), float(longitude)]
     return records
 
 
@@ -297,6 +304,47 @@ def plan_calendar(
     return CalendarState(season.league, season.season_id, events)
 
 
+# --------------------------------------------------------------------------- file names
+
+_STEM_SLUG_MAX = 40
+_STEM_TAIL = 14
+
+
+def _full_slug(name: str) -> str:
+    import unicodedata
+
+    ascii_text = unicodedata.normalize("NFKD", name).encode("ascii", "ignore").decode("ascii")
+    return re.sub(r"[^a-z0-9]+", "-", ascii_text.lower()).strip("-")
+
+
+def team_file_stems(names: Iterable[str]) -> dict[str, str]:
+    """File-name stems of team feeds that keep the distinguishing end of long names.
+
+    The stems are those of :func:`scheduler.export.safety.safe_filenames` (unique, safe on
+    every file system, a hash of the name added whenever the stem is not the name itself);
+    where that cut a long name short at its end, the middle of the name gives way instead, so
+    "Marlwick and District Saturday League Girls A" and "... Girls B" give
+    ``marlwick-and-district-sa--league-girls-a-<hash>`` and ``...-girls-b-<hash>``.
+
+    Examples
+    --------
+    >>> stems = team_file_stems(["Marlwick and District Saturday League Girls A"])
+    >>> stems["Marlwick and District Saturday League Girls A"][:-9]
+    'marlwick-and-district-sa--league-girls-a'
+    """
+    stems = safe_filenames(names)
+    out: dict[str, str] = {}
+    for name, stem in stems.items():
+        slug = _full_slug(name)
+        if len(slug) > _STEM_SLUG_MAX and "-" in stem:
+            digest = stem.rsplit("-", 1)[1]
+            head = slug[: _STEM_SLUG_MAX - _STEM_TAIL - 2].rstrip("-")
+            tail = slug[-_STEM_TAIL:].lstrip("-")
+            stem = f"{head}--{tail}-{digest}"
+        out[name] = stem
+    return out
+
+
 # --------------------------------------------------------------------------- feeds
 
 
@@ -311,8 +359,30 @@ def ical_text(value: object) -> str:
 
 
 def _location(record: Mapping[str, object]) -> str | None:
-    parts = [str(p) for p in (record.get("venue"), record.get("court")) if p]
+    """LOCATION (RFC 5545 §3.8.1.7): venue, court in brackets, then the postal address, so a
+    calendar program can offer directions: ``"Harrowfen Fields (North Pitch), Ferncombe Lane,
+    Marlwick"``."""
+    venue, court, address = record.get("venue"), record.get("court"), record.get("address")
+    place = str(venue) if venue else ""
+    if court:
+        place = f"{place} ({court})" if place else str(court)
+    parts = [p for p in (place, str(address) if address else "") if p]
     return ical_text(", ".join(parts)) if parts else None
+
+
+def _sides(season: Season) -> tuple[str, str] | None:
+    """The league's side labels when "home" is a side or colour (``None`` otherwise)."""
+    return season.side_labels if season.home_meaning == "side" else None
+
+
+def game_summary(record: Mapping[str, object], season: Season) -> str:
+    """SUMMARY of a game: ``"Home v Away"`` (the home team first, the trade's convention), or
+    with the sides named when "home" is a side: ``"Upper Foxley (White) v Sorrel Street
+    (Black)"``."""
+    sides = _sides(season)
+    if sides is None:
+        return f"{record['home']} v {record['away']}"
+    return f"{record['home']} ({sides[0]}) v {record['away']} ({sides[1]})"
 
 
 def _event(uid: str, state: EventState, season: Season) -> Event:
@@ -333,7 +403,7 @@ def _event(uid: str, state: EventState, season: Season) -> Event:
             ical_text(f"{season.league} {season.season_id}\nRound {rec['round']}: no game"),
         )
         return event
-    event.add("summary", ical_text(f"{rec['home']} v {rec['away']}"))
+    event.add("summary", ical_text(game_summary(rec, season)))
     event.add("dtstart", start)
     if isinstance(start, datetime):
         event.add("dtend", start + timedelta(minutes=int(rec.get("minutes") or 0)))
@@ -342,7 +412,22 @@ def _event(uid: str, state: EventState, season: Season) -> Event:
     location = _location(rec)
     if location:
         event.add("location", location)
+    geo = rec.get("geo")
+    if isinstance(geo, list | tuple) and len(geo) == 2:
+        # GEO (RFC 5545 §3.8.1.6): latitude;longitude in decimal degrees.
+        event.add("geo", (float(geo[0]), float(geo[1])))
     lines = [f"{season.league} {season.season_id}", f"Round {rec['round']}, leg {rec['leg']}"]
+    sides = _sides(season)
+    if sides is not None:
+        lines.append(f"{sides[0]}: {rec['home']}")
+        lines.append(f"{sides[1]}: {rec['away']}")
+    else:
+        lines.append(f"Home: {rec['home']} (hosts)")
+        lines.append(f"Away: {rec['away']}")
+    if rec.get("venue"):
+        lines.append(f"Venue: {rec['venue']}")
+    if rec.get("address"):
+        lines.append(f"Address: {rec['address']}")
     if rec.get("slot"):
         lines.append(f"Slot: {rec['slot']}")
     if rec.get("court"):

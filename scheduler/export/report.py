@@ -1,9 +1,12 @@
 """The season report: one self-contained HTML page for a tournament director.
 
 The page (``templates/report.html.j2``, Jinja2 with autoescaping on) needs no external asset and no
-JavaScript: its CSS is inline and its pictures are inline SVG drawn here. It states the
-guarantees first (mixing, breaks against their lower bound, venue and slot balance, carry-over
-against its bounds, rest days with a caution), then draws the team-by-round home/away grid, the
+JavaScript: its CSS is inline and its pictures are inline SVG drawn here. It states first the
+rules the schedule keeps (each with its measured evidence), then, apart from them, the measured
+figures, each named as in every output (:mod:`scheduler.fairness.names`), with what it is
+measured over and where it stands between the best and the worst possible (mixing, breaks
+against their lower bound, courts and kick-off times, carry-over against its bounds, rest days
+with a caution); then it draws the team-by-round home/away grid, the
 carry-over matrix, the round-pair mixing matrix and per-team venue/court/slot use.
 
 Every figure comes from a :class:`~scheduler.fairness.FairnessReport`; this module only lays them
@@ -12,7 +15,8 @@ two numbers of that report.
 
 Colours: the Okabe–Ito palette (M. Okabe and K. Ito, "Color Universal Design", 2002/2008), chosen
 to stay distinguishable for the common forms of colour-vision deficiency, and a single-hue
-sequential ramp for counts. Colour never carries meaning alone: cells also carry letters (H, A, B)
+sequential ramp of our own for counts (near white to a dark slate blue, :data:`RAMP_DARK`).
+Colour never carries meaning alone: cells also carry letters (H, A, B)
 or numbers, and byes, breaks and imperfect pairs get hatching or marks (the redundant-encoding
 advice of accessibility practice, e.g. WCAG 2.1 success criterion 1.4.1 "Use of Color").
 Above ``TEXT_LIMIT`` rows the pictures keep their colours and patterns but drop per-cell text,
@@ -28,6 +32,14 @@ from pathlib import Path
 from jinja2 import Environment, FileSystemLoader, StrictUndefined
 from markupsafe import Markup, escape
 
+from scheduler.fairness.names import (
+    carry_over_over,
+    figure_lines,
+    method_phrase,
+    mixing_over,
+    plain_source,
+    plain_text,
+)
 from scheduler.season import Season
 
 TEXT_LIMIT = 40
@@ -68,7 +80,7 @@ COURT_SOURCE = (
 )
 REST_CAUTION = (
     "A schedule can put players at risk: too little rest between games, long trips, or late "
-    "kick-offs for youth teams. The figures above are measured from the dates in this plan and "
+    "kick-offs for youth teams. The figures above are measured from the dates in this schedule and "
     "say nothing about what is safe for your players. The rules of your league, your governing "
     "body and local regulations (for example on minimum rest, youth kick-off times and travel) "
     "take precedence over this schedule; check them before you publish it."
@@ -153,12 +165,22 @@ def _svg(width: float, height: float, body: str, title: str) -> Markup:
     )
 
 
+RAMP_LIGHT = "#F2F5F8"
+RAMP_DARK = "#1E3F5A"
+"""The ends of the count ramp: our own near white and our own dark slate blue."""
+
+
+def _rgb(colour: str) -> tuple[int, int, int]:
+    return int(colour[1:3], 16), int(colour[3:5], 16), int(colour[5:7], 16)
+
+
 def ramp(value: float, top: float) -> str:
-    """A single-hue sequential ramp from near white to a dark blue (light = few, dark = many)."""
+    """A single-hue sequential ramp from near white to a dark slate blue (light = few, dark =
+    many), interpolated linearly in sRGB between :data:`RAMP_LIGHT` and :data:`RAMP_DARK`."""
     if top <= 0:
-        return "#F2F5F8"
+        return RAMP_LIGHT
     t = max(0.0, min(1.0, value / top))
-    light, dark = (242, 245, 248), (8, 48, 107)
+    light, dark = _rgb(RAMP_LIGHT), _rgb(RAMP_DARK)
     rgb = tuple(round(a + (b - a) * t) for a, b in zip(light, dark, strict=True))
     return "#{:02X}{:02X}{:02X}".format(*rgb)
 
@@ -185,9 +207,10 @@ _HA_STYLE = {
 }
 
 
-def home_away_grid(fairness, side_labels: tuple[str, str] = ("H", "A")) -> Markup:
-    """Team-by-round grid of the home-away patterns (H, A, B = bye, X = more than one game);
-    a black bar under a cell marks a break (the second of two home or two away games)."""
+def home_away_grid(fairness, letters: dict[str, str] | None = None) -> Markup:
+    """Team-by-round grid of the home-away patterns (H, A, B = bye, X = more than one game,
+    or the ``letters`` given for them, see :func:`side_letters`); a black bar under a cell
+    marks a break (the second of two home or two away games)."""
     teams = fairness.team_figures
     rounds = fairness.rounds
     small = len(teams) <= TEXT_LIMIT and rounds <= 2 * TEXT_LIMIT
@@ -199,7 +222,7 @@ def home_away_grid(fairness, side_labels: tuple[str, str] = ("H", "A")) -> Marku
     paths = _Paths()
     marks = _Paths()
     text: list[str] = []
-    letters = {"H": side_labels[0][:1], "A": side_labels[1][:1], "B": "B", "X": "X"}
+    letters = letters or {"H": "H", "A": "A", "B": "B", "X": "X"}
     for i, team in enumerate(teams):
         y = top + i * cell
         if small:
@@ -407,11 +430,11 @@ def bound_gauge(value: int, low: int, high: int) -> Markup:
         f'<line x1="{width - pad}" y1="20" x2="{width - pad}" y2="32" stroke="#555555" '
         'stroke-width="2"/>'
         f'<path d="M{x:.1f} 28l-6 -12h12z" fill="{OI_VERMILLION}" stroke="#000000"/>'
-        f'<text x="{pad}" y="46" class="axis">{low} (least possible)</text>'
+        f'<text x="{pad}" y="46" class="axis">{low} (lower bound)</text>'
         f'<text x="{width - pad}" y="46" text-anchor="end" class="axis">'
-        f"{high} (circle method)</text>"
+        f"{high} (worst possible)</text>"
     )
-    return _svg(width, 50, body, f"value {value} between {low} and {high}")
+    return _svg(width, 50, body, f"value {value}: lower bound {low}, worst possible {high}")
 
 
 # --------------------------------------------------------------------------- context
@@ -419,7 +442,8 @@ def bound_gauge(value: int, low: int, high: int) -> Markup:
 
 @dataclass(frozen=True)
 class Card:
-    """One guarantee on the first screen: a headline figure, its bound, a verdict and why."""
+    """One measured figure on the first screen: its one name (``scheduler.fairness.names``),
+    the value, where it stands, what it is measured over, a verdict and why."""
 
     title: str
     figure: str
@@ -429,15 +453,93 @@ class Card:
     text: str
     sources: tuple[str, ...] = ()
     picture: Markup | None = None
+    over: str = ""
+
+
+@dataclass(frozen=True)
+class RuleLine:
+    """One rule the schedule keeps (or not), with the measured evidence."""
+
+    rule: str
+    evidence: str
+    kept: bool
 
 
 def _n_a(value) -> str:
     return "n/a" if value is None else str(value)
 
 
+def side_letters(season: Season) -> dict[str, str]:
+    """Letters of the grid: the home side, the away side, a bye and a round with two games.
+
+    The home and away letters are the first letters of the league's side labels (two letters
+    when they start alike); the bye and the extra-game marks give way when a side letter takes
+    theirs (``"B"`` for Black, say).
+    """
+    home, away = _sides(season)
+    if home[:1].upper() != away[:1].upper():
+        h, a = home[:1].upper(), away[:1].upper()
+    else:
+        h, a = home[:2].title(), away[:2].title()
+        if h == a:
+            h, a = "H", "A"
+    bye = "B" if "B" not in (h, a) else "–"
+    extra = "X" if "X" not in (h, a) else "+"
+    return {"H": h or "H", "A": a or "A", "B": bye, "X": extra}
+
+
+def _sides(season: Season) -> tuple[str, str]:
+    """The names of the two sides: the league's labels when "home" is a side, else home/away."""
+    if season.home_meaning == "side":
+        return season.side_labels
+    return ("Home", "Away")
+
+
+def _rules(season: Season, fr) -> list[RuleLine]:
+    """The rules a reader can check on this page, each with its measured evidence.
+
+    The league's own hard rules come from the independent checks of :mod:`scheduler.rules`
+    (``fr.rule_checks``, present when the league is known); this function only words them.
+    """
+    lines: list[RuleLine] = []
+    extra = sum(t.pattern.count("X") for t in fr.team_figures)
+    lines.append(
+        RuleLine(
+            "Each team plays at most one game per round",
+            "kept in every round" if not extra else f"{extra} team-rounds with two games or more",
+            not extra,
+        )
+    )
+    if fr.mixing_valid:
+        lines.append(
+            RuleLine(
+                "Every team meets every other team (a round robin)",
+                f"checked over {mixing_over(fr)}",
+                True,
+            )
+        )
+    for check in fr.rule_checks:
+        rule = check.statement
+        if season.home_meaning == "side":
+            rule = rule.replace("home games", f"{season.side_labels[0]} games")
+            rule = rule.replace("away games", f"{season.side_labels[1]} games")
+        if check.kept:
+            evidence = "kept by every fixture"
+        else:
+            first = check.violations[0]
+            where = ", ".join(x for x in (
+                first.team, f"round {first.round}" if first.round else "",
+                first.date.isoformat() if first.date else "") if x)
+            more = len(check.violations) - 1
+            evidence = f"{where}: {first.what}" + (f" (and {more} more)" if more else "")
+        lines.append(RuleLine(rule, evidence, check.kept))
+    return lines
+
+
 def _cards(season: Season, fr) -> list[Card]:
+    lines = {line.key: line for line in figure_lines(fr)}
     cards: list[Card] = []
-    # Mixing certificate.
+    # Mixing.
     if not fr.mixing_valid:
         cards.append(
             Card(
@@ -449,114 +551,163 @@ def _cards(season: Season, fr) -> list[Card]:
                 "; ".join(fr.mixing_problems) or "see the notes",
             )
         )
-    else:
+    elif "perfect_pairs" in lines:
+        line = lines["perfect_pairs"]
         engine = ""
-        if season.mixing is not None:
-            engine = f" The planner used {season.mixing.method} ({season.mixing.source})."
+        if season.planned and season.mixing is not None:
+            engine = (
+                f" This schedule was built with {method_phrase(season.mixing.method)} "
+                f"({plain_source(season.mixing.source)})."
+            )
         cards.append(
             Card(
-                "Mixing certificate",
-                f"{fr.perfect_pairs} of {fr.pairs}",
-                "pairs of rounds mix perfectly",
+                "Mixing",
+                line.value,
+                line.name,
                 "perfect" if fr.perfect else "not perfect",
-                "good" if fr.perfect else "fair",
+                line.tone,
                 "Two rounds mix perfectly when, taken together, their games form one single cycle "
                 "through all teams: then no smaller group of teams plays only among itself over "
                 "those two rounds, and results stay comparable across the table. A schedule in "
-                "which every pair of rounds does this is a perfect one-factorization." + engine,
+                "which every pair of rounds does this is called perfect. "
+                f"{line.standing[:1].upper()}{line.standing[1:]}." + engine,
                 MIXING_SOURCES,
+                over=line.over,
             )
         )
+    home_word, away_word = (w if season.home_meaning == "side" else w.lower()
+                            for w in _sides(season))
     # Breaks.
-    good = fr.breaks_total <= fr.breaks_lower_bound
+    line = lines["breaks_total"]
     cards.append(
         Card(
             "Breaks",
-            str(fr.breaks_total),
+            line.value,
             f"lower bound {fr.breaks_lower_bound}",
-            "at the lower bound" if good else f"{fr.breaks_total - fr.breaks_lower_bound} above",
-            "good" if good else "fair",
-            "A break is two home games, or two away games, in a row for one team. No season of "
-            f"this shape can have fewer than {fr.breaks_lower_bound}. Byes: {fr.bye_convention}.",
+            "at the lower bound" if line.tone == "good" else "above the lower bound",
+            line.tone,
+            f"A break is two {home_word} games, or two {away_word} games, in a row for one "
+            "team; lower is better. "
+            + (
+                f"No season of this shape can have fewer than {fr.breaks_lower_bound}. "
+                if fr.breaks_lower_bound > 0
+                else "A season of this shape can have no break at all. "
+            )
+            + f"Byes: {fr.bye_convention}.",
             (fr.breaks_lower_bound_source,),
+            over=line.over,
         )
     )
     # Home/away balance.
     homes = fr.home_counts
     spread = (max(homes) - min(homes)) if homes else 0
+    line = lines["home_gap_max"]
     cards.append(
         Card(
-            "Home and away",
-            f"{min(homes, default=0)}–{max(homes, default=0)} home games",
-            f"largest gap {fr.home_gap_max} (after round {fr.home_gap_round})",
-            "even" if spread <= 1 else "uneven",
-            "good" if spread <= 1 else "fair",
-            "How many home games each team has, and the largest difference in home games "
-            "between two teams at any point of the season.",
+            "Home and away"
+            if season.home_meaning != "side"
+            else f"{season.side_labels[0]} and {season.side_labels[1]}",
+            f"{min(homes, default=0)}–{max(homes, default=0)} {home_word} games per team",
+            f"{line.name}: {line.value}",
+            "even totals" if spread <= 1 else "uneven totals",
+            "good" if spread <= 1 and line.tone == "good" else "fair",
+            f"How many {home_word} games each team has, and the {line.name}: the largest "
+            f"difference in {home_word} games between two teams in the table after any round. "
+            + (
+                f"Here “home” means playing {season.side_labels[0]}. "
+                if season.home_meaning == "side"
+                else ""
+            )
+            + f"{line.standing[:1].upper()}{line.standing[1:]}.",
             ("D. Goossens and F. C. R. Spieksma, ranking-balancedness (2012)",),
+            over=line.over,
         )
     )
-    # Venue, court and slot balance.
+    # Courts and kick-off times.
     parts = []
-    if fr.court_spread_max is not None:
-        parts.append(f"court spread {fr.court_spread_max}")
-    if fr.slot_spread_max is not None:
-        parts.append(f"slot spread {fr.slot_spread_max}")
+    for key in ("court_spread_max", "court_uses_max", "slot_spread_max"):
+        if key in lines:
+            parts.append(f"{lines[key].name} {lines[key].value}")
+    sources: tuple[str, ...] = ()
+    text = (
+        "The spread of a team is its most uses of one court (or kick-off time) minus its "
+        "fewest; lower is better, and 0 means every team gets every court and kick-off time "
+        "equally often."
+    )
     if fr.btd_applicable:
-        verdict = "balanced tournament design" if fr.btd_ok else "some team uses a court 3+ times"
-        tone = "good" if fr.btd_ok else "fair"
+        sources = (COURT_SOURCE,)
+        if fr.btd_ok:
+            verdict, tone = "each court at most twice per leg", "good"
+            text += " Every team uses every court at most twice in each leg, as in a balanced "
+            text += "tournament design."
+        else:
+            verdict, tone = "a team uses a court three times or more in a leg", "fair"
+            text += " Some team uses a court three times or more in a leg: "
+            text += "; ".join(fr.btd_violations[:3]) + "."
+    elif parts:
+        worst = max(
+            (v for v in (fr.court_spread_max, fr.slot_spread_max) if v is not None), default=0
+        )
+        verdict = "every team alike" if worst == 0 else "measured"
+        tone = "good" if worst == 0 else "note"
     else:
-        worst = max((v for v in (fr.court_spread_max, fr.slot_spread_max) if v is not None),
-                    default=None)  # fmt: skip
-        verdict = "balanced" if worst is not None and worst <= 1 else "see the bars below"
-        tone = "good" if worst is not None and worst <= 1 else "note"
+        verdict, tone = "none named", "note"
     cards.append(
         Card(
-            "Venues, courts and slots",
-            ", ".join(parts) or "none given",
-            "spread = most minus fewest uses of one court or slot by a team",
+            "Courts and kick-off times",
+            parts[0] if parts else "none named",
+            "; ".join(parts[1:]),
             verdict,
             tone,
-            "A spread of 0 or 1 means every team gets every court and kick-off time about "
-            "equally often. " + ("; ".join(fr.btd_violations[:3]) if fr.btd_violations else ""),
-            (COURT_SOURCE,),
+            text,
+            sources,
+            over="each team's games over the season",
         )
     )
     # Carry-over.
-    if fr.carry_over_value is not None:
+    if "carry_over_value" in lines:
+        line = lines["carry_over_value"]
         low, high = fr.carry_over_lower_bound, fr.carry_over_upper_bound
-        at_low = fr.carry_over_value == low
+        bound = "" if low is None else f"lower bound {low}, worst possible {high}"
+        if line.tone == "good":
+            verdict = "at the lower bound"
+        elif high is not None and fr.carry_over_value >= high:
+            verdict = "the worst possible"
+        else:
+            verdict = "above the lower bound"
         cards.append(
             Card(
                 "Carry-over",
-                str(fr.carry_over_value),
-                f"between {low} = n(n−1) and {high} = (n−1)(n²−6n+12)",
-                "balanced (the lowest possible)" if at_low else "above the lower bound",
-                "good" if at_low else "note",
+                line.value,
+                bound,
+                verdict,
+                line.tone,
                 "When team A's opponent in one round was team B, A meets its next opponent just "
                 "after B did: B's effect (a tired or a confident side) carries over. The value "
-                "is the sum of squares of how often each team passes such an effect to each "
-                "other team; lower is fairer (the exact convention is under the matrix below).",
+                "adds up the squares of how often each team passes such an effect to each "
+                f"other team; lower is fairer. {line.standing[:1].upper()}{line.standing[1:]}.",
                 CARRY_OVER_SOURCES,
                 bound_gauge(fr.carry_over_value, low, high) if low is not None else None,
+                over=line.over,
             )
         )
     # Rest days.
-    if fr.rest_days_min is not None:
+    if "rest_days_min" in lines:
         mean = "" if fr.rest_days_mean is None else f", mean {fr.rest_days_mean:.1f}"
         cards.append(
             Card(
                 "Rest days",
-                f"least {fr.rest_days_min}{mean}",
+                f"fewest {fr.rest_days_min}{mean}",
                 "days without a game between two games of a team",
                 "measured",
                 "note",
                 REST_CAUTION,
+                over=lines["rest_days_min"].over,
             )
         )
     else:
         cards.append(Card("Rest days", "not measured", "", "no dates", "note", REST_CAUTION))
-    if fr.separation_min is not None:
+    if "separation_min" in lines:
         cards.append(
             Card(
                 "Separation",
@@ -564,10 +715,16 @@ def _cards(season: Season, fr) -> list[Card]:
                 "between two meetings of the same teams",
                 "measured",
                 "note",
-                "The number of rounds strictly between two games of the same two teams.",
+                "The number of rounds strictly between two games of the same two teams; more "
+                "spreads the meetings further apart.",
+                over=lines["separation_min"].over,
             )
         )
     return cards
+
+
+def _title(season: Season) -> str:
+    return " · ".join(part for part in (season.league, season.season_id) if part) or "Schedule"
 
 
 def report_context(season: Season, fairness) -> dict:
@@ -578,7 +735,7 @@ def report_context(season: Season, fairness) -> dict:
     names = [t.name for t in fr.team_figures]
     if fr.slot_names:
         slot_bars = stacked_bars(
-            names, [t.slots for t in fr.team_figures], fr.slot_names, "Time slots per team"
+            names, [t.slots for t in fr.team_figures], fr.slot_names, "Kick-off times per team"
         )
     if fr.court_names and len(fr.court_names) <= CATEGORY_LIMIT:
         if len(fr.court_names) <= 8:
@@ -602,17 +759,26 @@ def report_context(season: Season, fairness) -> dict:
 
     for row in fixture_rows(season):
         rounds.setdefault(row.fixture.round, []).append(row)
+    letters = side_letters(season)
+    sides = _sides(season)
     return {
         "season": season,
+        "title": _title(season),
         "fr": fr,
+        "rules": _rules(season, fr),
         "cards": _cards(season, fr),
-        "grid": home_away_grid(fr),
+        "grid": home_away_grid(fr, letters=letters),
+        "letters": letters,
+        "sides": sides,
+        "side_meaning": season.home_meaning == "side",
         "carry": heat_map(
             fr.carry_over_matrix, fr.carry_over_labels, "Carry-over: row team gives to column team"
         )
         if fr.carry_over_matrix
         else None,
+        "carry_over_words": carry_over_words(fr),
         "mixing": mixing_map(fr),
+        "mixing_over": mixing_over(fr),
         "slot_bars": slot_bars,
         "court_bars": court_bars,
         "venue_bars": venue_bars,
@@ -620,6 +786,7 @@ def report_context(season: Season, fairness) -> dict:
         "too_many_courts": len(fr.court_names) > CATEGORY_LIMIT,
         "rounds": rounds,
         "byes": {r: season.byes[r] for r in sorted(season.byes)},
+        "notes": [plain_text(n) for n in (*fr.notes, *season.notes)],
         "text_limit": TEXT_LIMIT,
         "colours": {
             "home": OI_BLUE,
@@ -627,8 +794,28 @@ def report_context(season: Season, fairness) -> dict:
             "good": OI_GREEN,
             "bad": OI_VERMILLION,
             "extra": OI_PURPLE,
+            "ramp_low": RAMP_LIGHT,
+            "ramp_high": RAMP_DARK,
         },
     }
+
+
+def carry_over_words(fr) -> str:
+    """How the carry-over matrix is counted, in words and symbols (a footnote)."""
+    over = carry_over_over(fr)
+    bye = (
+        " An odd league adds a row and a column “bye”: the team that sits out a round meets "
+        "the bye, so the bounds are those of a league with one more team."
+        if "bye" in fr.carry_over_labels
+        else ""
+    )
+    return (
+        f"Counted over {over}. For every team t and round r, when t meets i in round r and j in "
+        "round r + 1, the cell (i, j) counts one; the value is the sum of the squares of all "
+        "cells, Σ c(i, j)², never below n(n − 1) for n teams (Russell 1980) and never above "
+        "(n − 1)(n² − 6n + 12), the value of the circle method (Lambrechts et al. 2018)."
+        + bye
+    )
 
 
 def render_report(season: Season, fairness) -> str:

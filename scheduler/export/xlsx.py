@@ -30,12 +30,14 @@ from openpyxl import Workbook
 from openpyxl.cell.cell import ILLEGAL_CHARACTERS_RE
 from openpyxl.styles import Alignment, Border, Font, PatternFill, Side
 from openpyxl.utils import get_column_letter
+from openpyxl.worksheet.pagebreak import Break
 from openpyxl.worksheet.worksheet import Worksheet
 from openpyxl.writer.excel import ExcelWriter
 
 from scheduler.export.csv_out import fixture_rows
 from scheduler.export.ics import plan_stamp
 from scheduler.export.safety import atomic_write_bytes, neutralise_cell, safe_sheet_title
+from scheduler.fairness.names import figure_lines, plain_source
 from scheduler.season import Season
 
 DATE_FORMAT = "yyyy-mm-dd"
@@ -116,8 +118,63 @@ def _finish(ws: Worksheet, *, header_row: int = 1, freeze: str = "A2", table: bo
     ws.print_options.gridLines = True
 
 
+SHEET_TITLE_MAX = 31
+"""Longest worksheet title a spreadsheet program accepts (ECMA-376 / Excel limit)."""
+
+GRID_ROUNDS_PER_PAGE = 8
+"""Rounds per printed page of the Grid sheet (the team column repeats on every page)."""
+
+_HEADER_PART_MAX = 80
+
+
+def short_title(name: str, limit: int = SHEET_TITLE_MAX) -> str:
+    """``name`` cut to ``limit`` characters in the middle, keeping its end.
+
+    Long names of one club's teams differ at the end ("... Girls A", "... Girls B"), so the
+    end is kept whole (up to 12 characters, from a word start where possible) and the middle
+    gives way to an ellipsis.
+
+    Examples
+    --------
+    >>> short_title("Marlwick and District Sunday League Girls A")
+    'Marlwick and District…Girls A'
+    """
+    text = " ".join(str(name).split())
+    if len(text) <= limit:
+        return text
+    tail = text[-12:]
+    if " " in tail:
+        tail = tail[tail.index(" ") + 1 :]
+    head = text[: limit - len(tail) - 1]
+    if text[len(head)] != " " and " " in head[len(head) // 2 :]:
+        head = head[: head.rindex(" ")]
+    return f"{head.rstrip()}…{tail}"
+
+
+def _header_text(text: str) -> str:
+    """Text for a page header or footer: ``&`` doubled (a single one starts a code, ECMA-376
+    §18.3.1.46), one line, at most :data:`_HEADER_PART_MAX` characters."""
+    one = " ".join(ILLEGAL_CHARACTERS_RE.sub("\ufffd", str(text)).split())
+    return short_title(one, _HEADER_PART_MAX).replace("&", "&&")
+
+
+def _page_header(ws: Worksheet, season: Season, title: str) -> None:
+    """Header: league and season left, the sheet's title (a team's name) right; footer: the
+    page number as "page &P of &N" in the middle (header codes of ECMA-376 §18.3.1.46)."""
+    league = " ".join(p for p in (season.league, season.season_id) if p)
+    for part in (ws.oddHeader, ws.evenHeader, ws.firstHeader):
+        part.left.text = _header_text(league)
+        part.right.text = _header_text(title)
+    for part in (ws.oddFooter, ws.evenFooter, ws.firstFooter):
+        part.center.text = "Page &P of &N"
+        part.left.text = _header_text(title)
+
+
 def _fixtures_sheet(ws: Worksheet, season: Season) -> None:
-    _header(ws, FIXTURE_HEADERS)
+    headers = list(FIXTURE_HEADERS)
+    if season.home_meaning == "side":  # the columns are named by the league's sides
+        headers[4], headers[5] = season.side_labels
+    _header(ws, headers)
     for r, row in enumerate(fixture_rows(season), start=2):
         f = row.fixture
         values = (
@@ -142,13 +199,32 @@ def _fixtures_sheet(ws: Worksheet, season: Season) -> None:
     _finish(ws)
 
 
+def side_words(season: Season, side_labels: tuple[str, str] = ("H", "A")) -> tuple[str, str] | None:
+    """The names of the two sides when "home" is a side or colour (the season's labels, or the
+    ``side_labels`` a caller passes other than the default), else ``None``."""
+    if season.home_meaning == "side":
+        return season.side_labels
+    if tuple(side_labels) != ("H", "A"):
+        return (side_labels[0], side_labels[1])
+    return None
+
+
+def grid_cell_text(home_side: bool, opponent: str, sides: tuple[str, str] | None) -> str:
+    """What a Grid cell says about the row's team: ``"home v Westermoor"`` (the row's team is
+    at home), ``"away at Westermoor"``, or with sides, ``"White v Westermoor"``."""
+    if sides is not None:
+        return f"{sides[0] if home_side else sides[1]} v {opponent}"
+    return f"home v {opponent}" if home_side else f"away at {opponent}"
+
+
 def _grid_sheet(ws: Worksheet, season: Season, side_labels: tuple[str, str]) -> None:
+    sides = side_words(season, side_labels)
     rounds = season.rounds
     _header(ws, ["Team", *[f"R{r}" for r in range(1, rounds + 1)]])
     cells: dict[tuple[str, int], list[tuple[str, str]]] = {}
     for f in season.fixtures:
-        cells.setdefault((f.home, f.round), []).append((side_labels[0], f.away))
-        cells.setdefault((f.away, f.round), []).append((side_labels[1], f.home))
+        cells.setdefault((f.home, f.round), []).append(("home", f.away))
+        cells.setdefault((f.away, f.round), []).append(("away", f.home))
     for r, team in enumerate(season.teams, start=2):
         name_cell = ws.cell(row=r, column=1, value=user_text(team))
         name_cell.font = Font(bold=True)
@@ -160,17 +236,62 @@ def _grid_sheet(ws: Worksheet, season: Season, side_labels: tuple[str, str]) -> 
                 cell.fill = _BYE_FILL
                 continue
             cell.value = user_text(
-                "\n".join(f"{opp} ({side})" for side, opp in sorted(games, key=lambda g: g[1]))
+                "\n".join(
+                    grid_cell_text(side == "home", opp, sides)
+                    for side, opp in sorted(games, key=lambda g: g[1])
+                )
             )
             if len(games) == 1:
-                cell.fill = _HOME_FILL if games[0][0] == side_labels[0] else _AWAY_FILL
-            if "\n" in cell.value:
-                cell.alignment = _WRAP
+                cell.fill = _HOME_FILL if games[0][0] == "home" else _AWAY_FILL
+            cell.alignment = _WRAP
     _finish(ws, freeze="B2", table=False)
+    # Printing: rounds split across pages, the team column repeated on each (print titles).
+    for col in range(2, rounds + 2):
+        letter = get_column_letter(col)
+        ws.column_dimensions[letter].width = min(ws.column_dimensions[letter].width or 12, 22)
+    ws.print_title_cols = "A:A"
+    for first in range(1 + GRID_ROUNDS_PER_PAGE, rounds + 1, GRID_ROUNDS_PER_PAGE):
+        ws.col_breaks.append(Break(id=first))  # a break after column `first` (round first-1)
+    # Spreadsheet programs ignore manual page breaks under "fit to pages", so the Grid is
+    # scaled instead: the team column and one page's rounds fill the printable width.
+    ws.sheet_properties.pageSetUpPr.fitToPage = False
+    ws.page_setup.scale = grid_print_scale(ws, rounds)
+
+
+def column_pixels(width: float) -> float:
+    """Screen pixels of a column ``width`` characters wide (ECMA-376 §18.3.1.13: the width is
+    counted in widths of the digit "0" of the default font, 7 pixels for 11-point Calibri, plus
+    5 pixels of padding; from memory)."""
+    return width * 7 + 5
+
+
+def grid_print_scale(ws: Worksheet, rounds: int) -> int:
+    """The print scale (percent, 10 to 100) at which the team column and any
+    :data:`GRID_ROUNDS_PER_PAGE` rounds fit the printable width of a landscape A4 page."""
+    margins = (ws.page_margins.left or 0.7) + (ws.page_margins.right or 0.7)
+    printable = (297 / 25.4 - margins) * 96  # landscape A4 (ISO 216), in 96-dpi pixels
+
+    def width(col: int) -> float:
+        return column_pixels(ws.column_dimensions[get_column_letter(col)].width or 8.43)
+
+    widest = 0.0
+    for first in range(2, rounds + 2, GRID_ROUNDS_PER_PAGE):
+        page = width(1) + sum(
+            width(c) for c in range(first, min(first + GRID_ROUNDS_PER_PAGE, rounds + 2))
+        )
+        widest = max(widest, page)
+    if widest <= 0:
+        return 100
+    return max(10, min(100, int(printable / widest * 100)))
 
 
 def _team_sheet(ws: Worksheet, season: Season, team: str, side_labels: tuple[str, str]) -> None:
-    _header(ws, ["Round", "Leg", "Date", "Kick-off", "Side", "Opponent", "Venue", "Court", "Slot"])
+    sides = side_words(season, side_labels)
+    side_head = "Side" if sides is not None else "Home/away"
+    words = sides if sides is not None else ("home", "away")
+    _header(
+        ws, ["Round", "Leg", "Date", "Kick-off", side_head, "Opponent", "Venue", "Court", "Slot"]
+    )
     rows = [row for row in fixture_rows(season) if team in row.fixture.teams]
     entries: list[tuple[int, tuple]] = []
     for row in rows:
@@ -184,7 +305,7 @@ def _team_sheet(ws: Worksheet, season: Season, team: str, side_labels: tuple[str
                     f.leg,
                     row.date,
                     row.time,
-                    side_labels[0] if home else side_labels[1],
+                    words[0] if home else words[1],
                     user_text(f.away if home else f.home),
                     user_text(f.venue),
                     user_text(f.court),
@@ -209,16 +330,21 @@ def _team_sheet(ws: Worksheet, season: Season, team: str, side_labels: tuple[str
 
 
 _CARRY_SOURCE = (
-    "lower bound n(n-1): Russell, Biometrika 67 (1980) 127-131; upper bound (n-1)(n²-6n+12), "
+    "lower bound n(n-1): Russell, Biometrika 67 (1980) 127-131; worst possible (n-1)(n²-6n+12), "
     "reached by the circle method: Lambrechts, Ficker, Goossens & Spieksma, Math. Programming "
     "172 (2018) 277-302"
+)
+_COURT_SOURCE = (
+    "each court at most twice per leg (balanced tournament design): Schellenberg, van Rees & "
+    "Vanstone, Ars Combinatoria 3 (1977) 303-318"
 )
 
 
 def _fairness_sheet(ws: Worksheet, season: Season, fairness) -> None:
-    """The report's figures, as given (nothing is computed here)."""
+    """The report's figures, as given (nothing is computed here), each under its one name
+    (:mod:`scheduler.fairness.names`) with where it stands and what it is measured over."""
     fr = fairness
-    mixing_source = season.mixing.source if season.mixing else ""
+    mixing_source = plain_source(season.mixing.source) if season.mixing else ""
 
     def fmt(value) -> object:
         if value is None:
@@ -229,52 +355,57 @@ def _fairness_sheet(ws: Worksheet, season: Season, fairness) -> None:
             return ", ".join("n/a" if v is None else str(v) for v in value)
         return value
 
-    rows = [
-        ("Teams", fr.teams, "", ""),
-        ("Rounds", fr.rounds, "", ""),
-        ("Legs / scheme", f"{fr.legs} / {fr.scheme}", "", ""),
-        ("Games", fr.games, "", ""),
-        ("Breaks (total)", fr.breaks_total, fr.breaks_lower_bound, fr.breaks_lower_bound_source),
-        ("Bye convention", fr.bye_convention, "", ""),
-        ("Largest home-game gap", fr.home_gap_max, f"after round {fr.home_gap_round}", ""),
-        (
-            "Perfectly mixing round pairs",
-            f"{fr.perfect_pairs} of {fr.pairs}",
-            "all" if fr.pairs else "",
-            mixing_source,
-        ),
-        ("Perfect one-factorization", fmt(fr.perfect), "", fr.mixing_note),
-        ("Court spread (max)", fmt(fr.court_spread_max), "", ""),
-        ("Slot spread (max)", fmt(fr.slot_spread_max), "", ""),
-        (
-            "Balanced tournament design",
-            fmt(fr.btd_ok) if fr.btd_applicable else "not applicable",
-            "each court at most twice per leg",
-            "Schellenberg, van Rees & Vanstone, Ars Combinatoria 3 (1977) 303-318",
-        ),
-        ("Rest days (least)", fmt(fr.rest_days_min), "", ""),
-        (
-            "Rest days (mean)",
-            "n/a" if fr.rest_days_mean is None else round(fr.rest_days_mean, 2),
-            "",
-            "",
-        ),
-        (
-            "Carry-over value",
-            fmt(fr.carry_over_value),
-            f"{fmt(fr.carry_over_lower_bound)} to {fmt(fr.carry_over_upper_bound)}",
-            _CARRY_SOURCE,
-        ),
-        ("Carry-over per leg", fmt(fr.carry_over_per_leg), "", fr.carry_over_convention),
-        ("Separation (least)", fmt(fr.separation_min), "", ""),
-        ("Separation (largest)", fmt(fr.separation_max), "", ""),
+    sources = {
+        "perfect_pairs": mixing_source,
+        "breaks_total": fr.breaks_lower_bound_source,
+        "carry_over_value": _CARRY_SOURCE,
+        "home_gap_max": "Goossens & Spieksma, ranking-balancedness (2012)",
+    }
+    numbers = {
+        "breaks_total": fr.breaks_total,
+        "carry_over_value": fr.carry_over_value,
+        "home_gap_max": fr.home_gap_max,
+        "court_spread_max": fr.court_spread_max,
+        "slot_spread_max": fr.slot_spread_max,
+        "rest_days_min": fr.rest_days_min,
+        "separation_min": fr.separation_min,
+    }
+    rows: list[tuple] = [
+        ("teams", fr.teams, "", "", ""),
+        ("rounds", fr.rounds, "", "", ""),
+        ("legs", f"{fr.legs} ({fr.scheme})" if fr.legs > 1 else fr.legs, "", "", ""),
+        ("games", fr.games, "", "", ""),
     ]
-    rows += [("Note", user_text(note), "", "") for note in fr.notes]
-    _header(ws, ["Figure", "Value", "Bound or target", "Source / convention"])
+    for line in figure_lines(fr):
+        value = numbers.get(line.key, line.value)
+        rows.append((line.name, value, line.standing, line.over, sources.get(line.key, "")))
+    if fr.btd_applicable:
+        rows.append(
+            (
+                "each court at most twice per leg",
+                fmt(fr.btd_ok),
+                "kept" if fr.btd_ok else "; ".join(fr.btd_violations[:3]),
+                "every leg",
+                _COURT_SOURCE,
+            )
+        )
+    if fr.legs > 1 and fr.carry_over_value is not None:
+        rows.append(
+            (
+                "carry-over value of each leg",
+                fmt(fr.carry_over_per_leg),
+                "lower is better",
+                "each leg on its own, its last round followed by its first",
+                "",
+            )
+        )
+    rows.append(("byes and breaks", fr.bye_convention, "", "", ""))
+    rows += [("note", user_text(note), "", "", "") for note in (*fr.notes, *season.notes)]
+    _header(ws, ["Figure", "Value", "Where it stands", "Measured over", "Source"])
     for r, values in enumerate(rows, start=2):
         for c, value in enumerate(values, start=1):
             cell = ws.cell(row=r, column=c, value=value if value != "" else None)
-            if c == 4:
+            if c >= 3:
                 cell.alignment = _WRAP
     top = len(rows) + 3
     headers = [
@@ -300,7 +431,8 @@ def _fairness_sheet(ws: Worksheet, season: Season, fairness) -> None:
         for c, value in enumerate(values, start=1):
             ws.cell(row=r, column=c, value=value if value != "" else None)
     _finish(ws, table=False)
-    ws.column_dimensions["D"].width = 60
+    for letter, width in (("C", 40), ("D", 36), ("E", 48)):
+        ws.column_dimensions[letter].width = width
     ws.print_title_rows = "1:1"
 
 
@@ -312,13 +444,20 @@ def build_workbook(
     ws = wb.active
     ws.title = "Fixtures"
     _fixtures_sheet(ws, season)
-    _grid_sheet(wb.create_sheet("Grid"), season, side_labels)
+    _page_header(ws, season, "Fixtures")
+    grid = wb.create_sheet("Grid")
+    _grid_sheet(grid, season, side_labels)
+    _page_header(grid, season, "Team by round")
     taken = {"fixtures", "grid", "fairness"}
     if fairness is not None:
-        _fairness_sheet(wb.create_sheet("Fairness"), season, fairness)
+        sheet = wb.create_sheet("Fairness")
+        _fairness_sheet(sheet, season, fairness)
+        _page_header(sheet, season, "Fairness figures")
     for team in season.teams:
-        title = safe_sheet_title(team, taken)
-        _team_sheet(wb.create_sheet(title), season, team, side_labels)
+        title = safe_sheet_title(short_title(team), taken)
+        sheet = wb.create_sheet(title)
+        _team_sheet(sheet, season, team, side_labels)
+        _page_header(sheet, season, team)
     stamp = plan_stamp(season).replace(tzinfo=None)
     props = wb.properties
     props.creator = "roundrobin-scheduler"

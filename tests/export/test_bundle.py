@@ -37,9 +37,10 @@ def test_layout_and_no_temp_files(season, tmp_path):
     assert written == output_paths(season, out)
     names = sorted(p.relative_to(out).as_posix() for p in out.rglob("*") if p.is_file())
     feeds = sorted(f"calendars/{n}" for n in team_feed_names(season).values())
+    pages = sorted(f"site/teams/{n[:-4]}.html" for n in team_feed_names(season).values())
     assert names == sorted(
         ["season.json", "fixtures.csv", "fixtures.xlsx", "report.html", "calendars/league.ics",
-         "calendars/.sequence.json", *feeds]
+         "calendars/.sequence.json", *feeds, "site/index.html", *pages]
     )  # fmt: skip
     # A team called "league" does not overwrite the league feed.
     assert "calendars/league.ics" not in feeds

@@ -131,8 +131,9 @@ def test_workbook_sheets_grid_and_teams(season, xlsx_path):
     for f in season.fixtures:
         home_cell = restore_cell(grid.cell(row=row_of[f.home], column=f.round + 1).value)
         away_cell = restore_cell(grid.cell(row=row_of[f.away], column=f.round + 1).value)
-        assert home_cell == f"{f.away} (H)"
-        assert away_cell == f"{f.home} (A)"
+        # The cell speaks of the row's team: unambiguous about who is at home.
+        assert home_cell == f"home v {f.away}"
+        assert away_cell == f"away at {f.home}"
     # A team sheet lists that team's games in round order.
     sheet = wb[team_sheets[0]]
     rounds = [c.value for c in sheet["A"][1:]]
@@ -176,11 +177,17 @@ def test_fairness_sheet_holds_the_report_figures(season, tmp_path):
                                          ws.cell(row=r, column=3).value)
         for r in range(2, ws.max_row + 1)
     }  # fmt: skip
-    assert figures["Breaks (total)"] == (fairness.breaks_total, fairness.breaks_lower_bound)
-    assert figures["Carry-over value"][0] == fairness.carry_over_value
-    assert figures["Perfectly mixing round pairs"][0] == (
+    # One name per figure: the names of scheduler.fairness.names, as in terminal and report.
+    from scheduler.fairness.names import figure_name
+
+    assert figures[figure_name("breaks_total")][0] == fairness.breaks_total
+    assert f"lower bound {fairness.breaks_lower_bound}" in figures[figure_name("breaks_total")][1]
+    assert figures[figure_name("carry_over_value")][0] == fairness.carry_over_value
+    assert figures[figure_name("perfect_pairs")][0] == (
         f"{fairness.perfect_pairs} of {fairness.pairs}"
     )
+    # Circle-method carry-over is the maximum (Lambrechts et al. 2018): "worst possible".
+    assert "worst possible" in figures[figure_name("carry_over_value")][1]
     # The per-team table, read back with pandas, equals the report's team figures.
     top = next(r for r in range(1, ws.max_row + 1) if ws.cell(row=r, column=1).value == "Team")
     frame = pd.read_excel(path, sheet_name="Fairness", skiprows=top - 1, engine="openpyxl")
@@ -219,3 +226,86 @@ def test_any_team_name_survives_csv_and_workbook(name):
     lf = name.replace("\r\n", "\n").replace("\r", "\n")  # XML 1.0 §2.11 line-end handling
     xml_safe = re.sub(r"[\x00-\x08\x0b\x0c\x0e-\x1f]", "\ufffd", lf)
     assert got == (set(teams) - {name}) | {xml_safe}
+
+
+# --------------------------------------------------------------------------- printing
+
+
+def test_every_sheet_prints_with_header_footer_and_page_numbers(season):
+    # Read back with openpyxl: header/footer codes &P (page) and &N (pages) of ECMA-376
+    # §18.3.1.46; "&&" is a literal ampersand.
+    from dataclasses import replace
+
+    named = replace(season, league="Marlwick & District League", season_id="2031")
+    wb = openpyxl.load_workbook(io.BytesIO(workbook_bytes(named)))
+    for ws in wb.worksheets:
+        assert ws.oddHeader.left.text == "Marlwick && District League 2031", ws.title
+        assert ws.oddFooter.center.text == "Page &P of &N"
+        assert ws.oddHeader.right.text, ws.title
+        assert ws.page_setup.orientation == "landscape"
+    teams = wb.worksheets[2:]
+    for ws, team in zip(teams, named.teams, strict=True):
+        assert " ".join(ws.oddHeader.right.text.replace("&&", "&").split()) == " ".join(
+            team.split()
+        )
+
+
+def test_grid_splits_by_rounds_with_the_team_column_repeated():
+    season = make_season(tuple(f"Club {i}" for i in range(10)), legs=2)  # 18 rounds
+    wb = openpyxl.load_workbook(io.BytesIO(workbook_bytes(season)))
+    grid = wb["Grid"]
+    assert grid.print_title_cols == "$A:$A"
+    assert grid.print_title_rows == "$1:$1"
+    breaks = [b.id for b in grid.col_breaks.brk]
+    # A page break after every GRID_ROUNDS_PER_PAGE rounds (column 1 is the team column).
+    from scheduler.export.xlsx import GRID_ROUNDS_PER_PAGE
+
+    assert breaks == list(range(1 + GRID_ROUNDS_PER_PAGE, season.rounds + 1, GRID_ROUNDS_PER_PAGE))
+    # Manual breaks are ignored under "fit to pages" (common spreadsheet behaviour, from
+    # memory), so the Grid is scaled: team column + one page of rounds fit landscape A4
+    # (297 mm wide, ISO 216) inside the margins, at 96 pixels per inch.
+    from scheduler.export.xlsx import column_pixels
+
+    assert not grid.sheet_properties.pageSetUpPr.fitToPage
+    assert grid.page_setup.orientation == "landscape"
+    scale = int(grid.page_setup.scale)
+    assert 10 <= scale <= 100
+    printable = (297 / 25.4 - grid.page_margins.left - grid.page_margins.right) * 96
+    team = column_pixels(grid.column_dimensions["A"].width)
+    for first in range(2, season.rounds + 2, GRID_ROUNDS_PER_PAGE):
+        cols = range(first, min(first + GRID_ROUNDS_PER_PAGE, season.rounds + 2))
+        page = team + sum(
+            column_pixels(grid.column_dimensions[openpyxl.utils.get_column_letter(c)].width)
+            for c in cols
+        )
+        assert page * scale / 100 <= printable
+    widths = [grid.column_dimensions[c].width for c in "BCDEFGHI"]
+    assert max(widths) <= 22
+
+
+def test_long_names_keep_their_distinguishing_end():
+    long_a = "Marlwick and District Saturday League Girls A"
+    long_b = "Marlwick and District Saturday League Girls B"
+    season = make_season((long_a, long_b, "Ashford Rovers", "Brookvale"))
+    wb = openpyxl.load_workbook(io.BytesIO(workbook_bytes(season)))
+    titles = wb.sheetnames[2:]
+    assert all(len(t) <= 31 for t in titles)
+    assert any(t.endswith("Girls A") for t in titles)
+    assert any(t.endswith("Girls B") for t in titles)
+
+
+def test_side_leagues_name_the_sides_in_grid_and_team_sheets():
+    from dataclasses import replace
+
+    season = replace(make_season(), home_meaning="side", side_labels=("White", "Black"))
+    wb = openpyxl.load_workbook(io.BytesIO(workbook_bytes(season)))
+    grid = wb["Grid"]
+    values = {grid.cell(row=r, column=c).value for r in range(2, grid.max_row + 1)
+              for c in range(2, grid.max_column + 1)}  # fmt: skip
+    f = season.fixtures[0]
+    assert f"White v {f.away}" in values and f"Black v {f.home}" in values
+    fixtures = wb["Fixtures"]
+    assert (fixtures["E1"].value, fixtures["F1"].value) == ("White", "Black")
+    sheet = wb.worksheets[2]
+    assert sheet["E1"].value == "Side"
+    assert {c.value for c in sheet["E"][1:]} <= {"White", "Black", "bye"}

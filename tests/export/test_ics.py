@@ -133,7 +133,7 @@ def test_text_escaping_round_trips(season):
     assert {e.summary for e in strict.events} == expected
     assert any(TRICKY in s for s in summaries)
     locations = {str(ev["location"]) for ev in cal.walk("VEVENT")}
-    assert f"{TRICKY} Ground, Pitch 1" in locations or f"{TRICKY} Ground, Pitch 2" in locations
+    assert f"{TRICKY} Ground (Pitch 1)" in locations or f"{TRICKY} Ground (Pitch 2)" in locations
 
 
 def test_feeds_are_byte_identical_between_runs(season):
@@ -324,3 +324,72 @@ def test_any_team_name_gives_a_valid_feed(name):
             f"{o} v {expected}" for o in opponents
         }
     assert {e.summary for e in strict.events} == {str(e["summary"]) for e in cal.walk("VEVENT")}
+
+
+# --------------------------------------------------------------------------- address, sides
+
+
+def _with_places(season, *, side: bool):
+    from dataclasses import replace as _replace
+
+    venue = next(f.venue for f in season.fixtures if f.venue)
+    return (
+        _replace(
+            season,
+            venue_addresses={venue: "12 Ferncombe Lane, Marlwick"},
+            venue_coordinates={venue: (51.4875, -0.1234)},
+            home_meaning="side" if side else "venue",
+            side_labels=("White", "Black") if side else ("Home", "Away"),
+        ),
+        venue,
+    )
+
+
+@pytest.mark.parametrize("side", [False, True])
+def test_address_geo_and_sides_read_back_by_two_parsers(season, side):
+    # RFC 5545 §3.8.1.7 LOCATION (text), §3.8.1.6 GEO (latitude;longitude as floats),
+    # §3.8.1.12 SUMMARY; read back by icalendar and by the stricter ical package.
+    placed, venue = _with_places(season, side=side)
+    data = league_calendar(placed)
+    events = Calendar.from_ical(data).walk("VEVENT")
+    at_venue = [ev for ev in events if str(ev["location"]).startswith(venue)]
+    assert at_venue and all(
+        str(ev["location"]).endswith(", 12 Ferncombe Lane, Marlwick") for ev in at_venue
+    )
+    for ev in at_venue:
+        geo = ev["geo"]
+        assert (geo.latitude, geo.longitude) == (51.4875, -0.1234)
+        assert "Address: 12 Ferncombe Lane, Marlwick" in str(ev["description"])
+    elsewhere = [ev for ev in events if ev not in at_venue]
+    assert all("geo" not in ev and "Ferncombe" not in str(ev["location"]) for ev in elsewhere)
+    strict = IcsCalendarStream.calendar_from_ics(data.decode("utf-8"))
+    by_uid = {e.uid: e for e in strict.events}
+    for ev in events:
+        other = by_uid[str(ev["uid"])]
+        assert other.summary == str(ev["summary"])
+        assert other.location == str(ev["location"])
+        if "geo" in ev:
+            assert (other.geo.lat, other.geo.lng) == (51.4875, -0.1234)
+    for f in placed.fixtures:
+        summary = (
+            f"{f.home} (White) v {f.away} (Black)" if side else f"{f.home} v {f.away}"
+        )
+        assert any(str(ev["summary"]) == summary for ev in events), summary
+    first = events[0]
+    description = str(first["description"])
+    if side:
+        assert "White: " in description and "Black: " in description
+    else:
+        assert "Home: " in description and "(hosts)" in description
+
+
+def test_feeds_without_addresses_keep_their_event_digests(season):
+    # A league with no address gives the same calendar state as before addresses existed:
+    # a re-plan of an unchanged league must not bump any SEQUENCE (RFC 5546 §2.1.5).
+    first = plan_calendar(season)
+    placed, _ = _with_places(season, side=False)
+    moved = plan_calendar(placed, season, first)
+    changed = {u for u, e in moved.events.items() if e.sequence > first.events[u].sequence}
+    assert changed and all("address" in moved.events[u].record for u in changed)
+    again = plan_calendar(season, season, first)
+    assert all(e.sequence == first.events[u].sequence for u, e in again.events.items())

@@ -1,5 +1,6 @@
 """The season report page (scheduler.export.report): self-contained, escaped, well-formed SVG,
-guarantees first, figures taken from the FairnessReport and matching published bounds."""
+kept rules first and apart from the measured figures, figures taken from the FairnessReport and
+matching published bounds, every sentence true for the data shown."""
 
 from __future__ import annotations
 
@@ -76,9 +77,14 @@ def test_every_svg_is_well_formed_xml(page):
         assert root.find("{http://www.w3.org/2000/svg}title") is not None
 
 
-def test_guarantees_come_first(page):
-    order = [page.index(f'id="{s}"') for s in ("guarantees", "grid", "carry", "mixing", "places")]
+def test_rules_first_then_measured_figures(page):
+    sections = ("rules", "figures", "grid", "carry", "mixing", "places")
+    order = [page.index(f'id="{s}"') for s in sections]
     assert order == sorted(order)
+    assert "Guarantees" not in page
+    rules = page[page.index('id="rules"') : page.index('id="figures"')]
+    # Measured figures (breaks, carry-over) are not listed among the kept rules.
+    assert "Breaks" not in rules and "Carry-over" not in rules
 
 
 def test_carry_over_bounds_match_the_literature(page, fairness):
@@ -90,7 +96,10 @@ def test_carry_over_bounds_match_the_literature(page, fairness):
     assert fairness.carry_over_value == 196
     card = page[page.index("<h3>Carry-over</h3>") :]
     card = card[: card.index("</article>")]
-    assert "between 56 = n(n−1) and 196 = (n−1)(n²−6n+12)" in card
+    assert "lower bound 56, worst possible 196" in card
+    # 196 is the maximum (Lambrechts et al. 2018): the card must not call it merely "above".
+    assert "the worst possible" in card and "above the lower bound" not in card
+    assert "Measured over: leg 1" in card
     assert "Russell" in card and "Lambrechts" in card
 
 
@@ -101,7 +110,7 @@ def test_breaks_and_mixing_cards_show_report_figures(page, fairness):
     assert f"lower bound {fairness.breaks_lower_bound}" in card
     # de Werra (1981): a mirrored double round robin of n even teams has at least 3n-6 breaks.
     assert fairness.breaks_lower_bound == 3 * 8 - 6
-    mixing = page[page.index("<h3>Mixing certificate</h3>") :]
+    mixing = page[page.index("<h3>Mixing</h3>") :]
     mixing = mixing[: mixing.index("</article>")]
     # K_8 from the circle method is perfect (n-1 = 7 prime; Kotzig 1964 / Wallis 1997).
     assert f"{fairness.perfect_pairs} of {fairness.pairs}" in mixing and fairness.perfect
@@ -142,3 +151,84 @@ def test_large_league_page_stays_small():
     cells = re.sub(r"<defs>.*?</defs>", "", carry, flags=re.S)
     assert "<rect" not in cells  # cells merged into one path per colour
     assert cells.count("<path") <= 64
+
+
+# --------------------------------------------------------------------------- true sentences
+
+
+def _text(html: str) -> str:
+    """The page's visible words (styles and tags left out), for sentence checks."""
+    html = re.sub(r"<style>.*?</style>", " ", html, flags=re.S)
+    return re.sub(r"\s+", " ", re.sub(r"<[^>]+>", " ", html))
+
+
+def test_no_internal_paths_keys_or_raw_formulas(page):
+    text = _text(page)
+    for leak in ("carry_over_per_leg", ".py", "c_ij", "opp(t", "#{", "GK_", "Z_", "n(n-1)"):
+        assert leak not in text, leak
+
+
+def test_audit_of_an_outside_schedule_speaks_of_this_schedule(tmp_path):
+    # A schedule written elsewhere (plain CSV, no plan revision), read by the audit.
+    from scheduler.audit import audit_file
+    from scheduler.export.csv_out import fixtures_csv
+
+    source = make_season(("Ashford Rovers", "Brookvale", "Cedar Hill", "Dunmore Town"))
+    path = tmp_path / "ext.csv"
+    path.write_text(fixtures_csv(source), encoding="utf-8", newline="")
+    result = audit_file(path)
+    html = render_report(result.season, result.fairness)
+    text = _text(html)
+    assert "this schedule" in text
+    for wrong in ("this plan", "planner", "seed", "bookkeeping", "Season report"):
+        assert wrong not in text, wrong
+    title = re.search(r"<h1[^>]*>(.*?)</h1>", html, flags=re.S).group(1).strip()
+    assert title == "ext" and "·" not in title
+    assert "Schedule report" in text
+
+
+def test_side_leagues_use_their_labels_in_legend_grid_and_tables(fairness):
+    from dataclasses import replace
+
+    season = replace(make_season(TEAMS), home_meaning="side", side_labels=("White", "Black"))
+    html = render_report(season, compute_fairness(season))
+    grid = html[html.index('id="grid"') : html.index('id="carry"')]
+    assert "the row&#39;s team plays White" in grid or "the row's team plays White" in grid
+    assert "plays at home" not in grid
+    letters = re.findall(r'class="cell" fill="[^"]+">([^<]+)</text>', grid)
+    # White and Black start with W and B; the bye mark gives way so B means only Black.
+    assert set(letters) <= {"W", "B", "–", "X"}
+    assert letters.count("W") == sum(fairness.home_counts)
+    fixtures = html[html.index('id="fixtures"') :]
+    assert "<th>White</th><th>Black</th>" in fixtures
+
+
+def test_courts_card_claims_only_what_holds():
+    # One team plays all its games on the same court (3+ times, BTD not applicable):
+    # no "balanced", no "at most twice", no green tone.
+    from dataclasses import replace
+
+    season = make_season(TEAMS, legs=1)
+    first = season.teams[0]
+    fixtures = tuple(
+        replace(f, court="Court B") if first in (f.home, f.away) else replace(f, court="Court A")
+        for f in season.fixtures
+    )
+    season = replace(season, fixtures=fixtures)
+    fr = compute_fairness(season)
+    assert max(count for _, count in fr.team(first).courts) >= 3
+    html = render_report(season, fr)
+    start = html.index("<h3>Courts and kick-off times</h3>")
+    card = html[html.rindex("<article", 0, start) : html.index("</article>", start)]
+    assert 'class="card good' not in card
+    assert "at most twice" not in card and "balanced" not in card
+    assert "most games of one team on one court" in card
+
+
+def test_count_ramp_is_our_own_colour(page):
+    # The dark end must not be the end of a widely used open sequential palette
+    # (for example #08306B, the end of a common nine-class blue scheme; from memory).
+    from scheduler.export.report import RAMP_DARK, ramp
+
+    assert ramp(1, 1) == RAMP_DARK and RAMP_DARK.upper() != "#08306B"
+    assert "#08306B" not in page.upper()

@@ -13,7 +13,8 @@ general-purpose library, and prints the ratio (ours / reference):
 
 The fairness figures are computed once beforehand and not timed (exporters never compute them).
 
-Run: ``python benchmarks/bench_export.py [teams]`` (from the repository root, in the project's environment) (default 20).
+Run from the repository root, in the project's environment:
+``python benchmarks/bench_export.py [teams]`` (default 20 teams).
 """
 
 from __future__ import annotations

@@ -81,8 +81,10 @@ class PlanOption:
 
         Examples
         --------
-        >>> PlanOption("x", "x", 3, 3, None, 4, None, False, False).figures().split(", ")
-        ['pairs of rounds that mix perfectly 3 of 3', 'no timetable keeps every rule with these pairings']
+        >>> for part in PlanOption("x", "x", 3, 3, None, 4, None, False, False).figures().split(", "):
+        ...     print(part)
+        pairs of rounds that mix perfectly 3 of 3
+        no timetable keeps every rule with these pairings
         """
         from scheduler.fairness.names import figure_name
 

@@ -81,7 +81,8 @@ class PlanOption:
 
         Examples
         --------
-        >>> for part in PlanOption("x", "x", 3, 3, None, 4, None, False, False).figures().split(", "):
+        >>> option = PlanOption("x", "x", 3, 3, None, 4, None, False, False)
+        >>> for part in option.figures().split(", "):
         ...     print(part)
         pairs of rounds that mix perfectly 3 of 3
         no timetable keeps every rule with these pairings

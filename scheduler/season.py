@@ -57,6 +57,21 @@ class MixingInfo:
     pairs: int
 
 
+@dataclass(frozen=True, slots=True)
+class Revision:
+    """One published version of a season: the first plan or a re-plan.
+
+    ``played_through`` is the last day of history when the version was made (``None`` for the
+    first plan), ``changed`` the number of future games whose date, start, court or home side
+    changed against the version before, ``note`` a one-line summary for people.
+    """
+
+    revision: str
+    played_through: date | None = None
+    changed: int = 0
+    note: str = ""
+
+
 @dataclass(frozen=True)
 class Season:
     """A complete season.
@@ -64,6 +79,7 @@ class Season:
     ``byes`` maps a round to the teams that sit out in it (empty for an even league).
     ``legs`` is the number of legs (1 = single round robin). ``timezone`` is an IANA name.
     ``notes`` are human-readable remarks from the planner (trade-offs, relaxed priorities).
+    ``revisions`` is the revision history of a re-planned season (see :class:`Revision`).
     """
 
     league: str
@@ -79,6 +95,8 @@ class Season:
     seed: int = 0
     notes: tuple[str, ...] = ()
     revision: str = ""
+    revisions: tuple[Revision, ...] = ()
+    """Earlier versions, oldest first, then this one (empty for a season never re-planned)."""
 
     @property
     def rounds(self) -> int:

@@ -33,6 +33,7 @@ Only one round per match day is supported (``calendar.rounds_per_day = 1``).
 
 from __future__ import annotations
 
+import itertools
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, field, replace
 from datetime import date, time, timedelta
@@ -490,7 +491,7 @@ class RepairModel:
             meetings.setdefault(old.pair, []).append((old.leg, where))
         for pair in sorted(meetings, key=sorted):
             items = sorted(meetings[pair], key=lambda item: item[0])
-            for (_, early), (_, late) in zip(items, items[1:], strict=False):
+            for (_, early), (_, late) in itertools.pairwise(items):
                 if isinstance(early, int) and isinstance(late, int):
                     continue  # both in history
                 m.Add(late - early - 1 >= value).OnlyEnforceIf(lit)
@@ -510,8 +511,8 @@ class RepairModel:
         if status not in (cp_model.OPTIMAL, cp_model.FEASIBLE):
             raise InfeasibleError(
                 "no re-plan was found within the time limit; allow more solve_seconds", [])
-        best = int(round(solver.ObjectiveValue()))
-        bound = int(round(solver.BestObjectiveBound()))
+        best = round(solver.ObjectiveValue())
+        bound = round(solver.BestObjectiveBound())
         proven = status == cp_model.OPTIMAL
         values = {lit.Index(): solver.Value(lit) for opts in self.options for *_, lit in opts}
         # second stage: keep the change count, prefer reserve dates, then fewest breaks

@@ -92,7 +92,7 @@ class _TeamDates(Section):
 
 class _Closed(Section):
     venue: Text
-    courts: TextList = []
+    courts: TextList = Field(default_factory=list)
     dates: Annotated[DateList, Field(min_length=1)]
 
 
@@ -110,8 +110,6 @@ class _Moved(Section):
     court: Text | None = None
 
 
-def _entries(model):
-    return Annotated[list[model], BeforeValidator(_as_list)]
 
 
 class EventsFile(Section):
@@ -120,11 +118,16 @@ class EventsFile(Section):
     league: Text
     season: Annotated[Text, BeforeValidator(_season)]
     played_through: Date
-    postponed: _entries(_GameSection) = []
-    unavailable: _entries(_TeamDates) = []
-    closed: _entries(_Closed) = []
-    withdrawn: _entries(_Withdrawn) = []
-    moved: _entries(_Moved) = []
+    postponed: Annotated[list[_GameSection], BeforeValidator(_as_list)] = Field(
+        default_factory=list)
+    unavailable: Annotated[list[_TeamDates], BeforeValidator(_as_list)] = Field(
+        default_factory=list)
+    closed: Annotated[list[_Closed], BeforeValidator(_as_list)] = Field(
+        default_factory=list)
+    withdrawn: Annotated[list[_Withdrawn], BeforeValidator(_as_list)] = Field(
+        default_factory=list)
+    moved: Annotated[list[_Moved], BeforeValidator(_as_list)] = Field(
+        default_factory=list)
 
 
 _SECTIONS = {
@@ -339,7 +342,8 @@ def _reference_problems(doc: EventsFile, league: League) -> list[str]:
     for i, c in enumerate(doc.closed):
         path = f"closed[{i}].venue"
         if c.venue not in venues:
-            problems.append(f"{path}: {show(c.venue)} is not a venue{suggestion(c.venue, list(venues))}")
+            hint = suggestion(c.venue, list(venues))
+            problems.append(f"{path}: {show(c.venue)} is not a venue{hint}")
         else:
             courts = list(venues[c.venue].courts)
             for j, court in enumerate(c.courts):

@@ -21,6 +21,7 @@ describes them; the date arithmetic is Python's :mod:`datetime` (proleptic Grego
 from __future__ import annotations
 
 import datetime as dt
+import itertools
 import json
 import tomllib
 from collections import Counter, defaultdict
@@ -102,7 +103,7 @@ def check(old_path: Path, new_path: Path, league_path: Path, events_path: Path) 
     rest = rules.get("min_rest_days")
     for team, items in games.items():
         items.sort()
-        for (d1, _, f1), (d2, _, f2) in zip(items, items[1:], strict=False):
+        for (d1, _, f1), (d2, _, f2) in itertools.pairwise(items):
             if d1 == d2:
                 problems.append(f"{team} plays twice on {d1}")
             elif rest is not None and (f1 or f2) and (d2 - d1).days - 1 < rest:
@@ -146,9 +147,9 @@ def check(old_path: Path, new_path: Path, league_path: Path, events_path: Path) 
             problems.append(f"{key[1]} {key[2]} used {count} times at {key[3]}")
     for f in future:
         venue = home_venue.get(f["home"])
-        if league.get("format", {}).get("home_meaning", "venue") == "venue" and venue:
-            if f["venue"] != venue:
-                problems.append(f"{f['home']} v {f['away']} not at {venue}")
+        mode = league.get("format", {}).get("home_meaning", "venue")
+        if mode == "venue" and venue and f["venue"] != venue:
+            problems.append(f"{f['home']} v {f['away']} not at {venue}")
     unavailable = [(u["team"], d) for u in events.get("unavailable", [])
                    for d in _dates(u["dates"])]
     unavailable += [(u["team"], d) for u in rules.get("unavailable", []) for d in

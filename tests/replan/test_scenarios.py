@@ -66,7 +66,7 @@ def test_postponed_game_gets_a_reserve_date_and_nothing_else_moves(season_dir, t
     assert {r["home"] for r in rows} >= {game["home"]}
     assert sum(int(t["changed_games"]) for t in teams) == 2 * len(rows)
     data = json.loads((season_dir / "season.json").read_text(encoding="utf-8"))
-    assert [r["note"] for r in data["revisions"]][0] == "first plan"
+    assert data["revisions"][0]["note"] == "first plan"
     assert data["revisions"][-1]["played_through"] == "2031-03-22"
     assert data["revisions"][-1]["revision"] == data["revision"]
     assert "proven" in result.output
@@ -98,7 +98,7 @@ def test_one_court_closed(season_dir, tmp_path):
 
 def test_withdrawn_keep_played(season_dir, tmp_path):
     body = '[[withdrawn]]\nteam = "Marram Athletic"\npolicy = "keep_played"\n'
-    old, new, _ = replan_and_check(season_dir, tmp_path, body)
+    _, new, _ = replan_and_check(season_dir, tmp_path, body)
     mine = [f for f in new if "Marram Athletic" in (f["home"], f["away"])]
     assert mine and all(f["date"] <= "2031-03-22" for f in mine)
     rows, _ = changes_rows(season_dir)
@@ -157,13 +157,15 @@ def test_unknown_venue_gets_a_suggestion(season_dir, tmp_path):
 
 def test_postponed_game_not_in_plan(season_dir, tmp_path):
     game = round_games(fixtures(season_dir), 2)[0]
-    body = f'[[postponed]]\nhome = "{game["away"]}"\naway = "{game["home"]}"\ndate = {game["date"]}\n'
+    body = (f'[[postponed]]\nhome = "{game["away"]}"\naway = "{game["home"]}"\n'
+            f'date = {game["date"]}\n')
     refused(season_dir, tmp_path, body, "is not a game of the plan")
 
 
 def test_postponed_game_after_played_through(season_dir, tmp_path):
     game = round_games(fixtures(season_dir), 8)[0]
-    body = f'[[postponed]]\nhome = "{game["home"]}"\naway = "{game["away"]}"\ndate = {game["date"]}\n'
+    body = (f'[[postponed]]\nhome = "{game["home"]}"\naway = "{game["away"]}"\n'
+            f'date = {game["date"]}\n')
     refused(season_dir, tmp_path, body, "is after played_through")
 
 

@@ -62,7 +62,13 @@ class Worsened:
 
 @dataclass(frozen=True)
 class ReplanResult:
-    """A re-planned season with what changed and how fair it is now."""
+    """A re-planned season with what changed and how fair it is now.
+
+    ``fairness`` is measured over the new season (written to season.json and the report),
+    ``previous_fairness`` over the previous plan, ``played`` in date order; ``worsened`` lists
+    the figures that got worse: breaks, runs, rest and balance in date order, carry-over and
+    separation by round.
+    """
 
     season: Season
     previous: Season
@@ -72,23 +78,43 @@ class ReplanResult:
     previous_fairness: FairnessReport
     worsened: tuple[Worsened, ...]
     events: Events
+    played: FairnessReport | None = None
+    """The figures in date order (:func:`played_order`): what the teams will live through."""
 
     @property
     def team_counts(self) -> list[tuple[str, int]]:
         return team_counts(self.changes)
 
 
-def worsened_figures(before: FairnessReport, after: FairnessReport) -> tuple[Worsened, ...]:
-    """League figures and per-team least rest and breaks that got worse from ``before``."""
+def played_order(season: Season) -> Season:
+    """The season as it will be played: one round per match date, in date order.
+
+    A postponed game keeps its round number in the season (its identity in calendars and
+    exports), but breaks, runs and rest are felt in date order; this view numbers the rounds
+    by date so that :func:`scheduler.fairness.compute_fairness` measures them that way.
+    """
+    dates = sorted({f.date for f in season.fixtures if f.date is not None})
+    rank = {d: i + 1 for i, d in enumerate(dates)}
+    fixtures = tuple(replace(f, round=rank[f.date]) for f in season.fixtures
+                     if f.date is not None)
+    return replace(season, fixtures=fixtures, byes={})
+
+
+def worsened_figures(before: FairnessReport, after: FairnessReport, *,
+                     skip: tuple[str, ...] = (), teams: bool = True) -> tuple[Worsened, ...]:
+    """League figures and (with ``teams``) per-team least rest and breaks that got worse from
+    ``before`` (figures named in ``skip`` are not compared)."""
     out: list[Worsened] = []
     for name, label, larger_is_worse in WATCHED:
+        if name in skip:
+            continue
         a, b = getattr(before, name), getattr(after, name)
         if a is None or b is None:
             continue
         if (b > a) if larger_is_worse else (b < a):
             out.append(Worsened(label, a, b))
     old_teams = {t.name: t for t in before.team_figures}
-    for team in after.team_figures:
+    for team in after.team_figures if teams else ():
         old = old_teams.get(team.name)
         if old is None:
             continue
@@ -335,8 +361,14 @@ def replan_season(league: League, previous: Season, events: Events, *,
     )
     fairness = compute_fairness(season)
     before = compute_fairness(previous)
+    played, played_before = (compute_fairness(played_order(s)) for s in (season, previous))
+    worse = worsened_figures(played_before, played,
+                             skip=("carry_over_value", "separation_min"))
+    worse += worsened_figures(before, fairness, skip=tuple(
+        name for name, *_ in WATCHED if name not in ("carry_over_value", "separation_min")),
+        teams=False)
     return ReplanResult(season, previous, tuple(changes), result, fairness, before,
-                        worsened_figures(before, fairness), events)
+                        worse, events, played)
 
 
 def load_replan(league_path: str | Path, season_dir: str | Path, events_path: str | Path, *,

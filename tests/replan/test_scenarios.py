@@ -8,6 +8,7 @@ from __future__ import annotations
 
 import csv
 import io
+import itertools
 import json
 import shutil
 
@@ -192,3 +193,48 @@ def test_unknown_policy_and_option(season_dir, tmp_path):
             '[[withdrawn]]\nteam = "Old Sluice"\npolicy = "void"\n', "did you mean 'void_all'?")
     refused(season_dir, tmp_path, '[[postponed]]\nhome = "Old Sluice"\naway = "Marram Athletic"'
             '\ndat = 2031-03-01\n', "postponed[0].dat: unknown option; did you mean 'date'?")
+
+
+def test_worsened_rest_matches_an_independent_count(planned_small):
+    """Per-team least rest (days without a game between two games, date order) computed here
+    with plain datetime arithmetic, before and after; the re-plan must report exactly the
+    teams whose least rest fell."""
+    from scheduler.config import load_league
+    from scheduler.config.events import parse_events
+    from scheduler.export.season_json import load_season_json
+    from scheduler.replan import replan_season
+
+    league = load_league(LEAGUE)
+    previous = load_season_json(planned_small / "season.json")
+    game = next(f for f in previous.fixtures if f.round == 4)
+    events = parse_events({"league": league.name, "season": league.season,
+                           "played_through": "2031-03-22",
+                           "postponed": [{"home": game.home, "away": game.away}]}, league)
+    result = replan_season(league, previous, events, time_limit=3)
+
+    def least_rest(season):
+        out = {}
+        for team in season.teams:
+            days = sorted(f.date for f in season.fixtures if team in f.teams)
+            out[team] = min((b - a).days - 1 for a, b in itertools.pairwise(days))
+        return out
+
+    def breaks(season):
+        out = {}
+        for team in season.teams:
+            sides = [f.home == team for f in sorted(
+                (f for f in season.fixtures if team in f.teams), key=lambda f: f.date)]
+            out[team] = sum(a == b for a, b in itertools.pairwise(sides))
+        return out
+
+    before, after = least_rest(previous), least_rest(result.season)
+    fell = {team for team in before if after[team] < before[team]}
+    reported = {w.team for w in result.worsened if w.label == "fewest rest days" and w.team}
+    assert reported == fell
+    before, after = breaks(previous), breaks(result.season)
+    rose = {team for team in before if after[team] > before[team]}
+    reported = {w.team for w in result.worsened if w.label == "breaks" and w.team}
+    assert reported == rose
+    assert fell or rose  # the scenario does worsen something
+    assert result.played is not None
+    assert result.played.rest_days_min == min(least_rest(result.season).values())

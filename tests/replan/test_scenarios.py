@@ -38,6 +38,15 @@ def replan_and_check(season_dir, tmp_path, body, **kw):
     assert result.exit_code == 0, result.output
     problems = check(old, season_dir / "season.json", LEAGUE, events)
     assert problems == []
+    # history byte-identical: each history fixture's JSON text (RFC 8259, as written with
+    # indent 2 inside the fixtures list) appears unchanged in the new file
+    new_text = (season_dir / "season.json").read_text(encoding="utf-8")
+    pt = str(events.read_text(encoding="utf-8").split("played_through = ")[1].split()[0])
+    for f in json.loads(old.read_text(encoding="utf-8"))["fixtures"]:
+        if f["date"] <= pt and f in fixtures(season_dir):
+            block = "\n".join("    " + line for line in
+                              json.dumps(f, ensure_ascii=False, indent=2).splitlines())
+            assert block in new_text
     return json.loads(old.read_text(encoding="utf-8"))["fixtures"], fixtures(season_dir), result
 
 

@@ -350,10 +350,10 @@ def replan_season(league: League, previous: Season, events: Events, *,
     summary = (f"re-planned after {pt.isoformat()}: {len(changes)} game(s) changed"
                + (" (fewest possible, proven)" if result.proven
                   else f" (at least {result.bound} needed; not proven fewest)"))
-    teams = tuple(t for t in previous.teams if t not in void)
+    # a withdrawn team stays in the team list, so that its own calendar feed is written once
+    # more and shows its games as cancelled
     season = replace(
         previous,
-        teams=teams,
         fixtures=_sort(league, history + list(result.fixtures)),
         revision=revision,
         revisions=(*earlier, Revision(revision, pt, len(changes), summary)),

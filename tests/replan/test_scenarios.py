@@ -122,8 +122,24 @@ def test_withdrawn_void_all(season_dir, tmp_path):
     body = '[[withdrawn]]\nteam = "Old Sluice"\npolicy = "void_all"\n'
     _, new, _ = replan_and_check(season_dir, tmp_path, body)
     assert not [f for f in new if "Old Sluice" in (f["home"], f["away"])]
-    data = json.loads((season_dir / "season.json").read_text(encoding="utf-8"))
-    assert "Old Sluice" not in data["teams"]
+    # its own feed is published again with every game cancelled (RFC 5545 §3.8.1.11)
+    (path,) = (season_dir / "calendars").glob("old-sluice*.ics")
+    feed = path.read_text(encoding="utf-8")
+    assert feed.count("BEGIN:VEVENT") == feed.count("STATUS:CANCELLED") == 10
+
+
+def test_replan_is_deterministic(planned_small, tmp_path):
+    """Same inputs, byte-identical folders (project rule: determinism)."""
+    game = round_games(fixtures(planned_small), 4)[0]
+    events = write_events(tmp_path, f'[[postponed]]\nhome = "{game["home"]}"\n'
+                                    f'away = "{game["away"]}"\n')
+    digests = []
+    for copy in ("a", "b"):
+        target = tmp_path / copy
+        shutil.copytree(planned_small, target)
+        assert run_replan(target, events).exit_code == 0
+        digests.append(folder_digest(target))
+    assert digests[0] == digests[1]
 
 
 def test_moved_by_hand_is_kept_as_given(season_dir, tmp_path):

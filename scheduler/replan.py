@@ -17,12 +17,18 @@ from dataclasses import dataclass, replace
 from datetime import date
 from pathlib import Path
 
-from scheduler.balance.repair import ForcedGame, RepairProblem, RepairResult, repair_season
+from scheduler.balance.repair import (
+    ForcedGame,
+    RepairProblem,
+    RepairResult,
+    is_feasible,
+    repair_season,
+)
 from scheduler.balance.timetable import SolveLimits
 from scheduler.config import League, load_league
 from scheduler.config.events import Events, load_events
 from scheduler.config.schema import suggestion
-from scheduler.errors import InputError
+from scheduler.errors import InfeasibleError, InputError
 from scheduler.export.changes import GameChange, changes_csv, team_counts
 from scheduler.fairness import compute_fairness
 from scheduler.fairness.model import FairnessReport
@@ -206,8 +212,25 @@ def _check_moved(league: League, events: Events, history: list[Fixture],
                 last[team] = f.date
     by_where = {m.home + "\x1f" + m.away: m.where for m in events.moved}
     seen: dict[tuple[str, date], str] = {}
+    hosting: dict[tuple[object, ...], str] = {}
+    groups = league.shared_ground_groups
     for _i, game in sorted(forced.items()):
         where = by_where.get(game.home + "\x1f" + game.away, "moved")
+        venue_of_home = league.team(game.home).home_venue
+        place = (venue_of_home, game.court, game.date, game.start)
+        if league.format.home_meaning == "venue" and venue_of_home and place in hosting:
+            raise _located(events, where, f"{venue_of_home} {game.court or ''} is already used on "
+                           f"{game.date.isoformat()} at {game.start.strftime('%H:%M')} by "
+                           f"{hosting[place]}")
+        hosting[place] = where
+        for group in groups:
+            if game.home in group:
+                key = ("shared", group, game.date)
+                if key in hosting:
+                    raise _located(events, where, f"shared ground: {game.home} cannot be at "
+                                   f"home on {game.date.isoformat()}, another team of "
+                                   f"{', '.join(group)} is ({hosting[key]})")
+                hosting[key] = where
         for team in (game.home, game.away):
             if (team, game.date) in unavailable:
                 raise _located(events, where, f"{team} is unavailable on "
@@ -230,6 +253,28 @@ def _check_moved(league: League, events: Events, history: list[Fixture],
                     not c.courts or game.court in c.courts or game.court is None):
                 raise _located(events, where, f"{c.venue} is closed on {game.date.isoformat()} "
                                f"({c.where})")
+
+
+def _blame_moved(problem: RepairProblem, events: Events, limits: SolveLimits) -> None:
+    """When no re-plan exists but one would without the hand-moved games, name the first
+    hand-moved game that cannot be kept (an InputError located in the events file)."""
+    if not problem.forced:
+        return
+    small = SolveLimits(min(limits.deterministic, 5.0), min(limits.wall, 30.0), limits.seed)
+    if not is_feasible(replace(problem, forced={}), small):
+        return
+    for index, game in sorted(problem.forced.items()):
+        if not is_feasible(replace(problem, forced={index: game}), small):
+            where = next((m.where for m in events.moved
+                          if (m.home, m.away, m.date) == (game.home, game.away, game.date)),
+                         "moved")
+            raise _located(events, where,
+                           f"{game.home} v {game.away} on {game.date.isoformat()} at "
+                           f"{game.start.strftime('%H:%M')} breaks a rule of the league "
+                           "(rest, runs of home or away games, shared ground or a court "
+                           "already in use); without it the season can be re-planned")
+    raise _located(events, "moved", "the hand-moved games together break a rule of the league; "
+                   "without them the season can be re-planned")
 
 
 def new_revision(previous: Season, events: Events) -> str:
@@ -340,7 +385,11 @@ def replan_season(league: League, previous: Season, events: Events, *,
     )
     total = float(time_limit if time_limit is not None else league.solve_seconds)
     limits = SolveLimits(max(1.0, total), 4 * max(1.0, total) + 20, league.seed)
-    result = repair_season(problem, limits)
+    try:
+        result = repair_season(problem, limits)
+    except InfeasibleError:
+        _blame_moved(problem, events, limits)
+        raise
     changes = [GameChange(old, new) for old, new in zip(future, result.fixtures, strict=True)
                if old != new]
     changes += [GameChange(f, None) for f in cancelled]

@@ -633,7 +633,8 @@ class RepairModel:
 # --- public API ------------------------------------------------------------------------------
 
 
-def _feasible(problem: RepairProblem, limits: SolveLimits) -> bool:
+def is_feasible(problem: RepairProblem, limits: SolveLimits) -> bool:
+    """Whether some re-plan keeps every rule (a feasibility solve, no objective)."""
     try:
         model = RepairModel(problem)
         model.precheck()
@@ -655,7 +656,7 @@ def relaxations(problem: RepairProblem, limits: SolveLimits) -> list[str]:
         for weeks in range(1, 5):
             end = cal.end + timedelta(weeks=weeks)
             trial = replace(problem, league=replace(league, calendar=replace(cal, end=end)))
-            if _feasible(trial, small):
+            if is_feasible(trial, small):
                 found.append(f"extend the season by {weeks} week{'s' if weeks > 1 else ''} "
                              f"(calendar.end = {end.isoformat()})")
                 break
@@ -665,7 +666,7 @@ def relaxations(problem: RepairProblem, limits: SolveLimits) -> list[str]:
                 continue
             spec = replace(cal, weekdays=tuple(sorted((*cal.weekdays, weekday))))
             trial = replace(problem, league=replace(league, calendar=spec))
-            if _feasible(trial, small):
+            if is_feasible(trial, small):
                 found.append(f"allow games on {WEEKDAY_NAMES[weekday]}s "
                              "(add it to calendar.weekdays)")
                 break
@@ -684,7 +685,7 @@ def relaxations(problem: RepairProblem, limits: SolveLimits) -> list[str]:
         lowered.append(("min_separation", rules.min_separation - 1))
     for name, value in lowered:
         trial = replace(problem, league=replace(league, rules=replace(rules, **{name: value})))
-        if _feasible(trial, small):
+        if is_feasible(trial, small):
             found.append(f"relax rules.{name} to {value}")
     return found
 

@@ -263,3 +263,23 @@ def test_worsened_rest_matches_an_independent_count(planned_small):
     assert fell or rose  # the scenario does worsen something
     assert result.played is not None
     assert result.played.rest_days_min == min(least_rest(result.season).values())
+
+
+def test_hand_moved_game_too_close_to_the_last_game(season_dir, tmp_path):
+    game = round_games(fixtures(season_dir), 7)[0]
+    body = (f'[[moved]]\nhome = "{game["home"]}"\naway = "{game["away"]}"\n'
+            'date = 2031-03-25\nstart = "19:00"\n')
+    refused(season_dir, tmp_path, body, "fewer than 5 days of rest (rules.min_rest_days)")
+
+
+def test_hand_moved_game_that_makes_the_rest_impossible(season_dir, tmp_path):
+    """Two hand-moved games on the one-pitch ground on the same day: the shared-ground rule
+    cannot hold, and the message names the moved game (located in the events file)."""
+    fx = [f for f in fixtures(season_dir) if f["date"] > "2031-03-22"]
+    home_games = [f for f in fx if f["venue"] == "Reedway"]
+    first, second = next((a, b) for a, b in itertools.combinations(home_games, 2)
+                         if not {a["home"], a["away"]} & {b["home"], b["away"]})
+    body = "".join(f'[[moved]]\nhome = "{g["home"]}"\naway = "{g["away"]}"\n'
+                   f'date = 2031-06-07\nstart = "{clock}"\n'
+                   for g, clock in ((first, "14:00"), (second, "14:00")))
+    refused(season_dir, tmp_path, body, "moved[")

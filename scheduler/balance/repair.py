@@ -299,12 +299,14 @@ class RepairModel:
             self.changed.append(flag)
 
     def _place_key(self, place: Place) -> int:
+        """The index of a known place, or a new index (in order of first use) for a place
+        only a hand-moved game uses (a court at a time that is not one of the slots)."""
+        key = (place.venue, place.court, place.slot_time)
         for p, known in enumerate(self.places):
-            if (known.venue, known.court, known.slot_time) == (
-                place.venue, place.court, place.slot_time
-            ):
+            if (known.venue, known.court, known.slot_time) == key:
                 return p
-        return 100000 + hash((place.venue, place.court, place.slot_time)) % 100000
+        extra = self.__dict__.setdefault("_extra_places", {})
+        return extra.setdefault(key, len(self.places) + len(extra))
 
     def _forced_place(self, forced: ForcedGame) -> Place:
         home_places = [self.places[p] for p in self._home_places(forced.home)]

@@ -95,3 +95,17 @@ def test_reserve_dates_are_not_match_days_of_the_first_plan():
     saturdays = {date(2031, 3, 1).fromordinal(date(2031, 3, 1).toordinal() + 7 * k)
                  for k in range(18)}
     assert set(days) == saturdays - set(league.calendar.reserve_dates)
+
+
+def test_yaml_events_file(tmp_path):
+    """The events file may be YAML, read with the league file's YAML rules (YAML 1.2 core
+    booleans; dates as ISO text)."""
+    path = tmp_path / "events.yaml"
+    path.write_text(
+        "league: Fenmarsh Test League\nseason: 2031\nplayed_through: 2031-03-22\n"
+        "withdrawn:\n  - team: Old Sluice\n    policy: keep_played\n"
+        "closed:\n  - venue: Reedway\n    dates: ['2031-04-05..2031-04-06']\n",
+        encoding="utf-8")
+    events = load_events(path, load_league(LEAGUE))
+    assert events.season == "2031" and events.withdrawn[0].policy == "keep_played"
+    assert events.closed[0].dates == (date(2031, 4, 5), date(2031, 4, 6))

@@ -267,14 +267,13 @@ def replan(
 ) -> None:
     """Re-plan a season after postponements, closures and withdrawals, changing as few games
     as possible; history never moves."""
-    from scheduler.config import load_league
     from scheduler.replan import load_replan, write_replan
 
     if time_limit is not None and time_limit <= 0:
         raise InputError(f"--time-limit must be a positive number of seconds, got {time_limit}")
     result = load_replan(config, season_dir, events, time_limit=time_limit)
-    league = load_league(config)
-    written = write_replan(result, season_dir, league=league, config_path=config)
+    assert result.league is not None
+    written = write_replan(result, season_dir, league=result.league, config_path=config)
     repair = result.repair
     proof = ("the fewest possible (proven)" if repair.proven
              else f"not proven fewest: at least {repair.bound} are needed")

@@ -86,6 +86,7 @@ class ReplanResult:
     events: Events
     played: FairnessReport | None = None
     """The figures in date order (:func:`played_order`): what the teams will live through."""
+    league: League | None = None
 
     @property
     def team_counts(self) -> list[tuple[str, int]]:
@@ -417,7 +418,7 @@ def replan_season(league: League, previous: Season, events: Events, *,
         name for name, *_ in WATCHED if name not in ("carry_over_value", "separation_min")),
         teams=False)
     return ReplanResult(season, previous, tuple(changes), result, fairness, before,
-                        worse, events, played)
+                        worse, events, played, league)
 
 
 def load_replan(league_path: str | Path, season_dir: str | Path, events_path: str | Path, *,

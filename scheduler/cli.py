@@ -1,7 +1,8 @@
 """The ``scheduler`` command: a thin layer over the library.
 
 Commands: ``new`` (starter config), ``factor`` (one-factorization of K_n with its certificate),
-``plan`` (league config -> season folder), ``audit`` (fairness figures of any schedule file).
+``plan`` (league config -> season folder), ``replan`` (re-plan a season folder after what
+happened, with the fewest changes), ``audit`` (fairness figures of any schedule file).
 Exit codes: 0 ok, 1 the audited schedule is invalid, 2 unusable input or rules that cannot hold,
 3 an internal error (a bug: please report it with the input).
 """
@@ -280,6 +281,53 @@ def plan(
     for note in result.notes:
         out.print(f"note: {_plain(plain_text(note))}")
     out.print(f"wrote {len(written)} files to {out_dir}")
+
+
+@app.command()
+@_guarded
+def replan(
+    config: Annotated[Path, typer.Argument(help="League config (.toml or .yaml).")],
+    season_dir: Annotated[
+        Path, typer.Option("--season", help="The season folder to re-plan (holds season.json).")
+    ],
+    events: Annotated[
+        Path, typer.Option("--events", help="The season-events file (.toml or .yaml).")
+    ],
+    time_limit: Annotated[
+        float | None, typer.Option(help="Solver time limit in seconds (overrides the config).")
+    ] = None,
+) -> None:
+    """Re-plan a season after postponements, closures and withdrawals, changing as few games
+    as possible; history never moves."""
+    from scheduler.replan import load_replan, write_replan
+
+    if time_limit is not None and time_limit <= 0:
+        raise InputError(f"--time-limit must be a positive number of seconds, got {time_limit}")
+    result = load_replan(config, season_dir, events, time_limit=time_limit)
+    assert result.league is not None
+    written = write_replan(result, season_dir, league=result.league, config_path=config)
+    repair = result.repair
+    proof = ("the fewest possible (proven)" if repair.proven
+             else f"not proven fewest: at least {repair.bound} are needed")
+    out.print(f"[bold]{len(result.changes)}[/bold] game(s) changed; {repair.changed} re-planned "
+              f"game(s) differ from the old plan, {proof}")
+    for change in result.changes:
+        old, new = change.old, change.new
+        before = f"{old.date} {old.start.strftime('%H:%M') if old.start else ''} {old.court or ''}"
+        after = ("cancelled" if new is None else
+                 f"{new.date} {new.start.strftime('%H:%M') if new.start else ''} "
+                 f"{new.court or ''} ({new.home} at home)")
+        out.print(f"  {change.kind}: {_plain(old.home)} v {_plain(old.away)} (round "
+                  f"{old.round}): {_plain(before.strip())} -> {_plain(after.strip())}")
+    if result.team_counts:
+        out.print("changed games per team: " + ", ".join(
+            f"{_plain(team)} {count}" for team, count in result.team_counts))
+    if result.worsened:
+        out.print("worse than before: " + "; ".join(_plain(str(w)) for w in result.worsened))
+    else:
+        out.print("no fairness figure got worse")
+    _print_fairness(result.fairness, title=f"{result.season.league} {result.season.season_id}")
+    out.print(f"wrote {len(written)} files to {season_dir}")
 
 
 @app.command()

@@ -57,6 +57,21 @@ class MixingInfo:
     pairs: int
 
 
+@dataclass(frozen=True, slots=True)
+class Revision:
+    """One published version of a season: the first plan or a re-plan.
+
+    ``played_through`` is the last day of history when the version was made (``None`` for the
+    first plan), ``changed`` the number of future games whose date, start, court or home side
+    changed against the version before, ``note`` a one-line summary for people.
+    """
+
+    revision: str
+    played_through: date | None = None
+    changed: int = 0
+    note: str = ""
+
+
 @dataclass(frozen=True)
 class Season:
     """A complete season.
@@ -72,6 +87,7 @@ class Season:
     otherwise); ``venue_addresses`` maps a venue to its postal address and
     ``venue_coordinates`` to its (latitude, longitude) in degrees, for calendar entries.
     ``calendar_end`` is the last date the league file allows (``None`` when open or unknown).
+    ``revisions`` is the revision history of a re-planned season (see :class:`Revision`).
     """
 
     league: str
@@ -97,6 +113,8 @@ class Season:
     def planned(self) -> bool:
         """True for a season planned by this program (it has a plan revision)."""
         return bool(self.revision)
+    revisions: tuple[Revision, ...] = ()
+    """Earlier versions, oldest first, then this one (empty for a season never re-planned)."""
 
     @property
     def rounds(self) -> int:

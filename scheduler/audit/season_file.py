@@ -18,7 +18,7 @@ from zoneinfo import ZoneInfo, ZoneInfoNotFoundError
 from scheduler.audit.limits import check_nesting, read_bytes_limited
 from scheduler.config.names import character_problem
 from scheduler.errors import InputError
-from scheduler.season import Fixture, MixingInfo, Season
+from scheduler.season import Fixture, MixingInfo, Revision, Season
 
 FORMAT = "roundrobin-scheduler/season/1"
 """The format tag written into every file; the number after the last slash is the version."""
@@ -133,6 +133,29 @@ def season_name_problem(season: Season) -> tuple[str, str] | None:
     return None
 
 
+def _revisions(data: dict) -> tuple[Revision, ...]:
+    """The revision history of a re-planned season (absent in a season never re-planned)."""
+    raw = _need(data, "revisions", list, "", optional=True, default=[])
+    out = []
+    for i, item in enumerate(raw):
+        where = f"revisions[{i}]"
+        if not isinstance(item, dict):
+            raise InputError("a revision must be an object", location=where)
+        day = _need(item, "played_through", str, where, optional=True)
+        try:
+            through = date.fromisoformat(day) if day is not None else None
+        except ValueError as exc:
+            raise InputError(f"not an ISO date: {day!r}", location=f"{where}.played_through"
+                             ) from exc
+        out.append(Revision(
+            revision=_need(item, "revision", str, where),
+            played_through=through,
+            changed=_need(item, "changed", int, where, optional=True, default=0),
+            note=_need(item, "note", str, where, optional=True, default=""),
+        ))
+    return tuple(out)
+
+
 def season_from_dict(data) -> Season:
     """Rebuild a :class:`Season` from :func:`season_to_dict` output; located
     :class:`InputError` on anything malformed. Kick-offs are put in the season's time zone."""
@@ -188,6 +211,7 @@ def season_from_dict(data) -> Season:
         seed=_need(data, "seed", int, "", optional=True, default=0),
         notes=_str_list(data, "notes", ""),
         revision=_need(data, "revision", str, "", optional=True, default=""),
+        revisions=_revisions(data),
     )
 
 

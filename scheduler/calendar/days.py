@@ -7,7 +7,8 @@ decisions. The match days are
 - every date from ``calendar.start`` (up to ``calendar.end`` when given) whose weekday is in
   ``calendar.weekdays`` (0 = Monday, as :meth:`datetime.date.weekday`), minus ``calendar.excluded``
   and minus the public holidays of ``holidays_country``/``holidays_subdivision`` for every year
-  the season touches. Public holidays come from the ``holidays`` package
+  the season touches, and minus ``calendar.reserve_dates`` (kept free for catch-up games of a
+  re-plan). Public holidays come from the ``holidays`` package
   (https://github.com/vacanza/holidays), including the substitute ("observed") days it lists.
 
 Each match day hosts ``rounds_per_day`` rounds. A round robin of ``n`` teams has ``n - 1`` rounds
@@ -89,10 +90,10 @@ def match_days(
     if needed is None and league is not None:
         needed = days_needed(league)
     if spec.dates:
-        days = sorted(set(spec.dates))
+        days = sorted(set(spec.dates) - set(spec.reserve_dates))
     elif spec.end is not None:
         public = public_holidays(spec, spec.start.year, spec.end.year)
-        excluded = frozenset(spec.excluded) | public
+        excluded = frozenset(spec.excluded) | public | frozenset(spec.reserve_dates)
         days = []
         day = spec.start
         while day <= spec.end:
@@ -108,7 +109,7 @@ def match_days(
         days = []
         day = spec.start
         year = None
-        excluded = frozenset(spec.excluded)
+        excluded = frozenset(spec.excluded) | frozenset(spec.reserve_dates)
         limit = spec.start.replace(year=spec.start.year + MAX_SEARCH_YEARS)
         while len(days) < needed and day < limit:
             if day.year != year:

@@ -24,7 +24,8 @@ class CalendarSpec:
     Match days are the dates from ``start`` (up to ``end`` when given) whose weekday is in
     ``weekdays`` (0 = Monday), minus ``excluded`` and the public holidays of
     ``holidays_country``/``holidays_subdivision``; or exactly ``dates`` when that is given.
-    ``rounds_per_day`` rounds share one match day.
+    ``rounds_per_day`` rounds share one match day. ``reserve_dates`` are kept free by the first
+    plan (never match days) and offered first to games a re-plan must move.
     """
 
     start: date
@@ -37,6 +38,7 @@ class CalendarSpec:
     rounds_per_day: int = 1
     kickoff: time = time(15, 0)
     game_minutes: int = 90
+    reserve_dates: tuple[date, ...] = ()
 
 
 class LegCount(Protocol):

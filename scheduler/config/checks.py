@@ -213,6 +213,7 @@ def reference_problems(doc: LeagueFile) -> list[str]:
     first, last = season_window(doc)
     if not dates:
         problems += date_list_problems("calendar.excluded", cal.excluded, first, last)
+    problems += date_list_problems("calendar.reserve_dates", cal.reserve_dates, first, last)
     if cal.holidays is not None:
         problems += resolve_holidays(cal.holidays.country, cal.holidays.subdivision)[2]
 

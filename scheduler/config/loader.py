@@ -142,6 +142,7 @@ def build_league(doc: LeagueFile, source: str | None = None) -> League:
         rounds_per_day=cal.rounds_per_day,
         kickoff=cal.kickoff,
         game_minutes=cal.game_minutes,
+        reserve_dates=_within(_flat(cal.reserve_dates), first, last),
     )
     codes = make_codes((t.name for t in doc.teams), (t.code for t in doc.teams))
     teams = tuple(

@@ -68,8 +68,10 @@ def sample_path(name: str) -> Path:
 
 
 def sample_names() -> tuple[str, ...]:
-    """File names of every shipped sample league, sorted."""
+    """File names of every shipped sample league, sorted (season-events files such as
+    ``county_double.events.toml`` are not leagues and are left out)."""
     folder = samples_dir()
     if not folder.is_dir():
         return ()
-    return tuple(sorted(p.name for p in folder.iterdir() if p.suffix in (".toml", ".yaml", ".yml")))
+    return tuple(sorted(p.name for p in folder.iterdir()
+                        if p.suffix in (".toml", ".yaml", ".yml") and ".events." not in p.name))

@@ -286,6 +286,7 @@ class CalendarSection(Section):
     kickoff: Clock = dt.time(15, 0)
     game_minutes: Annotated[int, Field(ge=1, le=24 * 60)] = 90
     excluded: DateList = []
+    reserve_dates: DateList = []
     dates: DateList = []
     holidays: HolidaysSection | None = None
 

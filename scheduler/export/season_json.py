@@ -19,7 +19,9 @@ Layout (format tag :data:`FORMAT`; keys always in this order)::
          "time": "HH:MM" | null (local kick-off time of "start"; derived)}
       ],
       "byes": {"<round>": [str, ...]},      (rounds in increasing order)
-      "fairness": FairnessReport.to_dict() | null
+      "fairness": FairnessReport.to_dict() | null,
+      "revisions": [{"revision", "played_through", "changed", "note"}, ...]
+                                            (only in a re-planned season, oldest first)
     }
 
 "place" and "time" are written for readers' convenience and ignored when reading; "fairness"
@@ -45,7 +47,7 @@ from scheduler.audit.season_file import (
     season_from_dict,
 )
 from scheduler.fairness.model import FairnessReport
-from scheduler.season import Fixture, Season
+from scheduler.season import Fixture, Revision, Season
 
 __all__ = [
     "FORMAT",
@@ -104,7 +106,40 @@ def season_to_dict(season: Season, fairness: FairnessReport | None = None) -> di
         "fixtures": [_fixture_dict(f) for f in season.fixtures],
         "byes": {str(r): list(season.byes[r]) for r in sorted(season.byes)},
         "fairness": fairness.to_dict() if fairness is not None else None,
+        **({"revisions": [_revision_dict(r) for r in season.revisions]}
+           if season.revisions else {}),
     }
+
+
+def _revision_dict(r: Revision) -> dict:
+    return {
+        "revision": r.revision,
+        "played_through": r.played_through.isoformat() if r.played_through else None,
+        "changed": r.changed,
+        "note": r.note,
+    }
+
+
+def _revisions(data: dict) -> tuple[Revision, ...]:
+    raw = _need(data, "revisions", list, "", optional=True, default=[])
+    out = []
+    for i, item in enumerate(raw):
+        where = f"revisions[{i}]"
+        if not isinstance(item, dict):
+            raise InputError("a revision must be an object", location=where)
+        day = _need(item, "played_through", str, where, optional=True)
+        try:
+            through = date.fromisoformat(day) if day is not None else None
+        except ValueError as exc:
+            raise InputError(f"not an ISO date: {day!r}", location=f"{where}.played_through"
+                             ) from exc
+        out.append(Revision(
+            revision=_need(item, "revision", str, where),
+            played_through=through,
+            changed=_need(item, "changed", int, where, optional=True, default=0),
+            note=_need(item, "note", str, where, optional=True, default=""),
+        ))
+    return tuple(out)
 
 
 def dumps_season(season: Season, fairness: FairnessReport | None = None) -> str:

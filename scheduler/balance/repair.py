@@ -1,0 +1,739 @@
+"""Re-planning the rest of a season with as few changes as possible (OR-Tools CP-SAT).
+
+After ``played_through`` the season changes: games are postponed, venues close, teams become
+unavailable or withdraw. History (every game on or before ``played_through`` that took place)
+is fixed and is not even a variable here. Every *future* game (postponed ones included) gets a
+match day after ``played_through``, a place (venue, court, time slot) and a home side, so that
+every hard rule of the league holds: one game per team and day, ``min_rest_days`` (also
+against the last game played), runs of home/away games (``max_home_run``/``max_away_run``,
+continued from history), ``no_breaks_first``/``no_breaks_last``, shared grounds, each place
+once per day (venue capacity), unavailability and closures, and ``min_separation`` counted in
+the season's match days between two meetings of a pair. In a home-and-away season each pair
+keeps its number of home games per team (a swap of home and away is possible only as a swap of
+both meetings).
+
+This is the *minimal perturbation problem* of timetabling (Barták, Müller & Rudová, "A new
+approach to modeling and solving minimal perturbation problems", CSCLP 2003, LNCS 3010, 2004;
+from memory): among the valid re-plans, find one that differs least from the previous plan. A
+Boolean "differs from the old plan" per future game (date, start, court or home side) is
+minimised first and CP-SAT proves the minimum (status OPTIMAL) or reports its bound. A second
+solve keeps that minimum and prefers reserve dates for the games that must move, then the
+fewest breaks, then the earliest dates for the moved games. The previous plan is the search hint.
+
+When the rules cannot hold, the clash is named (a game with no possible day left, a team with
+more games than free days, or the rules found by the assumption core of
+:mod:`scheduler.balance.explain`), and candidate relaxations (a later end by k weeks, another
+weekday, one rule lowered by one) are tested by re-solving; the ones that work are suggested.
+
+Determinism: one worker, a fixed seed, a deterministic time limit (wall clock only as a safety
+net), options and variables built in sorted order.
+
+Only one round per match day is supported (``calendar.rounds_per_day = 1``).
+"""
+
+from __future__ import annotations
+
+import itertools
+from collections.abc import Mapping, Sequence
+from dataclasses import dataclass, field, replace
+from datetime import date, time, timedelta
+
+from ortools.sat.python import cp_model
+
+from scheduler.balance.explain import RuleBook, explain
+from scheduler.balance.solver import SolveLimits, configure
+from scheduler.calendar import days_needed, kickoff, match_days
+from scheduler.config.model import League
+from scheduler.errors import InfeasibleError, InputError
+from scheduler.season import Fixture
+
+WEEKDAY_NAMES = ("Monday", "Tuesday", "Wednesday", "Thursday", "Friday", "Saturday", "Sunday")
+
+
+@dataclass(frozen=True, slots=True)
+class Place:
+    """A venue, court and time slot (``slot_time`` ``None``: the league's kick-off time)."""
+
+    venue: str | None
+    court: str | None
+    slot_time: time | None
+    slot_label: str | None
+
+
+@dataclass(frozen=True, slots=True)
+class ForcedGame:
+    """A game the organizer already moved by hand: kept exactly as given."""
+
+    date: date
+    home: str
+    away: str
+    start: time
+    court: str | None = None
+
+
+@dataclass(frozen=True)
+class RepairProblem:
+    """What the repair model needs.
+
+    ``future`` holds the previous plan's entry of every game still to be placed (a postponed
+    game keeps its planned, past date here); ``forced`` maps an index into ``future`` to its
+    hand-moved placement; ``unavailable`` and ``closed`` add to the league's rules from now on
+    (``closed`` court ``None`` = every court); ``postponed`` are indices into ``future``.
+    """
+
+    league: League
+    played_through: date
+    history: tuple[Fixture, ...]
+    future: tuple[Fixture, ...]
+    postponed: frozenset[int] = frozenset()
+    forced: Mapping[int, ForcedGame] = field(default_factory=dict)
+    unavailable: tuple[tuple[str, date], ...] = ()
+    closed: tuple[tuple[str, str | None, date], ...] = ()
+
+
+@dataclass(frozen=True)
+class RepairResult:
+    """The re-planned future games (same order as ``problem.future``) and how good they are.
+
+    ``changed`` counts the games whose date, start, court or home side differ from the old
+    plan; ``proven`` says whether CP-SAT proved that no valid re-plan changes fewer
+    (``bound`` is its proven lower bound either way). ``on_reserve`` counts moved games placed
+    on reserve dates, ``breaks`` the breaks of the future part (date order, history included as
+    the starting state). ``seconds`` is the solvers' wall time, ``proof_seconds`` that of
+    the first stage, which proves the fewest changes (both for benchmarks only).
+    """
+
+    fixtures: tuple[Fixture, ...]
+    changed: int
+    proven: bool
+    bound: int
+    on_reserve: int
+    breaks: int
+    seconds: float
+    notes: tuple[str, ...] = ()
+    proof_seconds: float = 0.0
+
+
+def _places(league: League) -> tuple[list[Place], dict[str, list[int]]]:
+    places: list[Place] = []
+    by_venue: dict[str, list[int]] = {}
+    for venue in league.venues:
+        times: list[time | None] = list(venue.slots) or [None]
+        ids = []
+        for court in venue.courts:
+            for clock in times:
+                label = clock.strftime("%H:%M") if (venue.slots and clock is not None) else None
+                ids.append(len(places))
+                places.append(Place(venue.name, court, clock, label))
+        by_venue[venue.name] = ids
+    return places, by_venue
+
+
+def candidate_days(league: League, played_through: date, extra: Sequence[date] = ()) -> list[date]:
+    """Match days after ``played_through``: the calendar's match days, the reserve dates and
+    ``extra`` (dates of games already planned or moved there)."""
+    cal = league.calendar
+    needed = 0
+    if cal.end is None and not cal.dates:
+        needed = days_needed(league) + len(league.teams) * 4
+    try:
+        days = set(match_days(league, needed))
+    except InputError:
+        days = set()
+    days |= set(cal.reserve_dates)
+    days |= set(extra)
+    return sorted(d for d in days if d > played_through)
+
+
+class RepairModel:
+    """The CP-SAT model of one re-plan (see the module docstring)."""
+
+    def __init__(self, problem: RepairProblem, *, explainable: bool = False) -> None:
+        self.problem = problem
+        league = problem.league
+        self.league = league
+        if league.calendar.rounds_per_day != 1:
+            raise InputError(
+                "re-planning supports one round per match day only "
+                f"(calendar.rounds_per_day = {league.calendar.rounds_per_day})",
+                location="calendar.rounds_per_day",
+            )
+        self.model = cp_model.CpModel()
+        self.book = RuleBook(self.model)
+        self.explainable = explainable
+        pt = problem.played_through
+        old_dates = [f.date for f in problem.future if f.date is not None and f.date > pt]
+        forced_dates = [g.date for g in problem.forced.values()]
+        self.days = candidate_days(league, pt, old_dates + forced_dates)
+        self.day_index = {d: i for i, d in enumerate(self.days)}
+        self.reserve = frozenset(league.calendar.reserve_dates)
+        self.places, self.by_venue = _places(league)
+        self.teams = list(league.team_names)
+        self._history_state()
+        self._build_options()
+        self._build_team_days()
+        self._build_rules()
+
+    # --- history --------------------------------------------------------------------------
+    def _history_state(self) -> None:
+        games: dict[str, list[tuple[date, bool]]] = {t: [] for t in self.teams}
+        for f in self.problem.history:
+            if f.date is None:
+                continue
+            if f.home in games:
+                games[f.home].append((f.date, True))
+            if f.away in games:
+                games[f.away].append((f.date, False))
+        self.last_played: dict[str, date | None] = {}
+        self.history_count: dict[str, int] = {}
+        self.trailing: dict[str, tuple[int, int]] = {}
+        self.last_home: dict[str, bool | None] = {}
+        for team, items in games.items():
+            items.sort()
+            self.history_count[team] = len(items)
+            self.last_played[team] = items[-1][0] if items else None
+            self.last_home[team] = items[-1][1] if items else None
+            run = 0
+            for _, home in reversed(items):
+                if home != items[-1][1]:
+                    break
+                run += 1
+            self.trailing[team] = (run, 0) if items and items[-1][1] else (0, run)
+
+    # --- options --------------------------------------------------------------------------
+    def _blocked(self) -> tuple[set[tuple[str, date]], set[tuple[str, date]], set]:
+        rules = self.league.rules
+        away = {(td.team, d) for td in rules.unavailable for d in td.dates}
+        away |= set(self.problem.unavailable)
+        no_home = {(td.team, d) for td in rules.no_home_games for d in td.dates}
+        closed = set(self.problem.closed)
+        return away, no_home, closed
+
+    def _place_closed(self, place: Place, day: date, closed: set) -> bool:
+        return (place.venue, None, day) in closed or (place.venue, place.court, day) in closed
+
+    def _home_places(self, home: str) -> list[int]:
+        venue = self.league.team(home).home_venue
+        if self.league.format.home_meaning == "venue" and venue:
+            return self.by_venue[venue]
+        return list(range(len(self.places)))
+
+    def _too_soon(self, team: str, day: date) -> bool:
+        rest = self.league.rules.min_rest_days
+        last = self.last_played.get(team)
+        return rest is not None and last is not None and (day - last).days - 1 < rest
+
+    def _build_options(self) -> None:
+        """x[(g, d, swapped, p)] for every allowed day, side and place of every future game."""
+        m = self.model
+        away_blocked, no_home, closed = self._blocked()
+        self.options: list[list[tuple[int, bool, int, cp_model.IntVar]]] = []
+        self.same: list[cp_model.IntVar | None] = []
+        self.forced_place: dict[int, Place] = {}
+        self.empty: list[int] = []
+        for g, old in enumerate(self.problem.future):
+            opts: list[tuple[int, bool, int, cp_model.IntVar]] = []
+            same_lit = None
+            forced = self.problem.forced.get(g)
+            if forced is not None:
+                swapped = forced.home != old.home
+                place = self._forced_place(forced)
+                self.forced_place[g] = place
+                lit = m.NewBoolVar(f"game{g}_moved_by_hand")
+                m.Add(lit == 1)
+                opts.append((self.day_index[forced.date], swapped, -1 - g, lit))
+                self.options.append(opts)
+                self.same.append(None)
+                continue
+            for d, day in enumerate(self.days):
+                for swapped in (False, True):
+                    home, away = (old.away, old.home) if swapped else (old.home, old.away)
+                    if (home, day) in away_blocked or (away, day) in away_blocked:
+                        continue
+                    if (home, day) in no_home:
+                        continue
+                    if self._too_soon(home, day) or self._too_soon(away, day):
+                        continue
+                    for p in self._home_places(home):
+                        place = self.places[p]
+                        if self._place_closed(place, day, closed):
+                            continue
+                        is_same = (
+                            not swapped
+                            and day == old.date
+                            and place.venue == old.venue
+                            and place.court == old.court
+                            and place.slot_label == old.slot
+                        )
+                        name = f"game{g}_day{d}_{'swapped' if swapped else 'kept'}_place{p}"
+                        lit = m.NewBoolVar(name)
+                        opts.append((d, swapped, p, lit))
+                        if is_same:
+                            same_lit = lit
+            if not opts:
+                self.empty.append(g)
+            else:
+                m.AddExactlyOne(lit for *_, lit in opts)
+            self.options.append(opts)
+            self.same.append(same_lit)
+            if same_lit is not None:
+                for *_, lit in opts:
+                    m.AddHint(lit, lit is same_lit)
+        # each place at most once per day
+        use: dict[tuple[int, int], list[cp_model.IntVar]] = {}
+        for g, opts in enumerate(self.options):
+            for d, _, p, lit in opts:
+                key = (d, p) if p >= 0 else (d, self._place_key(self.forced_place[g]))
+                use.setdefault(key, []).append(lit)
+        for key in sorted(use):
+            if len(use[key]) > 1:
+                m.AddAtMostOne(use[key])
+        self.changed = []
+        for g, same_lit in enumerate(self.same):
+            flag = m.NewBoolVar(f"game{g}_differs_from_old_plan")
+            if same_lit is None:
+                forced_same = g in self.problem.forced and self._forced_same(g)
+                m.Add(flag == (0 if forced_same else 1))
+            else:
+                m.Add(flag == 1 - same_lit)
+            self.changed.append(flag)
+
+    def _place_key(self, place: Place) -> int:
+        """The index of a known place, or a new index (in order of first use) for a place
+        only a hand-moved game uses (a court at a time that is not one of the slots)."""
+        key = (place.venue, place.court, place.slot_time)
+        for p, known in enumerate(self.places):
+            if (known.venue, known.court, known.slot_time) == key:
+                return p
+        extra = self.__dict__.setdefault("_extra_places", {})
+        return extra.setdefault(key, len(self.places) + len(extra))
+
+    def _forced_place(self, forced: ForcedGame) -> Place:
+        home_places = [self.places[p] for p in self._home_places(forced.home)]
+        for place in home_places:
+            if (forced.court is None or place.court == forced.court) and (
+                place.slot_time == forced.start
+            ):
+                return place
+        for place in home_places:
+            if forced.court is None or place.court == forced.court:
+                label = forced.start.strftime("%H:%M") if place.slot_label else None
+                return Place(place.venue, place.court, forced.start, label)
+        return Place(None, forced.court, forced.start, None)
+
+    def _forced_same(self, g: int) -> bool:
+        old = self.problem.future[g]
+        forced = self.problem.forced[g]
+        start = self._start(forced.date, self.forced_place[g], forced)
+        return (old.date, old.start, old.court, old.home) == (
+            forced.date, start, self.forced_place[g].court, forced.home
+        )
+
+    def _start(self, day: date, place: Place, forced: ForcedGame | None = None):
+        clock = forced.start if forced is not None else place.slot_time
+        return kickoff(self.league, day, clock)
+
+    # --- teams and days -------------------------------------------------------------------
+    def _build_team_days(self) -> None:
+        m = self.model
+        home_lits: dict[tuple[str, int], list] = {}
+        away_lits: dict[tuple[str, int], list] = {}
+        for g, opts in enumerate(self.options):
+            old = self.problem.future[g]
+            for d, swapped, _, lit in opts:
+                home, away = (old.away, old.home) if swapped else (old.home, old.away)
+                home_lits.setdefault((home, d), []).append(lit)
+                away_lits.setdefault((away, d), []).append(lit)
+        self.home_on: dict[str, list] = {}
+        self.away_on: dict[str, list] = {}
+        for team in self.teams:
+            hs, aws = [], []
+            for d in range(len(self.days)):
+                h = m.NewBoolVar(f"{team}_home_day{d}")
+                a = m.NewBoolVar(f"{team}_away_day{d}")
+                m.Add(h == sum(home_lits.get((team, d), [])))
+                m.Add(a == sum(away_lits.get((team, d), [])))
+                m.AddBoolOr([h.Not(), a.Not()])
+                hs.append(h)
+                aws.append(a)
+            self.home_on[team] = hs
+            self.away_on[team] = aws
+
+    def plays(self, team: str, d: int):
+        return self.home_on[team][d] + self.away_on[team][d]
+
+    # --- rules ----------------------------------------------------------------------------
+    def _rule(self, text: str):
+        lit = self.book.rule(text)
+        if not self.explainable:
+            self.model.Add(lit == 1)
+        return lit
+
+    def _build_rules(self) -> None:
+        lg, rules, m = self.league, self.league.rules, self.model
+        days = self.days
+        if rules.min_rest_days is not None:
+            lit = self._rule(f"at least {rules.min_rest_days} days of rest between two games "
+                             "of a team (min_rest_days)")
+            for i, d1 in enumerate(days):
+                for j in range(i + 1, len(days)):
+                    if (days[j] - d1).days - 1 >= rules.min_rest_days:
+                        break
+                    for team in self.teams:
+                        m.Add(self.plays(team, i) + self.plays(team, j) <= 1).OnlyEnforceIf(lit)
+        for value, home, word in ((rules.max_home_run, True, "home"),
+                                  (rules.max_away_run, False, "away")):
+            if value is None:
+                continue
+            lit = self._rule(f"at most {value} {word} games in a row (max_{word}_run)")
+            for team in self.teams:
+                self._run_limit(team, value, home, lit)
+        self._build_breaks()
+        if rules.no_breaks_last:
+            lit = self._rule(f"no break in a team's last {rules.no_breaks_last} game(s) "
+                             "(no_breaks_last)")
+            for team in self.teams:
+                for d in range(len(days)):
+                    later = sum(self.plays(team, e) for e in range(d + 1, len(days)))
+                    m.Add(later >= rules.no_breaks_last).OnlyEnforceIf([lit, self.brk[team][d]])
+        if rules.no_breaks_first:
+            lit = self._rule(f"no break in a team's games 2..{rules.no_breaks_first + 1} "
+                             "(no_breaks_first)")
+            for team in self.teams:
+                for d in range(len(days)):
+                    before = self.history_count[team] + sum(
+                        self.plays(team, e) for e in range(d))
+                    m.Add(before >= rules.no_breaks_first + 1).OnlyEnforceIf(
+                        [lit, self.brk[team][d]])
+        for group in lg.shared_ground_groups:
+            lit = self._rule("shared ground: at most one of " + ", ".join(group)
+                             + " at home on a match day")
+            for d in range(len(days)):
+                m.Add(sum(self.home_on[t][d] for t in group) <= 1).OnlyEnforceIf(lit)
+        if lg.format.legs > 1:
+            self._pair_home_counts()
+            if rules.min_separation is not None:
+                self._separation(rules.min_separation)
+
+    def _run_limit(self, team: str, value: int, home: bool, lit) -> None:
+        m = self.model
+        start = self.trailing[team][0 if home else 1]
+        top = max(value, start)
+        prev: cp_model.LinearExprT = start
+        for d in range(len(self.days)):
+            same = self.home_on[team][d] if home else self.away_on[team][d]
+            other = self.away_on[team][d] if home else self.home_on[team][d]
+            count = m.NewIntVar(0, top, f"{team}_{'home' if home else 'away'}_run_day{d}")
+            m.Add(count == prev + 1).OnlyEnforceIf([lit, same])
+            m.Add(count <= value).OnlyEnforceIf([lit, same])
+            m.Add(count == 0).OnlyEnforceIf([lit, other])
+            m.Add(count == prev).OnlyEnforceIf([lit, same.Not(), other.Not()])
+            prev = count
+
+    def _build_breaks(self) -> None:
+        """brk[team][d]: team plays on day d with the same side as in its previous game."""
+        m = self.model
+        self.brk: dict[str, list] = {}
+        total = []
+        for team in self.teams:
+            last = self.last_home[team]
+            prev_home: cp_model.LinearExprT | None = None if last is None else int(last)
+            started: cp_model.LinearExprT = 0 if last is None else 1
+            row = []
+            for d in range(len(self.days)):
+                h, a = self.home_on[team][d], self.away_on[team][d]
+                b = m.NewBoolVar(f"{team}_break_day{d}")
+                if prev_home is not None:
+                    m.Add(b >= h + prev_home + started - 2)
+                    m.Add(b >= a + (1 - prev_home) + started - 2)
+                row.append(b)
+                total.append(b)
+                now_home = m.NewBoolVar(f"{team}_last_side_home_day{d}")
+                m.Add(now_home == 1).OnlyEnforceIf(h)
+                m.Add(now_home == 0).OnlyEnforceIf(a)
+                if prev_home is None:
+                    m.Add(now_home == 0).OnlyEnforceIf([h.Not(), a.Not()])
+                else:
+                    m.Add(now_home == prev_home).OnlyEnforceIf([h.Not(), a.Not()])
+                now_started = m.NewBoolVar(f"{team}_has_played_day{d}")
+                m.Add(now_started >= started)
+                m.Add(now_started >= h + a)
+                m.Add(now_started <= started + h + a)
+                prev_home, started = now_home, now_started
+            self.brk[team] = row
+        self.total_breaks = sum(total)
+
+    def _pair_home_counts(self) -> None:
+        m = self.model
+        by_pair: dict[frozenset[str], list[int]] = {}
+        for g, old in enumerate(self.problem.future):
+            by_pair.setdefault(old.pair, []).append(g)
+        for pair in sorted(by_pair, key=sorted):
+            games = by_pair[pair]
+            first = sorted(pair)[0]
+            planned = sum(1 for g in games if self.problem.future[g].home == first)
+            terms = []
+            for g in games:
+                old = self.problem.future[g]
+                for _, swapped, _, lit in self.options[g]:
+                    if (old.home == first) != swapped:
+                        terms.append(lit)
+            m.Add(sum(terms) == planned)
+
+    def _separation(self, value: int) -> None:
+        m = self.model
+        axis = sorted({f.date for f in self.problem.history if f.date} | set(self.days))
+        position = {d: i for i, d in enumerate(axis)}
+        lit = self._rule(f"at least {value} match days between two meetings of a pair "
+                         "(min_separation)")
+        meetings: dict[frozenset[str], list[tuple[int, object]]] = {}
+        for f in self.problem.history:
+            if f.date is not None:
+                meetings.setdefault(f.pair, []).append((f.leg, position[f.date]))
+        for g, old in enumerate(self.problem.future):
+            where = sum(position[self.days[d]] * lit_ for d, _, _, lit_ in self.options[g])
+            meetings.setdefault(old.pair, []).append((old.leg, where))
+        for pair in sorted(meetings, key=sorted):
+            items = sorted(meetings[pair], key=lambda item: item[0])
+            for (_, early), (_, late) in itertools.pairwise(items):
+                if isinstance(early, int) and isinstance(late, int):
+                    continue  # both in history
+                m.Add(late - early - 1 >= value).OnlyEnforceIf(lit)
+
+    # --- solving --------------------------------------------------------------------------
+    def solve(self, limits: SolveLimits) -> RepairResult:
+        self.precheck()
+        m = self.model
+        changed = sum(self.changed)
+        m.Minimize(changed)
+        solver = cp_model.CpSolver()
+        configure(solver, limits)
+        status = solver.Solve(m)
+        seconds = proof_seconds = solver.WallTime()
+        if status == cp_model.INFEASIBLE:
+            raise InfeasibleError("no re-plan keeps every rule", [])
+        if status not in (cp_model.OPTIMAL, cp_model.FEASIBLE):
+            raise InfeasibleError(
+                "no re-plan was found within the time limit; allow more solve_seconds", [])
+        best = round(solver.ObjectiveValue())
+        bound = round(solver.BestObjectiveBound())
+        proven = status == cp_model.OPTIMAL
+        values = {lit.Index(): solver.Value(lit) for opts in self.options for *_, lit in opts}
+        # second stage: keep the change count, prefer reserve dates, then fewest breaks
+        m.Add(changed <= best)
+        off_reserve = []
+        for g, opts in enumerate(self.options):
+            for d, _, _, lit in opts:
+                if self.days[d] not in self.reserve and lit is not self.same[g] and (
+                    g not in self.problem.forced
+                ):
+                    off_reserve.append(lit)
+        late = []
+        for g, opts in enumerate(self.options):
+            if g in self.problem.forced:
+                continue
+            late += [d * lit for d, _, _, lit in opts if lit is not self.same[g] and d]
+        breaks_weight = (len(self.days) + 1) * len(self.options) + 1
+        reserve_weight = breaks_weight * (len(self.days) * len(self.teams) + 1)
+        m.Minimize(reserve_weight * sum(off_reserve) + breaks_weight * self.total_breaks
+                   + sum(late))
+        m.ClearHints()
+        for opts in self.options:
+            for *_, lit in opts:
+                m.AddHint(lit, values[lit.Index()])
+        second = cp_model.CpSolver()
+        configure(second, SolveLimits(max(1.0, min(5.0, limits.deterministic / 4)), limits.wall,
+                                      limits.seed))
+        status2 = second.Solve(m)
+        notes = []
+        use = second if status2 in (cp_model.OPTIMAL, cp_model.FEASIBLE) else solver
+        seconds += second.WallTime()
+        if use is solver:
+            notes.append("the reserve-date and breaks stage found nothing better in its time")
+        fixtures, on_reserve = self._extract(use)
+        breaks = int(sum(use.Value(b) for row in self.brk.values() for b in row))
+        return RepairResult(tuple(fixtures), best, proven, bound, on_reserve, breaks, seconds,
+                            tuple(notes), proof_seconds)
+
+    def _extract(self, solver: cp_model.CpSolver) -> tuple[list[Fixture], int]:
+        out = []
+        on_reserve = 0
+        for g, old in enumerate(self.problem.future):
+            chosen = [(d, s, p) for d, s, p, lit in self.options[g] if solver.Value(lit)]
+            d, swapped, p = chosen[0]
+            if self.same[g] is not None and solver.Value(self.same[g]):
+                out.append(old)
+                continue
+            day = self.days[d]
+            if day in self.reserve:
+                on_reserve += 1
+            home, away = (old.away, old.home) if swapped else (old.home, old.away)
+            forced = self.problem.forced.get(g)
+            place = self.forced_place[g] if forced is not None else self.places[p]
+            start = self._start(day, place, forced)
+            new = replace(old, home=home, away=away, venue=place.venue, court=place.court,
+                          slot=place.slot_label, date=day, start=start)
+            if forced is not None and (old.date, old.start, old.court, old.home) == (
+                    day, start, place.court, home):
+                new = old
+            out.append(new)
+        return out, on_reserve
+
+    # --- explaining -----------------------------------------------------------------------
+    def precheck(self) -> None:
+        """Clashes that need no solver: a game with no day left, a team short of days."""
+        conflicts = []
+        for g in self.empty:
+            old = self.problem.future[g]
+            conflicts.append(
+                f"{old.home} v {old.away} (round {old.round}) has no possible date left after "
+                f"{self.problem.played_through.isoformat()}: every remaining match day is "
+                "excluded, closed, too close to a game played or a day one of the teams is "
+                "unavailable")
+        days_of: dict[str, set[int]] = {team: set() for team in self.teams}
+        games_of: dict[str, int] = {team: 0 for team in self.teams}
+        for g, opts in enumerate(self.options):
+            for team in self.problem.future[g].teams:
+                games_of[team] = games_of.get(team, 0) + 1
+                days_of.setdefault(team, set()).update(d for d, *_ in opts)
+        for team in self.teams:
+            games, free = games_of[team], len(days_of[team])
+            if games > free:
+                conflicts.append(f"{team} has {games} games left but only {free} match days "
+                                 "on which it can play")
+        if conflicts:
+            raise InfeasibleError("the remaining games cannot all be placed", conflicts)
+
+    def explain_infeasible(self, limits: SolveLimits) -> InfeasibleError:
+        """Name the rules that cannot hold together (an explainable model must be built)."""
+        self.book.assume_all()
+        solver = cp_model.CpSolver()
+        configure(solver, limits)
+        status = solver.Solve(self.model)
+        if status != cp_model.INFEASIBLE:
+            return InfeasibleError("no re-plan was found within the time limit", [])
+
+        def still(indices: list[int]) -> bool:
+            self.model.ClearAssumptions()
+            self.model.AddAssumptions([self.book.literals[i] for i in indices])
+            trial = cp_model.CpSolver()
+            configure(trial, SolveLimits(min(limits.deterministic, 2.0), min(limits.wall, 10.0),
+                                         limits.seed))
+            return trial.Solve(self.model) == cp_model.INFEASIBLE
+
+        error = explain(self.book, solver, still,
+                        what="the remaining games cannot be placed after "
+                             f"{self.problem.played_through.isoformat()}")
+        if not error.conflicts:
+            return InfeasibleError(
+                "the remaining games do not fit into the remaining match days with the "
+                "closures and unavailabilities (one game per team and day, each place once a "
+                "day)", [])
+        return error
+
+
+# --- public API ------------------------------------------------------------------------------
+
+
+def is_feasible(problem: RepairProblem, limits: SolveLimits) -> bool:
+    """Whether some re-plan keeps every rule (a feasibility solve, no objective)."""
+    try:
+        model = RepairModel(problem)
+        model.precheck()
+    except InfeasibleError:
+        return False
+    solver = cp_model.CpSolver()
+    configure(solver, limits)
+    return solver.Solve(model.model) in (cp_model.OPTIMAL, cp_model.FEASIBLE)
+
+
+def relaxations(problem: RepairProblem, limits: SolveLimits) -> list[str]:
+    """The single relaxations, smallest first, under which a re-plan exists (tested by
+    re-solving): a later end by 1-4 weeks, one more weekday, or one rule lowered by one."""
+    league = problem.league
+    cal, rules = league.calendar, league.rules
+    found: list[str] = []
+    small = SolveLimits(min(limits.deterministic, 5.0), min(limits.wall, 30.0), limits.seed)
+    if cal.end is not None and not cal.dates:
+        for weeks in range(1, 5):
+            end = cal.end + timedelta(weeks=weeks)
+            trial = replace(problem, league=replace(league, calendar=replace(cal, end=end)))
+            if is_feasible(trial, small):
+                found.append(f"extend the season by {weeks} week{'s' if weeks > 1 else ''} "
+                             f"(calendar.end = {end.isoformat()})")
+                break
+    if not cal.dates:
+        for weekday in range(7):
+            if weekday in cal.weekdays:
+                continue
+            spec = replace(cal, weekdays=tuple(sorted((*cal.weekdays, weekday))))
+            trial = replace(problem, league=replace(league, calendar=spec))
+            if is_feasible(trial, small):
+                found.append(f"allow games on {WEEKDAY_NAMES[weekday]}s "
+                             "(add it to calendar.weekdays)")
+                break
+    lowered = []
+    if rules.min_rest_days:
+        lowered.append(("min_rest_days", rules.min_rest_days - 1))
+    if rules.max_home_run is not None:
+        lowered.append(("max_home_run", rules.max_home_run + 1))
+    if rules.max_away_run is not None:
+        lowered.append(("max_away_run", rules.max_away_run + 1))
+    if rules.no_breaks_last:
+        lowered.append(("no_breaks_last", rules.no_breaks_last - 1))
+    if rules.no_breaks_first:
+        lowered.append(("no_breaks_first", rules.no_breaks_first - 1))
+    if rules.min_separation:
+        lowered.append(("min_separation", rules.min_separation - 1))
+    for name, value in lowered:
+        trial = replace(problem, league=replace(league, rules=replace(rules, **{name: value})))
+        if is_feasible(trial, small):
+            found.append(f"relax rules.{name} to {value}")
+    return found
+
+
+def repair_season(problem: RepairProblem, limits: SolveLimits) -> RepairResult:
+    """Re-plan the future games of ``problem`` with the fewest changes.
+
+    Parameters
+    ----------
+    problem
+        History, the previous plan's future games and the new constraints.
+    limits
+        CP-SAT limits (one worker; the deterministic time decides, the wall clock is a cap).
+
+    Returns
+    -------
+    RepairResult
+        The new future games, the number changed, whether that minimum is proven.
+
+    Raises
+    ------
+    InfeasibleError
+        When no re-plan keeps every rule: the clash in the league's words and, as further
+        conflict lines, the relaxations that would make a re-plan possible.
+    InputError
+        For a league with several rounds on one match day.
+
+    References
+    ----------
+    R. Barták, T. Müller, H. Rudová, "A new approach to modeling and solving minimal
+    perturbation problems", CSCLP 2003, LNCS 3010 (2004) (from memory); docs/replanning.md.
+    """
+    model = RepairModel(problem)
+    try:
+        return model.solve(limits)
+    except InfeasibleError as exc:
+        if exc.conflicts:
+            error = exc
+        else:
+            error = RepairModel(problem, explainable=True).explain_infeasible(limits)
+        hints = relaxations(problem, limits)
+        lines = list(error.conflicts)
+        if hints:
+            lines += [f"possible fix: {h}" for h in hints]
+        else:
+            lines.append("no single relaxation tried (a later end by up to 4 weeks, another "
+                         "weekday, one rule lowered by one) makes a re-plan possible")
+        message = str(error).split("\n")[0]
+        raise InfeasibleError(message, lines) from None

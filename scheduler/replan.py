@@ -1,0 +1,451 @@
+"""Re-plan a season folder after what happened (postponements, closures, withdrawals, ...).
+
+``replan_season`` reads the league file, the season folder's ``season.json`` and the events file
+(:mod:`scheduler.config.events`), splits the planned games into history (on or before
+``played_through``, never changed) and future (after it, plus the postponed games), applies the
+withdrawals, hands the future to the minimal-change repair model
+(:mod:`scheduler.balance.repair`) and builds the new :class:`~scheduler.season.Season` with its
+revision history. ``write_replan`` writes the folder through the ordinary season writer plus
+``changes.csv``. Fairness is measured over the season as it will now be played and compared with
+the previous plan's figures. See docs/replanning.md.
+"""
+
+from __future__ import annotations
+
+import hashlib
+from dataclasses import dataclass, replace
+from datetime import date
+from pathlib import Path
+
+from scheduler.balance.repair import (
+    ForcedGame,
+    RepairProblem,
+    RepairResult,
+    is_feasible,
+    repair_season,
+)
+from scheduler.balance.solver import SolveLimits
+from scheduler.config import League, load_league
+from scheduler.config.events import Events, load_events
+from scheduler.config.schema import suggestion
+from scheduler.errors import InfeasibleError, InputError
+from scheduler.export.changes import GameChange, changes_csv, team_counts
+from scheduler.fairness import compute_fairness
+from scheduler.fairness.model import FairnessReport
+from scheduler.season import Fixture, Revision, Season
+
+SEASON_FILE = "season.json"
+CHANGES_FILE = "changes.csv"
+
+WATCHED = (
+    # (figure, label, larger is worse)
+    ("breaks_total", "breaks", True),
+    ("home_run_max", "longest run of home games", True),
+    ("away_run_max", "longest run of away games", True),
+    ("rest_days_min", "fewest rest days", False),
+    ("rest_mismatches", "games with unequal rest", True),
+    ("home_gap_max", "largest home-count gap", True),
+    ("separation_min", "fewest rounds between meetings", False),
+    ("court_spread_max", "court spread", True),
+    ("slot_spread_max", "slot spread", True),
+    ("carry_over_value", "carry-over value", True),
+)
+
+
+@dataclass(frozen=True, slots=True)
+class Worsened:
+    """A fairness figure the change made worse (``team`` ``None`` for a league figure)."""
+
+    label: str
+    before: float | int
+    after: float | int
+    team: str | None = None
+
+    def __str__(self) -> str:
+        who = f"{self.team}: " if self.team else ""
+        return f"{who}{self.label} {self.before} -> {self.after}"
+
+
+@dataclass(frozen=True)
+class ReplanResult:
+    """A re-planned season with what changed and how fair it is now.
+
+    ``fairness`` is measured over the new season (written to season.json and the report),
+    ``previous_fairness`` over the previous plan, ``played`` in date order; ``worsened`` lists
+    the figures that got worse: breaks, runs, rest and balance in date order, carry-over and
+    separation by round.
+    """
+
+    season: Season
+    previous: Season
+    changes: tuple[GameChange, ...]
+    repair: RepairResult
+    fairness: FairnessReport
+    previous_fairness: FairnessReport
+    worsened: tuple[Worsened, ...]
+    events: Events
+    played: FairnessReport | None = None
+    """The figures in date order (:func:`played_order`): what the teams will live through."""
+    league: League | None = None
+
+    @property
+    def team_counts(self) -> list[tuple[str, int]]:
+        return team_counts(self.changes)
+
+
+def played_order(season: Season) -> Season:
+    """The season as it will be played: one round per match date, in date order.
+
+    A postponed game keeps its round number in the season (its identity in calendars and
+    exports), but breaks, runs and rest are felt in date order; this view numbers the rounds
+    by date so that :func:`scheduler.fairness.compute_fairness` measures them that way.
+    """
+    dates = sorted({f.date for f in season.fixtures if f.date is not None})
+    rank = {d: i + 1 for i, d in enumerate(dates)}
+    fixtures = tuple(replace(f, round=rank[f.date]) for f in season.fixtures
+                     if f.date is not None)
+    return replace(season, fixtures=fixtures, byes={})
+
+
+def worsened_figures(before: FairnessReport, after: FairnessReport, *,
+                     skip: tuple[str, ...] = (), teams: bool = True) -> tuple[Worsened, ...]:
+    """League figures and (with ``teams``) per-team least rest and breaks that got worse from
+    ``before`` (figures named in ``skip`` are not compared)."""
+    out: list[Worsened] = []
+    for name, label, larger_is_worse in WATCHED:
+        if name in skip:
+            continue
+        a, b = getattr(before, name), getattr(after, name)
+        if a is None or b is None:
+            continue
+        if (b > a) if larger_is_worse else (b < a):
+            out.append(Worsened(label, a, b))
+    old_teams = {t.name: t for t in before.team_figures}
+    for team in after.team_figures if teams else ():
+        old = old_teams.get(team.name)
+        if old is None:
+            continue
+        for name, label, larger_is_worse in (("breaks", "breaks", True),
+                                             ("rest_days_min", "fewest rest days", False)):
+            a, b = getattr(old, name, None), getattr(team, name, None)
+            if a is None or b is None:
+                continue
+            if (b > a) if larger_is_worse else (b < a):
+                out.append(Worsened(label, a, b, team.name))
+    return tuple(out)
+
+
+def _located(events: Events, where: str, message: str) -> InputError:
+    return InputError(message, location=f"{events.source}: {where}" if events.source else where)
+
+
+def _game(f: Fixture) -> str:
+    return f"{f.home} v {f.away}" + (f" on {f.date.isoformat()}" if f.date else "")
+
+
+def _find_postponed(old: Season, events: Events) -> set[int]:
+    pt = events.played_through
+    chosen: set[int] = set()
+    for p in events.postponed:
+        same = [i for i, f in enumerate(old.fixtures) if (f.home, f.away) == (p.home, p.away)]
+        if p.date is not None:
+            same = [i for i in same if old.fixtures[i].date == p.date]
+        past = [i for i in same if old.fixtures[i].date is not None and
+                old.fixtures[i].date <= pt]
+        if not same:
+            reverse = [f for f in old.fixtures if (f.home, f.away) == (p.away, p.home)]
+            hint = (f"; did you mean {p.away} v {p.home}"
+                    + (f" on {reverse[0].date.isoformat()}" if reverse[0].date else "") + "?"
+                    ) if reverse else ""
+            when = f" on {p.date.isoformat()}" if p.date else ""
+            raise _located(events, p.where,
+                           f"{p.home} v {p.away}{when} is not a game of the plan{hint}")
+        if not past:
+            dates = ", ".join(_game(old.fixtures[i]) for i in same)
+            raise _located(events, p.where,
+                           f"{p.home} v {p.away} is planned after played_through "
+                           f"{pt.isoformat()} ({dates}); only a game that should already have "
+                           "been played can be postponed")
+        if len(past) > 1:
+            dates = ", ".join(old.fixtures[i].date.isoformat() for i in past)  # type: ignore[union-attr]
+            raise _located(events, p.where,
+                           f"{p.home} v {p.away} was planned more than once by then ({dates}); "
+                           "give its date")
+        if past[0] in chosen:
+            raise _located(events, p.where, f"{_game(old.fixtures[past[0]])} is listed twice")
+        chosen.add(past[0])
+    return chosen
+
+
+def _find_moved(future: list[Fixture], events: Events) -> dict[int, ForcedGame]:
+    forced: dict[int, ForcedGame] = {}
+    for m in events.moved:
+        same = [i for i, f in enumerate(future) if f.pair == frozenset((m.home, m.away))]
+        if m.planned_date is not None:
+            same = [i for i in same if future[i].date == m.planned_date]
+        if not same:
+            names = [_game(f) for f in future]
+            hint = suggestion(f"{m.home} v {m.away}", names)
+            raise _located(events, m.where,
+                           f"{m.home} v {m.away} is not a game still to be played{hint}")
+        if len(same) > 1:
+            dates = ", ".join(_game(future[i]) for i in same)
+            raise _located(events, m.where,
+                           f"{m.home} and {m.away} meet more than once after played_through "
+                           f"({dates}); give the planned date as `from`")
+        if same[0] in forced:
+            raise _located(events, m.where, f"{_game(future[same[0]])} is moved twice")
+        forced[same[0]] = ForcedGame(m.date, m.home, m.away, m.start, m.court)
+    return forced
+
+
+def _check_moved(league: League, events: Events, history: list[Fixture],
+                 future: list[Fixture], forced: dict[int, ForcedGame]) -> None:
+    """Hard rules a hand-moved game must keep on its own (the solver checks the rest)."""
+    rules = league.rules
+    unavailable = {(td.team, d) for td in rules.unavailable for d in td.dates}
+    unavailable |= {(u.team, d) for u in events.unavailable for d in u.dates}
+    no_home = {(td.team, d) for td in rules.no_home_games for d in td.dates}
+    last: dict[str, date] = {}
+    for f in history:
+        for team in f.teams:
+            if f.date is not None and (team not in last or f.date > last[team]):
+                last[team] = f.date
+    by_where = {m.home + "\x1f" + m.away: m.where for m in events.moved}
+    seen: dict[tuple[str, date], str] = {}
+    hosting: dict[tuple[object, ...], str] = {}
+    groups = league.shared_ground_groups
+    for _i, game in sorted(forced.items()):
+        where = by_where.get(game.home + "\x1f" + game.away, "moved")
+        venue_of_home = league.team(game.home).home_venue
+        place = (venue_of_home, game.court, game.date, game.start)
+        if league.format.home_meaning == "venue" and venue_of_home and place in hosting:
+            raise _located(events, where, f"{venue_of_home} {game.court or ''} is already used on "
+                           f"{game.date.isoformat()} at {game.start.strftime('%H:%M')} by "
+                           f"{hosting[place]}")
+        hosting[place] = where
+        for group in groups:
+            if game.home in group:
+                key = ("shared", group, game.date)
+                if key in hosting:
+                    raise _located(events, where, f"shared ground: {game.home} cannot be at "
+                                   f"home on {game.date.isoformat()}, another team of "
+                                   f"{', '.join(group)} is ({hosting[key]})")
+                hosting[key] = where
+        for team in (game.home, game.away):
+            if (team, game.date) in unavailable:
+                raise _located(events, where, f"{team} is unavailable on "
+                               f"{game.date.isoformat()}; the hand-moved game breaks that rule")
+            if (team, game.date) in seen:
+                raise _located(events, where, f"{team} would play twice on "
+                               f"{game.date.isoformat()} (also in {seen[(team, game.date)]})")
+            seen[(team, game.date)] = where
+            rest = rules.min_rest_days
+            if rest is not None and team in last and (game.date - last[team]).days - 1 < rest:
+                raise _located(events, where, f"{team} last played on {last[team].isoformat()}; "
+                               f"{game.date.isoformat()} leaves fewer than {rest} days of rest "
+                               "(rules.min_rest_days)")
+        if (game.home, game.date) in no_home:
+            raise _located(events, where, f"{game.home} cannot play at home on "
+                           f"{game.date.isoformat()} (rules.no_home_games)")
+        venue = league.team(game.home).home_venue
+        for c in events.closed:
+            if game.date in c.dates and venue == c.venue and (
+                    not c.courts or game.court in c.courts or game.court is None):
+                raise _located(events, where, f"{c.venue} is closed on {game.date.isoformat()} "
+                               f"({c.where})")
+
+
+def _blame_moved(problem: RepairProblem, events: Events, limits: SolveLimits) -> None:
+    """When no re-plan exists but one would without the hand-moved games, name the first
+    hand-moved game that cannot be kept (an InputError located in the events file)."""
+    if not problem.forced:
+        return
+    small = SolveLimits(min(limits.deterministic, 5.0), min(limits.wall, 30.0), limits.seed)
+    if not is_feasible(replace(problem, forced={}), small):
+        return
+    for index, game in sorted(problem.forced.items()):
+        if not is_feasible(replace(problem, forced={index: game}), small):
+            where = next((m.where for m in events.moved
+                          if (m.home, m.away, m.date) == (game.home, game.away, game.date)),
+                         "moved")
+            raise _located(events, where,
+                           f"{game.home} v {game.away} on {game.date.isoformat()} at "
+                           f"{game.start.strftime('%H:%M')} breaks a rule of the league "
+                           "(rest, runs of home or away games, shared ground or a court "
+                           "already in use); without it the season can be re-planned")
+    raise _located(events, "moved", "the hand-moved games together break a rule of the league; "
+                   "without them the season can be re-planned")
+
+
+def new_revision(previous: Season, events: Events) -> str:
+    """A 12-hex id of the previous revision and the events (sha256 of their repr)."""
+    text = previous.revision + "|" + repr(replace(events, source=None))
+    return hashlib.sha256(text.encode("utf-8")).hexdigest()[:12]
+
+
+def _sort(league: League, fixtures: list[Fixture]) -> tuple[Fixture, ...]:
+    """The planner's order: round, kick-off, venue, court, home team."""
+    venue_rank = {v.name: i for i, v in enumerate(league.venues)}
+
+    def court_rank(f: Fixture) -> int:
+        if f.venue is None or f.venue not in venue_rank:
+            return 0
+        courts = list(league.venue(f.venue).courts)
+        return courts.index(f.court) if f.court in courts else len(courts)
+
+    return tuple(sorted(fixtures, key=lambda f: (
+        f.round, f.start.timestamp() if f.start else 0, venue_rank.get(f.venue, -1),
+        court_rank(f), f.home)))
+
+
+def replan_season(league: League, previous: Season, events: Events, *,
+                  time_limit: float | None = None) -> ReplanResult:
+    """Re-plan ``previous`` after ``events`` with the fewest changes.
+
+    Parameters
+    ----------
+    league
+        The league (its rules and calendar hold for the re-plan too).
+    previous
+        The season as last published (``season.json`` of the folder).
+    events
+        What happened (:func:`scheduler.config.events.load_events`).
+    time_limit
+        Deterministic solver time in seconds (default ``league.solve_seconds``).
+
+    Returns
+    -------
+    ReplanResult
+        The new season, the changed games, the proof status and the fairness comparison.
+
+    Raises
+    ------
+    InputError
+        Events that do not fit the season (another season, an unknown or future game
+        postponed, a hand-moved game that breaks a rule), located in the events file.
+    InfeasibleError
+        When no re-plan keeps every rule (the clash and relaxations that would help).
+
+    Examples
+    --------
+    >>> result = replan_season(league, previous, events)  # doctest: +SKIP
+    >>> result.repair.changed, result.repair.proven        # doctest: +SKIP
+    (4, True)
+
+    References
+    ----------
+    docs/replanning.md; RFC 5545 §3.8.7.4 and §3.8.1.11 for the calendars written afterwards.
+    """
+    where = events.source or "events"
+    if (events.league, events.season) != (previous.league, previous.season_id):
+        raise InputError(
+            f"the events file is for {events.league!r} season {events.season!r}, but the season "
+            f"folder holds {previous.league!r} season {previous.season_id!r}",
+            location=f"{where}: league")
+    if (league.name, league.season) != (previous.league, previous.season_id):
+        raise InputError(
+            f"the league file is {league.name!r} season {league.season!r}, but the season folder "
+            f"holds {previous.league!r} season {previous.season_id!r}", location=league.source)
+    dates = [f.date for f in previous.fixtures if f.date is not None]
+    if dates and events.played_through >= max(dates):
+        raise InputError(
+            f"played_through {events.played_through.isoformat()} is on or after the last game "
+            f"of the season ({max(dates).isoformat()}); nothing is left to re-plan",
+            location=f"{where}: played_through")
+    pt = events.played_through
+    postponed_at = _find_postponed(previous, events)
+    void = {w.team for w in events.withdrawn if w.policy == "void_all"}
+    out = {w.team for w in events.withdrawn}
+    history: list[Fixture] = []
+    future: list[Fixture] = []
+    postponed: set[int] = set()
+    cancelled: list[Fixture] = []
+    for i, f in enumerate(previous.fixtures):
+        past = f.date is not None and f.date <= pt and i not in postponed_at
+        if past:
+            if void & set(f.teams):
+                cancelled.append(f)
+            else:
+                history.append(f)
+            continue
+        if out & set(f.teams):
+            cancelled.append(f)
+            continue
+        if i in postponed_at:
+            postponed.add(len(future))
+        future.append(f)
+    forced = _find_moved(future, events)
+    _check_moved(league, events, history, future, forced)
+    problem = RepairProblem(
+        league=league, played_through=pt, history=tuple(history), future=tuple(future),
+        postponed=frozenset(postponed), forced=forced,
+        unavailable=tuple((u.team, d) for u in events.unavailable for d in u.dates),
+        closed=tuple((c.venue, court, d) for c in events.closed for d in c.dates
+                     for court in (c.courts or (None,))),
+    )
+    total = float(time_limit if time_limit is not None else league.solve_seconds)
+    limits = SolveLimits(max(1.0, total), 4 * max(1.0, total) + 20, league.seed)
+    try:
+        result = repair_season(problem, limits)
+    except InfeasibleError:
+        _blame_moved(problem, events, limits)
+        raise
+    changes = [GameChange(old, new) for old, new in zip(future, result.fixtures, strict=True)
+               if old != new]
+    changes += [GameChange(f, None) for f in cancelled]
+    changes.sort(key=lambda c: ((c.new or c.old).date or date.min, c.old.round, c.old.home))
+    revision = new_revision(previous, events)
+    earlier = previous.revisions or (Revision(previous.revision, None, 0, "first plan"),)
+    summary = (f"re-planned after {pt.isoformat()}: {len(changes)} game(s) changed"
+               + (" (fewest possible, proven)" if result.proven
+                  else f" (at least {result.bound} needed; not proven fewest)"))
+    # a withdrawn team stays in the team list, so that its own calendar feed is written once
+    # more and shows its games as cancelled
+    season = replace(
+        previous,
+        fixtures=_sort(league, history + list(result.fixtures)),
+        revision=revision,
+        revisions=(*earlier, Revision(revision, pt, len(changes), summary)),
+        notes=(*previous.notes, summary, *result.notes),
+    )
+    fairness = compute_fairness(season)
+    before = compute_fairness(previous)
+    played, played_before = (compute_fairness(played_order(s)) for s in (season, previous))
+    worse = worsened_figures(played_before, played,
+                             skip=("carry_over_value", "separation_min"))
+    worse += worsened_figures(before, fairness, skip=tuple(
+        name for name, *_ in WATCHED if name not in ("carry_over_value", "separation_min")),
+        teams=False)
+    return ReplanResult(season, previous, tuple(changes), result, fairness, before,
+                        worse, events, played, league)
+
+
+def load_replan(league_path: str | Path, season_dir: str | Path, events_path: str | Path, *,
+                time_limit: float | None = None) -> ReplanResult:
+    """Read the three inputs and :func:`replan_season` (nothing is written)."""
+    from scheduler.export.season_json import load_season_json
+
+    league = load_league(league_path)
+    season_file = Path(season_dir) / SEASON_FILE
+    if not season_file.is_file():
+        raise InputError(f"no {SEASON_FILE} in the season folder; plan the season first",
+                         location=str(season_dir))
+    previous = load_season_json(season_file)
+    events = load_events(events_path, league)
+    return replan_season(league, previous, events, time_limit=time_limit)
+
+
+def write_replan(result: ReplanResult, season_dir: str | Path, *, league: League,
+                 config_path: str | Path | None = None) -> list[Path]:
+    """Write the re-planned season into ``season_dir`` (the folder it came from) and
+    ``changes.csv``. Returns the paths written."""
+    from scheduler.export import write_season_outputs
+    from scheduler.export.safety import atomic_write_text
+
+    written = write_season_outputs(
+        result.season, result.fairness, season_dir, config_path=config_path,
+        game_minutes=league.calendar.game_minutes, side_labels=league.format.grid_labels)
+    written.append(atomic_write_text(Path(season_dir) / CHANGES_FILE,
+                                     changes_csv(result.changes)))
+    return written

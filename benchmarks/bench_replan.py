@@ -26,11 +26,11 @@ from pathlib import Path
 
 from ortools.sat.python import cp_model
 
-from scheduler.plan import plan_season
 from scheduler.balance.repair import RepairModel, RepairProblem
 from scheduler.balance.solver import SolveLimits, configure
 from scheduler.config import load_league
 from scheduler.config.events import load_events
+from scheduler.plan import plan_season
 from scheduler.replan import replan_season
 
 ROOT = Path(__file__).resolve().parent.parent

@@ -120,28 +120,6 @@ def _revision_dict(r: Revision) -> dict:
     }
 
 
-def _revisions(data: dict) -> tuple[Revision, ...]:
-    raw = _need(data, "revisions", list, "", optional=True, default=[])
-    out = []
-    for i, item in enumerate(raw):
-        where = f"revisions[{i}]"
-        if not isinstance(item, dict):
-            raise InputError("a revision must be an object", location=where)
-        day = _need(item, "played_through", str, where, optional=True)
-        try:
-            through = date.fromisoformat(day) if day is not None else None
-        except ValueError as exc:
-            raise InputError(f"not an ISO date: {day!r}", location=f"{where}.played_through"
-                             ) from exc
-        out.append(Revision(
-            revision=_need(item, "revision", str, where),
-            played_through=through,
-            changed=_need(item, "changed", int, where, optional=True, default=0),
-            note=_need(item, "note", str, where, optional=True, default=""),
-        ))
-    return tuple(out)
-
-
 def dumps_season(season: Season, fairness: FairnessReport | None = None) -> str:
     """``season.json`` text: deterministic, UTF-8 (no ASCII escapes), indent 2, final newline."""
     data = season_to_dict(season, fairness)

@@ -148,10 +148,10 @@ def test_no_dates_no_notes(league):
 
 
 def test_planned_season_carries_the_notes_to_json_and_report(league):
-    from scheduler.plan import plan_season
     from scheduler.export.report import render_report
     from scheduler.export.season_json import dumps_season
     from scheduler.fairness import compute_fairness
+    from scheduler.plan import plan_season
 
     result = plan_season(league)
     season = result.season

@@ -13,9 +13,9 @@ from __future__ import annotations
 import itertools
 from datetime import date
 
-from scheduler.plan import plan_season
 from scheduler.config import parse_league
 from scheduler.config.events import parse_events
+from scheduler.plan import plan_season
 from scheduler.replan import replan_season
 
 TEAMS = ["Ashwick", "Brindle", "Cobham Vale", "Dunlin"]

@@ -26,6 +26,7 @@ from ortools.sat.python import cp_model
 from scheduler.balance.timetable import SolveLimits, Timetable, configure
 from scheduler.config.model import League
 from scheduler.errors import InfeasibleError
+from scheduler.interrupt import solve_interruptibly
 
 
 @dataclass(frozen=True)
@@ -199,7 +200,7 @@ def assign_places(league: League, tt: Timetable, limits: SolveLimits) -> Placeme
                            start_value.get("slot"), "optimal")
     solver = cp_model.CpSolver()
     configure(solver, limits)
-    status = solver.Solve(m)
+    status = solve_interruptibly(solver, m)
     if status == cp_model.INFEASIBLE:
         raise InfeasibleError(
             "the courts and time slots cannot hold the games of some match day",

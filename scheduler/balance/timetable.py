@@ -46,6 +46,7 @@ from scheduler.config.model import League
 from scheduler.errors import InfeasibleError
 from scheduler.factorization.circle import circle_rounds
 from scheduler.factorization.model import Factorization
+from scheduler.interrupt import solve_interruptibly
 
 
 @dataclass(frozen=True)
@@ -635,7 +636,7 @@ class TimetableModel:
         if self.searched:  # the order search took half of the deterministic budget
             limits = SolveLimits(max(0.5, limits.deterministic / 2), limits.wall, limits.seed)
         configure(solver, limits)
-        status = solver.Solve(self.model)
+        status = solve_interruptibly(solver, self.model)
         if status == cp_model.INFEASIBLE and not explain_failure:
             raise InfeasibleError("infeasible on the earliest match days", [])
         if status == cp_model.INFEASIBLE:
@@ -655,7 +656,7 @@ class TimetableModel:
         solver = cp_model.CpSolver()
         configure(solver, SolveLimits(min(limits.deterministic, 2.0), min(limits.wall, 10.0),
                                       limits.seed))
-        status = solver.Solve(self.model)
+        status = solve_interruptibly(solver, self.model)
         return status == cp_model.INFEASIBLE
 
     def _extract(self, solver: cp_model.CpSolver, status: str, hit: bool) -> Timetable:

@@ -10,6 +10,12 @@ C-level signal handler to also write the signal number to a socket
 ``solver.StopSearch()`` (CP-SAT documents ``StopSearch`` as callable from another thread). The
 solve returns at once and Python's handler raises ``KeyboardInterrupt`` in the main thread.
 
+:func:`sticky_interrupts` (installed by the command line) makes a Ctrl-C impossible to lose: some
+code run during a plan swallows exceptions raised inside it (numba compiles through ctypes
+callbacks, which print and drop a ``KeyboardInterrupt``). The handler records the interrupt before
+raising it, and :func:`raise_if_interrupted`, called before each solve and before the season
+folder is swapped, raises it again.
+
 :func:`deferred_interrupts` holds a Ctrl-C back during a short section that must not be cut in
 two (the swap of the season folder) and raises it afterwards.
 
@@ -67,6 +73,47 @@ def _in_main_thread() -> bool:
     return threading.current_thread() is threading.main_thread()
 
 
+_recorded = threading.Event()
+
+
+def _record_and_raise(signum: int, frame: object) -> None:
+    _recorded.set()
+    raise KeyboardInterrupt
+
+
+@contextlib.contextmanager
+def sticky_interrupts() -> Iterator[None]:
+    """Inside the block, every SIGINT is recorded before ``KeyboardInterrupt`` is raised, so
+    that :func:`raise_if_interrupted` can raise it again where other code swallowed it.
+
+    Examples
+    --------
+    >>> with sticky_interrupts():
+    ...     raise_if_interrupted()
+    """
+    _recorded.clear()
+    if not _in_main_thread():
+        yield
+        return
+    previous = signal.signal(signal.SIGINT, _record_and_raise)
+    try:
+        yield
+    finally:
+        signal.signal(signal.SIGINT, previous)
+        _recorded.clear()
+
+
+def raise_if_interrupted() -> None:
+    """Raise ``KeyboardInterrupt`` when a Ctrl-C was recorded by :func:`sticky_interrupts`.
+
+    Examples
+    --------
+    >>> raise_if_interrupted()  # nothing recorded: returns
+    """
+    if _recorded.is_set():
+        raise KeyboardInterrupt
+
+
 def solve_interruptibly(solver: Any, model: Any) -> Any:
     """``solver.Solve(model)``, stopped at once by Ctrl-C, which then raises ``KeyboardInterrupt``.
 
@@ -93,6 +140,7 @@ def solve_interruptibly(solver: Any, model: Any) -> Any:
     >>> solve_interruptibly(cp_model.CpSolver(), model) == cp_model.OPTIMAL
     True
     """
+    raise_if_interrupted()
     with contextlib.suppress(AttributeError, ValueError):
         solver.parameters.catch_sigint_signal = False
     if not _in_main_thread() or signal.getsignal(signal.SIGINT) in (signal.SIG_IGN, None):
@@ -153,6 +201,7 @@ def deferred_interrupts() -> Iterator[None]:
     if not _in_main_thread():
         yield
         return
+    raise_if_interrupted()
     received: list[int] = []
 
     def hold(signum: int, frame: object) -> None:

@@ -213,7 +213,8 @@ def assign_places(league: League, tt: Timetable, limits: SolveLimits) -> Placeme
                        "feasible")
     if status not in (cp_model.OPTIMAL, cp_model.FEASIBLE):
         raise InfeasibleError("no assignment of courts and time slots was found in the time "
-                              "limit; allow more solve_seconds", [])
+                              "limit; allow more time (time_limit_seconds in the league file, or "
+                              "--time-limit)", [])
     chosen = {}
     for (s, i, p), lit in x.items():
         if solver.BooleanValue(lit):

@@ -645,8 +645,8 @@ class TimetableModel:
                                f"{self.fact.method}")
         if status not in (cp_model.OPTIMAL, cp_model.FEASIBLE):
             raise InfeasibleError(
-                "no timetable was found within the time limit; allow more solve_seconds or relax "
-                "the rules", [])
+                "no timetable was found within the time limit; allow more time "
+                "(time_limit_seconds in the league file, or --time-limit) or relax the rules", [])
         hit = status != cp_model.OPTIMAL and solver.WallTime() >= limits.wall * 0.98
         return self._extract(solver, "optimal" if status == cp_model.OPTIMAL else "feasible", hit)
 

@@ -58,7 +58,7 @@ from scheduler.export.ics import (
 from scheduler.export.manifest import MANIFEST_FILE, Manifest
 from scheduler.export.safety import fsync_folder, name_digest, safe_filenames
 from scheduler.export.xlsx import workbook_bytes
-from scheduler.interrupt import deferred_interrupts, pause_point
+from scheduler.interrupt import deferred_interrupts, pause_point, raise_if_interrupted
 from scheduler.season import Season
 
 SEASON_FILE = "season.json"
@@ -557,6 +557,7 @@ def write_season_outputs(
     files = render_season_files(
         season, fairness, previous, state, game_minutes=game_minutes, side_labels=side_labels
     )
+    raise_if_interrupted()
     pause_point("folder:computed")
     try:
         target.parent.mkdir(parents=True, exist_ok=True)

@@ -107,7 +107,7 @@ def test_refuses_other_league_unless_forced(season, tmp_path):
 
 def test_refuses_unreadable_season_file(season, tmp_path):
     (tmp_path / "season.json").write_text("not json")
-    with pytest.raises(OutputError, match="no season manifest.*--force"):
+    with pytest.raises(OutputError, match=r"no season manifest.*--force"):
         write(season, tmp_path)
     write(season, tmp_path, force=True)
 

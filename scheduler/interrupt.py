@@ -23,7 +23,8 @@ two (the swap of the season folder) and raises it afterwards.
 variable ``SCHEDULER_TEST_PAUSE`` set to a comma-separated list of point names (or ``*``), the
 program writes ``paused at NAME`` to standard error at each listed point and sleeps for up to
 60 seconds, so that a test can send it SIGKILL or SIGINT there (see ``docs/season-folder.md``).
-Unset, a pause point does nothing.
+With ``SCHEDULER_TEST_ANNOUNCE`` set, every point writes ``at NAME`` to standard error without
+pausing. Unset, a pause point does nothing.
 """
 
 from __future__ import annotations
@@ -41,6 +42,10 @@ from typing import Any
 PAUSE_VARIABLE = "SCHEDULER_TEST_PAUSE"
 """Environment variable read only by :func:`pause_point` (tests of interruptions)."""
 
+ANNOUNCE_VARIABLE = "SCHEDULER_TEST_ANNOUNCE"
+"""Environment variable read only by :func:`pause_point`: when set, every point writes
+``at NAME`` to standard error (without pausing)."""
+
 _PAUSE_SECONDS = 60.0
 
 
@@ -56,6 +61,9 @@ def pause_point(name: str) -> None:
     --------
     >>> pause_point("nowhere")  # without the environment variable: returns at once
     """
+    if os.environ.get(ANNOUNCE_VARIABLE):
+        sys.stderr.write(f"at {name}\n")
+        sys.stderr.flush()
     wanted = os.environ.get(PAUSE_VARIABLE)
     if not wanted:
         return

@@ -600,13 +600,22 @@ def write_season_outputs(
             fsync_folder(new / CALENDAR_FOLDER)
             fsync_folder(new)
             pause_point("folder:before-swap")
-            with deferred_interrupts():
-                old = _swap_in(new, target)
-                fsync_folder(target.parent)
-                pause_point("folder:swapped")
-                if old is not None:
-                    with contextlib.suppress(OSError):
-                        _remove_tree(old)
+            swapped = False
+            try:
+                with deferred_interrupts():
+                    old = _swap_in(new, target)
+                    swapped = True
+                    fsync_folder(target.parent)
+                    pause_point("folder:swapped")
+                    if old is not None:
+                        with contextlib.suppress(OSError):
+                            _remove_tree(old)
+            except KeyboardInterrupt:
+                if not swapped:
+                    raise
+                raise KeyboardInterrupt(
+                    f"interrupted; the new season had already been written to {out}"
+                ) from None
         except OSError as exc:
             raise OutputError(f"cannot write the season into {out}: {exc}") from exc
         finally:

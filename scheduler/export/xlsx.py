@@ -8,14 +8,14 @@ frozen header row, an autofilter where it is a table, column widths fitted to th
 header row repeated on printed pages and a landscape, fit-to-width page setup.
 
 User text (team, venue, court and slot names) is stored exactly as typed, as a string cell
-(``t="inlineStr"``, ECMA-376 Part 1 §18.3.1.4 / §18.18.11): a spreadsheet program shows a string
-cell as text and never evaluates it, so a name such as ``=Hill United`` needs no apostrophe in
-front (a formula would be a ``<f>`` element, which this workbook never holds). Cells whose text
-starts like a formula (``=``, ``+``, ``-``, ``@``; OWASP "CSV Injection", common practice) also
-get the "quote prefix" cell style (§18.8.45 ``quotePrefix``), the mark a spreadsheet program sets
-itself when a user types ``'=...``, so that editing such a cell keeps it text. See
-:func:`plain_text_cells`. Characters that XML 1.0 forbids are replaced by U+FFFD and line breaks
-are written as LF. Only a name that itself starts with an apostrophe followed by such a
+(``t="inlineStr"`` in ECMA-376 SpreadsheetML): a spreadsheet program shows a string cell as text
+and never evaluates it, so a name such as ``=Hill United`` needs no apostrophe in front (a
+formula would be an ``<f>`` element, which this workbook never holds). Cells whose text starts
+like a formula (``=``, ``+``, ``-``, ``@``; OWASP "CSV Injection", common practice) also get the
+``quotePrefix`` cell style, the mark a spreadsheet program sets itself when a user types
+``'=...``, so that editing such a cell keeps it text. See :func:`plain_text_cells` and
+``docs/season-folder.md``. Characters that XML 1.0 forbids are replaced by U+FFFD and line
+breaks are written as LF. Only a name that itself starts with an apostrophe followed by such a
 character gets one more apostrophe, so that readers that undo the CSV neutralisation
 (:func:`~scheduler.export.safety.restore_cell`) give the name back unchanged.
 

@@ -495,6 +495,21 @@ def _carry(source: Path, destination: Path, relative: str, info: os.stat_result)
         raise OutputError(f"{src} is not a plain file or folder; it cannot be kept, move it away")
 
 
+def _rescue_late_files(old: Path, target: Path, ours: set[str]) -> None:
+    """Move into the new season folder any file of the user that appeared in the old one after
+    the user's files were linked across (a file saved there while the plan was being written)."""
+    try:
+        entries = _entries(old)
+    except OSError:
+        return
+    for relative, info in entries:
+        if relative in ours or stat.S_ISDIR(info.st_mode) or os.path.lexists(target / relative):
+            continue
+        with contextlib.suppress(OSError):
+            (target / relative).parent.mkdir(parents=True, exist_ok=True)
+            os.rename(old / relative, target / relative)
+
+
 def write_season_outputs(
     season: Season,
     fairness,
@@ -608,6 +623,8 @@ def write_season_outputs(
                     fsync_folder(target.parent)
                     pause_point("folder:swapped")
                     if old is not None:
+                        ours = set(files) | set(check.manifest.files if check.manifest else ())
+                        _rescue_late_files(old, target, ours)
                         with contextlib.suppress(OSError):
                             _remove_tree(old)
             except KeyboardInterrupt:

@@ -360,3 +360,21 @@ def test_read_only_subfolder_of_the_user_does_not_leave_a_temporary_folder(seaso
         assert siblings(out) == []
     finally:
         os.chmod(out / "mine", 0o755)
+
+
+@pytest.mark.parametrize("exchange", [True, False])
+def test_file_saved_while_the_plan_is_written_is_kept(season, tmp_path, monkeypatch, exchange):
+    out = tmp_path / "out"
+    write(season, out)
+    real_swap = bundle._swap_in
+    if not exchange:
+        monkeypatch.setattr(bundle, "_exchange", lambda first, second: False)
+
+    def user_saves_then_swap(new, target):
+        (target / "late.txt").write_text("saved during the run")
+        return real_swap(new, target)
+
+    monkeypatch.setattr(bundle, "_swap_in", user_saves_then_swap)
+    write(move_fixture(season, 0, 2, revision="r2"), out)
+    assert (out / "late.txt").read_text() == "saved during the run"
+    assert siblings(out) == []

@@ -283,7 +283,9 @@ def plan(
         raise InputError(f"--time-limit must be a positive number of seconds, got {time_limit}")
     league = load_league(config)
     # Refuse an unusable output folder before the long part, not after it.
-    check_output_folder(out_dir, force=force, config_path=config)
+    check_output_folder(
+        out_dir, force=force, config_path=config, league=(league.name, league.season)
+    )
     with _progress(not quiet) as progress:
         result = plan_season(league, seed=seed, time_limit=time_limit, progress=progress)
     season = result.season

@@ -220,6 +220,18 @@ def test_plan_refuses_a_user_folder_before_solving_and_names_force(tmp_path):
     assert sorted(p.name for p in out.iterdir()) == ["fixtures.csv", "report.html"]
 
 
+def test_plan_refuses_another_league_before_solving(planned, tmp_path):
+    import shutil
+
+    out = tmp_path / "season"
+    shutil.copytree(planned, out)
+    before = {p: p.read_bytes() for p in out.rglob("*") if p.is_file()}
+    started = runner.invoke(app, ["plan", str(sample_path("evening_hall")), "--out", str(out)])
+    assert started.exit_code == 2
+    assert "another league" in started.stderr and "--force" in started.stderr
+    assert {p: p.read_bytes() for p in out.rglob("*") if p.is_file()} == before
+
+
 def test_old_option_and_key_names_of_the_time_limit_still_work(tmp_path):
     result = runner.invoke(app, ["factor", "8", "--budget", "2", "--json"])
     assert result.exit_code == 0

@@ -193,6 +193,7 @@ def check_output_folder(
     force: bool = False,
     config_path: str | os.PathLike[str] | None = None,
     new_files: tuple[str, ...] = (),
+    league: tuple[str, str] | None = None,
 ) -> FolderCheck:
     """Check that ``out_dir`` may receive a season, before anything is computed or written.
 
@@ -207,6 +208,9 @@ def check_output_folder(
     new_files
         Relative paths the new plan writes, to refuse a user's folder standing where a file
         goes (also with ``force``).
+    league
+        ``(league name, season)`` of the new plan: a folder whose manifest names another one is
+        refused without ``force``.
 
     Returns
     -------
@@ -270,6 +274,17 @@ def check_output_folder(
             f"the output folder {out} holds {what}: {shown}. It is refused so that no file of "
             "yours is overwritten. Choose a new or empty folder, or pass --force to plan into it "
             "anyway (files of the previous plan are then replaced; other files are kept)"
+        )
+    if (
+        league is not None
+        and manifest is not None
+        and not force
+        and (manifest.league, manifest.season) != tuple(league)
+    ):
+        raise OutputError(
+            f"{out} already holds the outputs of another league: {manifest.league!r} season "
+            f"{manifest.season!r} (this plan is {league[0]!r} season {league[1]!r}); choose "
+            "another output folder, or pass --force to replace them"
         )
     return FolderCheck(True, manifest, tuple(foreign))
 

@@ -100,10 +100,10 @@ class Manifest:
             isinstance(k, str) and isinstance(v, str) for k, v in files.items()
         ):
             raise ValueError("the file list is damaged")
-        texts = [payload.get(key) for key in ("league", "season", "revision")]
-        if not all(isinstance(text, str) for text in texts):
+        league, season, revision = (payload.get(k) for k in ("league", "season", "revision"))
+        if not (isinstance(league, str) and isinstance(season, str) and isinstance(revision, str)):
             raise ValueError("league, season or revision missing")
-        return cls(texts[0], texts[1], texts[2], dict(files))
+        return cls(league, season, revision, dict(files))
 
     def matches(self, folder: Path, relative: str) -> bool:
         """True when ``folder/relative`` is listed and still holds the bytes that were written."""

@@ -197,6 +197,19 @@ def test_new_writes_the_format_its_ending_asks_for_and_it_loads(tmp_path, name):
     assert league.team_names and league.solve_seconds == 10
 
 
+def test_toml_and_yaml_starters_describe_the_same_league(tmp_path):
+    import dataclasses
+
+    from scheduler.config import load_league
+
+    leagues = []
+    for name in ("league.toml", "league.yaml"):
+        assert run("new", str(tmp_path / name)).exit_code == 0
+        league = load_league(tmp_path / name)
+        leagues.append(dataclasses.replace(league, source=None))
+    assert leagues[0] == leagues[1]
+
+
 @pytest.mark.parametrize("name", ["league.txt", "league", "league.json", "league.toml.bak"])
 def test_new_refuses_other_endings_and_writes_nothing(tmp_path, name):
     result = runner.invoke(app, ["new", str(tmp_path / name)])

@@ -4,12 +4,16 @@ Commands: ``new`` (starter config), ``factor`` (one-factorization of K_n with it
 ``plan`` (league config -> season folder), ``replan`` (re-plan a season folder after what
 happened, with the fewest changes), ``audit`` (fairness figures of any schedule file).
 Exit codes: 0 ok, 1 the audited schedule is invalid, 2 unusable input or rules that cannot hold,
-3 an internal error (a bug: please report it with the input).
+3 an internal error (a bug: please report it with the input), 130 interrupted (Ctrl-C).
+
+A closed standard output (``scheduler audit f.csv | head -1``) is not an error: the command
+finishes its work silently and exits with the code it would have had.
 """
 
 from __future__ import annotations
 
 import json
+import os
 import sys
 from collections.abc import Callable, Iterator
 from contextlib import contextmanager
@@ -21,7 +25,7 @@ import typer
 from rich.console import Console
 from rich.table import Table
 
-from scheduler.errors import InputError, SchedulerError
+from scheduler.errors import InputError, OutputError, SchedulerError
 
 app = typer.Typer(
     add_completion=False,
@@ -29,10 +33,21 @@ app = typer.Typer(
     help="Plan fair round-robin seasons and audit any schedule.",
     pretty_exceptions_enable=False,
 )
-out = Console(highlight=False, soft_wrap=True)
-err = Console(stderr=True, highlight=False, soft_wrap=True)
+
+
+class _Console(Console):
+    """A rich console that reports a closed pipe as ``BrokenPipeError`` (rich itself exits 1,
+    which would read as "invalid" after ``audit``)."""
+
+    def on_broken_pipe(self) -> None:
+        raise BrokenPipeError
+
+
+out = _Console(highlight=False, soft_wrap=True)
+err = _Console(stderr=True, highlight=False, soft_wrap=True)
 
 EXIT_OK, EXIT_INVALID, EXIT_INPUT, EXIT_INTERNAL = 0, 1, 2, 3
+EXIT_INTERRUPTED = 130
 
 
 def _version(value: bool) -> None:
@@ -53,21 +68,43 @@ def _main(
     """Plan fair round-robin seasons and audit any schedule."""
 
 
+def _silence_stdout() -> None:
+    """Point standard output at the null device after the reader closed the pipe, so that no
+    later write or the final flush fails again."""
+    try:
+        null = os.open(os.devnull, os.O_WRONLY)
+        os.dup2(null, sys.stdout.fileno())
+        os.close(null)
+    except (OSError, ValueError):
+        pass
+
+
+class _Verdict:
+    """The exit code a command has settled on before it prints (used when the pipe closes)."""
+
+    code = EXIT_OK
+
+
 def _guarded(command: Callable[..., Any]) -> Callable[..., Any]:
     """Turn library errors into one clear message and an exit code, never a traceback."""
 
     @wraps(command)
     def run(*args: Any, **kwargs: Any) -> Any:
+        _Verdict.code = EXIT_OK
         try:
             return command(*args, **kwargs)
         except typer.Exit:
             raise
+        except BrokenPipeError:
+            # The reader of our output went away (``| head -1``): not a failure of ours.
+            _silence_stdout()
+            raise typer.Exit(_Verdict.code) from None
         except SchedulerError as exc:
             err.print(f"[bold]error:[/bold] {_plain(str(exc))}")
             raise typer.Exit(EXIT_INPUT) from None
-        except KeyboardInterrupt:
-            err.print("interrupted")
-            raise typer.Exit(130) from None
+        except KeyboardInterrupt as exc:
+            err.print(str(exc) if str(exc) else "interrupted; nothing was written")
+            raise typer.Exit(EXIT_INTERRUPTED) from None
         except MemoryError:
             err.print("error: not enough memory for this input")
             raise typer.Exit(EXIT_INPUT) from None
@@ -142,9 +179,13 @@ def _parse_teams(text: str) -> int:
 @app.command()
 @_guarded
 def new(
-    path: Annotated[Path, typer.Argument(help="Where to write the starter league file (.toml).")],
+    path: Annotated[
+        Path,
+        typer.Argument(help="Where to write the starter league file (.toml, .yaml or .yml)."),
+    ],
 ) -> None:
-    """Write a commented starter league config to PATH (never overwrites a file)."""
+    """Write a commented starter league file to PATH (TOML or YAML by its ending; never
+    overwrites a file)."""
     from scheduler.config import write_starter_config
 
     written = write_starter_config(path)
@@ -157,9 +198,13 @@ def new(
 def factor(
     teams: Annotated[str, typer.Argument(help="Number of teams (2 or more).", metavar="N")],
     seed: Annotated[int, typer.Option(help="Seed of the randomised searches.")] = 0,
-    budget: Annotated[
-        float, typer.Option(help="Seconds the search may use when no formula covers N.")
+    time_limit: Annotated[
+        float,
+        typer.Option("--time-limit", help="Seconds the search may use when no formula covers N."),
     ] = 10.0,
+    budget: Annotated[
+        float | None, typer.Option("--budget", hidden=True, help="Old name of --time-limit.")
+    ] = None,
     as_json: Annotated[bool, typer.Option("--json", help="Print one JSON object.")] = False,
     summary: Annotated[bool, typer.Option(help="Leave the rounds out of the text output.")] = False,
 ) -> None:
@@ -167,10 +212,14 @@ def factor(
     from scheduler.factorization import factorize
 
     n_teams = _parse_teams(teams)
-    if budget <= 0:
-        raise InputError(f"--budget must be a positive number of seconds, got {budget}")
+    option = "--time-limit"
+    if budget is not None:
+        err.print("note: --budget is the old name of --time-limit")
+        time_limit, option = budget, "--budget"
+    if not time_limit > 0:
+        raise InputError(f"{option} must be a positive number of seconds, got {time_limit}")
     with _progress(not as_json) as progress:
-        fac = factorize(n_teams, seed=seed, budget=budget, progress=progress)
+        fac = factorize(n_teams, seed=seed, budget=time_limit, progress=progress)
     cert = fac.certificate()
     bye = fac.bye_vertex if n_teams % 2 else None
     rounds = [
@@ -229,10 +278,20 @@ def plan(
     out_dir: Annotated[Path, typer.Option("--out", "-o", help="Output folder.")] = Path("season"),
     seed: Annotated[int | None, typer.Option(help="Override the config's seed.")] = None,
     time_limit: Annotated[
-        float | None, typer.Option(help="Solver time limit in seconds (overrides the config).")
+        float | None,
+        typer.Option(
+            "--time-limit",
+            help="Seconds the planner may search (overrides time_limit_seconds of the league "
+            "file).",
+        ),
     ] = None,
     force: Annotated[
-        bool, typer.Option(help="Replace an output folder that holds another league's season.")
+        bool,
+        typer.Option(
+            "--force",
+            help="Plan into a folder that holds files this planner did not write (they are "
+            "kept) or another league's season (replaced).",
+        ),
     ] = False,
     quiet: Annotated[bool, typer.Option(help="Print only the output folder.")] = False,
     progress_mode: Annotated[
@@ -247,14 +306,19 @@ def plan(
     """Plan a season from a league config and write it to the output folder."""
     from scheduler.config import load_league
 
-    if time_limit is not None and time_limit <= 0:
+    if time_limit is not None and not time_limit > 0:
         raise InputError(f"--time-limit must be a positive number of seconds, got {time_limit}")
     # The league file's limits are checked before the solver and exporters are even imported.
     league = load_league(config)
     from scheduler.export import write_season_outputs
+    from scheduler.export.bundle import check_output_folder
     from scheduler.fairness import compute_fairness
     from scheduler.plan import plan_season
 
+    # Refuse an unusable output folder before the long part, not after it.
+    check_output_folder(
+        out_dir, force=force, config_path=config, league=(league.name, league.season)
+    )
     with _progress(not quiet, progress_mode) as progress:
         result = plan_season(league, seed=seed, time_limit=time_limit, progress=progress)
     season = result.season
@@ -268,6 +332,18 @@ def plan(
         game_minutes=league.calendar.game_minutes,
         side_labels=league.format.grid_labels,
     )
+    # From here on the new season is in place; an interrupt only cuts the printing short.
+    try:
+        _print_plan(result, fairness, season, written, out_dir, quiet=quiet)
+    except KeyboardInterrupt:
+        raise KeyboardInterrupt(
+            f"interrupted; the new season had already been written to {out_dir}"
+        ) from None
+
+
+def _print_plan(
+    result: Any, fairness: Any, season: Any, written: list[Path], out_dir: Path, *, quiet: bool
+) -> None:
     if quiet:
         out.print(str(out_dir))
         return
@@ -358,6 +434,8 @@ def audit(
     from scheduler.audit import audit_file, parse_column_names
     from scheduler.config import load_league
 
+    if report is not None:
+        _check_report_path(report, file)
     league = load_league(league_file) if league_file is not None else None
     result = audit_file(file, timezone=timezone, columns=parse_column_names(columns),
                         league=league)
@@ -365,9 +443,14 @@ def audit(
         from scheduler.export.report import render_report
         from scheduler.export.safety import atomic_write_text
 
-        if report.resolve() == file.resolve():
-            raise InputError("--report would overwrite the audited file", location=str(report))
-        atomic_write_text(report, render_report(result.season, result.fairness))
+        page = render_report(result.season, result.fairness)
+        try:
+            atomic_write_text(report, page)
+        except OSError as exc:
+            raise OutputError(
+                f"--report: cannot write {report} ({exc.strerror or exc})"
+            ) from None
+    _Verdict.code = EXIT_OK if result.valid else EXIT_INVALID
     if as_json:
         sys.stdout.write(json.dumps(result.to_dict(), ensure_ascii=False, indent=2) + "\n")
     else:
@@ -399,6 +482,29 @@ def _print_rule_checks(checks: Any) -> None:
             out.print(f"    - {_plain(v.team)} ({where}): {_plain(v.what)}")
 
 
+def _check_report_path(report: Path, audited: Path) -> None:
+    """Refuse a ``--report`` place that cannot take a file, before any work is done."""
+    if report.is_dir():
+        example = report / "report.html"
+        raise OutputError(
+            f"--report: {report} is a folder; give a file name, for example {example}"
+        )
+    folder = report.parent if str(report.parent) else Path(".")
+    if not folder.is_dir():
+        what = "is not a folder" if folder.exists() else "does not exist"
+        raise OutputError(f"--report: the folder {folder} {what}")
+    if not os.access(folder, os.W_OK):
+        raise OutputError(f"--report: the folder {folder} is not writable")
+    try:
+        same = report.resolve() == audited.resolve() or (
+            report.exists() and report.samefile(audited)
+        )
+    except OSError:
+        same = False
+    if same:
+        raise InputError("--report would overwrite the audited file", location=str(report))
+
+
 def _print_fairness(fairness: Any, *, title: str) -> None:
     """The measured figures as a table, named as in every other output
     (:mod:`scheduler.fairness.names`); the full set is in season.json and the report."""
@@ -418,7 +524,25 @@ def _print_fairness(fairness: Any, *, title: str) -> None:
 
 def main() -> None:
     """Console entry point."""
-    app()
+    from scheduler.interrupt import sticky_interrupts
+
+    code: Any = EXIT_OK
+    try:
+        with sticky_interrupts():
+            app()
+    except SystemExit as exc:
+        code = exc.code
+        raise
+    finally:
+        try:
+            sys.stdout.flush()
+        except (BrokenPipeError, ValueError):
+            _silence_stdout()
+        if code == EXIT_INTERRUPTED:
+            # Some libraries print and drop a KeyboardInterrupt (numba's compiler callbacks);
+            # Python would then end the process by SIGINT instead of the documented 130.
+            sys.stderr.flush()
+            os._exit(EXIT_INTERRUPTED)
 
 
 if __name__ == "__main__":

@@ -261,7 +261,8 @@ def plan_season(
             notes.append(note)
     if tt.wall_cap_hit:
         notes.append("the wall-clock safety limit was hit while solving the timetable; the "
-                     "result may depend on machine load (allow more solve_seconds)")
+                     "result may depend on machine load (allow more time: time_limit_seconds "
+                     "in the league file, or --time-limit)")
     if tt.breaks > tt.break_bound and tt.status != "optimal":
         notes.append(f"breaks: {tt.breaks} (lower bound {tt.break_bound}: {tt.break_bound_reason});"
                      " not proven optimal within the time limit")
@@ -269,7 +270,8 @@ def plan_season(
     placement = assign_places(league, tt, _limits(total, 0.25, seed))
     if placement.wall_cap_hit:
         notes.append("the wall-clock safety limit was hit while placing the games; the result "
-                     "may depend on machine load (allow more solve_seconds)")
+                     "may depend on machine load (allow more time: time_limit_seconds in the "
+                     "league file, or --time-limit)")
     if placement.court_max is not None or placement.slot_max is not None:
         figs = [f"{label} {v}" for label, v in (("court", placement.court_max),
                                                  ("slot", placement.slot_max)) if v is not None]

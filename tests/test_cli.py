@@ -11,6 +11,9 @@ import csv
 import io
 import json
 import math
+import os
+import subprocess
+import sys
 from pathlib import Path
 
 import networkx as nx
@@ -21,6 +24,7 @@ from scheduler.cli import app
 from scheduler.config import sample_path
 
 runner = CliRunner()
+ROOT = Path(__file__).resolve().parents[1]
 
 
 def run(*args: str):
@@ -170,3 +174,155 @@ def test_version():
 
     result = run("--version")
     assert result.exit_code == 0 and __version__ in result.stdout
+
+
+# --- new: the ending chooses the format ---------------------------------------------------------
+
+
+@pytest.mark.parametrize("name", ["league.yaml", "league.yml", "league.toml", "LEAGUE.YAML"])
+def test_new_writes_the_format_its_ending_asks_for_and_it_loads(tmp_path, name):
+    import tomllib
+
+    import yaml
+
+    from scheduler.config import load_league
+
+    target = tmp_path / name
+    assert run("new", str(target)).exit_code == 0
+    text = target.read_text(encoding="utf-8")
+    # Parsed by the general-purpose readers of each format (PyYAML; tomllib, TOML 1.0).
+    data = tomllib.loads(text) if name.lower().endswith(".toml") else yaml.safe_load(text)
+    assert data["league"]["time_limit_seconds"] == 10
+    league = load_league(target)
+    assert league.team_names and league.solve_seconds == 10
+
+
+def test_toml_and_yaml_starters_describe_the_same_league(tmp_path):
+    import dataclasses
+
+    from scheduler.config import load_league
+
+    leagues = []
+    for name in ("league.toml", "league.yaml"):
+        assert run("new", str(tmp_path / name)).exit_code == 0
+        league = load_league(tmp_path / name)
+        leagues.append(dataclasses.replace(league, source=None))
+    assert leagues[0] == leagues[1]
+
+
+@pytest.mark.parametrize("name", ["league.txt", "league", "league.json", "league.toml.bak"])
+def test_new_refuses_other_endings_and_writes_nothing(tmp_path, name):
+    result = runner.invoke(app, ["new", str(tmp_path / name)])
+    assert result.exit_code == 2
+    assert str(tmp_path / name) in result.stderr and ".toml, .yaml or .yml" in result.stderr
+    assert list(tmp_path.iterdir()) == []
+
+
+# --- plan: the season folder ------------------------------------------------------------------
+
+
+def test_plan_refuses_a_user_folder_before_solving_and_names_force(tmp_path):
+    out = tmp_path / "season"
+    out.mkdir()
+    (out / "fixtures.csv").write_text("my own\n")
+    (out / "report.html").write_text("<p>mine</p>")
+    result = runner.invoke(app, ["plan", str(sample_path("club_day")), "--out", str(out)])
+    assert result.exit_code == 2
+    assert "--force" in result.stderr
+    assert (out / "fixtures.csv").read_text() == "my own\n"
+    assert sorted(p.name for p in out.iterdir()) == ["fixtures.csv", "report.html"]
+
+
+def test_plan_refuses_another_league_before_solving(planned, tmp_path):
+    import shutil
+
+    out = tmp_path / "season"
+    shutil.copytree(planned, out)
+    before = {p: p.read_bytes() for p in out.rglob("*") if p.is_file()}
+    started = runner.invoke(app, ["plan", str(sample_path("evening_hall")), "--out", str(out)])
+    assert started.exit_code == 2
+    assert "another league" in started.stderr and "--force" in started.stderr
+    assert {p: p.read_bytes() for p in out.rglob("*") if p.is_file()} == before
+
+
+def test_old_option_and_key_names_of_the_time_limit_still_work(tmp_path):
+    result = runner.invoke(app, ["factor", "8", "--budget", "2", "--json"])
+    assert result.exit_code == 0
+    assert "--time-limit" in result.stderr
+    assert run("factor", "8", "--time-limit", "2", "--json").exit_code == 0
+    bad = runner.invoke(app, ["factor", "8", "--time-limit", "0"])
+    assert bad.exit_code == 2 and "--time-limit" in bad.stderr
+    text = sample_path("club_day").read_text(encoding="utf-8")
+    old = tmp_path / "old.toml"
+    old.write_text(text.replace("time_limit_seconds", "solve_seconds"), encoding="utf-8")
+    from scheduler.config import load_league
+
+    assert load_league(old).solve_seconds == 5
+    both = tmp_path / "both.toml"
+    both.write_text(
+        text.replace("time_limit_seconds = 5", "time_limit_seconds = 5\nsolve_seconds = 5"),
+        encoding="utf-8",
+    )
+    result = runner.invoke(app, ["plan", str(both), "--out", str(tmp_path / "s")])
+    assert result.exit_code == 2 and "solve_seconds" in result.stderr
+    assert not (tmp_path / "s").exists()
+
+
+# --- audit: --report places and closed pipes ---------------------------------------------------
+
+
+@pytest.fixture(scope="module")
+def planned(tmp_path_factory):
+    out = tmp_path_factory.mktemp("planned") / "season"
+    assert run("plan", str(sample_path("club_day")), "--out", str(out), "--quiet").exit_code == 0
+    return out
+
+
+def test_audit_report_problems_exit_2(planned, tmp_path):
+    schedule = planned / "fixtures.csv"
+    not_a_folder = tmp_path / "file.txt"
+    not_a_folder.write_text("x")
+    for place, words in [
+        (tmp_path, "is a folder"),
+        (tmp_path / "missing" / "r.html", "does not exist"),
+        (not_a_folder / "r.html", "is not a folder"),
+        (schedule, "overwrite the audited file"),
+    ]:
+        result = runner.invoke(app, ["audit", str(schedule), "--report", str(place)])
+        assert result.exit_code == 2, (place, result.stderr)
+        assert "--report" in result.stderr and words in result.stderr
+
+
+@pytest.mark.skipif(os.name != "posix", reason="POSIX pipes")
+@pytest.mark.parametrize("args", [["audit", "fixtures.csv"], ["audit", "fixtures.csv", "--json"],
+                                  ["factor", "10"]])  # fmt: skip
+def test_closed_stdout_is_not_an_error(planned, args):
+    """``scheduler audit f.csv | head -1``: the reader closes the pipe; a valid schedule still
+    exits 0 (EPIPE, POSIX write(2); Python raises BrokenPipeError)."""
+    reader, writer = os.pipe()
+    os.close(reader)  # closed before the first write: every write fails with EPIPE
+    try:
+        done = subprocess.run(
+            [sys.executable, "-m", "scheduler.cli", *args], cwd=planned, stdout=writer,
+            stderr=subprocess.PIPE, env={**os.environ, "PYTHONPATH": str(ROOT)}, timeout=120,
+        )  # fmt: skip
+    finally:
+        os.close(writer)
+    assert done.returncode == 0, done.stderr.decode()
+    assert b"Traceback" not in done.stderr
+
+
+@pytest.mark.skipif(os.name != "posix", reason="POSIX pipes")
+def test_closed_stdout_keeps_the_invalid_verdict(tmp_path):
+    bad = tmp_path / "bad.csv"
+    bad.write_text("round,home,away\n1,A,B\n1,A,C\n", encoding="utf-8")
+    reader, writer = os.pipe()
+    os.close(reader)
+    try:
+        done = subprocess.run(
+            [sys.executable, "-m", "scheduler.cli", "audit", str(bad)], stdout=writer,
+            stderr=subprocess.PIPE, env={**os.environ, "PYTHONPATH": str(ROOT)}, timeout=120,
+        )  # fmt: skip
+    finally:
+        os.close(writer)
+    assert done.returncode in (1, 2), done.stderr.decode()

@@ -26,6 +26,7 @@ from ortools.sat.python import cp_model
 from scheduler.balance.timetable import SolveLimits, Timetable, configure
 from scheduler.config.model import League
 from scheduler.errors import InfeasibleError
+from scheduler.interrupt import solve_interruptibly
 
 
 @dataclass(frozen=True)
@@ -199,7 +200,7 @@ def assign_places(league: League, tt: Timetable, limits: SolveLimits) -> Placeme
                            start_value.get("slot"), "optimal")
     solver = cp_model.CpSolver()
     configure(solver, limits)
-    status = solver.Solve(m)
+    status = solve_interruptibly(solver, m)
     if status == cp_model.INFEASIBLE:
         raise InfeasibleError(
             "the courts and time slots cannot hold the games of some match day",
@@ -212,7 +213,8 @@ def assign_places(league: League, tt: Timetable, limits: SolveLimits) -> Placeme
                        "feasible")
     if status not in (cp_model.OPTIMAL, cp_model.FEASIBLE):
         raise InfeasibleError("no assignment of courts and time slots was found in the time "
-                              "limit; allow more solve_seconds", [])
+                              "limit; allow more time (time_limit_seconds in the league file, or "
+                              "--time-limit)", [])
     chosen = {}
     for (s, i, p), lit in x.items():
         if solver.BooleanValue(lit):

@@ -45,6 +45,7 @@ from scheduler.balance.solver import SolveLimits, configure
 from scheduler.calendar import days_needed, kickoff, match_days
 from scheduler.config.model import League
 from scheduler.errors import InfeasibleError, InputError
+from scheduler.interrupt import solve_interruptibly
 from scheduler.season import Fixture
 
 WEEKDAY_NAMES = ("Monday", "Tuesday", "Wednesday", "Thursday", "Friday", "Saturday", "Sunday")
@@ -508,7 +509,7 @@ class RepairModel:
         m.Minimize(changed)
         solver = cp_model.CpSolver()
         configure(solver, limits)
-        status = solver.Solve(m)
+        status = solve_interruptibly(solver, m)
         seconds = proof_seconds = solver.WallTime()
         if status == cp_model.INFEASIBLE:
             raise InfeasibleError("no re-plan keeps every rule", [])
@@ -544,7 +545,7 @@ class RepairModel:
         second = cp_model.CpSolver()
         configure(second, SolveLimits(max(1.0, min(5.0, limits.deterministic / 4)), limits.wall,
                                       limits.seed))
-        status2 = second.Solve(m)
+        status2 = solve_interruptibly(second, m)
         notes = []
         use = second if status2 in (cp_model.OPTIMAL, cp_model.FEASIBLE) else solver
         seconds += second.WallTime()
@@ -609,7 +610,7 @@ class RepairModel:
         self.book.assume_all()
         solver = cp_model.CpSolver()
         configure(solver, limits)
-        status = solver.Solve(self.model)
+        status = solve_interruptibly(solver, self.model)
         if status != cp_model.INFEASIBLE:
             return InfeasibleError("no re-plan was found within the time limit", [])
 
@@ -619,7 +620,7 @@ class RepairModel:
             trial = cp_model.CpSolver()
             configure(trial, SolveLimits(min(limits.deterministic, 2.0), min(limits.wall, 10.0),
                                          limits.seed))
-            return trial.Solve(self.model) == cp_model.INFEASIBLE
+            return solve_interruptibly(trial, self.model) == cp_model.INFEASIBLE
 
         error = explain(self.book, solver, still,
                         what="the remaining games cannot be placed after "
@@ -644,7 +645,7 @@ def is_feasible(problem: RepairProblem, limits: SolveLimits) -> bool:
         return False
     solver = cp_model.CpSolver()
     configure(solver, limits)
-    return solver.Solve(model.model) in (cp_model.OPTIMAL, cp_model.FEASIBLE)
+    return solve_interruptibly(solver, model.model) in (cp_model.OPTIMAL, cp_model.FEASIBLE)
 
 
 def relaxations(problem: RepairProblem, limits: SolveLimits) -> list[str]:

@@ -42,6 +42,7 @@ from scheduler.errors import InfeasibleError
 from scheduler.factorization.circle import circle_rounds
 from scheduler.factorization.model import Factorization
 from scheduler.home_away import total_breaks
+from scheduler.interrupt import solve_interruptibly
 from scheduler.rules import RULES
 from scheduler.rules.venue_capacity import capacity_groups
 
@@ -366,7 +367,7 @@ class TimetableModel:
         if self.searched:  # the order search took half of the deterministic budget
             limits = SolveLimits(max(0.5, limits.deterministic / 2), limits.wall, limits.seed)
         configure(solver, limits)
-        status = solver.Solve(self.cp)
+        status = solve_interruptibly(solver, self.cp)
         if status == cp_model.INFEASIBLE and not explain_failure:
             raise InfeasibleError("infeasible on the earliest match days", [])
         if status == cp_model.INFEASIBLE:
@@ -394,7 +395,7 @@ class TimetableModel:
         # generous safety net, so that a loaded machine does not change the explanation
         configure(solver, SolveLimits(min(limits.deterministic, 2.0), max(limits.wall, 30.0),
                                       limits.seed))
-        return solver.Solve(self.cp) == cp_model.INFEASIBLE
+        return solve_interruptibly(solver, self.cp) == cp_model.INFEASIBLE
 
     def _extract(self, solver: cp_model.CpSolver) -> dict:
         rounds = self.rounds_per_leg

@@ -93,6 +93,22 @@ def _parse(data: Mapping[str, Any], source: str) -> League:
     return league
 
 
+DEFAULT_TIME_LIMIT_SECONDS = 10.0
+
+
+def _time_limit(doc: LeagueFile, source: str) -> float:
+    """``league.time_limit_seconds``, or its old name ``solve_seconds``, or the default."""
+    new, old = doc.league.time_limit_seconds, doc.league.solve_seconds
+    if new is not None and old is not None:
+        raise ConfigError(
+            ["league.solve_seconds: the old name of league.time_limit_seconds; give only "
+             "time_limit_seconds"],
+            path=source,
+        )
+    chosen = new if new is not None else old
+    return float(chosen) if chosen is not None else DEFAULT_TIME_LIMIT_SECONDS
+
+
 def _within(days: Iterable[dt.date], first: dt.date | None, last: dt.date | None) -> tuple:
     return tuple(
         sorted({d for d in days if (first is None or d >= first) and (last is None or d <= last)})
@@ -201,6 +217,6 @@ def build_league(doc: LeagueFile, source: str | None = None) -> League:
         rules=rules,
         priorities=priorities_of(doc),
         seed=doc.league.seed,
-        solve_seconds=float(doc.league.solve_seconds),
+        solve_seconds=_time_limit(doc, source),
         source=source,
     )

@@ -131,7 +131,7 @@ class League:
     rules: Rules = field(default_factory=Rules)
     priorities: Priorities = field(default_factory=Priorities)
     seed: int = 0
-    solve_seconds: float = 10.0
+    solve_seconds: float = 10.0  # the league file's time_limit_seconds (old name: solve_seconds)
     source: str | None = None
 
     @property

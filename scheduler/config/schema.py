@@ -259,7 +259,9 @@ class LeagueSection(Section):
     season: Annotated[Text, BeforeValidator(_season)]
     timezone: Text
     seed: NonNegative = 0
-    solve_seconds: Annotated[float, Field(gt=0, le=86400)] = 10.0
+    time_limit_seconds: Annotated[float, Field(gt=0, le=86400)] | None = None
+    solve_seconds: Annotated[float, Field(gt=0, le=86400)] | None = None
+    """Old name of ``time_limit_seconds``, still read."""
 
 
 class FormatSection(Section):

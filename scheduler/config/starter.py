@@ -1,7 +1,9 @@
-"""The commented starter league file that ``scheduler new`` writes.
+"""The commented starter league file that ``scheduler new`` writes, in TOML or YAML.
 
-The text is the shipped template ``templates/league.toml``: a complete, valid league of invented
-clubs with every option explained.
+The text is a shipped template: ``templates/league.toml`` or ``templates/league.yaml``, the same
+complete, valid league of invented clubs with every option explained (a test checks that both
+give the same league). The file name's ending chooses the format; any other ending is refused,
+because ``scheduler plan`` reads only these.
 """
 
 from __future__ import annotations
@@ -12,29 +14,84 @@ import tempfile
 from pathlib import Path
 
 from scheduler.config.resources import template_path
-from scheduler.errors import OutputError
+from scheduler.errors import InputError, OutputError
 
 STARTER_TEMPLATE = "league.toml"
+STARTER_TEMPLATES = {".toml": "league.toml", ".yaml": "league.yaml", ".yml": "league.yaml"}
+"""File ending -> shipped template."""
 
 
-def starter_config_text() -> str:
-    """The starter league file, as text."""
-    return template_path(STARTER_TEMPLATE).read_text(encoding="utf-8")
+def starter_config_text(kind: str = ".toml") -> str:
+    """The starter league file, as text, for the ending ``kind`` (``.toml``, ``.yaml``, ``.yml``).
+
+    Parameters
+    ----------
+    kind
+        The file ending, with its dot; letter case does not matter.
+
+    Returns
+    -------
+    str
+        The commented starter file.
+
+    Raises
+    ------
+    InputError
+        For any other ending.
+
+    Examples
+    --------
+    >>> starter_config_text(".yaml").startswith("# League file")
+    True
+    """
+    name = STARTER_TEMPLATES.get(kind.lower())
+    if name is None:
+        raise InputError(
+            f"a league file must end in .toml, .yaml or .yml, not {kind or 'nothing'!r}"
+        )
+    return template_path(name).read_text(encoding="utf-8")
 
 
 def write_starter_config(path: str | Path) -> Path:
     """Write the starter league file to ``path``; never overwrites an existing file.
 
-    The file is written to a temporary file in the same folder and then moved into place with
+    The ending of ``path`` chooses the format (``.toml``, or ``.yaml``/``.yml``). The file is
+    written to a temporary file in the same folder and then moved into place with
     :func:`os.replace`, so a reader never sees half a file.
+
+    Parameters
+    ----------
+    path
+        Where to write the file.
+
+    Returns
+    -------
+    Path
+        ``path``.
+
+    Raises
+    ------
+    InputError
+        For an ending other than ``.toml``, ``.yaml`` or ``.yml`` (nothing is written).
+    OutputError
+        When the file exists or cannot be written.
+
+    Examples
+    --------
+    >>> import tempfile, pathlib
+    >>> write_starter_config(pathlib.Path(tempfile.mkdtemp()) / "league.yaml").suffix
+    '.yaml'
     """
     target = Path(path)
+    try:
+        text = starter_config_text(target.suffix)
+    except InputError as exc:
+        raise InputError(str(exc), location=str(target)) from None
     if target.exists():
         raise OutputError(f"{target}: the file already exists; choose another name or remove it")
     folder = target.parent if str(target.parent) else Path(".")
     if not folder.is_dir():
         raise OutputError(f"{target}: the folder {folder} does not exist")
-    text = starter_config_text()
     try:
         fd, temp_name = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".tmp", dir=folder)
     except OSError as exc:
@@ -42,6 +99,9 @@ def write_starter_config(path: str | Path) -> Path:
     try:
         with os.fdopen(fd, "w", encoding="utf-8", newline="\n") as handle:
             handle.write(text)
+        mask = os.umask(0)
+        os.umask(mask)
+        os.chmod(temp_name, 0o666 & ~mask)  # mkstemp makes 0600; an ordinary new file instead
         if target.exists():
             raise OutputError(f"{target}: the file already exists; choose another name")
         os.replace(temp_name, target)

@@ -6,7 +6,8 @@ themselves, they write what ``scheduler.fairness`` measured.
 * ``xlsx``: :func:`write_workbook` (openpyxl; identical bytes for the same season)
 * ``ics``: :func:`league_calendar`, :func:`team_calendar` (RFC 5545, stable UIDs, SEQUENCE)
 * ``report``: :func:`render_report` (one self-contained HTML page)
-* ``bundle``: :func:`write_season_outputs` (the output folder, every file written atomically)
+* ``bundle``: :func:`write_season_outputs` (the season folder, replaced as a whole)
+* ``manifest``: the list of files the planner wrote, with their SHA-256
 * ``safety``: formula-injection defence, safe file names, atomic writes
 * ``season_json``: the season file (its reading side is ``scheduler.audit.season_file``)
 """

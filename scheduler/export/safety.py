@@ -162,7 +162,7 @@ def atomic_write_bytes(path: str | os.PathLike[str], data: bytes) -> Path:
         with contextlib.suppress(OSError):
             os.unlink(tmp_name)
         raise
-    _fsync_folder(folder)
+    fsync_folder(folder)
     return target
 
 
@@ -181,8 +181,12 @@ def _file_mode(target: Path) -> int:
         return 0o666 & ~mask
 
 
-def _fsync_folder(folder: Path) -> None:
-    """Make the rename durable on POSIX; folders cannot be opened this way on Windows."""
+def fsync_folder(folder: str | os.PathLike[str]) -> None:
+    """``fsync`` a folder, so that renames and new entries in it are durable (POSIX only).
+
+    Folders cannot be opened this way on Windows; there, and where the file system refuses, this
+    does nothing.
+    """
     if os.name != "posix":
         return
     try:

@@ -7,10 +7,17 @@ date and time cells with number formats, so they sort and filter as dates. Every
 frozen header row, an autofilter where it is a table, column widths fitted to the text, the
 header row repeated on printed pages and a landscape, fit-to-width page setup.
 
-User text (team, venue, court and slot names) goes through
-:func:`~scheduler.export.safety.neutralise_cell` (formula-injection defence, common practice
-after OWASP "CSV Injection"), characters that XML 1.0 forbids are replaced by U+FFFD and line
-breaks are written as LF.
+User text (team, venue, court and slot names) is stored exactly as typed, as a string cell
+(``t="inlineStr"`` in ECMA-376 SpreadsheetML): a spreadsheet program shows a string cell as text
+and never evaluates it, so a name such as ``=Hill United`` needs no apostrophe in front (a
+formula would be an ``<f>`` element, which this workbook never holds). Cells whose text starts
+like a formula (``=``, ``+``, ``-``, ``@``; OWASP "CSV Injection", common practice) also get the
+``quotePrefix`` cell style, the mark a spreadsheet program sets itself when a user types
+``'=...``, so that editing such a cell keeps it text. See :func:`plain_text_cells` and
+``docs/season-folder.md``. Characters that XML 1.0 forbids are replaced by U+FFFD and line
+breaks are written as LF. Only a name that itself starts with an apostrophe followed by such a
+character gets one more apostrophe, so that readers that undo the CSV neutralisation
+(:func:`~scheduler.export.safety.restore_cell`) give the name back unchanged.
 
 Byte-identical output: openpyxl stamps ``modified`` with the clock and the zip members with the
 local time. :func:`workbook_bytes` sets the document properties to a time derived from the season
@@ -36,7 +43,13 @@ from openpyxl.writer.excel import ExcelWriter
 
 from scheduler.export.csv_out import fixture_rows
 from scheduler.export.ics import plan_stamp
-from scheduler.export.safety import atomic_write_bytes, neutralise_cell, safe_sheet_title
+from scheduler.export.safety import (
+    FORMULA_TRIGGERS,
+    atomic_write_bytes,
+    neutralise_cell,
+    restore_cell,
+    safe_sheet_title,
+)
 from scheduler.fairness.names import figure_lines, plain_source
 from scheduler.season import Season
 
@@ -57,14 +70,58 @@ FIXTURE_HEADERS = ("Round", "Leg", "Date", "Kick-off", "Home", "Away", "Venue", 
 
 
 def user_text(value: str | None) -> str | None:
-    """A cell of user text: neutralised and free of characters XML 1.0 cannot hold.
+    """A cell of user text: as typed, free of characters XML 1.0 cannot hold.
 
-    Line breaks become LF (an XML reader turns a raw CR into LF anyway, XML 1.0 §2.11).
+    Line breaks become LF (an XML reader turns a raw CR into LF anyway, XML 1.0 §2.11). Text that
+    starts like a formula is kept as it is; :func:`plain_text_cells` makes its cell a string cell.
+    Only text that already looks neutralised (an apostrophe, then a formula character) is
+    quoted once more, so that ``restore_cell`` gives it back unchanged.
+
+    Examples
+    --------
+    >>> user_text("=Hill United")
+    '=Hill United'
+    >>> user_text("'=x")
+    "''=x"
     """
     if value is None:
         return None
-    text = value.replace("\r\n", "\n").replace("\r", "\n")
-    return neutralise_cell(ILLEGAL_CHARACTERS_RE.sub("\ufffd", text))
+    text = ILLEGAL_CHARACTERS_RE.sub("\ufffd", value.replace("\r\n", "\n").replace("\r", "\n"))
+    if restore_cell(text) != text:
+        return neutralise_cell(text)
+    return text
+
+
+def plain_text_cells(wb: Workbook) -> int:
+    """Make every cell of text that starts like a formula a plain string cell.
+
+    openpyxl turns any text starting with ``=`` into a formula cell (data type ``"f"``). This
+    workbook holds no formulas of its own, so such cells, and cells of text starting with
+    another formula character, get data type ``"s"`` (string, written as ``inlineStr``) and the
+    ``quotePrefix`` style, which a spreadsheet program shows as the text itself.
+
+    Returns
+    -------
+    int
+        How many cells were marked.
+
+    Examples
+    --------
+    >>> wb = Workbook(); wb.active["A1"] = "=1+1"; plain_text_cells(wb), wb.active["A1"].data_type
+    (1, 's')
+    """
+    marked = 0
+    for ws in wb.worksheets:
+        for row in ws.iter_rows():
+            for cell in row:
+                value = cell.value
+                if isinstance(value, str) and (
+                    cell.data_type == "f" or value.startswith(FORMULA_TRIGGERS)
+                ):
+                    cell.data_type = "s"
+                    cell.quotePrefix = True
+                    marked += 1
+    return marked
 
 
 class _FixedTimeZip(zipfile.ZipFile):
@@ -465,6 +522,7 @@ def build_workbook(
     props.title = user_text(f"{season.league} {season.season_id}")
     props.created = stamp
     props.modified = stamp
+    plain_text_cells(wb)
     return wb
 
 

@@ -10,6 +10,7 @@ from __future__ import annotations
 import csv
 import io
 import re
+import zipfile
 from datetime import date, datetime, time
 
 import openpyxl
@@ -148,14 +149,26 @@ def test_workbook_byes_shown():
     assert byes == sum(len(t) for t in odd.byes.values()) == odd.rounds
 
 
-def test_workbook_cells_are_inert(xlsx_path):
+def test_workbook_cells_are_inert(xlsx_path, season):
+    # Formula-like names are stored as typed, in plain string cells (openpyxl data type "s",
+    # ECMA-376 inlineStr) with the quotePrefix style; never as formulas, never with a visible
+    # apostrophe.
     wb = openpyxl.load_workbook(xlsx_path)
+    formula_like = set()
     for ws in wb.worksheets:
         for row in ws.iter_rows():
             for cell in row:
                 assert cell.data_type != "f", (ws.title, cell.coordinate)
+                if isinstance(cell.value, str) and cell.value.startswith(TRIGGERS):
+                    assert cell.data_type == "s" and cell.quotePrefix, (ws.title, cell.value)
+                    formula_like.add(cell.value)
                 if isinstance(cell.value, str):
-                    assert not cell.value.startswith(TRIGGERS), (ws.title, cell.value)
+                    assert not cell.value.startswith("'"), (ws.title, cell.value)
+    assert {FORMULA, AT_SUM, "-Minus"} <= formula_like
+    with zipfile.ZipFile(xlsx_path) as archive:
+        for name in archive.namelist():
+            if name.startswith("xl/worksheets/"):
+                assert b"<f>" not in archive.read(name) and b"<f " not in archive.read(name)
 
 
 def test_workbook_bytes_identical(season):

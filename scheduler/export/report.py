@@ -518,7 +518,7 @@ def _rules(season: Season, fr) -> list[RuleLine]:
                 True,
             )
         )
-    for check in fr.rule_checks:
+    for check in fr.rule_checks or ():
         rule = check.statement
         if season.home_meaning == "side":
             rule = rule.replace("home games", f"{season.side_labels[0]} games")

@@ -37,7 +37,8 @@ def test_plan_prints_the_checklist_and_no_missing_figure(planned):
     assert "None" not in text
     _, season_json = planned
     report = (season_json.parent / "report.html").read_text(encoding="utf-8")
-    assert "Rules of this league" in report
+    assert "Rules this schedule keeps" in report
+    assert "at least 5 rest days between two games of a team" in report
 
 
 def test_the_planned_schedule_keeps_its_league_rules(planned):

@@ -5,7 +5,7 @@
    Target: proven-optimal breaks in under 10 s on 2 cores.
 2. 16 teams on a perfect one-factorization (the engine's): fewest breaks found in 30 s against
    the n-2 lower bound of a single round robin (de Werra 1981); GK_16 (not perfect, 15 not
-   prime) reaches n-2 (the mixing/breaks trade-off of one-factorizations.md §7).
+   prime) reaches n-2 (the mixing/breaks trade-off of docs/one-factorizations.md §7).
 3. The same for 28 teams on the catalogue's perfect starter-induced factorization (Z_27) and for
    10 teams on Anderson's GA_10 (Anderson 1973), against n-2 and against GK_n.
 

@@ -13,7 +13,7 @@ one cycle because ``a - c`` generates ``Z_p``). For composite ``p`` it is a good
 starting point (e.g. 1656 of 2346 pairs perfect for ``K_70``).
 
 Reference: B. A. Anderson, "Finite topologies and Hamiltonian paths", J. Combin. Theory Ser. B
-14 (1973) 87-93 (the family GA_{2p}); labelling as in the project's reference notes §2.2, whose
+14 (1973) 87-93 (the family GA_{2p}); labelling as in docs/one-factorizations.md §2.2, whose
 exact match with Anderson's labelling is from memory. Perfection for prime ``p`` is re-checked
 by this project's tests with the independent verifier.
 """

@@ -1,7 +1,7 @@
 """Best available one-factorization when no perfect one is at hand: maximise perfect pairs.
 
-Used for orders such as 64, 66, 70 where no perfect one-factorization is known (reference notes
-§1.2) or none is in reach of the budget. Three phases, every result re-counted by the
+Used for orders such as 64, 66, 70 where no perfect one-factorization is known
+(docs/one-factorizations.md §1) or none is in reach of the budget. Three phases, every result re-counted by the
 independent verifier:
 
 1. **Baselines**: the circle GK_n (Kotzig 1964) and, for ``n = 2p`` with ``p`` odd, Anderson's
@@ -9,7 +9,8 @@ independent verifier:
 2. **Near-perfect starters**: the starter search of :mod:`scheduler.factorization.search`
    with an allowance of bad differences (a difference class ``g`` is bad when ``F_0 ∪ F_g``
    is not Hamiltonian). A starter with ``b`` bad classes in a group of order ``m`` gives
-   exactly ``m * ((m-1)/2 - b)`` perfect pairs (translation invariance, reference notes §3);
+   exactly ``m * ((m-1)/2 - b)`` perfect pairs (translation invariance,
+   docs/one-factorizations.md §3);
    the allowance is lowered each time a better starter is found.
 3. **Kempe-chain annealing**: exchanging two rounds' edges along one alternating cycle of
    their union keeps a one-factorization (the Kempe interchange used in edge-colouring

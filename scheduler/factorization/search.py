@@ -6,8 +6,8 @@ under a multiplier ``x -> u x`` (``S u = S``); such starters shrink the search s
 since multiplication by ``u`` maps ``F_g`` to ``F_{ug}``, only one ``g`` per orbit of
 ``<-1, u>`` needs a cycle check. Multiplier-invariant starters are a classical search device
 for starters and Room squares (J. H. Dinitz and D. R. Stinson, "Room squares and related
-designs", *Contemporary Design Theory*, Wiley 1992; the reference notes §5 describe restricted
-searches in structured spaces).
+designs", *Contemporary Design Theory*, Wiley 1992; docs/one-factorizations.md §5 describes
+restricted searches in structured spaces).
 
 The element paired next is always the smallest unpaired one; its partners are tried in a
 random order fixed by the seed. Each partial starter keeps the partial unions ``F_0 ∪ F_g`` as

@@ -169,7 +169,7 @@ def _held_karp_min_breaks(masks) -> int:
 def test_search_reaches_the_exact_optimum_of_ga10():
     # Over all 9! orders and all venues, Anderson's perfect GA_10 needs 10 breaks (Held-Karp
     # above; computed), so de Werra's n-2 = 8 is out of reach for it (cf. the probe in
-    # one-factorizations.md §7); the order search finds 10.
+    # docs/one-factorizations.md §7); the order search finds 10.
     n = 10
     rounds = anderson_factorization(n).rounds
     paths = BreakPaths(rounds, n)

@@ -295,7 +295,7 @@ def test_de_werra_break_bound():
 
 def test_scheme_separation():
     """English scheme: the last-round pairs of leg 1 meet again straight away (0 rounds between);
-    Goossens & Spieksma 2012, J. Scheduling 15, via the reference notes' index maps."""
+    Goossens & Spieksma 2012, J. Scheduling 15, via the index maps of docs/leg-schemes.md."""
     data = county()
     data["format"]["scheme"] = "english"
     data["rules"]["min_separation"] = 1

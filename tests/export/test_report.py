@@ -90,7 +90,7 @@ def test_rules_first_then_measured_figures(page):
 def test_carry_over_bounds_match_the_literature(page, fairness):
     # Russell (1980): lower bound n(n-1) = 56 for n = 8; Lambrechts et al. (2018): the circle
     # method gives the maximum, (n-1)(n^2-6n+12) = 196 for n = 8 (check values of
-    # shared/reference/fairness.md §2). Our sample is a circle-method schedule.
+    # docs/fairness.md §2). Our sample is a circle-method schedule.
     assert fairness.carry_over_lower_bound == 56
     assert fairness.carry_over_upper_bound == 196
     assert fairness.carry_over_value == 196

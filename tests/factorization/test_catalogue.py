@@ -2,7 +2,7 @@
 
 Each entry must give a perfect one-factorization according to the independent verifier
 (definition: Kotzig 1964; Wallis 1997). That these orders have perfect one-factorizations is
-known from the literature (reference notes §1.2: K_16, K_28, K_36 Seah & Stinson 1988, K_50
+known from the literature (docs/one-factorizations.md §1: K_16, K_28, K_36 Seah & Stinson 1988, K_50
 Ihrig, Seah & Stinson 1987; attributions from memory).
 """
 

@@ -5,7 +5,7 @@ W. D. Wallis, *One-Factorizations*, Kluwer 1997, ch. 16: GK_n is perfect exactly
 prime, and F_i ∪ F_j is Hamiltonian iff gcd(j - i, n - 1) = 1 (x -> 2i - x then x -> 2j - x is
 translation by 2(j - i)). B. A. Anderson, J. Combin. Theory Ser. B 14 (1973): GA_2p is perfect
 for p prime. Non-perfection of GA_18, GA_30 and the composite counts are [computed] values of
-the project's reference notes §2.2, re-derived here.
+docs/one-factorizations.md §2.2, re-derived here.
 """
 
 from __future__ import annotations
@@ -54,7 +54,7 @@ def test_gk_pair_hamiltonian_iff_gcd_one(n):
 
 @pytest.mark.parametrize(
     ("n", "perfect", "pairs"),
-    # reference notes §2.1 table [computed]; also equal to m * phi(m) / 2
+    # docs/one-factorizations.md §2.1 table [computed]; also equal to m * phi(m) / 2
     [(16, 60, 105), (28, 243, 351), (36, 420, 595), (50, 1029, 1176), (64, 1134, 1953),
      (66, 1560, 2080), (70, 1518, 2346), (78, 2310, 2926)],
 )
@@ -76,7 +76,7 @@ def test_ga_perfect_for_odd_primes(p):
 
 @pytest.mark.parametrize(
     ("p", "perfect", "pairs"),
-    # reference notes §2.2 [computed]
+    # docs/one-factorizations.md §2.2 [computed]
     [(9, 102, 136), (15, 232, 406), (21, 492, 820), (35, 1656, 2346)],
 )
 def test_ga_composite_p_is_valid_but_not_perfect(p, perfect, pairs):
@@ -86,7 +86,7 @@ def test_ga_composite_p_is_valid_but_not_perfect(p, perfect, pairs):
 
 
 def test_ga_labelling_matches_the_definition():
-    """G_b contains x_b y_b; H_a = {x_i y_(i+a)} (reference notes §2.2)."""
+    """G_b contains x_b y_b; H_a = {x_i y_(i+a)} (docs/one-factorizations.md §2.2)."""
     p = 7
     f = anderson_factorization(2 * p)
     for b in range(p):
@@ -107,8 +107,8 @@ def _triangle_profile(f):
 
 
 def test_ga14_and_gk14_are_not_isomorphic():
-    """Both perfect, yet not isomorphic (reference notes §2.2 [computed] with another invariant;
-    re-derived here with the triangle profile)."""
+    """Both perfect, yet not isomorphic (docs/one-factorizations.md §2.2 [computed] with another
+    invariant; re-derived here with the triangle profile)."""
     ga = anderson_factorization(14)
     gk = circle_factorization(14)
     assert ga.certificate().perfect and gk.certificate().perfect

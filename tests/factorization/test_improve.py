@@ -1,6 +1,6 @@
 """Best available factorizations for orders without a known perfect one.
 
-Baselines from the reference notes §2 ([computed], re-derived in test_constructions): GK_64
+Baselines from docs/one-factorizations.md §2 ([computed], re-derived in test_constructions): GK_64
 has 1134/1953 perfect pairs, GA_70 1656/2346. The local search must stay a valid
 one-factorization (Kempe interchanges keep one) and report the verifier's own count.
 """

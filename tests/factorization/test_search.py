@@ -1,7 +1,8 @@
 """The randomised perfect-starter search, checked against the exhaustive enumerator.
 
 Reference values: the 8 perfect starters of Z_15 and the absence of any in Z_9 and Z_3 x Z_3
-are [computed] in the reference notes §3 and re-derived by ``count_starters`` (test_starters);
+are [computed] in docs/one-factorizations.md §3 and re-derived by ``count_starters``
+(test_starters);
 every result here is re-checked by the independent verifier.
 """
 

@@ -2,7 +2,7 @@
 
 Sources: OEIS A006204 (number of starters in Z_(2k+1)): 1, 1, 3, 9, 25, 133, 631, 3857, 25905
 for Z_3 .. Z_19. Perfect-starter counts (Z_7: 1, Z_9: 0, Z_3 x Z_3: 0, Z_11: 3, Z_13: 1,
-Z_15: 8, Z_17: 17) are [computed] values of the reference notes §3, re-derived here by the
+Z_15: 8, Z_17: 17) are [computed] values of docs/one-factorizations.md §3, re-derived here by the
 exhaustive enumerator. Translation invariance of a starter-induced factorization (perfect pairs
 = m * number of good difference classes) is checked against the independent verifier. Finite
 field facts: R. Lidl and H. Niederreiter, *Finite Fields* (1997): GF(q)* is cyclic of order

@@ -4,7 +4,7 @@ a fixed point).
 
 Outside checks: OEIS A006204 (starters in ``Z_{2k+1}``: 9 in ``Z_9``, 25 in ``Z_11``, 133 in
 ``Z_13``, 631 in ``Z_15``), which both generalisations must reproduce in their abelian /
-one-cycle special case; the perfect-starter counts of the reference notes §3 (computed, and
+one-cycle special case; the perfect-starter counts of docs/one-factorizations.md §3 (computed, and
 re-derived by ``test_starters``): 0 in ``Z_9``, 3 in ``Z_11``, 1 in ``Z_13``, 8 in ``Z_15``;
 networkx for matchings and Hamiltonian unions; the project's independent verifier
 (``verify_rounds``) for every factorization. The exhaustive Python enumerators and the numba

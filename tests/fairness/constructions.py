@@ -2,7 +2,7 @@
 reference computations of the figures (deliberately loop-by-loop, no numpy).
 
 * :func:`canonical_rounds`: the circle method with de Werra's home/away rule, exactly as the
-  project notes (fairness.md section 1, "Canonical schedule") describe it; de Werra,
+  project notes (docs/fairness.md §1, "Canonical schedule") describe it; de Werra,
   "Scheduling in sports", Annals of Discrete Mathematics 11 (1981) 381-395.
 * :func:`gf_rounds`: Russell's balanced construction over GF(2^k): round r pairs x with
   x + alpha^r (K. G. Russell, Biometrika 67 (1980) 127-131; as written out in the notes).

@@ -1,8 +1,8 @@
 """Best available one-factorization when no perfect one is at hand: maximise perfect pairs.
 
 Used for orders such as 64, 66, 70 where no perfect one-factorization is known
-(docs/one-factorizations.md §1) or none is in reach of the budget. Three phases, every result re-counted by the
-independent verifier:
+(docs/one-factorizations.md §1) or none is in reach of the budget. Three phases, every result
+re-counted by the independent verifier:
 
 1. **Baselines**: the circle GK_n (Kotzig 1964) and, for ``n = 2p`` with ``p`` odd, Anderson's
    GA_n (Anderson 1973; imperfect for composite ``p`` but often better than GK_n).

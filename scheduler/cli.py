@@ -250,6 +250,51 @@ def plan(
     out.print(f"wrote {len(written)} files to {out_dir}")
 
 
+@app.command("plan-divisions")
+@_guarded
+def plan_divisions(
+    config: Annotated[Path, typer.Argument(help="Federation file of several divisions.")],
+    out_dir: Annotated[Path, typer.Option("--out", "-o", help="Output folder.")] = Path("season"),
+    workers: Annotated[
+        int, typer.Option(help="Worker processes on this machine (without --cluster).")
+    ] = 2,
+    cluster: Annotated[
+        str | None, typer.Option(help="Address of a running Dask scheduler (tcp://host:8786).")
+    ] = None,
+    time_limit: Annotated[
+        float | None, typer.Option(help="Solver seconds per division (overrides the file).")
+    ] = None,
+    force: Annotated[
+        bool, typer.Option(help="Replace an output folder that holds something else.")
+    ] = False,
+    quiet: Annotated[bool, typer.Option(help="Print only the output folder.")] = False,
+) -> None:
+    """Plan every division of a federation file (units of divisions in parallel, on Dask)."""
+    from scheduler.config.federation import load_federation
+    from scheduler.divisions.execute import plan_federation
+    from scheduler.divisions.outputs import write_federation_outputs
+
+    if time_limit is not None and time_limit <= 0:
+        raise InputError(f"--time-limit must be a positive number of seconds, got {time_limit}")
+    federation = load_federation(config)
+    with _progress(not quiet) as progress:
+        result = plan_federation(federation, workers=workers, cluster=cluster,
+                                 time_limit=time_limit, progress=progress)
+    if not result.check.valid:
+        raise RuntimeError("the plan breaks rules across divisions: "
+                           + "; ".join(result.check.problems[:5]))
+    write_federation_outputs(result, out_dir, force=force, config_path=config)
+    if quiet:
+        out.print(str(out_dir))
+        return
+    out.print(f"{len(result.plans)} divisions in {len(result.units)} units: "
+              f"{result.wall_seconds:.1f} s (units' own time {result.solve_seconds:.1f} s)")
+    for figure in result.check.complement:
+        out.print(f"complementary {_plain(figure.ground)}: {figure.complementary_days} of "
+                  f"{figure.common_days} common match days")
+    out.print(f"wrote {out_dir}/index.html and a folder per division")
+
+
 @app.command()
 @_guarded
 def audit(

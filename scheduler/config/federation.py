@@ -349,7 +349,7 @@ def _division_data(doc: FederationFile, index: int, teams: list[tuple[str, Raw]]
     data: Raw = {
         "league": league,
         "format": dict(d.format),
-        "calendar": {**doc.calendar, **d.calendar},
+        "calendar": _calendar(doc.calendar, d.calendar),
         "venues": [venue_data[name] for name in used if name in venue_data],
         "teams": league_teams,
         "rules": rules,
@@ -358,7 +358,18 @@ def _division_data(doc: FederationFile, index: int, teams: list[tuple[str, Raw]]
     return data, locations, problems
 
 
-def _relocate(problem: str, index: int, locations: list[str], own_calendar: bool) -> str:
+def _calendar(shared: Raw, own: Raw) -> Raw:
+    """A division's calendar: the shared one with the division's options on top; a division
+    that lists its own ``dates`` drops the shared weekday pattern (start, end, weekdays)."""
+    base = dict(shared)
+    if "dates" in own:
+        for key in ("weekdays", "start", "end"):
+            base.pop(key, None)
+    return {**base, **own}
+
+
+def _relocate(problem: str, index: int, locations: list[str], own_calendar: bool,
+              venue_index: list[int]) -> str:
     """A league problem in the federation file's terms."""
     if problem.startswith("league."):
         return "federation." + problem[len("league."):]
@@ -368,8 +379,10 @@ def _relocate(problem: str, index: int, locations: list[str], own_calendar: bool
         number, _, rest = problem[len("teams["):].partition("]")
         if number.isdigit() and int(number) < len(locations):
             return locations[int(number)] + rest
-    if problem.startswith("venues"):
-        return f"divisions[{index}] ({problem})"
+    if problem.startswith("venues["):
+        number, _, rest = problem[len("venues["):].partition("]")
+        if number.isdigit() and int(number) < len(venue_index):
+            return f"venues[{venue_index[int(number)]}]{rest} (in division {index})"
     return f"divisions[{index}].{problem}"
 
 
@@ -396,7 +409,8 @@ def _build(doc: FederationFile, source: str) -> Federation:
             league = parse_league(data, source=f"{source} divisions[{i}]")
         except ConfigError as exc:
             own = bool(d.calendar)
-            problems.extend(_relocate(p, i, locations, own) for p in exc.problems)
+            used = [venue_names.index(v["name"].strip()) for v in data["venues"]]
+            problems.extend(_relocate(p, i, locations, own, used) for p in exc.problems)
             continue
         divisions.append(Division(d.name, league))
     all_teams = list(team_home)

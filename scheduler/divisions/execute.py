@@ -28,7 +28,7 @@ from scheduler.divisions.grouping import Unit, units_of
 from scheduler.divisions.plan import DivisionPlan, UnitResult, plan_unit
 from scheduler.errors import InfeasibleError, InputError
 
-CONNECT_SECONDS = 8
+CONNECT_SECONDS = 5
 """How long to wait for a Dask scheduler at an address before giving up (under 10 s)."""
 
 

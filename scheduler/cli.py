@@ -120,10 +120,23 @@ def _parse_teams(text: str) -> int:
 @_guarded
 def new(
     path: Annotated[Path, typer.Argument(help="Where to write the starter league file (.toml).")],
+    teams: Annotated[
+        Path | None,
+        typer.Option(help="Build the file from a team list (.xlsx or .csv): team, code, "
+                     "division, home ground, unavailable dates."),
+    ] = None,
 ) -> None:
     """Write a commented starter league config to PATH (never overwrites a file)."""
     from scheduler.config import write_starter_config
 
+    if teams is not None:
+        from scheduler.config.teamlist import build_from_team_list, write_new_file
+
+        written = write_new_file(path, build_from_team_list(teams))
+        command = "plan-divisions" if "[federation]" in written.read_text("utf-8") else "plan"
+        out.print(f"wrote {written}")
+        out.print(f"next: edit its calendar, then run  scheduler {command} {written} --out season")
+        return
     written = write_starter_config(path)
     out.print(f"wrote {written}")
     out.print(f"next: edit it, then run  scheduler plan {written} --out season")

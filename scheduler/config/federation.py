@@ -202,7 +202,7 @@ def load_federation(path: str | Path) -> Federation:
 
     Examples
     --------
-    >>> fed = load_federation("sample_leagues/federation.toml")  # doctest: +SKIP
+    >>> fed = load_federation("sample_leagues/divisions/federation.toml")  # doctest: +SKIP
     >>> len(fed.divisions) >= 12  # doctest: +SKIP
     True
     """

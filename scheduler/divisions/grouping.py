@@ -231,7 +231,7 @@ def units_of(fed: Federation, couplings: list[Coupling] | None = None) -> tuple[
     Examples
     --------
     >>> from scheduler.config.federation import load_federation  # doctest: +SKIP
-    >>> units = units_of(load_federation("sample_leagues/federation.toml"))  # doctest: +SKIP
+    >>> units = units_of(load_federation("sample_leagues/divisions/federation.toml"))  # doctest: +SKIP
     """
     graph = coupling_graph(fed, couplings)
     rank = {name: i for i, name in enumerate(fed.division_names)}

@@ -24,7 +24,7 @@ def _problems(text: str) -> list[str]:
 
 
 def test_sample_federation_meets_the_stated_size():
-    fed = load_federation(ROOT / "sample_leagues" / "federation.toml")
+    fed = load_federation(ROOT / "sample_leagues" / "divisions" / "federation.toml")
     sizes = [len(d.league.teams) for d in fed.divisions]
     assert len(sizes) >= 12 and all(6 <= s <= 16 for s in sizes)
     # grounds that host home teams of more than one division

@@ -114,7 +114,7 @@ SMALL_FEDERATION = textwrap.dedent(
 )
 
 
-@pytest.fixture
+@pytest.fixture(scope="session")
 def small_text() -> str:
     return SMALL_FEDERATION
 

@@ -135,7 +135,7 @@ def dask_processes():
             proc.terminate()
         for proc in reversed(procs):
             try:
-                proc.wait(timeout=10)
+                proc.wait(timeout=4)
             except subprocess.TimeoutExpired:
                 proc.kill()
                 proc.wait(timeout=10)

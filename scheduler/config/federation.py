@@ -245,7 +245,7 @@ def _shape_problems(exc: ValidationError) -> list[str]:
         loc = tuple(error.get("loc", ()))
         if error.get("type") == "extra_forbidden":
             model = model_at(loc, root=FederationFile)
-            names = list(model.model_fields) if model is not None else []
+            names = list(getattr(model, "model_fields", {}))
             hint = suggestion(str(loc[-1]), names) or (
                 f" (known: {', '.join(names)})" if names else "")
             what = "section" if len(loc) == 1 else "option"
@@ -423,9 +423,9 @@ def _build(doc: FederationFile, source: str) -> Federation:
         grounds.append(SharedGround(g.name or " / ".join(g.teams), tuple(g.teams),
                                     g.pattern))  # type: ignore[arg-type]
     groups = []
-    for i, g in enumerate(doc.player_groups):
-        problems.extend(_team_refs(f"player_groups[{i}]", g.teams, all_teams))
-        groups.append(PlayerGroup(g.name, tuple(g.teams)))
+    for i, entry in enumerate(doc.player_groups):
+        problems.extend(_team_refs(f"player_groups[{i}]", entry.teams, all_teams))
+        groups.append(PlayerGroup(entry.name, tuple(entry.teams)))
     clubs = []
     for i, c in enumerate(doc.clubs):
         problems.extend(_team_refs(f"clubs[{i}]", c.teams, all_teams))
@@ -434,8 +434,8 @@ def _build(doc: FederationFile, source: str) -> Federation:
     if problems:
         raise ConfigError(problems, path=source)
     division_of = {t: d.name for d in divisions for t in d.league.team_names}
-    for i, g in enumerate(grounds):
-        if len({division_of[t] for t in g.teams}) < len(g.teams):
+    for i, ground in enumerate(grounds):
+        if len({division_of[t] for t in ground.teams}) < len(ground.teams):
             problems.append(f"shared_grounds[{i}].teams: two of these teams are in one division; "
                             "a ground shared inside a division is that division's "
                             "rules.shared_grounds")
@@ -459,8 +459,9 @@ def _venue_of(divisions: list[Division], name: str, raw: Raw) -> list[Venue]:
         for v in d.league.venues:
             if v.name == name:
                 return [v]
-    v = VenueSection.model_validate(dict(raw))
-    return [Venue(name=name, courts=tuple(v.courts), slots=tuple(v.slots), address=v.address)]
+    section = VenueSection.model_validate(dict(raw))
+    return [Venue(name=name, courts=tuple(section.courts), slots=tuple(section.slots),
+                  address=section.address)]
 
 
 def _team_refs(where: str, teams: list[str], known: list[str]) -> list[str]:

@@ -21,6 +21,7 @@ import time as clock
 from collections.abc import Callable, Iterator
 from contextlib import contextmanager
 from dataclasses import dataclass
+from typing import Any
 
 from scheduler.config.federation import Federation
 from scheduler.divisions.check import CrossCheck, check_federation
@@ -51,7 +52,7 @@ class FederationPlan:
 
 
 @contextmanager
-def dask_client(workers: int = 2, cluster: str | None = None) -> Iterator[object]:
+def dask_client(workers: int = 2, cluster: str | None = None) -> Iterator[Any]:
     """A ``distributed.Client``: on an embedded local cluster, or connected to ``cluster``.
 
     Raises

@@ -198,8 +198,8 @@ def couplings_of(fed: Federation) -> list[Coupling]:
         out.append(Coupling("ground", g.name, divs, g.teams, g.pattern))
     out.extend(couplings)
     for p in fed.player_groups:
-        divs = list(dict.fromkeys(fed.division_of(t) for t in p.teams))
-        for group in same_day_groups(fed, divs):
+        members = list(dict.fromkeys(fed.division_of(t) for t in p.teams))
+        for group in same_day_groups(fed, members):
             teams = tuple(t for t in p.teams if fed.division_of(t) in group)
             out.append(Coupling("players", p.name, tuple(group), teams))
     return out
@@ -231,7 +231,9 @@ def units_of(fed: Federation, couplings: list[Coupling] | None = None) -> tuple[
     Examples
     --------
     >>> from scheduler.config.federation import load_federation  # doctest: +SKIP
-    >>> units = units_of(load_federation("sample_leagues/divisions/federation.toml"))  # doctest: +SKIP
+    >>> fed = load_federation("sample_leagues/divisions/federation.toml")  # doctest: +SKIP
+    >>> [u.key for u in units_of(fed)][:2]  # doctest: +SKIP
+    ['unit-01', 'unit-02']
     """
     graph = coupling_graph(fed, couplings)
     rank = {name: i for i, name in enumerate(fed.division_names)}

@@ -29,14 +29,20 @@ import zipfile
 from datetime import UTC, datetime
 from pathlib import Path
 
-from icalendar import Calendar
+from icalendar import Calendar, Component
 from openpyxl import Workbook
 
 from scheduler.divisions.execute import FederationPlan
 from scheduler.errors import OutputError
 from scheduler.export.bundle import write_season_outputs
 from scheduler.export.csv_out import fixture_rows
-from scheduler.export.ics import PRODID, ical_text, plan_calendar, team_calendar
+from scheduler.export.ics import (
+    PRODID,
+    CalendarState,
+    ical_text,
+    plan_calendar,
+    team_calendar,
+)
 from scheduler.export.safety import (
     atomic_write_bytes,
     atomic_write_text,
@@ -125,9 +131,9 @@ def _moment(component) -> tuple:
 def club_calendar(plan: FederationPlan, club: str, teams: tuple[str, ...]) -> bytes:
     """One calendar with the games (and byes) of every team of ``club``, in time order."""
     by_team = {t: p for p in plan.plans for t in p.season.teams}
-    events: dict[str, object] = {}
-    zones: dict[str, object] = {}
-    states: dict[str, object] = {}
+    events: dict[str, Component] = {}
+    zones: dict[str, Component] = {}
+    states: dict[str, CalendarState] = {}
     for team in teams:
         p = by_team[team]
         if p.name not in states:

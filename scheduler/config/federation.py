@@ -392,6 +392,7 @@ def _build(doc: FederationFile, source: str) -> Federation:
     by_division = _teams_by_division(doc, problems)
     divisions: list[Division] = []
     team_home: dict[str, str] = {}
+    team_division: dict[str, int] = {}
     for i, d in enumerate(doc.divisions):
         data, locations, early = _division_data(doc, i, by_division[i], venue_data)
         problems.extend(early)
@@ -399,10 +400,11 @@ def _build(doc: FederationFile, source: str) -> Federation:
             name = entry.get("name")
             if isinstance(name, str) and name.strip():
                 key = name.strip()
-                if key in team_home and not team_home[key].startswith(f"divisions[{i}]"):
+                if key in team_home and team_division[key] != i:
                     problems.append(f"{where}.name: {show(key)} is already a team of another "
                                     f"division ({team_home[key]}); a team plays in one division")
                 team_home.setdefault(key, f"{where.split('.')[0]} in division {d.name!r}")
+                team_division.setdefault(key, i)
         if early:
             continue
         try:

@@ -3,6 +3,7 @@ written). Messages follow the league file's conventions (field path, did-you-mea
 
 from __future__ import annotations
 
+import datetime as dt
 import tomllib
 from pathlib import Path
 
@@ -101,3 +102,18 @@ def test_cli_bad_input_exit_2_nothing_written(tmp_path, bad, small_text):
     assert "fed.toml" in result.output
     assert not out.exists()
     assert sorted(p.name for p in tmp_path.iterdir()) == ["fed.toml"]
+
+
+def test_teams_listed_outside_their_division(small_text):
+    text = small_text + ('\n[[teams]]\nname = "Dolby"\ndivision = "Lone"\n'
+                         '\n[[teams]]\nname = "Zell"\ndivision = "North"\n'
+                         'home_venue = "Oxlow Ground"\n')
+    problems = _problems(text)
+    assert problems == ["divisions[4].teams[0].name: 'Zell' is already a team of another "
+                        "division (teams[1] in division 'North'); a team plays in one division"]
+    fed = parse_federation(tomllib.loads(small_text + '\n[[teams]]\nname = "Dolby"\n'
+                                        'division = "Lone"\nunavailable = [2027-09-11]\n'))
+    lone = fed.division("Lone").league
+    assert "Dolby" in lone.team_names
+    assert [td.dates for td in lone.rules.unavailable if td.team == "Dolby"] == [
+        (dt.date(2027, 9, 11),)]

@@ -76,6 +76,15 @@ def check_federation(fed: Federation, seasons: Mapping[str, Season]) -> CrossChe
     -------
     CrossCheck
         Every broken rule in plain words, and the complementary figures.
+
+    Examples
+    --------
+    >>> check_federation(fed, {p.name: p.season for p in plan.plans}).valid  # doctest: +SKIP
+    True
+
+    References
+    ----------
+    ``docs/divisions.md``, "The independent check" (the rules are common practice).
     """
     problems: list[str] = []
     owner: dict[str, str] = {}

@@ -190,7 +190,33 @@ def _share(fed: Federation, index: int, venue: Venue, divs: list[str],
 
 
 def couplings_of(fed: Federation) -> list[Coupling]:
-    """Every coupling of the federation (explicit grounds, shared venues, player groups)."""
+    """Every coupling of the federation (explicit grounds, shared venues, player groups).
+
+    Parameters
+    ----------
+    fed
+        The federation.
+
+    Returns
+    -------
+    list of Coupling
+        Explicit shared grounds first (file order), then shared venues and automatic grounds
+        (venue order), then player groups (file order).
+
+    Raises
+    ------
+    ConfigError
+        A venue that cannot be shared (see :func:`venue_shares`).
+
+    Examples
+    --------
+    >>> [c.kind for c in couplings_of(fed)]  # doctest: +SKIP
+    ['ground', 'venue', 'players']
+
+    References
+    ----------
+    ``docs/divisions.md``, "Couplings and units of work".
+    """
     _, couplings = venue_shares(fed)
     out = []
     for g in fed.shared_grounds:
@@ -209,6 +235,27 @@ def coupling_graph(fed: Federation, couplings: list[Coupling] | None = None) -> 
     """The graph of divisions; an edge for every pair of divisions one coupling joins.
 
     Edge attribute ``couplings`` lists the names of the couplings joining the pair.
+
+    Parameters
+    ----------
+    fed
+        The federation.
+    couplings
+        Its couplings (computed when not given).
+
+    Returns
+    -------
+    networkx.Graph
+        One node per division.
+
+    Examples
+    --------
+    >>> coupling_graph(fed).number_of_nodes() == len(fed.divisions)  # doctest: +SKIP
+    True
+
+    References
+    ----------
+    Hagberg, Schult & Swart (2008), NetworkX (Proc. SciPy 2008).
     """
     graph = nx.Graph()
     graph.add_nodes_from(fed.division_names)

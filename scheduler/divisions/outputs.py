@@ -248,11 +248,36 @@ def write_federation_outputs(plan: FederationPlan, out_dir: str | os.PathLike[st
                              config_path: str | os.PathLike[str] | None = None) -> Path:
     """Write the whole output folder (see the module docstring); returns ``out_dir``.
 
+    Parameters
+    ----------
+    plan
+        The planned federation.
+    out_dir
+        The output folder.
+    force
+        Replace a folder that holds something else.
+    config_path
+        The federation file (refused inside the output folder).
+
+    Returns
+    -------
+    Path
+        ``out_dir``.
+
     Raises
     ------
     OutputError
         A folder that may not be written (another program's or another federation's files, the
         federation file inside it, a disk error); ``out_dir`` is then left as it was.
+
+    Examples
+    --------
+    >>> write_federation_outputs(plan, "federation")  # doctest: +SKIP
+    PosixPath('federation')
+
+    References
+    ----------
+    RFC 5545 (iCalendar) for the club calendars; ECMA-376 (xlsx) through openpyxl.
     """
     out = Path(out_dir)
     if out.exists() and not out.is_dir():

@@ -10,7 +10,8 @@ Measured, side by side:
 2. wall time with an embedded local cluster of 2 worker processes;
 3. wall time through a separately started ``dask scheduler`` with ``dask worker --nworkers 2``
    (loopback address);
-4. the sum of the units' own planning times (what the work costs without any overhead).
+4. the sum of the units' own planning times, wall and processor time (what the work costs
+   without any overhead; processor time does not grow when other programs share the cores).
 
 Ratios: speed-up = (1) / (2) (target >= 1.7 on 2 cores) and (3) against (2); targets: the whole
 federation in under 2 minutes on 2 cores. All three runs must give the same seasons (checked).
@@ -148,7 +149,11 @@ def main() -> None:
     remote, walls["separate"] = _separate_cluster(fed)
     print(f"separate scheduler, 2 workers:  {walls['separate']:7.1f} s wall")
     solve = results[1].solve_seconds
-    print(f"sum of the units' own planning times (1-worker run): {solve:7.1f} s")
+    cpu = results[1].cpu_seconds
+    print(f"sum of the units' own planning times (1-worker run): {solve:7.1f} s wall, "
+          f"{cpu:7.1f} s processor time")
+    print(f"ideal on 2 idle cores (processor time / 2): {cpu / 2:7.1f} s; "
+          f"2-worker wall / ideal: {walls[2] / (cpu / 2):.2f}")
     same = ([p.season for p in results[1].plans] == [p.season for p in results[2].plans]
             == [p.season for p in remote.plans])
     print(f"identical seasons in all three runs: {'yes' if same else 'NO'}")

@@ -50,6 +50,11 @@ class FederationPlan:
         """Sum of the units' own planning times (what one worker would need without overhead)."""
         return sum(r.seconds for r in self.results)
 
+    @property
+    def cpu_seconds(self) -> float:
+        """Sum of the units' processor times (their cost on idle cores, whatever the load)."""
+        return sum(r.cpu_seconds for r in self.results)
+
 
 @contextmanager
 def dask_client(workers: int = 2, cluster: str | None = None) -> Iterator[Any]:

@@ -48,13 +48,16 @@ class DivisionPlan:
 
 @dataclass(frozen=True)
 class UnitResult:
-    """The outcome of one unit: its division plans, or ``error`` (a message) when it failed."""
+    """The outcome of one unit: its division plans, or ``error`` (a message) when it failed;
+    ``seconds`` is its wall time, ``cpu_seconds`` the processor time it used (its cost on an
+    otherwise idle core)."""
 
     key: str
     plans: tuple[DivisionPlan, ...] = ()
     error: str | None = None
     conflicts: tuple[str, ...] = field(default_factory=tuple)
     seconds: float = 0.0
+    cpu_seconds: float = 0.0
 
 
 def _merge(entries: Iterable[TeamDates], extra: dict[str, set[date]]) -> tuple[TeamDates, ...]:
@@ -178,6 +181,7 @@ def plan_unit(fed: Federation, unit: Unit, time_limit: float | None = None) -> U
     from scheduler.fairness import compute_fairness
 
     began = clock.perf_counter()
+    cpu_began = clock.process_time()
     couplings = couplings_of(fed)
     shares, _ = venue_shares(fed)
     planned: dict[str, DivisionPlan] = {}
@@ -193,12 +197,13 @@ def plan_unit(fed: Federation, unit: Unit, time_limit: float | None = None) -> U
                          + ", ".join(planned) + ") are added")
             return UnitResult(unit.key, tuple(planned.values()), f"{head}: {exc}",
                               tuple(f"coupling: {a}" for a in added) + tuple(exc.conflicts),
-                              clock.perf_counter() - began)
+                              clock.perf_counter() - began, clock.process_time() - cpu_began)
         except SchedulerError as exc:
             return UnitResult(unit.key, tuple(planned.values()), f"division {name!r}: {exc}",
-                              (), clock.perf_counter() - began)
+                              (), clock.perf_counter() - began, clock.process_time() - cpu_began)
         fairness = compute_fairness(result.season)
         planned[name] = DivisionPlan(name, league, result.season, fairness, result.notes, added,
                                      clock.perf_counter() - start)
-    return UnitResult(unit.key, tuple(planned.values()), None, (), clock.perf_counter() - began)
+    return UnitResult(unit.key, tuple(planned.values()), None, (), clock.perf_counter() - began,
+                      clock.process_time() - cpu_began)
 

@@ -183,11 +183,30 @@ def new(
         Path,
         typer.Argument(help="Where to write the starter league file (.toml, .yaml or .yml)."),
     ],
+    teams: Annotated[
+        Path | None,
+        typer.Option(help="Build the file from a team list (.xlsx or .csv): team, code, "
+                     "division, home ground, unavailable dates."),
+    ] = None,
 ) -> None:
     """Write a commented starter league file to PATH (TOML or YAML by its ending; never
     overwrites a file)."""
     from scheduler.config import write_starter_config
 
+    if teams is not None:
+        from scheduler.config.teamlist import build_from_team_list, write_new_file
+
+        if path.suffix.lower() != ".toml":
+            raise InputError(
+                "a league built from a team list is written as TOML; give a name ending in .toml",
+                location=str(path),
+            )
+
+        written = write_new_file(path, build_from_team_list(teams))
+        command = "plan-divisions" if "[federation]" in written.read_text("utf-8") else "plan"
+        out.print(f"wrote {written}")
+        out.print(f"next: edit its calendar, then run  scheduler {command} {written} --out season")
+        return
     written = write_starter_config(path)
     out.print(f"wrote {written}")
     out.print(f"next: edit it, then run  scheduler plan {written} --out season")
@@ -294,6 +313,15 @@ def plan(
         ),
     ] = False,
     quiet: Annotated[bool, typer.Option(help="Print only the output folder.")] = False,
+    workers: Annotated[
+        int,
+        typer.Option(help="For a file of several divisions: worker processes on this machine."),
+    ] = 2,
+    cluster: Annotated[
+        str | None,
+        typer.Option(help="For a file of several divisions: address of a running Dask "
+                     "scheduler (tcp://host:8786) instead of workers on this machine."),
+    ] = None,
     progress_mode: Annotated[
         str,
         typer.Option(
@@ -303,8 +331,15 @@ def plan(
         ),
     ] = "auto",
 ) -> None:
-    """Plan a season from a league config and write it to the output folder."""
+    """Plan a season from a league config and write it to the output folder (a file of several
+    divisions plans every division, see ``plan-divisions``)."""
     from scheduler.config import load_league
+    from scheduler.config.federation import is_federation_file
+
+    if is_federation_file(config):
+        _plan_federation(config, out_dir, workers=workers, cluster=cluster,
+                         time_limit=time_limit, force=force, quiet=quiet)
+        return
 
     if time_limit is not None and not time_limit > 0:
         raise InputError(f"--time-limit must be a positive number of seconds, got {time_limit}")
@@ -357,6 +392,30 @@ def _print_plan(
     for note in result.notes:
         out.print(f"note: {_plain(plain_text(note))}")
     out.print(f"wrote {len(written)} files to {out_dir}")
+
+
+@app.command("plan-divisions")
+@_guarded
+def plan_divisions(
+    config: Annotated[Path, typer.Argument(help="Federation file of several divisions.")],
+    out_dir: Annotated[Path, typer.Option("--out", "-o", help="Output folder.")] = Path("season"),
+    workers: Annotated[
+        int, typer.Option(help="Worker processes on this machine (without --cluster).")
+    ] = 2,
+    cluster: Annotated[
+        str | None, typer.Option(help="Address of a running Dask scheduler (tcp://host:8786).")
+    ] = None,
+    time_limit: Annotated[
+        float | None, typer.Option(help="Solver seconds per division (overrides the file).")
+    ] = None,
+    force: Annotated[
+        bool, typer.Option(help="Replace an output folder that holds something else.")
+    ] = False,
+    quiet: Annotated[bool, typer.Option(help="Print only the output folder.")] = False,
+) -> None:
+    """Plan every division of a federation file (units of divisions in parallel, on Dask)."""
+    _plan_federation(config, out_dir, workers=workers, cluster=cluster, time_limit=time_limit,
+                     force=force, quiet=quiet)
 
 
 @app.command()
@@ -520,6 +579,36 @@ def _print_fairness(fairness: Any, *, title: str) -> None:
     for line in figure_lines(fairness):
         table.add_row(line.name, line.value, _plain(line.brief), _plain(line.over_brief))
     out.print(table)
+
+
+
+def _plan_federation(config: Path, out_dir: Path, *, workers: int, cluster: str | None,
+                     time_limit: float | None, force: bool, quiet: bool) -> None:
+    """Plan every division of a federation file and write its folder (``plan`` and
+    ``plan-divisions`` share this)."""
+    from scheduler.config.federation import load_federation
+    from scheduler.divisions.execute import plan_federation
+    from scheduler.divisions.outputs import write_federation_outputs
+
+    if time_limit is not None and time_limit <= 0:
+        raise InputError(f"--time-limit must be a positive number of seconds, got {time_limit}")
+    federation = load_federation(config)
+    with _progress(not quiet) as progress:
+        result = plan_federation(federation, workers=workers, cluster=cluster,
+                                 time_limit=time_limit, progress=progress)
+    if not result.check.valid:
+        raise RuntimeError("the plan breaks rules across divisions: "
+                           + "; ".join(result.check.problems[:5]))
+    write_federation_outputs(result, out_dir, force=force, config_path=config)
+    if quiet:
+        out.print(str(out_dir))
+        return
+    out.print(f"{len(result.plans)} divisions in {len(result.units)} units: "
+              f"{result.wall_seconds:.1f} s (units' own time {result.solve_seconds:.1f} s)")
+    for figure in result.check.complement:
+        out.print(f"complementary {_plain(figure.ground)}: {figure.complementary_days} of "
+                  f"{figure.common_days} common match days")
+    out.print(f"wrote {out_dir}/index.html and a folder per division")
 
 
 def main() -> None:

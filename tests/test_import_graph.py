@@ -27,6 +27,7 @@ LAYERS: tuple[tuple[str, ...], ...] = (
     (
         "scheduler.errors", "scheduler.progress", "scheduler.season", "scheduler",
         "scheduler.leg_schemes", "scheduler.home_away", "scheduler.carry_over",
+        "scheduler.interrupt",
     ),
     # The calendar reads only its own CalendarSpec (and any league-like object): the league
     # configuration checks a league's dates with it, and the balancer's day model uses it, so it
@@ -37,7 +38,8 @@ LAYERS: tuple[tuple[str, ...], ...] = (
     ("scheduler.balance",),
     ("scheduler.fairness",),
     ("scheduler.export", "scheduler.audit"),
-    ("scheduler.plan",),
+    # The orchestrators: one season, a re-plan of a season, several divisions.
+    ("scheduler.plan", "scheduler.replan", "scheduler.divisions"),
     ("scheduler.cli", "scheduler.__main__"),
 )
 """Layers bottom-up: a module may import its own layer (without loops) and lower ones. A module

@@ -67,11 +67,21 @@ def sample_path(name: str) -> Path:
     return _shipped(folder, name, "sample league")
 
 
+def _is_league_file(path: Path) -> bool:
+    """A shipped league file: not a season-events file (``*.events.toml``) and not a file of
+    several divisions (one with a top-level ``[federation]`` table or ``federation:`` key)."""
+    from scheduler.config.federation import is_federation_file
+
+    if path.suffix not in (".toml", ".yaml", ".yml") or ".events." in path.name:
+        return False
+    return not is_federation_file(path)
+
+
 def sample_names() -> tuple[str, ...]:
-    """File names of every shipped sample league, sorted (season-events files such as
-    ``county_double.events.toml`` are not leagues and are left out)."""
+    """File names of every shipped single-league sample, sorted (season-events files such as
+    ``county_double.events.toml`` and files of several divisions such as ``federation.toml``
+    are left out)."""
     folder = samples_dir()
     if not folder.is_dir():
         return ()
-    return tuple(sorted(p.name for p in folder.iterdir()
-                        if p.suffix in (".toml", ".yaml", ".yml") and ".events." not in p.name))
+    return tuple(sorted(p.name for p in folder.iterdir() if p.is_file() and _is_league_file(p)))

@@ -54,10 +54,10 @@ from scheduler.export.ics import (
     league_calendar,
     plan_calendar,
     team_calendar,
-    team_file_stems,
+    team_feed_names,
 )
 from scheduler.export.manifest import MANIFEST_FILE, Manifest
-from scheduler.export.safety import fsync_folder, name_digest
+from scheduler.export.safety import fsync_folder
 from scheduler.export.site import site_files, site_paths
 from scheduler.export.xlsx import workbook_bytes
 from scheduler.interrupt import deferred_interrupts, pause_point, raise_if_interrupted
@@ -70,18 +70,6 @@ REPORT_FILE = "report.html"
 CALENDAR_FOLDER = "calendars"
 LEAGUE_FEED = "league.ics"
 STATE_FILE = ".sequence.json"
-_RESERVED_STEMS = {"league"}
-
-
-def team_feed_names(season: Season) -> dict[str, str]:
-    """Team -> file name of its feed inside ``calendars/`` (unique, never ``league.ics``)."""
-    stems = team_file_stems(season.teams)
-    names = {}
-    for team, stem in stems.items():
-        if stem.lower() in _RESERVED_STEMS:
-            stem = f"{stem}-{name_digest(team)}"
-        names[team] = f"{stem}.ics"
-    return names
 
 
 def output_paths(season: Season, out_dir: str | os.PathLike[str]) -> list[Path]:

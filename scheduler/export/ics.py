@@ -47,7 +47,7 @@ from icalendar import Calendar, Event, vText
 
 from scheduler.errors import InputError
 from scheduler.export.csv_out import league_zone, local_start
-from scheduler.export.safety import safe_filenames
+from scheduler.export.safety import name_digest, safe_filenames
 from scheduler.season import Fixture, Season
 
 PRODID = "-//roundrobin-scheduler//Season calendars 1.0//EN"
@@ -518,3 +518,18 @@ def team_calendar(
 
     items = [(u, e) for u, e in st.events.items() if mine(e.record)]
     return _calendar(f"{team} – {season.league} {season.season_id}", season, items)
+
+
+_RESERVED_STEMS = {"league"}
+"""Feed stems a team's feed may not take (the league feed is ``league.ics``)."""
+
+
+def team_feed_names(season: Season) -> dict[str, str]:
+    """Team -> file name of its feed inside ``calendars/`` (unique, never ``league.ics``)."""
+    stems = team_file_stems(season.teams)
+    names = {}
+    for team, stem in stems.items():
+        if stem.lower() in _RESERVED_STEMS:
+            stem = f"{stem}-{name_digest(team)}"
+        names[team] = f"{stem}.ics"
+    return names

@@ -24,6 +24,7 @@ from collections.abc import Mapping
 from dataclasses import dataclass
 
 from scheduler.export.csv_out import FixtureRow, fixture_rows
+from scheduler.export.ics import team_feed_names
 from scheduler.season import Season
 
 SITE_CAUTION = (
@@ -56,8 +57,6 @@ def _sides(season: Season) -> tuple[str, str]:
 def _feed_names(season: Season, feed_names: Mapping[str, str] | None) -> dict[str, str]:
     if feed_names is not None:
         return dict(feed_names)
-    from scheduler.export.bundle import team_feed_names  # lazy: bundle imports this module
-
     return team_feed_names(season)
 
 
@@ -115,7 +114,7 @@ def site_files(
         (:mod:`scheduler.fairness.names`).
     feed_names : mapping of str to str, optional
         Team -> file name of its feed inside ``calendar_folder`` (default: the names the season
-        folder's writer uses, :func:`scheduler.export.bundle.team_feed_names`).
+        folder's writer uses, :func:`scheduler.export.ics.team_feed_names`).
     calendar_folder, league_feed : str
         Where the feeds are, relative to the season folder.
 

@@ -29,13 +29,12 @@ from scheduler.config import League, load_league
 from scheduler.config.events import Events, load_events
 from scheduler.config.schema import suggestion
 from scheduler.errors import InfeasibleError, InputError
-from scheduler.export.changes import GameChange, changes_csv, team_counts
+from scheduler.export.changes import GameChange, team_counts
 from scheduler.fairness import compute_fairness
 from scheduler.fairness.model import FairnessReport
 from scheduler.season import Fixture, Revision, Season
 
 SEASON_FILE = "season.json"
-CHANGES_FILE = "changes.csv"
 
 WATCHED = (
     # (figure, label, larger is worse)
@@ -438,14 +437,12 @@ def load_replan(league_path: str | Path, season_dir: str | Path, events_path: st
 
 def write_replan(result: ReplanResult, season_dir: str | Path, *, league: League,
                  config_path: str | Path | None = None) -> list[Path]:
-    """Write the re-planned season into ``season_dir`` (the folder it came from) and
-    ``changes.csv``. Returns the paths written."""
+    """Write the re-planned season into ``season_dir`` (the folder it came from), its
+    ``changes.csv`` and the report's list of changes included, as one unit (the previous
+    season stays whole until the new one is swapped in). Returns the paths written."""
     from scheduler.export import write_season_outputs
-    from scheduler.export.safety import atomic_write_text
 
-    written = write_season_outputs(
+    return write_season_outputs(
         result.season, result.fairness, season_dir, config_path=config_path,
-        game_minutes=league.calendar.game_minutes, side_labels=league.format.grid_labels)
-    written.append(atomic_write_text(Path(season_dir) / CHANGES_FILE,
-                                     changes_csv(result.changes)))
-    return written
+        game_minutes=league.calendar.game_minutes, side_labels=league.format.grid_labels,
+        changes=tuple(result.changes))

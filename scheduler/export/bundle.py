@@ -43,10 +43,12 @@ import secrets
 import shutil
 import stat
 import sys
+from collections.abc import Sequence
 from dataclasses import dataclass
 from pathlib import Path
 
 from scheduler.errors import InputError, OutputError
+from scheduler.export.changes import GameChange, changes_csv
 from scheduler.export.csv_out import fixtures_csv
 from scheduler.export.ics import (
     DEFAULT_GAME_MINUTES,
@@ -65,6 +67,7 @@ from scheduler.season import Season
 
 SEASON_FILE = "season.json"
 CSV_FILE = "fixtures.csv"
+CHANGES_FILE = "changes.csv"
 XLSX_FILE = "fixtures.xlsx"
 REPORT_FILE = "report.html"
 CALENDAR_FOLDER = "calendars"
@@ -344,8 +347,12 @@ def render_season_files(
     *,
     game_minutes: int = DEFAULT_GAME_MINUTES,
     side_labels: tuple[str, str] = ("H", "A"),
+    changes: Sequence[GameChange] | None = None,
 ) -> dict[str, bytes]:
     """Every file of the season folder as relative path -> bytes, the manifest last.
+
+    ``changes`` (a re-plan's changed games, :mod:`scheduler.export.changes`) adds
+    ``changes.csv`` and the report's section on them; ``None`` for a first plan.
 
     All computation of the outputs happens here, so that anything that can fail fails before
     a single byte is written.
@@ -365,7 +372,9 @@ def render_season_files(
     if fairness is not None:
         from scheduler.export.report import render_report
 
-        files[REPORT_FILE] = render_report(season, fairness).encode("utf-8")
+        files[REPORT_FILE] = render_report(season, fairness, changes=changes).encode("utf-8")
+    if changes is not None:
+        files[CHANGES_FILE] = changes_csv(changes).encode("utf-8")
     files.update(site_files(season, fairness, feed_names=team_feed_names(season)))
     files[SEASON_FILE] = dumps_season(season, fairness).encode("utf-8")
     manifest = Manifest.of_files(season.league, season.season_id, season.revision, files)
@@ -526,6 +535,7 @@ def write_season_outputs(
     config_path: str | os.PathLike[str] | None = None,
     game_minutes: int = DEFAULT_GAME_MINUTES,
     side_labels: tuple[str, str] = ("H", "A"),
+    changes: Sequence[GameChange] | None = None,
 ) -> list[Path]:
     """Write every output of ``season`` into ``out_dir``, replacing its previous season as a whole.
 
@@ -548,6 +558,9 @@ def write_season_outputs(
         Length of each calendar event.
     side_labels
         Labels of the two sides in the workbook's grid.
+    changes
+        The changed games of a re-plan: ``changes.csv`` and a section of the report, written
+        with the rest of the folder as one unit (``None`` for a first plan).
 
     Returns
     -------
@@ -569,6 +582,8 @@ def write_season_outputs(
     """
     out = Path(out_dir)
     paths = output_paths(season, out)
+    if changes is not None:
+        paths.insert(paths.index(out / SEASON_FILE), out / CHANGES_FILE)
     relatives = tuple(p.relative_to(out).as_posix() for p in paths)
     if out.exists() and not out.is_dir():
         raise OutputError(f"{out} exists and is not a folder")
@@ -577,7 +592,8 @@ def write_season_outputs(
     check = check_output_folder(out, force=force, config_path=config_path, new_files=relatives)
     previous, state = _previous(out, season, force) if check.exists else (None, None)
     files = render_season_files(
-        season, fairness, previous, state, game_minutes=game_minutes, side_labels=side_labels
+        season, fairness, previous, state, game_minutes=game_minutes, side_labels=side_labels,
+        changes=changes,
     )
     raise_if_interrupted()
     pause_point("folder:computed")

@@ -727,8 +727,36 @@ def _title(season: Season) -> str:
     return " · ".join(part for part in (season.league, season.season_id) if part) or "Schedule"
 
 
-def report_context(season: Season, fairness) -> dict:
-    """Everything the template shows (plain values, and SVG already made safe as Markup)."""
+def _change_rows(changes) -> list[dict]:
+    """One row per changed game of a re-plan, old and new side by side, in plain words."""
+
+    def when(f) -> str:
+        if f is None:
+            return "cancelled"
+        day = f.date.isoformat() if f.date else ""
+        clock = f.start.strftime("%H:%M") if f.start else ""
+        return " ".join(x for x in (day, clock, f.court or "") if x) or "not dated"
+
+    return [
+        {
+            "kind": change.kind,
+            "game": f"{(change.new or change.old).home} v {(change.new or change.old).away}",
+            "round": change.old.round,
+            "old": when(change.old),
+            "new": when(change.new),
+        }
+        for change in changes
+    ]
+
+
+def report_context(season: Season, fairness, changes=None) -> dict:
+    """Everything the template shows (plain values, and SVG already made safe as Markup).
+
+    ``changes`` are a re-plan's changed games (:class:`scheduler.export.changes.GameChange`);
+    ``None`` for a first plan or a schedule read from elsewhere.
+    """
+    from scheduler.export.changes import team_counts
+
     fr = fairness
     small = len(fr.team_figures) <= TEXT_LIMIT
     slot_bars = court_bars = venue_bars = None
@@ -787,6 +815,9 @@ def report_context(season: Season, fairness) -> dict:
         "rounds": rounds,
         "byes": {r: season.byes[r] for r in sorted(season.byes)},
         "notes": [plain_text(n) for n in (*fr.notes, *season.notes)],
+        "changes": _change_rows(changes) if changes is not None else None,
+        "change_counts": team_counts(changes) if changes else [],
+        "revisions": season.revisions,
         "text_limit": TEXT_LIMIT,
         "colours": {
             "home": OI_BLUE,
@@ -818,7 +849,10 @@ def carry_over_words(fr) -> str:
     )
 
 
-def render_report(season: Season, fairness) -> str:
-    """The report page as HTML text (deterministic: no clock, no random values)."""
+def render_report(season: Season, fairness, *, changes=None) -> str:
+    """The report page as HTML text (deterministic: no clock, no random values).
+
+    ``changes``: a re-plan's changed games, listed in a section of their own.
+    """
     template = _environment().get_template("report.html.j2")
-    return template.render(**report_context(season, fairness))
+    return template.render(**report_context(season, fairness, changes))

@@ -38,6 +38,32 @@ def test_changes_csv_and_revisions_read_back(season_dir, tmp_path):
         assert count == ((table["home"] == team) | (table["away"] == team)).sum()
     data = json.loads((season_dir / "season.json").read_text(encoding="utf-8"))
     assert [r["changed"] for r in data["revisions"]] == [0, len(table)]
+    # changes.csv belongs to the folder's unit: listed (with its hash) in the manifest, so the
+    # next re-plan does not take it for a file of the user's
+    manifest = json.loads((season_dir / ".season-manifest.json").read_text(encoding="utf-8"))
+    listed = json.dumps(manifest)
+    assert "changes.csv" in listed
+    # the report lists every changed game, read back with the standard HTML parser
+    from html.parser import HTMLParser
+
+    class Rows(HTMLParser):
+        def __init__(self) -> None:
+            super().__init__()
+            self.inside, self.rows = False, 0
+
+        def handle_starttag(self, tag, attrs):
+            if tag == "table" and ("class", "changes") in attrs:
+                self.inside = True
+            elif tag == "tr" and self.inside:
+                self.rows += 1
+
+        def handle_endtag(self, tag):
+            if tag == "table":
+                self.inside = False
+
+    parser = Rows()
+    parser.feed((season_dir / "report.html").read_text(encoding="utf-8"))
+    assert parser.rows == len(table) + 1  # the header row and one row per changed game
 
 
 def test_revision_history_round_trips():

@@ -1,0 +1,332 @@
+"""Many perfect one-factorizations of one order, up to isomorphism where cheap.
+
+The break minimum of a single round robin depends on the one-factorization (not on the team
+labels), so the break-aware choice (:mod:`scheduler.balance.perfect_breaks`) needs many of
+them. :func:`perfect_family` gathers, for ``K_n``:
+
+* the closed constructions when they are perfect: the circle GK_n (``n - 1`` prime; Kotzig
+  1964) and Anderson's GA_n (``n / 2`` prime; B. A. Anderson, J. Combin. Theory B 14 (1973));
+* the shipped catalogue entries (:mod:`scheduler.factorization.catalogue`);
+* every perfect starter of every group of order ``n - 1`` listed by
+  :func:`~scheduler.factorization.groups.groups_of_order` (exhaustive enumeration,
+  :func:`~scheduler.factorization.starters.enumerate_starters`, up to order
+  :data:`EXHAUSTIVE_MAX_ORDER`), one per multiplier orbit: a multiplier ``x -> u x`` maps the
+  starter ``S`` to ``uS`` and the factorization it induces to an isomorphic one (the map fixes
+  ``∞`` and sends ``F_g`` to ``F_{ug}``);
+* above that order, perfect starters found by the seeded starter search
+  (:func:`~scheduler.factorization.search.search_perfect_starter`), several seeds and
+  multipliers.
+
+Isomorphic duplicates are removed by an invariant (:func:`chord_profile`): for every ordered
+triple of rounds ``(i, j, k)`` the lengths along the Hamiltonian cycle ``F_i ∪ F_j`` of the
+games of ``F_k`` used as chords (the invariant the project notes used to tell GA_14 from GK_14).
+Different profiles prove non-isomorphism; equal profiles are merged, which can only merge two
+non-isomorphic factorizations when they share every chord length (then both are measured the
+same way anyway). For small orders :func:`canonical_form` decides isomorphism exactly.
+
+:func:`canonical_form` (numba, imported lazily): every labelling that walks the Hamiltonian
+cycle ``F_i ∪ F_j`` from a vertex ``v`` (first along ``F_i``) numbers the vertices ``0..n-1``;
+the lexicographically least relabelled partner table over all ``(n-1)(n-2)n`` choices is a
+canonical form (two perfect one-factorizations are isomorphic exactly when their forms are
+equal), and the number of choices reaching it is the order of the automorphism group (the
+group acts freely on the choices). Derived here; the same device as the "fix one pair of
+factors to a standard Hamiltonian cycle" used in exhaustive enumerations of perfect
+one-factorizations (J. H. Dinitz & P. Garnick, J. Combin. Des. 4 (1996), from memory).
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+import numpy as np
+
+from scheduler.errors import InputError
+from scheduler.factorization.anderson import anderson_factorization
+from scheduler.factorization.catalogue import (
+    catalogue_entries,
+    entry_factorization,
+    structured_entries,
+    structured_factorization,
+)
+from scheduler.factorization.circle import circle_factorization
+from scheduler.factorization.groups import AbelianGroup, groups_of_order
+from scheduler.factorization.model import Factorization
+from scheduler.factorization.starters import (
+    enumerate_starters,
+    is_perfect_starter,
+    starter_factorization,
+)
+from scheduler.factorization.verify import partner_table, verify_rounds
+
+EXHAUSTIVE_MAX_ORDER = 19
+"""Groups up to this order have all their starters enumerated (Z_19: 25 905, OEIS A006204)."""
+
+
+def _is_prime(k: int) -> bool:
+    return k >= 2 and all(k % d for d in range(2, math.isqrt(k) + 1))
+
+
+def chord_profile(rounds, n: int) -> tuple[int, ...]:
+    """Isomorphism invariant of a perfect one-factorization (module docstring): the sorted
+    counts of chord lengths over all ordered triples of rounds, as one tuple."""
+    partners = partner_table(n, rounds)
+    R = partners.shape[0]
+    counts = np.zeros((R, R, n // 2 + 1), dtype=np.int64)
+    for i in range(R):
+        for j in range(R):
+            if i == j:
+                continue
+            position = np.empty(n, dtype=np.int64)
+            v, q = 0, 0
+            while True:
+                position[v] = q
+                w = partners[i, v]
+                position[w] = q + 1
+                q += 2
+                v = partners[j, w]
+                if v == 0:
+                    break
+            if q != n:
+                raise InputError("the chord profile needs a perfect one-factorization",
+                                 location="rounds")
+            for k in range(R):
+                if k in (i, j):
+                    continue
+                a = np.arange(n)
+                d = np.abs(position[a] - position[partners[k, a]])
+                d = np.minimum(d, n - d)
+                counts[i, j] += np.bincount(d, minlength=n // 2 + 1) // 1
+    # per ordered pair a vector; the multiset of vectors is invariant
+    rows = sorted(tuple(int(x) for x in counts[i, j]) for i in range(R) for j in range(R)
+                  if i != j)
+    flat: list[int] = []
+    for row in rows:
+        flat.extend(row)
+    return tuple(flat)
+
+
+def _canon_kernel():
+    import numba as nb
+
+    @nb.njit(cache=True)
+    def canon(partners):
+        R, n = partners.shape
+        best = np.full((R, n), n, dtype=np.int64)
+        have = False
+        ties = 0
+        lab = np.empty(n, dtype=np.int64)
+        inv = np.empty(n, dtype=np.int64)
+        row_of = np.empty(R, dtype=np.int64)
+        cand = np.empty((R, n), dtype=np.int64)
+        for i in range(R):
+            for j in range(R):
+                if i == j:
+                    continue
+                for v0 in range(n):
+                    v = v0
+                    q = 0
+                    while True:
+                        lab[v] = q
+                        inv[q] = v
+                        w = partners[i, v]
+                        lab[w] = q + 1
+                        inv[q + 1] = w
+                        q += 2
+                        v = partners[j, w]
+                        if v == v0:
+                            break
+                    if q != n:
+                        continue
+                    for f in range(R):
+                        row_of[lab[partners[f, v0]] - 1] = f
+                    # compare row by row, building only as far as needed
+                    state = 0 if have else -1  # -1 smaller, 0 equal so far, 1 larger
+                    for L in range(R):
+                        f = row_of[L]
+                        for u in range(n):
+                            cand[L, u] = lab[partners[f, inv[u]]]
+                        if state == 0:
+                            for u in range(n):
+                                if cand[L, u] != best[L, u]:
+                                    state = -1 if cand[L, u] < best[L, u] else 1
+                                    break
+                            if state == 1:
+                                break
+                    if state == 1:
+                        continue
+                    if state == 0:
+                        ties += 1
+                        continue
+                    best[:, :] = cand
+                    have = True
+                    ties = 1
+        return best, ties
+
+    return canon
+
+
+_CANON = None
+
+
+def canonical_form(rounds, n: int) -> tuple[bytes, int]:
+    """Canonical form and automorphism-group order of a perfect one-factorization of ``K_n``.
+
+    Parameters
+    ----------
+    rounds
+        The ``n - 1`` rounds (games of vertices ``0..n-1``).
+    n
+        Even order.
+
+    Returns
+    -------
+    tuple
+        ``(form, automorphisms)``: equal forms exactly for isomorphic factorizations.
+
+    Raises
+    ------
+    InputError
+        When the rounds are not perfect matchings, or the factorization is not perfect.
+
+    Examples
+    --------
+    >>> from scheduler.factorization.circle import circle_rounds
+    >>> canonical_form(circle_rounds(6), 6)[1]
+    120
+
+    References
+    ----------
+    Module docstring (derived here).
+    """
+    global _CANON
+    partners = partner_table(n, rounds).astype(np.int64)
+    if partners.shape[0] != n - 1:
+        raise InputError(f"K_{n} needs {n - 1} rounds", location="rounds")
+    if _CANON is None:
+        _CANON = _canon_kernel()
+    best, ties = _CANON(partners)
+    if ties == 0 or int(best.max()) >= n:
+        raise InputError("the canonical form needs a perfect one-factorization",
+                         location="rounds")
+    return best.astype(np.int8).tobytes(), int(ties)
+
+
+@dataclass(frozen=True)
+class FamilyMember:
+    """One perfect one-factorization of the family, with where it came from and its invariant
+    (``profile``) or canonical form (``form``, small orders)."""
+
+    factorization: Factorization
+    origin: str
+    profile: tuple[int, ...]
+
+
+def _starter_members(group: AbelianGroup, exhaustive: bool, seed: int, tries: int):
+    """Perfect starters of ``group``: one per multiplier orbit (exhaustive), else found by the
+    seeded search with ``tries`` (seed, multiplier) combinations."""
+    out = []
+    if exhaustive:
+        units = group.units()
+        seen: set[tuple] = set()
+        for starter in enumerate_starters(group):
+            key = tuple(sorted(tuple(sorted(p)) for p in starter))
+            if key in seen or not is_perfect_starter(group, starter):
+                continue
+            for u in units:
+                image = tuple(sorted(tuple(sorted((int(group.mul[u, a]), int(group.mul[u, b]))))
+                                     for a, b in starter))
+                seen.add(image)
+            out.append((starter, f"perfect starter in {group.name} (exhaustive, "
+                                 f"one per multiplier orbit)"))
+        return out
+    from scheduler.factorization.search import search_perfect_starter
+
+    units = [u for u in group.units() if u not in (1, int(group.neg[1]))]
+    multipliers = [1] + units
+    found: set[tuple] = set()
+    for k in range(tries):
+        mult = multipliers[k % len(multipliers)] if k else 1
+        try:
+            res = search_perfect_starter(group, seed=seed + k, multiplier=mult, budget=2.0)
+        except InputError:
+            continue
+        if res.starter is None:
+            continue
+        key = tuple(sorted(res.starter))
+        if key in found:
+            continue
+        found.add(key)
+        out.append((res.starter, f"perfect starter in {group.name} (search, seed {seed + k}, "
+                                 f"multiplier {mult})"))
+    return out
+
+
+def perfect_family(n: int, *, seed: int = 0, search_tries: int = 12,
+                   limit: int = 64) -> tuple[FamilyMember, ...]:
+    """Perfect one-factorizations of ``K_n`` from every source of the module docstring,
+    isomorphic duplicates removed by :func:`chord_profile`, at most ``limit`` of them.
+
+    Parameters
+    ----------
+    n
+        Even order, at least 4.
+    seed
+        Seed of the starter searches (orders above :data:`EXHAUSTIVE_MAX_ORDER` + 1).
+    search_tries
+        (seed, multiplier) combinations tried per group by the search.
+    limit
+        Largest number of members returned (first found first).
+
+    Returns
+    -------
+    tuple of FamilyMember
+        Each verified perfect by :func:`~scheduler.factorization.verify.verify_rounds`.
+
+    Raises
+    ------
+    InputError
+        For an odd or too small ``n``.
+
+    Examples
+    --------
+    >>> [m.origin.split(" (")[0] for m in perfect_family(12)]
+    ['circle GK_12', 'perfect starter in Z_11']
+
+    References
+    ----------
+    Module docstring.
+    """
+    if isinstance(n, bool) or not isinstance(n, int) or n < 4 or n % 2:
+        raise InputError(f"a perfect family needs an even n >= 4, got {n!r}", location="n")
+    m = n - 1
+    raw: list[tuple[Factorization, str]] = []
+    if _is_prime(m):
+        raw.append((circle_factorization(n), f"circle GK_{n}"))
+    if _is_prime(n // 2) and n >= 6:
+        raw.append((anderson_factorization(n), f"Anderson GA_{n}"))
+    for entry in catalogue_entries():
+        if entry.n == n:
+            raw.append((entry_factorization(entry), f"catalogue {entry.group}"))
+    for structured in structured_entries():
+        if structured.n == n:
+            raw.append((structured_factorization(structured), f"catalogue {structured.kind}"))
+    for group in groups_of_order(m):
+        exhaustive = m <= EXHAUSTIVE_MAX_ORDER
+        for starter, origin in _starter_members(group, exhaustive, seed, search_tries):
+            raw.append((starter_factorization(group, starter), origin))
+    members: list[FamilyMember] = []
+    profiles: set[tuple[int, ...]] = set()
+    for fact, origin in raw:
+        cert = verify_rounds(n, fact.rounds)
+        if not cert.perfect:
+            continue
+        profile = chord_profile(fact.rounds, n)
+        if profile in profiles:
+            continue
+        profiles.add(profile)
+        members.append(FamilyMember(fact, origin, profile))
+        if len(members) >= limit:
+            break
+    return tuple(members)
+

@@ -215,7 +215,8 @@ def count_breaks(rounds, order: Sequence[int], home: dict[tuple[int, int], bool]
 
 
 def exact_min_breaks(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *,
-                     cap: int | None = None, first: int | None = None) -> BreakMinimum:
+                     cap: int | None = None, first: int | None = None,
+                     known: OrderResult | None = None) -> BreakMinimum:
     """Fewest breaks of a single round robin on ``rounds`` over every order and home/away.
 
     Parameters
@@ -226,16 +227,20 @@ def exact_min_breaks(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *,
         Even order, at most :data:`EXACT_MAX_N`.
     cap
         Optional known upper bound: partial paths at or above it are not followed, which
-        makes the programme much faster. When no schedule below ``cap`` exists the programme
-        is run again without it, so the result is always exact.
+        makes the programme much faster. When no schedule below ``cap`` exists: if ``known``
+        is given the result is ``known`` with the proven lower bound ``cap`` (exact when
+        ``known.breaks == cap``), else the programme is run again without the cap.
     first
         Fix the first round (valid when the factorization's automorphisms move every round to
         this one, e.g. a starter-induced factorization, whose translations do).
+    known
+        A schedule already found (order, home/away, breaks), used with ``cap``.
 
     Returns
     -------
     BreakMinimum
-        ``breaks == lower_bound`` (exact), with an order and home/away reaching it.
+        ``breaks == lower_bound`` (exact) with an order and home/away reaching it, except when
+        ``known`` is returned with the lower bound ``cap``.
 
     Raises
     ------
@@ -265,6 +270,9 @@ def exact_min_breaks(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *,
     f = _held_karp(cost, limit, start)
     final = f[(1 << (n - 1)) - 1]
     if int(final.min()) >= limit:
+        if known is not None:
+            return BreakMinimum(known.breaks, limit, known.order, known.home,
+                                f"search; lower bound {limit} proven by Held-Karp with a cap")
         if limit == CAP_INFINITY:  # pragma: no cover - breaks never reach 127 for n <= 16
             raise AssertionError("break values above the kernel's range")
         f = _held_karp(cost, CAP_INFINITY, start)
@@ -389,3 +397,117 @@ def cpsat_lower_bound(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *,
     bound += bound % 2
     best = int(solver.ObjectiveValue()) if status in (cp_model.OPTIMAL, cp_model.FEASIBLE) else None
     return bound, best
+
+
+@dataclass(frozen=True)
+class Candidate:
+    """One perfect one-factorization with the fewest breaks found for a single round robin on
+    it and a proven lower bound.
+
+    ``order`` and ``home`` (``(a, b) -> a is at home``, vertices as in ``factorization``) give a
+    schedule with ``breaks`` breaks; no schedule on this factorization has fewer than
+    ``lower_bound``. ``origin`` says where the factorization came from, ``method`` how both
+    figures were obtained.
+    """
+
+    factorization: Factorization
+    origin: str
+    breaks: int
+    lower_bound: int
+    order: tuple[int, ...]
+    home: dict[tuple[int, int], bool] = field(compare=False, hash=False, repr=False)
+    method: str = ""
+
+    @property
+    def exact(self) -> bool:
+        return self.breaks == self.lower_bound
+
+
+SEARCH_WORK_PER_SECOND = 2e7
+"""Work units (:attr:`scheduler.balance.orders.BreakPaths.beam_work`) per nominal second: the
+budget is turned into a fixed amount of work, so results do not depend on the machine."""
+
+
+def _round_transitive(fact: Factorization) -> bool:
+    return fact.details.get("construction") == "starter"
+
+
+def best_perfect_for_breaks(n: int, *, seed: int = 0, budget: float = 30.0,
+                            family=None, bound_seconds: float = 5.0) -> list[Candidate]:
+    """Perfect one-factorizations of ``K_n`` ranked by the fewest breaks of a single round robin.
+
+    Parameters
+    ----------
+    n
+        Even order (for an odd league, ``teams + 1``), at least 4.
+    seed
+        Seed of the family's searches and of the order searches.
+    budget
+        Nominal seconds of order search per factorization for ``n > 16``, turned into fixed
+        work (:data:`SEARCH_WORK_PER_SECOND`), so the answer depends only on the arguments.
+    family
+        The factorizations to rank (``FamilyMember`` objects or ``(factorization, origin)``
+        pairs); default :func:`scheduler.factorization.perfect_family.perfect_family`.
+    bound_seconds
+        Deterministic CP-SAT time for the lower bound of each factorization when ``n > 16``.
+
+    Returns
+    -------
+    list of Candidate
+        Sorted by breaks, then lower bound, then origin. For ``n <= 16`` every lower bound is
+        proven by the exact programme: the first candidate's breaks are the least over all
+        factorizations of the family, and every later candidate's lower bound is at least the
+        first's breaks (branch and bound with the best value so far as the cap).
+
+    Raises
+    ------
+    InputError
+        For an odd or too small ``n``.
+
+    Examples
+    --------
+    >>> best_perfect_for_breaks(10)[0].breaks
+    10
+
+    References
+    ----------
+    Module docstring (Held & Karp 1962; de Werra 1981; CP-SAT).
+    """
+    from scheduler.factorization.perfect_family import perfect_family
+
+    if isinstance(n, bool) or not isinstance(n, int) or n < 4 or n % 2:
+        raise InputError(f"a perfect single round robin needs an even n >= 4, got {n!r}",
+                         location="n")
+    members = family if family is not None else perfect_family(n, seed=seed)
+    pairs = [(m.factorization, m.origin) if hasattr(m, "factorization") else (m[0], m[1])
+             for m in members]
+    out: list[Candidate] = []
+    if n <= EXACT_MAX_N:
+        incumbent: int | None = None
+        for k, (fact, origin) in enumerate(pairs):
+            first = 0 if _round_transitive(fact) else None
+            quick = search_order(fact.rounds, n, seed=seed + k, work=2e7)
+            cap = quick.breaks if incumbent is None else min(quick.breaks, incumbent)
+            got = exact_min_breaks(fact.rounds, n, cap=cap, first=first, known=quick)
+            if got.lower_bound == got.breaks or got.breaks < cap:
+                method = "exact (Held-Karp over every order and home/away)"
+            else:
+                method = (f"search {got.breaks}; fewer than {got.lower_bound} impossible "
+                          "(Held-Karp with that cap)")
+            if incumbent is None or got.breaks < incumbent:
+                incumbent = got.breaks
+            out.append(Candidate(fact, origin, got.breaks, got.lower_bound, got.order, got.home,
+                                 method))
+    else:
+        for k, (fact, origin) in enumerate(pairs):
+            found = search_breaks(fact, seed=seed + k, work=budget * SEARCH_WORK_PER_SECOND)
+            bound, solved = cpsat_lower_bound(fact.rounds, n, seconds=bound_seconds,
+                                              seed=seed, first=0 if _round_transitive(fact)
+                                              else None, hint=found)
+            breaks, order, home = found.breaks, found.order, found.home
+            method = "order search (simulated annealing, beam path); CP-SAT lower bound"
+            if solved is not None and solved < breaks:
+                method += " (CP-SAT found fewer; its schedule is not kept)"
+            out.append(Candidate(fact, origin, breaks, min(bound, breaks), order, home, method))
+    out.sort(key=lambda c: (c.breaks, c.lower_bound, c.origin))
+    return out

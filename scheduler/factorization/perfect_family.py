@@ -15,14 +15,23 @@ them. :func:`perfect_family` gathers, for ``K_n``:
   ``∞`` and sends ``F_g`` to ``F_{ug}``);
 * above that order, perfect starters found by the seeded starter search
   (:func:`~scheduler.factorization.search.search_perfect_starter`), several seeds and
-  multipliers.
+  multipliers;
+* perfect even starters in ``Z_{n-2}`` (:mod:`scheduler.factorization.even_starters`;
+  B. A. Anderson 1974, from memory): all of them up to ``n - 2 =``
+  :data:`EVEN_EXHAUSTIVE_MAX`, else found by the seeded search;
+* perfect one-factorizations with a prescribed automorphism of order ``k`` with ``r`` cycles and
+  a fixed point, ``n - 1 = r k`` (:mod:`scheduler.factorization.orbit_factorizations`; the
+  method of E. Seah & D. R. Stinson 1988, from memory), found by the seeded search.
 
-Isomorphic duplicates are removed by an invariant (:func:`chord_profile`): for every ordered
-triple of rounds ``(i, j, k)`` the lengths along the Hamiltonian cycle ``F_i ∪ F_j`` of the
-games of ``F_k`` used as chords (the invariant the project notes used to tell GA_14 from GK_14).
-Different profiles prove non-isomorphism; equal profiles are merged, which can only merge two
-non-isomorphic factorizations when they share every chord length (then both are measured the
-same way anyway). For small orders :func:`canonical_form` decides isomorphism exactly.
+Every search runs under a node limit (no clock), so the family depends only on ``n`` and the
+seed.
+
+Isomorphic duplicates are removed exactly by :func:`canonical_form` up to ``n =``
+:data:`CANONICAL_MAX_N`, above by an invariant (:func:`triple_profile`): the cycle types of
+``p_k ∘ p_j ∘ p_i`` over all ordered triples of rounds (``p_r`` the partner map of round ``r``).
+Different profiles prove non-isomorphism; equal profiles are merged, which may merge two
+non-isomorphic factorizations (a cheap filter, not a proof). (Chord lengths along the cycle
+``F_i ∪ F_j`` were tried first and do not separate the perfect one-factorizations of K_16.)
 
 :func:`canonical_form` (numba, imported lazily): every labelling that walks the Hamiltonian
 cycle ``F_i ∪ F_j`` from a vertex ``v`` (first along ``F_i``) numbers the vertices ``0..n-1``;
@@ -62,48 +71,59 @@ from scheduler.factorization.verify import partner_table, verify_rounds
 EXHAUSTIVE_MAX_ORDER = 19
 """Groups up to this order have all their starters enumerated (Z_19: 25 905, OEIS A006204)."""
 
+EVEN_EXHAUSTIVE_MAX = 16
+"""Even starters of ``Z_M`` are enumerated exhaustively up to this ``M``."""
+
+CANONICAL_MAX_N = 20
+"""Up to this order duplicates are removed by the exact canonical form."""
+
+SEARCH_NODES = 400_000
+"""Node limit of one seeded search (starters, even starters, orbit factorizations)."""
+
 
 def _is_prime(k: int) -> bool:
     return k >= 2 and all(k % d for d in range(2, math.isqrt(k) + 1))
 
 
-def chord_profile(rounds, n: int) -> tuple[int, ...]:
-    """Isomorphism invariant of a perfect one-factorization (module docstring): the sorted
-    counts of chord lengths over all ordered triples of rounds, as one tuple."""
-    partners = partner_table(n, rounds)
+def triple_profile(rounds, n: int) -> tuple[int, ...]:
+    """Isomorphism invariant (module docstring): the sorted cycle types of ``p_k ∘ p_j ∘ p_i``
+    over all ordered triples of distinct rounds (``p_r`` the partner map of round ``r``;
+    relabelling conjugates every product, which keeps its cycle type)."""
+    partners = partner_table(n, rounds).astype(np.int64)
     R = partners.shape[0]
-    counts = np.zeros((R, R, n // 2 + 1), dtype=np.int64)
+    types = []
     for i in range(R):
         for j in range(R):
-            if i == j:
+            if j == i:
                 continue
-            position = np.empty(n, dtype=np.int64)
-            v, q = 0, 0
-            while True:
-                position[v] = q
-                w = partners[i, v]
-                position[w] = q + 1
-                q += 2
-                v = partners[j, w]
-                if v == 0:
-                    break
-            if q != n:
-                raise InputError("the chord profile needs a perfect one-factorization",
-                                 location="rounds")
+            pji = partners[j][partners[i]]
             for k in range(R):
                 if k in (i, j):
                     continue
-                a = np.arange(n)
-                d = np.abs(position[a] - position[partners[k, a]])
-                d = np.minimum(d, n - d)
-                counts[i, j] += np.bincount(d, minlength=n // 2 + 1) // 1
-    # per ordered pair a vector; the multiset of vectors is invariant
-    rows = sorted(tuple(int(x) for x in counts[i, j]) for i in range(R) for j in range(R)
-                  if i != j)
+                perm = partners[k][pji].tolist()
+                seen = [False] * n
+                lengths = []
+                for v in range(n):
+                    if seen[v]:
+                        continue
+                    length = 0
+                    while not seen[v]:
+                        seen[v] = True
+                        v = perm[v]
+                        length += 1
+                    lengths.append(length)
+                types.append(tuple(sorted(lengths)))
     flat: list[int] = []
-    for row in rows:
-        flat.extend(row)
+    for t in sorted(types):
+        flat.extend((*t, 0))
     return tuple(flat)
+
+
+def isomorphism_key(rounds, n: int) -> bytes | tuple[int, ...]:
+    """Exact canonical form up to ``n =`` :data:`CANONICAL_MAX_N`, else :func:`triple_profile`."""
+    if n <= CANONICAL_MAX_N:
+        return canonical_form(rounds, n)[0]
+    return triple_profile(rounds, n)
 
 
 def _canon_kernel():
@@ -215,11 +235,11 @@ def canonical_form(rounds, n: int) -> tuple[bytes, int]:
 @dataclass(frozen=True)
 class FamilyMember:
     """One perfect one-factorization of the family, with where it came from and its invariant
-    (``profile``) or canonical form (``form``, small orders)."""
+    or canonical form (``key``)."""
 
     factorization: Factorization
     origin: str
-    profile: tuple[int, ...]
+    key: bytes | tuple[int, ...]
 
 
 def _starter_members(group: AbelianGroup, exhaustive: bool, seed: int, tries: int):
@@ -248,7 +268,8 @@ def _starter_members(group: AbelianGroup, exhaustive: bool, seed: int, tries: in
     for k in range(tries):
         mult = multipliers[k % len(multipliers)] if k else 1
         try:
-            res = search_perfect_starter(group, seed=seed + k, multiplier=mult, budget=2.0)
+            res = search_perfect_starter(group, seed=seed + k, multiplier=mult, budget=600.0,
+                                         max_nodes=SEARCH_NODES)
         except InputError:
             continue
         if res.starter is None:
@@ -262,10 +283,63 @@ def _starter_members(group: AbelianGroup, exhaustive: bool, seed: int, tries: in
     return out
 
 
+def _even_members(M: int, seed: int, tries: int):
+    from scheduler.factorization.even_starters import (
+        enumerate_even_starters,
+        even_starter_factorization,
+        is_perfect_even_starter,
+        search_perfect_even_starter,
+    )
+
+    out = []
+    if M <= EVEN_EXHAUSTIVE_MAX:
+        for starter in enumerate_even_starters(M):
+            if is_perfect_even_starter(M, starter):
+                out.append((even_starter_factorization(M, starter),
+                            f"perfect even starter in Z_{M} (exhaustive)"))
+        return out
+    seen: set[tuple] = set()
+    for k in range(tries):
+        res = search_perfect_even_starter(M, seed=seed + k, budget=600.0, max_nodes=SEARCH_NODES)
+        if res.starter is None or tuple(res.starter) in seen:
+            continue
+        seen.add(tuple(res.starter))
+        out.append((even_starter_factorization(M, res.starter),
+                    f"perfect even starter in Z_{M} (search, seed {seed + k})"))
+    return out
+
+
+def _orbit_members(n: int, seed: int, tries: int):
+    from scheduler.factorization.orbit_factorizations import (
+        orbit_factorization,
+        search_perfect_orbit_factorization,
+    )
+
+    out = []
+    m = n - 1
+    for k in range(3, m, 2):
+        if m % k or m // k < 2:
+            continue
+        r = m // k
+        seen: set[tuple] = set()
+        for t in range(tries):
+            res = search_perfect_orbit_factorization(r, k, seed=seed + t, budget=600.0,
+                                                     max_nodes=SEARCH_NODES)
+            if res.base is None or res.base in seen:
+                if res.exhausted:
+                    break
+                continue
+            seen.add(res.base)
+            out.append((orbit_factorization(r, k, res.base),
+                        f"perfect, automorphism of order {k} with {r} cycles (search, seed "
+                        f"{seed + t})"))
+    return out
+
+
 def perfect_family(n: int, *, seed: int = 0, search_tries: int = 12,
                    limit: int = 64) -> tuple[FamilyMember, ...]:
     """Perfect one-factorizations of ``K_n`` from every source of the module docstring,
-    isomorphic duplicates removed by :func:`chord_profile`, at most ``limit`` of them.
+    isomorphic duplicates removed (:func:`isomorphism_key`), at most ``limit`` of them.
 
     Parameters
     ----------
@@ -315,17 +389,20 @@ def perfect_family(n: int, *, seed: int = 0, search_tries: int = 12,
         exhaustive = m <= EXHAUSTIVE_MAX_ORDER
         for starter, origin in _starter_members(group, exhaustive, seed, search_tries):
             raw.append((starter_factorization(group, starter), origin))
+    if n >= 8:
+        raw += _even_members(n - 2, seed, search_tries)
+        raw += _orbit_members(n, seed, search_tries)
     members: list[FamilyMember] = []
-    profiles: set[tuple[int, ...]] = set()
+    keys: set[bytes | tuple[int, ...]] = set()
     for fact, origin in raw:
         cert = verify_rounds(n, fact.rounds)
         if not cert.perfect:
             continue
-        profile = chord_profile(fact.rounds, n)
-        if profile in profiles:
+        key = isomorphism_key(fact.rounds, n)
+        if key in keys:
             continue
-        profiles.add(profile)
-        members.append(FamilyMember(fact, origin, profile))
+        keys.add(key)
+        members.append(FamilyMember(fact, origin, key))
         if len(members) >= limit:
             break
     return tuple(members)

@@ -109,9 +109,7 @@ def completions(n, capacity):
         w = w_prev + 1 if w_prev >= u else u + 1
         while w < n:
             ok = True
-            if e == 0 and w != k:
-                ok = False
-            elif P[k, w] >= 0 or used[u, w]:
+            if (e == 0 and w != k) or P[k, w] >= 0 or used[u, w]:
                 ok = False
             if ok:
                 nodes += 1
@@ -123,9 +121,8 @@ def completions(n, capacity):
                     w_at[p] = w
                     placed = True
                     break
-            if e == 0:
-                if w >= k:
-                    break
+            if e == 0 and w >= k:
+                break
             w += 1
         if not placed:
             w_at[p] = u

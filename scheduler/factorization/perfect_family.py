@@ -223,6 +223,9 @@ def canonical_form(rounds, n: int) -> tuple[bytes, int]:
     partners = partner_table(n, rounds).astype(np.int64)
     if partners.shape[0] != n - 1:
         raise InputError(f"K_{n} needs {n - 1} rounds", location="rounds")
+    if not verify_rounds(n, rounds).perfect:
+        raise InputError("the canonical form needs a perfect one-factorization",
+                         location="rounds")
     if _CANON is None:
         _CANON = _canon_kernel()
     best, ties = _CANON(partners)
@@ -263,7 +266,7 @@ def _starter_members(group: AbelianGroup, exhaustive: bool, seed: int, tries: in
     from scheduler.factorization.search import search_perfect_starter
 
     units = [u for u in group.units() if u not in (1, int(group.neg[1]))]
-    multipliers = [1] + units
+    multipliers = [1, *units]
     found: set[tuple] = set()
     for k in range(tries):
         mult = multipliers[k % len(multipliers)] if k else 1

@@ -433,7 +433,8 @@ def _round_transitive(fact: Factorization) -> bool:
 
 
 def best_perfect_for_breaks(n: int, *, seed: int = 0, budget: float = 30.0,
-                            family=None, bound_seconds: float = 5.0) -> list[Candidate]:
+                            family=None, bound_seconds: float = 5.0,
+                            exact: bool = True) -> list[Candidate]:
     """Perfect one-factorizations of ``K_n`` ranked by the fewest breaks of a single round robin.
 
     Parameters
@@ -449,7 +450,11 @@ def best_perfect_for_breaks(n: int, *, seed: int = 0, budget: float = 30.0,
         The factorizations to rank (``FamilyMember`` objects or ``(factorization, origin)``
         pairs); default :func:`scheduler.factorization.perfect_family.perfect_family`.
     bound_seconds
-        Deterministic CP-SAT time for the lower bound of each factorization when ``n > 16``.
+        Deterministic CP-SAT time for the lower bound of each factorization when ``n > 16``
+        (or when ``exact`` is false).
+    exact
+        Use the exact programme for ``n <= 16`` (seconds to a minute for 16 teams); false
+        treats every order like a large one (search and CP-SAT bound), for quick answers.
 
     Returns
     -------
@@ -482,7 +487,7 @@ def best_perfect_for_breaks(n: int, *, seed: int = 0, budget: float = 30.0,
     pairs = [(m.factorization, m.origin) if hasattr(m, "factorization") else (m[0], m[1])
              for m in members]
     out: list[Candidate] = []
-    if n <= EXACT_MAX_N:
+    if n <= EXACT_MAX_N and exact:
         incumbent: int | None = None
         for k, (fact, origin) in enumerate(pairs):
             first = 0 if _round_transitive(fact) else None

@@ -340,15 +340,16 @@ def search_breaks(fact: Factorization, *, seed: int = 0, work: float = 2e8,
 
 def cpsat_lower_bound(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *,
                       seconds: float = 10.0, seed: int = 0, first: int | None = None,
-                      hint: OrderResult | None = None) -> tuple[int, int | None]:
+                      hint: OrderResult | None = None) -> tuple[int, OrderResult | None]:
     """A proven lower bound on the breaks over every order and home/away, by CP-SAT.
 
     Model: ``at[q, r]`` round ``r`` at position ``q`` (an assignment), ``colour[q, v]`` the
     colouring ``t_q`` (every game of the round at ``q`` joins two colours), ``brk[q, v]`` =
     ``colour[q-1, v] xor colour[q, v]``; the number of breaks into each position is even (the
     factorization is assumed perfect; see the module docstring) and the total at least
-    ``n - 2``. Returns ``(bound, best value found or None)``; the bound is even and at least
-    ``n - 2``. One worker, fixed seed, deterministic time limit.
+    ``n - 2``. Returns ``(bound, best schedule found or None)``; the bound is even and at
+    least ``n - 2``. One worker, fixed seed, deterministic time limit (the wall-clock limit is
+    only a far safety net).
     """
     from ortools.sat.python import cp_model
 
@@ -390,13 +391,21 @@ def cpsat_lower_bound(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *,
     solver.parameters.num_workers = 1
     solver.parameters.random_seed = seed
     solver.parameters.max_deterministic_time = seconds
-    solver.parameters.max_time_in_seconds = 20 * seconds
+    solver.parameters.max_time_in_seconds = 200 * seconds
     status = solver.Solve(model)
     bound = int(np.ceil(solver.BestObjectiveBound() - 1e-6))
     bound = max(bound, n - 2)
     bound += bound % 2
-    best = int(solver.ObjectiveValue()) if status in (cp_model.OPTIMAL, cp_model.FEASIBLE) else None
-    return bound, best
+    if status not in (cp_model.OPTIMAL, cp_model.FEASIBLE):
+        return bound, None
+    order = tuple(next(r for r in range(R) if solver.Value(at[q][r])) for q in range(R))
+    home: dict[tuple[int, int], bool] = {}
+    for q, r in enumerate(order):
+        for a, b in rounds[r]:
+            lo, hi = min(a, b), max(a, b)
+            home[(lo, hi)] = bool(solver.Value(colour[q][lo])) != (q % 2 == 1)
+    found = OrderResult(order, home, count_breaks(rounds, order, home, n))
+    return min(bound, found.breaks), found
 
 
 @dataclass(frozen=True)
@@ -509,10 +518,11 @@ def best_perfect_for_breaks(n: int, *, seed: int = 0, budget: float = 30.0,
             bound, solved = cpsat_lower_bound(fact.rounds, n, seconds=bound_seconds,
                                               seed=seed, first=0 if _round_transitive(fact)
                                               else None, hint=found)
-            breaks, order, home = found.breaks, found.order, found.home
             method = "order search (simulated annealing, beam path); CP-SAT lower bound"
-            if solved is not None and solved < breaks:
-                method += " (CP-SAT found fewer; its schedule is not kept)"
+            if solved is not None and solved.breaks < found.breaks:
+                found = solved
+                method = "CP-SAT schedule and lower bound (order search hint)"
+            breaks, order, home = found.breaks, found.order, found.home
             out.append(Candidate(fact, origin, breaks, min(bound, breaks), order, home, method))
     out.sort(key=lambda c: (c.breaks, c.lower_bound, c.origin))
     return out

@@ -368,7 +368,7 @@ def perfect_family(n: int, *, seed: int = 0, search_tries: int = 12,
     Examples
     --------
     >>> [m.origin.split(" (")[0] for m in perfect_family(12)]
-    ['circle GK_12', 'perfect starter in Z_11']
+    ['circle GK_12', 'perfect starter in Z_11', 'perfect even starter in Z_10']
 
     References
     ----------

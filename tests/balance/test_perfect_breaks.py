@@ -67,8 +67,11 @@ def test_cap_and_known_schedule():
 
 
 def test_cpsat_bound_is_valid_and_even():
-    bound, _ = cpsat_lower_bound(anderson_rounds(10), 10, seconds=0.3)
+    rounds = anderson_rounds(10)
+    bound, found = cpsat_lower_bound(rounds, 10, seconds=0.3)
     assert 8 <= bound <= 10 and bound % 2 == 0
+    if found is not None:
+        assert breaks_of(rounds, found.home, [found.order], None) == found.breaks >= 10
 
 
 def test_ranking_for_ten_and_twelve_teams():

@@ -526,3 +526,50 @@ def best_perfect_for_breaks(n: int, *, seed: int = 0, budget: float = 30.0,
             out.append(Candidate(fact, origin, breaks, min(bound, breaks), order, home, method))
     out.sort(key=lambda c: (c.breaks, c.lower_bound, c.origin))
     return out
+
+
+def stored_best_perfect(n: int) -> Candidate | None:
+    """The perfect single round robin with the fewest breaks stored for ``n`` teams, or ``None``.
+
+    The shipped file ``scheduler/factorization/data/perfect_breaks.json`` is written by
+    ``benchmarks/bench_perfect_breaks.py --store`` (for 16 teams: the exact least over the
+    family searched, see ``docs/perfect-breaks.md``); the tests re-verify it. Instant, so the
+    planner can use it instead of ranking the family again.
+
+    Parameters
+    ----------
+    n
+        Even order.
+
+    Returns
+    -------
+    Candidate or None
+        ``lower_bound`` equals ``breaks`` (exact for that factorization).
+
+    Examples
+    --------
+    >>> stored_best_perfect(16).breaks
+    20
+
+    References
+    ----------
+    ``docs/perfect-breaks.md``.
+    """
+    import json
+    from importlib import resources
+
+    try:
+        text = resources.files("scheduler.factorization").joinpath(
+            "data/perfect_breaks.json").read_text(encoding="utf-8")
+    except FileNotFoundError:  # pragma: no cover - the file ships with the package
+        return None
+    for entry in json.loads(text)["entries"]:
+        if int(entry["n"]) != n:
+            continue
+        rounds = tuple(tuple((int(a), int(b)) for a, b in r) for r in entry["rounds"])
+        fact = Factorization(n, rounds, str(entry["method"]), str(entry["source"]),
+                             dict(entry["details"]))
+        home = {(min(a, b), max(a, b)): a < b for a, b in entry["home_first"]}
+        return Candidate(fact, str(entry["origin"]), int(entry["breaks"]), int(entry["breaks"]),
+                         tuple(int(k) for k in entry["order"]), home, str(entry["proof"]))
+    return None

@@ -84,3 +84,18 @@ def test_ranking_for_ten_and_twelve_teams():
         assert count_breaks(c.factorization.rounds, c.order, c.home, 12) == c.breaks
     with pytest.raises(InputError):
         exact_min_breaks(circle_rounds(18), 18)
+
+
+def test_stored_best_sixteen_team_schedule():
+    # re-verified from scratch: perfect (independent verifier), breaks re-counted by the plain
+    # counter, within de Werra's n - 2 and Post & Woeginger's n(n-2)/4 (the optimality proof,
+    # seconds of Held-Karp, is re-run by benchmarks/bench_perfect_breaks.py --store)
+    from scheduler.balance.perfect_breaks import stored_best_perfect
+    from scheduler.factorization.verify import verify_rounds
+
+    best = stored_best_perfect(16)
+    assert best is not None and stored_best_perfect(18) is None
+    rounds = best.factorization.rounds
+    assert verify_rounds(16, rounds).perfect
+    assert breaks_of(rounds, best.home, [best.order], None) == best.breaks
+    assert 14 <= best.breaks <= 16 * 14 // 4

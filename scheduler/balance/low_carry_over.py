@@ -33,6 +33,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from scheduler.carry_over import carry_over_of_rounds
 from scheduler.errors import InputError
 from scheduler.factorization.circle import circle_rounds
 from scheduler.factorization.model import normalise_round
@@ -71,11 +72,9 @@ def _partners(rounds, n: int) -> np.ndarray:
 
 
 def carry_over_value(rounds: Sequence[Sequence[tuple[int, int]]], n: int) -> int:
-    """Russell's value of the rounds in the given order (cyclic)."""
-    table = _partners(rounds, n)
-    nxt = np.roll(table, -1, axis=0)
-    counts = np.bincount((table * n + nxt).ravel(), minlength=n * n)
-    return int((counts.astype(np.int64) ** 2).sum())
+    """Russell's value of the rounds in the given order (cyclic), by the project's one
+    carry-over count (:func:`scheduler.carry_over.carry_over_of_rounds`)."""
+    return carry_over_of_rounds(rounds, n)
 
 
 class _State:

@@ -40,6 +40,7 @@ import numpy as np
 from scheduler.balance.orders import OrderResult, search_order
 from scheduler.errors import InputError
 from scheduler.factorization.model import Factorization
+from scheduler.home_away import total_breaks
 
 EXACT_MAX_N = 16
 """Largest order with the exact subset dynamic programme (2^15 subsets x 15 rounds x 128)."""
@@ -199,19 +200,15 @@ def home_away_from_classes(rounds, n: int, path: Sequence[tuple[int, int]],
 
 
 def count_breaks(rounds, order: Sequence[int], home: dict[tuple[int, int], bool], n: int) -> int:
-    """Breaks of the single round robin ``order`` with venues ``home`` (plain count: a team at
-    home, or away, in two consecutive rounds; de Werra 1981)."""
-    last: list[bool | None] = [None] * n
-    total = 0
-    for r in order:
-        for a, b in rounds[r]:
-            lo, hi = min(a, b), max(a, b)
-            lo_home = home[(lo, hi)]
-            for team, at_home in ((lo, lo_home), (hi, not lo_home)):
-                if last[team] is not None and last[team] == at_home:
-                    total += 1
-                last[team] = at_home
-    return total
+    """Breaks of the single round robin ``order`` with venues ``home`` (``home[(a, b)]``, a < b:
+    is ``a`` at home), counted by the project's one break count
+    (:func:`scheduler.home_away.total_breaks`; de Werra 1981)."""
+    games = [
+        [(min(a, b), max(a, b)) if home[(min(a, b), max(a, b))] else (max(a, b), min(a, b))
+         for a, b in rounds[r]]
+        for r in order
+    ]
+    return total_breaks(games, n)
 
 
 def exact_min_breaks(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *,

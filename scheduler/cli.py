@@ -386,8 +386,13 @@ def _print_plan(
     _print_rule_checks(fairness.rule_checks)
     from scheduler.fairness.names import plain_text
 
+    if len(result.options) > 1:
+        out.print("options (not dominated: no other option is at least as good in every figure "
+                  "and better in one):")
     for option in result.options:
         mark = "chosen" if option.chosen else "considered"
+        if option.on_frontier and len(result.options) > 1:
+            mark += ", not dominated"
         out.print(f"{mark}: {_plain(plain_text(option.label))}: {_plain(option.figures())}")
     for note in result.notes:
         out.print(f"note: {_plain(plain_text(note))}")

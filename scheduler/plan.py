@@ -40,6 +40,7 @@ from dataclasses import dataclass, replace
 
 from scheduler.balance.carry import improve_order
 from scheduler.balance.dates import candidate_days, day_groups, kickoff
+from scheduler.balance.perfect_breaks import stored_best_perfect
 from scheduler.balance.places import Placement, assign_places
 from scheduler.balance.timetable import SolveLimits, Timetable, solve_timetable
 from scheduler.carry_over import carry_over_of_rounds
@@ -50,6 +51,7 @@ from scheduler.factorization.catalogue import catalogue_factorization
 from scheduler.factorization.circle import circle_factorization, circle_rounds
 from scheduler.factorization.model import Certificate, Factorization
 from scheduler.factorization.verify import verify_rounds
+from scheduler.fairness.frontier import ScheduleOption, frontier
 from scheduler.progress import Progress
 from scheduler.rules.rest_days import calendar_clash
 from scheduler.season import Fixture, MixingInfo, Season
@@ -74,6 +76,10 @@ class PlanOption:
     carry_over: int | None
     chosen: bool
     feasible: bool = True
+    on_frontier: bool = False
+    """No other option considered has at least as many perfect pairs, at most as many breaks and
+    at most the carry-over value, and is better in one of them
+    (:func:`scheduler.fairness.frontier.frontier`)."""
 
     def figures(self) -> str:
         """The option's figures in words, named as in every other output
@@ -229,6 +235,14 @@ def plan_season(
     if not _is_circle(found) and league.priorities.breaks > 0:
         gk = circle_factorization(n)
         cands[0].label = f"best mixing: {found.method}"
+        single = max(1, league.format.legs) == 1
+        stored = stored_best_perfect(n) if cands[0].cert.perfect and single else None
+        if stored is not None and stored.factorization.rounds != found.rounds:
+            # another perfect factorization of the same order that admits fewer breaks in a
+            # single round robin (docs/perfect-breaks.md): perfect mixing kept, breaks lowered
+            fewer = stored.factorization
+            cands.append(_Candidate(f"perfect with fewest breaks: {fewer.method}", fewer,
+                                    verify_rounds(n, fewer.rounds)))
         cands.append(_Candidate(f"fewest breaks: {gk.method}", gk, verify_rounds(n, gk.rounds)))
     else:
         cands[0].label = found.method
@@ -284,12 +298,16 @@ def plan_season(
     effects = silent_effect_notes(league, season)
     season = replace(season, notes=season.notes + effects)
     notes.extend(effects)
+    front = frontier(
+        ScheduleOption(c.label, c.cert.perfect_pairs, c.tt.breaks, c.coe, payload=c)
+        for c in cands if c.tt is not None and c.coe is not None)
     options = tuple(
         PlanOption(
             label=c.label, method=c.fact.method, perfect_pairs=c.cert.perfect_pairs,
             pairs=c.cert.pairs, breaks=c.tt.breaks if c.tt else None,
             break_bound=c.tt.break_bound if c.tt else 0, carry_over=c.coe,
-            chosen=c is chosen, feasible=c.tt is not None)
+            chosen=c is chosen, feasible=c.tt is not None,
+            on_frontier=any(o.payload is c for o in front))
         for c in cands)
     status = "optimal" if tt.status == "optimal" and placement.status == "optimal" else "feasible"
     report("done", 1.0)

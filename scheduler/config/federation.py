@@ -32,10 +32,9 @@ from typing import Annotated, Any, Literal
 
 from pydantic import BeforeValidator, Field, ValidationError
 
-from scheduler.config.loader import parse_league
+from scheduler.config.loader import parse_league, read_config_data
 from scheduler.config.messages import describe, field_path, model_at
 from scheduler.config.model import League, Venue
-from scheduler.config.reading import read_file
 from scheduler.config.schema import (
     NonNegative,
     Section,
@@ -226,15 +225,7 @@ def load_federation(path: str | Path) -> Federation:
     >>> len(fed.divisions) >= 12  # doctest: +SKIP
     True
     """
-    try:
-        data = read_file(path)
-    except ConfigError:
-        raise
-    except Exception as exc:  # never a traceback for a league organizer
-        raise ConfigError(
-            [f"the file could not be read ({type(exc).__name__}: {exc})"], path=str(path)
-        ) from exc
-    return parse_federation(data, source=str(path))
+    return parse_federation(read_config_data(path), source=str(path))
 
 
 def parse_federation(data: Mapping[str, Any], source: str = "<federation>") -> Federation:

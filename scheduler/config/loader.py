@@ -45,17 +45,22 @@ from scheduler.config.schema import GOALS, LeagueFile
 from scheduler.errors import ConfigError
 
 
-def load_league(path: str | Path) -> League:
-    """Read, check and build the league in ``path`` (``.toml``, ``.yaml`` or ``.yml``)."""
+def read_config_data(path: str | Path) -> Any:
+    """The parsed data of a config file (league or federation), every failure a ConfigError
+    naming the file: never a traceback for a league organizer."""
     try:
-        data = read_file(path)
+        return read_file(path)
     except ConfigError:
         raise
-    except Exception as exc:  # never a traceback for a league organizer
+    except Exception as exc:
         raise ConfigError(
             [f"the file could not be read ({type(exc).__name__}: {exc})"], path=str(path)
         ) from exc
-    return parse_league(data, source=str(path))
+
+
+def load_league(path: str | Path) -> League:
+    """Read, check and build the league in ``path`` (``.toml``, ``.yaml`` or ``.yml``)."""
+    return parse_league(read_config_data(path), source=str(path))
 
 
 def parse_league(data: Mapping[str, Any], source: str = "<config>") -> League:

@@ -87,6 +87,20 @@ def write_starter_config(path: str | Path) -> Path:
         text = starter_config_text(target.suffix)
     except InputError as exc:
         raise InputError(str(exc), location=str(target)) from None
+    return write_new_text_file(target, text)
+
+
+def write_new_text_file(path: str | Path, text: str) -> Path:
+    """Write ``text`` (UTF-8, LF line ends) to a new file at ``path``, atomically; never
+    overwrites an existing file. Used for every file the tool creates for the organizer to
+    edit (the starter league, a league built from a team list).
+
+    Raises
+    ------
+    OutputError
+        When the file exists, its folder does not, or it cannot be written.
+    """
+    target = Path(path)
     if target.exists():
         raise OutputError(f"{target}: the file already exists; choose another name or remove it")
     folder = target.parent if str(target.parent) else Path(".")

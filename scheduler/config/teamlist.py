@@ -377,35 +377,14 @@ def _sheet_problem(problem: str, teams: TeamList) -> str:
 
 
 def write_new_file(target: str | Path, text: str) -> Path:
-    """Write ``text`` to ``target`` atomically; never overwrites an existing file.
+    """Write ``text`` to ``target`` atomically; never overwrites an existing file
+    (:func:`scheduler.config.starter.write_new_text_file`).
 
     Raises
     ------
     OutputError
         When the file exists or cannot be written.
     """
-    import contextlib
-    import os
-    import tempfile
+    from scheduler.config.starter import write_new_text_file
 
-    from scheduler.errors import OutputError
-
-    path = Path(target)
-    if path.exists():
-        raise OutputError(f"{path}: the file already exists; choose another name or remove it")
-    folder = path.parent if str(path.parent) else Path(".")
-    if not folder.is_dir():
-        raise OutputError(f"{path}: the folder {folder} does not exist")
-    fd, temp_name = tempfile.mkstemp(prefix=f".{path.name}.", suffix=".tmp", dir=folder)
-    try:
-        with os.fdopen(fd, "w", encoding="utf-8", newline="\n") as handle:
-            handle.write(text)
-        if path.exists():
-            raise OutputError(f"{path}: the file already exists; choose another name")
-        os.replace(temp_name, path)
-    except OSError as exc:
-        raise OutputError(f"{path}: cannot write the file ({exc.strerror or exc})") from None
-    finally:
-        with contextlib.suppress(FileNotFoundError):
-            os.unlink(temp_name)
-    return path
+    return write_new_text_file(target, text)

@@ -21,11 +21,9 @@ UIDs, so a calendar subscribed to a club and a team shows each game once), read 
 from __future__ import annotations
 
 import html
-import io
 import json
 import os
 import shutil
-import zipfile
 from datetime import UTC, datetime
 from pathlib import Path
 
@@ -50,13 +48,13 @@ from scheduler.export.safety import (
     safe_filenames,
     safe_sheet_title,
 )
+from scheduler.export.xlsx import stable_workbook_bytes
 
 INDEX_FILE = "index.html"
 SUMMARY_FILE = "federation.json"
 WORKBOOK_FILE = "divisions.xlsx"
 CLUB_FOLDER = "clubs"
 SUMMARY_FORMAT = "roundrobin-scheduler federation"
-_ZIP_TIME = (1980, 1, 1, 0, 0, 0)
 _RESERVED = {"clubs", "index", "federation", "divisions"}
 HEADERS = ("Round", "Leg", "Date", "Kick-off", "Home", "Away", "Venue", "Court", "Slot")
 
@@ -68,30 +66,12 @@ def division_folders(names: tuple[str, ...]) -> dict[str, str]:
             for name, stem in stems.items()}
 
 
-class _FixedTimeZip(zipfile.ZipFile):
-    """A zip writer giving every member one fixed time, so equal workbooks are equal bytes."""
-
-    def writestr(self, zinfo_or_arcname, data, compress_type=None, compresslevel=None):
-        if not isinstance(zinfo_or_arcname, zipfile.ZipInfo):
-            info = zipfile.ZipInfo(str(zinfo_or_arcname), date_time=_ZIP_TIME)
-            info.compress_type = zipfile.ZIP_DEFLATED
-            info.external_attr = 0o644 << 16
-            zinfo_or_arcname = info
-        return super().writestr(zinfo_or_arcname, data, compress_type, compresslevel)
-
-    def write(self, filename, arcname=None, compress_type=None, compresslevel=None):
-        with open(filename, "rb") as handle:
-            data = handle.read()
-        return self.writestr(arcname or os.path.basename(filename), data)
-
-
 def _cell(text: str | None) -> str | None:
     return neutralise_cell(text) if text is not None else None
 
 
 def workbook_bytes(plan: FederationPlan) -> bytes:
     """The workbook: one sheet of fixtures per division, in file order (fixed bytes)."""
-    from openpyxl.writer.excel import ExcelWriter
 
     wb = Workbook()
     wb.remove(wb.active)
@@ -113,10 +93,7 @@ def workbook_bytes(plan: FederationPlan) -> bytes:
     wb.properties.title = _cell(f"{plan.federation.name} {plan.federation.season}")
     wb.properties.created = stamp
     wb.properties.modified = stamp
-    buffer = io.BytesIO()
-    archive = _FixedTimeZip(buffer, "w", zipfile.ZIP_DEFLATED, allowZip64=True)
-    ExcelWriter(wb, archive).save()
-    return buffer.getvalue()
+    return stable_workbook_bytes(wb)
 
 
 def _moment(component) -> tuple:

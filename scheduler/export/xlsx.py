@@ -530,7 +530,13 @@ def workbook_bytes(
     season: Season, fairness=None, *, side_labels: tuple[str, str] = ("H", "A")
 ) -> bytes:
     """The .xlsx file as bytes; the same season and figures always give the same bytes."""
-    wb = build_workbook(season, fairness, side_labels=side_labels)
+    return stable_workbook_bytes(build_workbook(season, fairness, side_labels=side_labels))
+
+
+def stable_workbook_bytes(wb: Workbook) -> bytes:
+    """Any openpyxl workbook as .xlsx bytes with every zip member stamped with one fixed time,
+    so that equal workbooks give equal bytes (the document properties' dates are the caller's).
+    """
     buffer = io.BytesIO()
     archive = _FixedTimeZip(buffer, "w", zipfile.ZIP_DEFLATED, allowZip64=True)
     ExcelWriter(wb, archive).save()

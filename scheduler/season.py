@@ -108,13 +108,13 @@ class Season:
     venue_addresses: dict[str, str] = field(default_factory=dict)
     venue_coordinates: dict[str, tuple[float, float]] = field(default_factory=dict)
     calendar_end: date | None = None
+    revisions: tuple[Revision, ...] = ()
+    """Earlier versions, oldest first, then this one (empty for a season never re-planned)."""
 
     @property
     def planned(self) -> bool:
         """True for a season planned by this program (it has a plan revision)."""
         return bool(self.revision)
-    revisions: tuple[Revision, ...] = ()
-    """Earlier versions, oldest first, then this one (empty for a season never re-planned)."""
 
     @property
     def rounds(self) -> int:

@@ -212,7 +212,47 @@ def season_from_dict(data) -> Season:
         notes=_str_list(data, "notes", ""),
         revision=_need(data, "revision", str, "", optional=True, default=""),
         revisions=_revisions(data),
+        **_presentation(data),
     )
+
+
+def _presentation(data: dict) -> dict:
+    """The optional presentation fields of a season file (see ``export.season_json``)."""
+    out: dict = {}
+    meaning = _need(data, "home_meaning", str, "", optional=True)
+    if meaning is not None:
+        if meaning not in ("venue", "side"):
+            raise InputError(f"home_meaning must be 'venue' or 'side', got {meaning!r}",
+                             location="home_meaning")
+        out["home_meaning"] = meaning
+    labels = _str_list(data, "side_labels", "")
+    if labels:
+        if len(labels) != 2:
+            raise InputError("side_labels must name two sides", location="side_labels")
+        out["side_labels"] = (labels[0], labels[1])
+    addresses = _need(data, "venue_addresses", dict, "", optional=True, default={})
+    if addresses:
+        if not all(isinstance(k, str) and isinstance(v, str) for k, v in addresses.items()):
+            raise InputError("venue addresses must be text", location="venue_addresses")
+        out["venue_addresses"] = dict(addresses)
+    coordinates = _need(data, "venue_coordinates", dict, "", optional=True, default={})
+    if coordinates:
+        parsed = {}
+        for name, pair in coordinates.items():
+            ok = (isinstance(pair, list) and len(pair) == 2
+                  and all(isinstance(x, int | float) and not isinstance(x, bool) for x in pair))
+            if not ok:
+                raise InputError("a venue position is [latitude, longitude]",
+                                 location=f"venue_coordinates.{name}")
+            parsed[name] = (float(pair[0]), float(pair[1]))
+        out["venue_coordinates"] = parsed
+    end = _need(data, "calendar_end", str, "", optional=True)
+    if end is not None:
+        try:
+            out["calendar_end"] = date.fromisoformat(end)
+        except ValueError as exc:
+            raise InputError(f"not an ISO date: {end!r}", location="calendar_end") from exc
+    return out
 
 
 def loads_season(text: str, *, source: str = "season.json") -> Season:

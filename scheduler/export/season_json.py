@@ -108,7 +108,27 @@ def season_to_dict(season: Season, fairness: FairnessReport | None = None) -> di
         "fairness": fairness.to_dict() if fairness is not None else None,
         **({"revisions": [_revision_dict(r) for r in season.revisions]}
            if season.revisions else {}),
+        **_presentation(season),
     }
+
+
+def _presentation(season: Season) -> dict:
+    """What the outputs show that is not a fixture: the meaning of "home" and the sides' labels,
+    the venues' addresses and map positions, the calendar's last date. Written only where it
+    differs from the defaults, so a season without them keeps its earlier bytes."""
+    out: dict = {}
+    if season.home_meaning != "venue" or season.side_labels != ("Home", "Away"):
+        out["home_meaning"] = season.home_meaning
+        out["side_labels"] = list(season.side_labels)
+    if season.venue_addresses:
+        out["venue_addresses"] = dict(sorted(season.venue_addresses.items()))
+    if season.venue_coordinates:
+        out["venue_coordinates"] = {
+            name: [lat, lon] for name, (lat, lon) in sorted(season.venue_coordinates.items())
+        }
+    if season.calendar_end is not None:
+        out["calendar_end"] = season.calendar_end.isoformat()
+    return out
 
 
 def _revision_dict(r: Revision) -> dict:

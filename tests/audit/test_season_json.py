@@ -170,3 +170,30 @@ def test_round_trip_of_random_seasons(names, seed, with_times):
     back = loads_season(text)
     assert back == season
     assert dumps_season(back, compute_fairness(back)) == text
+
+
+def test_presentation_fields_round_trip_and_older_files_stay_as_they_were():
+    """Side labels, addresses, map positions and the calendar's end survive a write and a read
+    (the standard json module reads the file; the RFC 8259 object keys are checked by name)."""
+    import json
+    from datetime import date
+
+    from scheduler.export.season_json import dumps_season, loads_season
+    from scheduler.season import Fixture, Season
+
+    games = (Fixture(round=1, home="Upper Foxley", away="Sorrel Street", date=date(2031, 5, 3)),)
+    season = Season(
+        league="L", season_id="S", teams=("Upper Foxley", "Sorrel Street"), fixtures=games,
+        home_meaning="side", side_labels=("White", "Black"),
+        venue_addresses={"Lantern Room": "1 Quay Row, Marrowby"},
+        venue_coordinates={"Lantern Room": (54.25, -0.5)}, calendar_end=date(2031, 6, 1),
+    )
+    text = dumps_season(season)
+    data = json.loads(text)
+    assert data["side_labels"] == ["White", "Black"] and data["home_meaning"] == "side"
+    assert data["venue_coordinates"] == {"Lantern Room": [54.25, -0.5]}
+    assert loads_season(text) == season
+    plain = Season(league="L", season_id="S", teams=season.teams, fixtures=games)
+    keys = set(json.loads(dumps_season(plain)))
+    assert not keys & {"home_meaning", "side_labels", "venue_addresses", "venue_coordinates",
+                       "calendar_end"}

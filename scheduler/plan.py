@@ -54,7 +54,7 @@ from scheduler.factorization.verify import verify_rounds
 from scheduler.fairness.frontier import ScheduleOption, frontier
 from scheduler.progress import Progress
 from scheduler.rules.rest_days import calendar_clash
-from scheduler.season import Fixture, MixingInfo, Season
+from scheduler.season import Fixture, MixingInfo, PlanOptionFigures, Season
 
 
 @dataclass(frozen=True)
@@ -309,6 +309,13 @@ def plan_season(
             chosen=c is chosen, feasible=c.tt is not None,
             on_frontier=any(o.payload is c for o in front))
         for c in cands)
+    if len(options) > 1:
+        from scheduler.fairness.names import plain_text
+
+        season = replace(season, options=tuple(
+            PlanOptionFigures(plain_text(o.label), o.perfect_pairs, o.pairs, o.breaks,
+                              o.break_bound, o.carry_over, o.chosen, o.on_frontier)
+            for o in options))
     status = "optimal" if tt.status == "optimal" and placement.status == "optimal" else "feasible"
     report("done", 1.0)
     return PlanResult(season, options, status, tuple(notes))

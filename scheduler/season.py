@@ -72,6 +72,24 @@ class Revision:
     note: str = ""
 
 
+@dataclass(frozen=True, slots=True)
+class PlanOptionFigures:
+    """One option the planner weighed, as the outputs show it: its plain label, its figures
+    (pairs of rounds that mix perfectly out of ``pairs``, breaks with their lower bound, the
+    carry-over value; ``None`` where the option found no timetable that keeps every rule),
+    whether it was chosen, and whether no other option is at least as good in every figure
+    and better in one (``not_dominated``)."""
+
+    label: str
+    perfect_pairs: int
+    pairs: int
+    breaks: int | None
+    break_bound: int
+    carry_over: int | None
+    chosen: bool
+    not_dominated: bool
+
+
 @dataclass(frozen=True)
 class Season:
     """A complete season.
@@ -110,6 +128,8 @@ class Season:
     calendar_end: date | None = None
     revisions: tuple[Revision, ...] = ()
     """Earlier versions, oldest first, then this one (empty for a season never re-planned)."""
+    options: tuple[PlanOptionFigures, ...] = ()
+    """The options the planner weighed (empty for a schedule read from elsewhere)."""
 
     @property
     def planned(self) -> bool:

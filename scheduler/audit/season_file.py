@@ -18,7 +18,7 @@ from zoneinfo import ZoneInfo, ZoneInfoNotFoundError
 from scheduler.audit.limits import check_nesting, read_bytes_limited
 from scheduler.config.names import character_problem
 from scheduler.errors import InputError
-from scheduler.season import Fixture, MixingInfo, Revision, Season
+from scheduler.season import Fixture, MixingInfo, PlanOptionFigures, Revision, Season
 
 FORMAT = "roundrobin-scheduler/season/1"
 """The format tag written into every file; the number after the last slash is the version."""
@@ -252,6 +252,25 @@ def _presentation(data: dict) -> dict:
             out["calendar_end"] = date.fromisoformat(end)
         except ValueError as exc:
             raise InputError(f"not an ISO date: {end!r}", location="calendar_end") from exc
+    raw_options = _need(data, "options", list, "", optional=True, default=[])
+    options = []
+    for i, item in enumerate(raw_options):
+        where = f"options[{i}]"
+        if not isinstance(item, dict):
+            raise InputError("an option must be an object", location=where)
+        options.append(PlanOptionFigures(
+            label=_need(item, "label", str, where),
+            perfect_pairs=_need(item, "perfect_pairs", int, where),
+            pairs=_need(item, "pairs", int, where),
+            breaks=_need(item, "breaks", int, where, optional=True),
+            break_bound=_need(item, "break_bound", int, where, optional=True, default=0),
+            carry_over=_need(item, "carry_over", int, where, optional=True),
+            chosen=_need(item, "chosen", bool, where, optional=True, default=False),
+            not_dominated=_need(item, "not_dominated", bool, where, optional=True,
+                                default=False),
+        ))
+    if options:
+        out["options"] = tuple(options)
     return out
 
 

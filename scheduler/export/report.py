@@ -416,6 +416,56 @@ def stacked_bars(
     return _svg(width, height, paths.svg() + "".join(text), title)
 
 
+def options_chart(options) -> Markup | None:
+    """The options the planner weighed as points: breaks across (fewer is better, to the left),
+    pairs of rounds that mix perfectly upwards (more is better); the chosen option filled, the
+    options no other beats in every figure ringed, the others grey. Numbers match the table."""
+    shown = [(k, o) for k, o in enumerate(options, 1) if o.breaks is not None]
+    if len(shown) < 2:
+        return None
+    left, bottom, span_x, span_y, top = 70, 40, 420, 180, 14
+    lo_b = min(min(o.breaks for _, o in shown), min(o.break_bound for _, o in shown))
+    hi_b = max(o.breaks for _, o in shown)
+    lo_p = min(o.perfect_pairs for _, o in shown)
+    hi_p = max(o.pairs for _, o in shown)
+    width, height = left + span_x + 30, top + span_y + bottom
+
+    pad_b, pad_p = max(1, (hi_b - lo_b) // 10), max(1, (hi_p - lo_p) // 10)
+
+    def x(value: float) -> float:
+        return left + (value - lo_b + pad_b) / (hi_b - lo_b + 2 * pad_b) * span_x
+
+    def y(value: float) -> float:
+        return top + span_y - (value - lo_p + pad_p) / (hi_p - lo_p + 2 * pad_p) * span_y
+
+    body = [
+        f'<line x1="{left}" y1="{top + span_y}" x2="{left + span_x}" y2="{top + span_y}" '
+        'stroke="#555555"/>',
+        f'<line x1="{left}" y1="{top}" x2="{left}" y2="{top + span_y}" stroke="#555555"/>',
+        f'<text x="{left + span_x / 2:g}" y="{height - 8}" text-anchor="middle" class="lbl">'
+        "breaks (fewer is better)</text>",
+        f'<text x="12" y="{top + span_y / 2:g}" class="lbl" transform="rotate(-90 12 '
+        f'{top + span_y / 2:g})" text-anchor="middle">pairs of rounds that mix perfectly</text>',
+    ]
+    for value in sorted({lo_b, hi_b}):
+        body.append(f'<text x="{x(value):g}" y="{top + span_y + 16}" text-anchor="middle" '
+                    f'class="lbl">{value}</text>')
+    for value in sorted({lo_p, hi_p}):
+        body.append(f'<text x="{left - 6}" y="{y(value) + 4:g}" text-anchor="end" '
+                    f'class="lbl">{value}</text>')
+    for k, o in shown:
+        cx, cy = x(o.breaks), y(o.perfect_pairs)
+        fill = OI_BLUE if o.chosen else ("#FFFFFF" if o.not_dominated else "#BBBBBB")
+        ring = OI_BLUE if (o.chosen or o.not_dominated) else "#888888"
+        body.append(
+            f'<circle cx="{cx:g}" cy="{cy:g}" r="9" fill="{fill}" stroke="{ring}" '
+            f'stroke-width="2"><title>{escape(o.label)}</title></circle>'
+            f'<text x="{cx:g}" y="{cy + 4:g}" text-anchor="middle" class="cell" '
+            f'fill="{"#FFFFFF" if o.chosen else "#000000"}">{k}</text>'
+        )
+    return _svg(width, height, "".join(body), "Options weighed by the planner")
+
+
 def bound_gauge(value: int, low: int, high: int) -> Markup:
     """Where a value lies between its lower and upper bound (a marker on a line)."""
     width, pad = 320, 14
@@ -816,6 +866,8 @@ def report_context(season: Season, fairness, changes=None) -> dict:
         "byes": {r: season.byes[r] for r in sorted(season.byes)},
         "notes": [plain_text(n) for n in (*fr.notes, *season.notes)],
         "changes": _change_rows(changes) if changes is not None else None,
+        "options": season.options,
+        "options_chart": options_chart(season.options),
         "change_counts": team_counts(changes) if changes else [],
         "revisions": season.revisions,
         "text_limit": TEXT_LIMIT,

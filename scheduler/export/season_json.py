@@ -128,6 +128,13 @@ def _presentation(season: Season) -> dict:
         }
     if season.calendar_end is not None:
         out["calendar_end"] = season.calendar_end.isoformat()
+    if season.options:
+        out["options"] = [
+            {"label": o.label, "perfect_pairs": o.perfect_pairs, "pairs": o.pairs,
+             "breaks": o.breaks, "break_bound": o.break_bound, "carry_over": o.carry_over,
+             "chosen": o.chosen, "not_dominated": o.not_dominated}
+            for o in season.options
+        ]
     return out
 
 

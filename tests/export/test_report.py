@@ -232,3 +232,29 @@ def test_count_ramp_is_our_own_colour(page):
 
     assert ramp(1, 1) == RAMP_DARK and RAMP_DARK.upper() != "#08306B"
     assert "#08306B" not in page.upper()
+
+
+def test_options_weighed_are_listed_and_drawn():
+    """A planned season's options appear as a table and as points of a chart; the chart's SVG
+    is well-formed XML (read back with the standard library's parser)."""
+    from dataclasses import replace
+
+    from scheduler.export.report import options_chart
+    from scheduler.season import PlanOptionFigures
+
+    season = make_season()
+    options = (
+        PlanOptionFigures("best mixing", 10, 10, 6, 4, 60, False, True),
+        PlanOptionFigures("fewest breaks", 6, 10, 4, 4, 60, True, True),
+        PlanOptionFigures("another", 6, 10, 8, 4, 60, False, False),
+    )
+    chart = options_chart(options)
+    root = ET.fromstring(str(chart))
+    # one titled point per option (the shared pattern definitions hold untitled shapes)
+    points = [el for el in root.iter() if el.tag.endswith("circle")
+              and any(child.tag.endswith("title") for child in el)]
+    assert [p.find("{http://www.w3.org/2000/svg}title").text for p in points] == [
+        "best mixing", "fewest breaks", "another"]
+    page = render_report(replace(season, options=options), compute_fairness(season))
+    assert 'id="options"' in page and "fewest breaks" in page and "not beaten" in page
+    assert options_chart(options[:1]) is None  # one option is no choice: no chart

@@ -111,7 +111,7 @@ def anneal(
     cur = sum(vbreaks(v, seq) for v in verts)
     best = (cur, list(order), [row[:] for row in home])
     t0, t1 = 0.6, 0.1
-    games = [(k, a, b) for k in range(R) for a, b in rounds[k] if bye not in (a, b)]
+    flippable = [(k, a, b) for k in range(R) for a, b in rounds[k] if bye not in (a, b)]
     temp = t0
     cool = (t1 / t0) ** (1.0 / max(1, moves - 1))
     for _step in range(moves):
@@ -127,7 +127,7 @@ def anneal(
             else:
                 order[i], order[j] = order[j], order[i]
         else:
-            k, a, b = games[rng.randrange(len(games))]
+            k, a, b = flippable[rng.randrange(len(flippable))]
             delta = flip_delta(a, k, seq, played, where) + flip_delta(b, k, seq, played, where)
             if delta <= 0 or rng.random() < math.exp(-delta / temp):
                 home[k][a], home[k][b] = home[k][b], home[k][a]

@@ -50,7 +50,7 @@ def canonical_hint(n: int) -> tuple[list[int], Orientation]:
     home: Orientation = {}
     for k in range(1, n):
         games = [(m, k % m)] + [((k + i) % m, (k - i) % m) for i in range(1, n // 2)]
-        key = tuple(sorted(tuple(sorted(g)) for g in games))
+        key = tuple(sorted((min(g), max(g)) for g in games))
         order.append(index[key])
         home_first = [k % 2 == 1] + [i % 2 == 1 for i in range(1, n // 2)]
         for (a, b), first in zip(games, home_first, strict=True):

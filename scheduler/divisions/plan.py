@@ -177,8 +177,8 @@ def plan_unit(fed: Federation, unit: Unit, time_limit: float | None = None) -> U
         The plans, or the error message and conflicts of the first division that failed. Never
         raises for rules that cannot hold, so the result travels back from a worker intact.
     """
-    from scheduler.plan import plan_season
     from scheduler.fairness import compute_fairness
+    from scheduler.plan import plan_season
 
     began = clock.perf_counter()
     cpu_began = clock.process_time()

@@ -232,7 +232,7 @@ def home_away_grid(fairness, letters: dict[str, str] | None = None) -> Markup:
             )
         breaks = set(team.break_rounds)
         for r, ch in enumerate(team.pattern, start=1):
-            x = left + (r - 1) * cell
+            x: float = left + (r - 1) * cell
             style, ink = _HA_STYLE.get(ch, _HA_STYLE["B"])
             paths.cell(style, x, y, cell - 1, cell - 1)
             if small:
@@ -284,7 +284,7 @@ def heat_map(
                 f"<title>{escape(labels[i])}</title>{escape(_label(labels[i], 22))}</text>"
             )
         for j, v in enumerate(row):
-            x = left + j * cell
+            x: float = left + j * cell
             if diagonal and i == j:
                 paths.cell('fill="url(#p-hatch)"', x, y, cell - 1, cell - 1)
                 continue
@@ -327,7 +327,7 @@ def mixing_map(fairness) -> Markup | None:
                 f"{escape(labels[i])}</text>"
             )
         for j, v in enumerate(row):
-            x = left + j * cell
+            x: float = left + j * cell
             if i == j:
                 style, label, ink = 'fill="url(#p-hatch)"', "", "#000000"
             elif v == 1:

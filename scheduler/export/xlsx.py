@@ -251,7 +251,7 @@ def _fixtures_sheet(ws: Worksheet, season: Season) -> None:
                 cell.number_format = DATE_FORMAT
             elif c == 4 and value is not None:
                 cell.number_format = TIME_FORMAT
-            elif c >= 5 and value and "\n" in value:
+            elif c >= 5 and isinstance(value, str) and value and "\n" in value:
                 cell.alignment = _WRAP
     _finish(ws)
 

@@ -17,6 +17,7 @@ import math
 import random
 from collections.abc import Sequence
 
+from scheduler.factorization.model import Round
 from scheduler.home_away import total_breaks
 
 
@@ -140,7 +141,8 @@ def anneal(
     return order, orientation, value
 
 
-def breaks_of(fact_rounds, home_first: dict[tuple[int, int], bool], orders, bye) -> int:
+def breaks_of(fact_rounds: Sequence[Round], home_first: dict[tuple[int, int], bool],
+              orders: Sequence[Sequence[int]], bye: int | None) -> int:
     """Total breaks (byes skipped) when leg ``l`` plays the rounds ``orders[l]`` and every game
     ``(a, b)`` has ``a`` at home in leg 1 iff ``home_first[(a, b)]`` (odd legs swap); counted by
     :func:`scheduler.home_away.total_breaks`."""

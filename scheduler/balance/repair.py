@@ -361,7 +361,7 @@ class RepairModel:
             self.home_on[team] = hs
             self.away_on[team] = aws
 
-    def plays(self, team: str, d: int):
+    def plays(self, team: str, d: int) -> cp_model.LinearExpr:
         return self.home_on[team][d] + self.away_on[team][d]
 
     # --- rules ----------------------------------------------------------------------------

@@ -115,7 +115,7 @@ class TimetableModel:
         self._build_objective()
 
     # --- the interface offered to the rules (scheduler.rules.TimetableView) -----------------
-    def switch(self, statement: str):
+    def switch(self, statement: str) -> cp_model.IntVar:
         """The assumption literal of ``statement`` (one per distinct statement)."""
         return self.book.rule(statement)
 
@@ -123,21 +123,21 @@ class TimetableModel:
         """A statement that cannot hold at all (found before solving): its literal is false."""
         self.book.forbid(statement)
 
-    def vertex_home(self, s: int, v: int):
+    def vertex_home(self, s: int, v: int) -> cp_model.IntVar:
         """Literal: vertex ``v`` plays at home in season round ``s`` (false at its bye)."""
         return self.home_in_round[s][v]
 
-    def vertex_plays(self, s: int, v: int):
+    def vertex_plays(self, s: int, v: int) -> cp_model.BoolVarT | None:
         """Literal 'vertex v plays in season round s' (None = always)."""
         if not self.odd:
             return None
         return self.round_holds[s][self.bye_round[v]].negated()
 
-    def break_at(self, s: int, v: int):
+    def break_at(self, s: int, v: int) -> cp_model.IntVar:
         """Literal: vertex ``v`` has a break in season round ``s`` (``s >= 1``)."""
         return self.break_in_round[s][v]
 
-    def team_home(self, t: int, s: int):
+    def team_home(self, t: int, s: int) -> cp_model.IntVar:
         """Literal 'team t (named) plays at home in season round s'."""
         key = (t, s)
         if key not in self._team_home:
@@ -147,7 +147,7 @@ class TimetableModel:
             self._team_home[key] = literal
         return self._team_home[key]
 
-    def team_bye(self, t: int, s: int):
+    def team_bye(self, t: int, s: int) -> cp_model.IntVar:
         """Literal 'team t (named) has its bye in season round s' (odd leagues)."""
         key = (t, s)
         if key not in self._team_bye:
@@ -158,7 +158,7 @@ class TimetableModel:
             self._team_bye[key] = literal
         return self._team_bye[key]
 
-    def teams_meet(self, a: int, b: int, s: int, literal) -> None:
+    def teams_meet(self, a: int, b: int, s: int, literal: cp_model.IntVar) -> None:
         """Under ``literal``: teams a and b (named) meet in season round s."""
         for v in self.vertices:
             for k in range(self.rounds_per_leg):
@@ -169,7 +169,7 @@ class TimetableModel:
                     clause.append(self.team_on_vertex[b][w])
                 self.cp.add_bool_or(clause)
 
-    def position_in_leg(self, leg: int, k: int):
+    def position_in_leg(self, leg: int, k: int) -> cp_model.LinearExpr | int:
         """Linear expression: the 0-based position of factorization round ``k`` in ``leg``."""
         return sum(q * self.leg_order[leg][q][k] for q in range(self.rounds_per_leg))
 
@@ -293,6 +293,7 @@ class TimetableModel:
                 for v in self.vertices:
                     last = cp.new_bool_var(f"vertex{v}_last_game_home_by_round{s}")
                     plays = self.vertex_plays(s, v)
+                    assert plays is not None  # odd league
                     cp.add(last == self.home_in_round[s][v]).only_enforce_if(plays)
                     if s > 0:
                         cp.add(last == self.last_venue[s - 1][v]).only_enforce_if(plays.negated())
@@ -312,6 +313,7 @@ class TimetableModel:
                 else:
                     y = self.last_venue[s - 1][v]
                     plays = self.vertex_plays(s, v)
+                    assert plays is not None  # odd league
                     cp.add_bool_or([brk.negated(), plays])
                     cp.add_bool_or([brk.negated(), x, y.negated()])
                     cp.add_bool_or([brk.negated(), x.negated(), y])

@@ -32,6 +32,7 @@ from pathlib import Path
 from jinja2 import Environment, FileSystemLoader, StrictUndefined
 from markupsafe import Markup, escape
 
+from scheduler.fairness.model import FairnessReport
 from scheduler.fairness.names import (
     carry_over_over,
     figure_lines,
@@ -207,7 +208,7 @@ _HA_STYLE = {
 }
 
 
-def home_away_grid(fairness, letters: dict[str, str] | None = None) -> Markup:
+def home_away_grid(fairness: FairnessReport, letters: dict[str, str] | None = None) -> Markup:
     """Team-by-round grid of the home-away patterns (H, A, B = bye, X = more than one game,
     or the ``letters`` given for them, see :func:`side_letters`); a black bar under a cell
     marks a break (the second of two home or two away games)."""
@@ -305,7 +306,7 @@ def heat_map(
     return _svg(width, height, paths.svg() + "".join(text), title)
 
 
-def mixing_map(fairness) -> Markup | None:
+def mixing_map(fairness: FairnessReport) -> Markup | None:
     """Round-pair mixing matrix: 1 cycle = perfect (green, ✓); more cycles = imperfect
     (vermillion with a cross-hatch, the number of cycles written in the cell)."""
     matrix = fairness.mixing_matrix
@@ -727,7 +728,7 @@ def _title(season: Season) -> str:
     return " · ".join(part for part in (season.league, season.season_id) if part) or "Schedule"
 
 
-def report_context(season: Season, fairness) -> dict:
+def report_context(season: Season, fairness: FairnessReport) -> dict:
     """Everything the template shows (plain values, and SVG already made safe as Markup)."""
     fr = fairness
     small = len(fr.team_figures) <= TEXT_LIMIT
@@ -800,7 +801,7 @@ def report_context(season: Season, fairness) -> dict:
     }
 
 
-def carry_over_words(fr) -> str:
+def carry_over_words(fr: FairnessReport) -> str:
     """How the carry-over matrix is counted, in words and symbols (a footnote)."""
     over = carry_over_over(fr)
     bye = (
@@ -818,7 +819,7 @@ def carry_over_words(fr) -> str:
     )
 
 
-def render_report(season: Season, fairness) -> str:
+def render_report(season: Season, fairness: FairnessReport) -> str:
     """The report page as HTML text (deterministic: no clock, no random values)."""
     template = _environment().get_template("report.html.j2")
     return template.render(**report_context(season, fairness))

@@ -50,6 +50,7 @@ from scheduler.export.safety import (
     restore_cell,
     safe_sheet_title,
 )
+from scheduler.fairness.model import FairnessReport
 from scheduler.fairness.names import figure_lines, plain_source
 from scheduler.season import Season
 
@@ -494,7 +495,10 @@ def _fairness_sheet(ws: Worksheet, season: Season, fairness) -> None:
 
 
 def build_workbook(
-    season: Season, fairness=None, *, side_labels: tuple[str, str] = ("H", "A")
+    season: Season,
+    fairness: FairnessReport | None = None,
+    *,
+    side_labels: tuple[str, str] = ("H", "A"),
 ) -> Workbook:
     """The workbook object (``fairness`` optional: without it there is no Fairness sheet)."""
     wb = Workbook()
@@ -527,7 +531,10 @@ def build_workbook(
 
 
 def workbook_bytes(
-    season: Season, fairness=None, *, side_labels: tuple[str, str] = ("H", "A")
+    season: Season,
+    fairness: FairnessReport | None = None,
+    *,
+    side_labels: tuple[str, str] = ("H", "A"),
 ) -> bytes:
     """The .xlsx file as bytes; the same season and figures always give the same bytes."""
     wb = build_workbook(season, fairness, side_labels=side_labels)

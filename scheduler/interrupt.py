@@ -7,7 +7,7 @@ between bytecodes, so the ``KeyboardInterrupt`` would come when the solve return
 whole time limit. :func:`solve_interruptibly` therefore turns CP-SAT's handler off, asks Python's
 C-level signal handler to also write the signal number to a socket
 (:func:`signal.set_wakeup_fd`), and a watcher thread that reads the socket calls
-``solver.StopSearch()`` (CP-SAT documents ``StopSearch`` as callable from another thread). The
+``solver.stop_search()`` (CP-SAT documents ``stop_search`` as callable from another thread). The
 solve returns at once and Python's handler raises ``KeyboardInterrupt`` in the main thread.
 
 :func:`sticky_interrupts` (installed by the command line) makes a Ctrl-C impossible to lose: some
@@ -123,7 +123,7 @@ def raise_if_interrupted() -> None:
 
 
 def solve_interruptibly(solver: Any, model: Any) -> Any:
-    """``solver.Solve(model)``, stopped at once by Ctrl-C, which then raises ``KeyboardInterrupt``.
+    """``solver.solve(model)``, stopped at once by Ctrl-C, which then raises ``KeyboardInterrupt``.
 
     Parameters
     ----------
@@ -134,7 +134,7 @@ def solve_interruptibly(solver: Any, model: Any) -> Any:
 
     Returns
     -------
-    The solve status, as ``solver.Solve`` returns it.
+    The solve status, as ``solver.solve`` returns it.
 
     Raises
     ------
@@ -144,7 +144,7 @@ def solve_interruptibly(solver: Any, model: Any) -> Any:
     Examples
     --------
     >>> from ortools.sat.python import cp_model
-    >>> model = cp_model.CpModel(); x = model.NewBoolVar("x"); model.Maximize(x)
+    >>> model = cp_model.CpModel(); x = model.new_bool_var("x"); model.maximize(x)
     >>> solve_interruptibly(cp_model.CpSolver(), model) == cp_model.OPTIMAL
     True
     """
@@ -152,7 +152,7 @@ def solve_interruptibly(solver: Any, model: Any) -> Any:
     with contextlib.suppress(AttributeError, ValueError):
         solver.parameters.catch_sigint_signal = False
     if not _in_main_thread() or signal.getsignal(signal.SIGINT) in (signal.SIG_IGN, None):
-        return solver.Solve(model)
+        return solver.solve(model)
     reader, writer = socket.socketpair()
     reader.setblocking(True)
     writer.setblocking(False)
@@ -169,19 +169,19 @@ def solve_interruptibly(solver: Any, model: Any) -> Any:
                 return
             if signal.SIGINT in data:
                 interrupted.set()
-                solver.StopSearch()
+                solver.stop_search()
 
     try:
         previous_fd = signal.set_wakeup_fd(writer.fileno(), warn_on_full_buffer=False)
     except (ValueError, OSError):
         reader.close()
         writer.close()
-        return solver.Solve(model)
+        return solver.solve(model)
     watcher = threading.Thread(target=watch, name="sigint-watcher", daemon=True)
     watcher.start()
     try:
         pause_point("solve:started")
-        status = solver.Solve(model)
+        status = solver.solve(model)
     finally:
         signal.set_wakeup_fd(previous_fd)
         finished.set()

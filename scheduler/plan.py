@@ -432,9 +432,11 @@ def _tradeoff_notes(cands: list[_Candidate], chosen: _Candidate, why: str | None
         bad = a if a.tt is None else b
         out.append(f"{bad.label}: no timetable satisfies the rules with it")
         return out
+    # here cands is [a, b]: fallbacks are appended only when both failed (returned above)
     figs = "; ".join(
         f"{c.label}: {c.cert.perfect_pairs}/{c.cert.pairs} perfect round pairs, "
-        f"{c.tt.breaks} breaks (lower bound {c.tt.break_bound})" for c in cands)
+        f"{tt.breaks} breaks (lower bound {tt.break_bound})"
+        for c, tt in ((a, a.tt), (b, b.tt)))
     if (a.cert.perfect_pairs > b.cert.perfect_pairs) and (a.tt.breaks > b.tt.breaks):
         out.append(f"better mixing and fewest breaks conflict here: {figs}. "
                    f"Chosen: {chosen.label} because {why}.")
@@ -444,13 +446,16 @@ def _tradeoff_notes(cands: list[_Candidate], chosen: _Candidate, why: str | None
     return out
 
 
-def _reduce_carry_over(league: League, cand: _Candidate, limits: SolveLimits):
+def _reduce_carry_over(league: League, cand: _Candidate,
+                       limits: SolveLimits) -> tuple[Timetable, str]:
     tt = cand.tt
+    assert tt is not None
     fact = cand.fact
     home = {(a, b): h for a, b, h in tt.orientation}
     scheme = league.format.scheme if league.format.legs > 1 else "mirrored"
     bye = fact.n - 1 if len(league.teams) % 2 else None
     before = cand.coe
+    assert before is not None
     keep = league.priorities.breaks >= league.priorities.carry_over
     order = improve_order(fact.rounds, fact.n, tt.order[0], home, scheme,
                           max(1, league.format.legs), tt.order[1:], bye, keep_breaks=keep)
@@ -477,7 +482,7 @@ def _season(league: League, cand: _Candidate, tt: Timetable, placement: Placemen
     names = league.team_names
     R = tt.n - 1
     fixtures = []
-    venue_rank = {v.name: i for i, v in enumerate(league.venues)}
+    venue_rank: dict[str | None, int] = {v.name: i for i, v in enumerate(league.venues)}
     for s, games in enumerate(tt.games):
         day = tt.days[tt.day[s]] if tt.days else None
         for i, (h, a) in enumerate(games):
@@ -490,7 +495,8 @@ def _season(league: League, cand: _Candidate, tt: Timetable, placement: Placemen
     def court_rank(f: Fixture) -> int:
         if f.venue is None:
             return 0
-        return list(league.venue(f.venue).courts).index(f.court)
+        courts: list[str | None] = list(league.venue(f.venue).courts)
+        return courts.index(f.court)
 
     fixtures.sort(key=lambda f: (f.round, f.start or 0, venue_rank.get(f.venue, -1),
                                  court_rank(f), f.home))

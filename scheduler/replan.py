@@ -149,8 +149,7 @@ def _find_postponed(old: Season, events: Events) -> set[int]:
         same = [i for i, f in enumerate(old.fixtures) if (f.home, f.away) == (p.home, p.away)]
         if p.date is not None:
             same = [i for i in same if old.fixtures[i].date == p.date]
-        past = [i for i in same if old.fixtures[i].date is not None and
-                old.fixtures[i].date <= pt]
+        past = [i for i in same if (day := old.fixtures[i].date) is not None and day <= pt]
         if not same:
             reverse = [f for f in old.fixtures if (f.home, f.away) == (p.away, p.home)]
             hint = (f"; did you mean {p.away} v {p.home}"
@@ -285,7 +284,7 @@ def new_revision(previous: Season, events: Events) -> str:
 
 def _sort(league: League, fixtures: list[Fixture]) -> tuple[Fixture, ...]:
     """The planner's order: round, kick-off, venue, court, home team."""
-    venue_rank = {v.name: i for i, v in enumerate(league.venues)}
+    venue_rank: dict[str | None, int] = {v.name: i for i, v in enumerate(league.venues)}
 
     def court_rank(f: Fixture) -> int:
         if f.venue is None or f.venue not in venue_rank:

@@ -17,6 +17,7 @@ import math
 import random
 from collections.abc import Sequence
 
+from scheduler.factorization.model import Round
 from scheduler.home_away import total_breaks
 
 
@@ -111,7 +112,7 @@ def anneal(
     cur = sum(vbreaks(v, seq) for v in verts)
     best = (cur, list(order), [row[:] for row in home])
     t0, t1 = 0.6, 0.1
-    games = [(k, a, b) for k in range(R) for a, b in rounds[k] if bye not in (a, b)]
+    flippable = [(k, a, b) for k in range(R) for a, b in rounds[k] if bye not in (a, b)]
     temp = t0
     cool = (t1 / t0) ** (1.0 / max(1, moves - 1))
     for _step in range(moves):
@@ -127,7 +128,7 @@ def anneal(
             else:
                 order[i], order[j] = order[j], order[i]
         else:
-            k, a, b = games[rng.randrange(len(games))]
+            k, a, b = flippable[rng.randrange(len(flippable))]
             delta = flip_delta(a, k, seq, played, where) + flip_delta(b, k, seq, played, where)
             if delta <= 0 or rng.random() < math.exp(-delta / temp):
                 home[k][a], home[k][b] = home[k][b], home[k][a]
@@ -140,7 +141,8 @@ def anneal(
     return order, orientation, value
 
 
-def breaks_of(fact_rounds, home_first: dict[tuple[int, int], bool], orders, bye) -> int:
+def breaks_of(fact_rounds: Sequence[Round], home_first: dict[tuple[int, int], bool],
+              orders: Sequence[Sequence[int]], bye: int | None) -> int:
     """Total breaks (byes skipped) when leg ``l`` plays the rounds ``orders[l]`` and every game
     ``(a, b)`` has ``a`` at home in leg 1 iff ``home_first[(a, b)]`` (odd legs swap); counted by
     :func:`scheduler.home_away.total_breaks`."""

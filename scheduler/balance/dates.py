@@ -70,28 +70,28 @@ class DayModel:
         self.days = days
         self.groups = groups
         self.on: dict[tuple[int, int], cp_model.IntVar] = {}
-        self.index: list[cp_model.LinearExprT] = []
+        self.index: list[cp_model.LinearExpr | int] = []
         self.ordinal: list[cp_model.LinearExprT] = []
         slack = len(days) - groups
         base = days[0].toordinal() if days else 0
         for g in range(groups):
             lits = []
             for d in range(g, g + slack + 1):
-                lit = model.NewBoolVar(f"day_{g}_{d}")
+                lit = model.new_bool_var(f"day_{g}_{d}")
                 self.on[(g, d)] = lit
                 lits.append((d, lit))
                 if hint:
-                    model.AddHint(lit, d == g)
-            model.AddExactlyOne(lit for _, lit in lits)
+                    model.add_hint(lit, d == g)
+            model.add_exactly_one(lit for _, lit in lits)
             self.index.append(sum(d * lit for d, lit in lits))
             self.ordinal.append(sum((days[d].toordinal() - base) * lit for d, lit in lits))
         for g in range(groups - 1):
-            model.Add(self.index[g + 1] >= self.index[g] + 1)
+            model.add(self.index[g + 1] >= self.index[g] + 1)
 
     def groups_on(self, d: int) -> list[tuple[int, cp_model.IntVar]]:
         """(group, literal) for every group that may be played on candidate day ``d``."""
         return [(g, lit) for (g, dd), lit in self.on.items() if dd == d]
 
-    def lateness(self) -> cp_model.LinearExprT:
+    def lateness(self) -> cp_model.LinearExpr | int:
         """Sum of the chosen day indices (to prefer the earliest days)."""
         return sum(self.index) - sum(range(self.groups))

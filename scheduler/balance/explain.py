@@ -1,9 +1,9 @@
 """Infeasibility explained in the league's own words, with a minimal set of rules.
 
 Every statement of a hard rule is added to the CP-SAT model under its own *assumption literal*
-(the constraints are ``OnlyEnforceIf(literal)`` and the literal is passed to
+(the constraints are ``only_enforce_if(literal)`` and the literal is passed to
 ``AddAssumptions``); rules the league switches off add no literal at all. When the model is
-infeasible, ``CpSolver.SufficientAssumptionsForInfeasibility()`` returns a subset of assumptions
+infeasible, ``CpSolver.sufficient_assumptions_for_infeasibility()`` returns a subset of assumptions
 that cannot all hold; it is shrunk to a *minimal* one with QuickXplain (U. Junker, "QUICKXPLAIN:
 preferred explanations and relaxations for over-constrained problems", AAAI 2004, from memory):
 divide the candidates in two halves, find what the second half must contribute given the first,
@@ -45,7 +45,7 @@ class RuleBook:
         """The literal that switches the rule described by ``text`` on (one per distinct text)."""
         if text in self._by_text:
             return self._by_text[text]
-        lit = self.model.NewBoolVar(f"rule{len(self.literals)}")
+        lit = self.model.new_bool_var(f"rule{len(self.literals)}")
         self.literals.append(lit)
         self.texts.append(text)
         self._by_text[text] = lit
@@ -54,11 +54,11 @@ class RuleBook:
     def forbid(self, text: str) -> None:
         """A rule that cannot hold at all (checked before solving): its literal must be false."""
         lit = self.rule(text)
-        self.model.AddBoolOr([lit.Not()])
+        self.model.add_bool_or([lit.negated()])
 
     def assume_all(self) -> None:
-        self.model.ClearAssumptions()
-        self.model.AddAssumptions(self.literals)
+        self.model.clear_assumptions()
+        self.model.add_assumptions(self.literals)
 
 
 def quickxplain(candidates: list[int], clashes: Callable[[list[int]], bool],
@@ -113,8 +113,8 @@ def explain(
     is still proven infeasible (used to shrink the clash to a minimal one, at most ``checks``
     times).
     """
-    index_of = {lit.Index(): i for i, lit in enumerate(book.literals)}
-    core = sorted(index_of[v] for v in solver.SufficientAssumptionsForInfeasibility()
+    index_of = {lit.index: i for i, lit in enumerate(book.literals)}
+    core = sorted(index_of[v] for v in solver.sufficient_assumptions_for_infeasibility()
                   if v in index_of)
     if core and len(core) > 1:
         core = quickxplain(core, resolve, budget=checks)

@@ -186,6 +186,7 @@ def search_low_carry_over(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *
         temp = t0 * (t1 / t0) ** (step / max(1, moves))
         before = state.value
         kind = rng.random()
+        undo: tuple[tuple[int, ...], tuple[np.ndarray, ...]]
         if change_pairings and kind < 0.5:
             i, j = rng.sample(range(R), 2)
             old = (state.table[i].copy(), state.table[j].copy())
@@ -260,11 +261,12 @@ def best_low_carry_over(n: int, *, seed: int = 0, moves: int = 20_000,
     if start is None and n & (n - 1) == 0:
         from scheduler.factorization.russell import russell_rounds
 
-        rounds = russell_rounds(n)
+        balanced = russell_rounds(n)
         lower, upper = carry_over_bounds(n)
-        return CarryOverResult(rounds, carry_over_value(rounds, n), lower, upper,
+        return CarryOverResult(balanced, carry_over_value(balanced, n), lower, upper,
                                f"Russell GF({n})")
-    rounds = tuple(start) if start is not None else circle_rounds(n)
+    rounds: Sequence[Sequence[tuple[int, int]]] = (
+        tuple(start) if start is not None else circle_rounds(n))
     label = "given start" if start is not None else f"circle GK_{n}"
     how = "order and Kempe" if change_pairings else "order"
     return search_low_carry_over(rounds, n, seed=seed, moves=moves,

@@ -38,9 +38,11 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from scheduler.balance.orders import OrderResult, search_order
+from scheduler.balance.solver import SolveLimits, configure
 from scheduler.errors import InputError
 from scheduler.factorization.model import Factorization
 from scheduler.home_away import total_breaks
+from scheduler.interrupt import solve_interruptibly
 
 EXACT_MAX_N = 16
 """Largest order with the exact subset dynamic programme (2^15 subsets x 15 rounds x 128)."""
@@ -76,11 +78,11 @@ def _classes(rounds: Sequence[Sequence[tuple[int, int]]], n: int) -> np.ndarray:
     size = 1 << (half - 1)
     masks = np.zeros((len(rounds), size), dtype=np.int64)
     for r, games in enumerate(rounds):
-        games = sorted(tuple(sorted(g)) for g in games)
+        ordered = sorted((min(a, b), max(a, b)) for a, b in games)
         for x in range(size):
-            mask = 1 << games[-1][1]
+            mask = 1 << ordered[-1][1]
             for i in range(half - 1):
-                a, b = games[i]
+                a, b = ordered[i]
                 mask |= 1 << (a if (x >> i) & 1 else b)
             masks[r, x] = mask
     return masks
@@ -352,55 +354,52 @@ def cpsat_lower_bound(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *,
 
     R = len(rounds)
     model = cp_model.CpModel()
-    at = [[model.NewBoolVar(f"round_{r}_at_position_{q}") for r in range(R)] for q in range(R)]
+    at = [[model.new_bool_var(f"round_{r}_at_position_{q}") for r in range(R)] for q in range(R)]
     for q in range(R):
-        model.AddExactlyOne(at[q])
+        model.add_exactly_one(at[q])
     for r in range(R):
-        model.AddExactlyOne(at[q][r] for q in range(R))
-    colour = [[model.NewBoolVar(f"colour_of_{v}_at_position_{q}") for v in range(n)]
+        model.add_exactly_one(at[q][r] for q in range(R))
+    colour = [[model.new_bool_var(f"colour_of_{v}_at_position_{q}") for v in range(n)]
               for q in range(R)]
     for q in range(R):
         for r, games in enumerate(rounds):
             for a, b in games:
-                model.Add(colour[q][a] != colour[q][b]).OnlyEnforceIf(at[q][r])
-    model.Add(colour[0][0] == 0)  # swapping every colour keeps every break
+                model.add(colour[q][a] != colour[q][b]).only_enforce_if(at[q][r])
+    model.add(colour[0][0] == 0)  # swapping every colour keeps every break
     if first is not None:
-        model.Add(at[0][first] == 1)
+        model.add(at[0][first] == 1)
     breaks = []
     for q in range(1, R):
         step = []
         for v in range(n):
-            brk = model.NewBoolVar(f"break_of_{v}_at_position_{q}")
-            model.AddBoolXOr([colour[q - 1][v], colour[q][v], brk.Not()])
+            brk = model.new_bool_var(f"break_of_{v}_at_position_{q}")
+            model.add_bool_xor([colour[q - 1][v], colour[q][v], brk.negated()])
             step.append(brk)
-        half_steps = model.NewIntVar(0, n // 2, f"half_breaks_at_position_{q}")
-        model.Add(sum(step) == 2 * half_steps)
+        half_steps = model.new_int_var(0, n // 2, f"half_breaks_at_position_{q}")
+        model.add(sum(step) == 2 * half_steps)
         breaks += step
     total = sum(breaks)
-    model.Add(total >= n - 2)
-    model.Minimize(total)
+    model.add(total >= n - 2)
+    model.minimize(total)
     if hint is not None:
         pos = {r: q for q, r in enumerate(hint.order)}
         for r in range(R):
             for q in range(R):
-                model.AddHint(at[q][r], pos[r] == q)
+                model.add_hint(at[q][r], pos[r] == q)
     solver = cp_model.CpSolver()
-    solver.parameters.num_workers = 1
-    solver.parameters.random_seed = seed
-    solver.parameters.max_deterministic_time = seconds
-    solver.parameters.max_time_in_seconds = 200 * seconds
-    status = solver.Solve(model)
-    bound = int(np.ceil(solver.BestObjectiveBound() - 1e-6))
+    configure(solver, SolveLimits(deterministic=seconds, wall=200 * seconds, seed=seed))
+    status = solve_interruptibly(solver, model)
+    bound = int(np.ceil(solver.best_objective_bound - 1e-6))
     bound = max(bound, n - 2)
     bound += bound % 2
     if status not in (cp_model.OPTIMAL, cp_model.FEASIBLE):
         return bound, None
-    order = tuple(next(r for r in range(R) if solver.Value(at[q][r])) for q in range(R))
+    order = tuple(next(r for r in range(R) if solver.value(at[q][r])) for q in range(R))
     home: dict[tuple[int, int], bool] = {}
     for q, r in enumerate(order):
         for a, b in rounds[r]:
             lo, hi = min(a, b), max(a, b)
-            home[(lo, hi)] = bool(solver.Value(colour[q][lo])) != (q % 2 == 1)
+            home[(lo, hi)] = bool(solver.value(colour[q][lo])) != (q % 2 == 1)
     found = OrderResult(order, home, count_breaks(rounds, order, home, n))
     return min(bound, found.breaks), found
 
@@ -484,14 +483,15 @@ def best_perfect_for_breaks(n: int, *, seed: int = 0, budget: float = 30.0,
     ----------
     Module docstring (Held & Karp 1962; de Werra 1981; CP-SAT).
     """
-    from scheduler.factorization.perfect_family import perfect_family
+    from scheduler.factorization.perfect_family import FamilyMember, perfect_family
 
     if isinstance(n, bool) or not isinstance(n, int) or n < 4 or n % 2:
         raise InputError(f"a perfect single round robin needs an even n >= 4, got {n!r}",
                          location="n")
     members = family if family is not None else perfect_family(n, seed=seed)
-    pairs = [(m.factorization, m.origin) if hasattr(m, "factorization") else (m[0], m[1])
-             for m in members]
+    pairs: list[tuple[Factorization, str]] = [
+        (m.factorization, m.origin) if isinstance(m, FamilyMember) else (m[0], m[1])
+        for m in members]
     out: list[Candidate] = []
     if n <= EXACT_MAX_N and exact:
         incumbent: int | None = None

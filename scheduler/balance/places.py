@@ -78,9 +78,9 @@ def assign_places(league: League, tt: Timetable, limits: SolveLimits) -> Placeme
     by_venue: dict[str, list[int]] = {}
     for vi, v in enumerate(league.venues):
         ids = []
-        for p in _venue_places(league, vi, per_day):
+        for place in _venue_places(league, vi, per_day):
             ids.append(len(all_places))
-            all_places.append(p)
+            all_places.append(place)
         by_venue[v.name] = ids
     everywhere = list(range(len(all_places)))
     venue_mode = league.format.home_meaning == "venue"
@@ -113,31 +113,31 @@ def assign_places(league: League, tt: Timetable, limits: SolveLimits) -> Placeme
     for s, i, _, _ in games:
         lits = []
         for p in opts[(s, i)]:
-            lit = m.NewBoolVar(f"x_{s}_{i}_{p}")
+            lit = m.new_bool_var(f"x_{s}_{i}_{p}")
             x[(s, i, p)] = lit
             lits.append(lit)
-        m.AddExactlyOne(lits)
+        m.add_exactly_one(lits)
     times = sorted({_minutes(p.slot) for p in all_places})
     for _d, rounds in days.items():
         for p in everywhere:
             cell = [x[(s, i, p)] for s in rounds for i in range(len(tt.games[s]))
                     if (s, i, p) in x]
             if len(cell) > 1:
-                m.AddAtMostOne(cell)
+                m.add_at_most_one(cell)
         if len(rounds) > 1:
-            use = {(s, t): m.NewBoolVar(f"u_{s}_{t}") for s in rounds for t in times}
+            use = {(s, t): m.new_bool_var(f"u_{s}_{t}") for s in rounds for t in times}
             for s in rounds:
                 for i in range(len(tt.games[s])):
                     for p in opts[(s, i)]:
-                        m.AddImplication(x[(s, i, p)], use[(s, _minutes(all_places[p].slot))])
+                        m.add_implication(x[(s, i, p)], use[(s, _minutes(all_places[p].slot))])
             for t in times:
-                m.AddAtMostOne(use[(s, t)] for s in rounds)
+                m.add_at_most_one(use[(s, t)] for s in rounds)
             for j, s in enumerate(rounds):
                 for s2 in rounds[j + 1:]:
                     for t in times:
                         for t2 in times:
                             if t2 <= t:
-                                m.AddBoolOr([use[(s, t)].Not(), use[(s2, t2)].Not()])
+                                m.add_bool_or([use[(s, t)].negated(), use[(s2, t2)].negated()])
     w = league.priorities
     objective = []
     court_max = slot_max = None
@@ -151,7 +151,7 @@ def assign_places(league: League, tt: Timetable, limits: SolveLimits) -> Placeme
     ):
         if len(keys) < 2 or weight <= 0:
             continue
-        top = m.NewIntVar(0, P, f"max_{label}")
+        top = m.new_int_var(0, P, f"max_{label}")
         bound = 0
         for t in teams:
             mine = [(s, i) for s, i, h, a in games if t in (h, a)]
@@ -159,10 +159,10 @@ def assign_places(league: League, tt: Timetable, limits: SolveLimits) -> Placeme
             for key in reach:
                 cnt = [x[(s, i, p)] for s, i in mine for p in opts[(s, i)]
                        if key_of(all_places[p]) == key]
-                m.Add(sum(cnt) <= top)
+                m.add(sum(cnt) <= top)
             if reach:
                 bound = max(bound, ceil(len(mine) / len(reach)))
-        m.Add(top >= bound)
+        m.add(top >= bound)
         bounds[label] = bound
         objective.append((weight, top, label))
     if not objective:
@@ -170,16 +170,16 @@ def assign_places(league: League, tt: Timetable, limits: SolveLimits) -> Placeme
         quick = _greedy(games, opts, days, all_places, tt, balance=False)
         if len(quick) == len(games):
             return _result(tt, all_places, quick, None, None, "optimal")
-        m.Minimize(sum(_minutes(all_places[p].slot) * lit for (s, i, p), lit in x.items()))
+        m.minimize(sum(_minutes(all_places[p].slot) * lit for (s, i, p), lit in x.items()))
     else:
-        m.Minimize(sum(wt * var for wt, var, _ in objective))
+        m.minimize(sum(wt * var for wt, var, _ in objective))
     if len(league.venues) == 1 and len(times) == 1 and tt.games:
         # the courts of one venue with one kick-off time are interchangeable: relabel them so
         # that game i of the first round is on court i (symmetry breaking, no loss)
         first = min(range(P), key=lambda s: (tt.day[s], s))
         if len(days[tt.day[first]]) == 1:
             for i in range(len(tt.games[first])):
-                m.Add(x[(first, i, everywhere[i])] == 1)
+                m.add(x[(first, i, everywhere[i])] == 1)
     start = None
     if objective and len(days) == P:
         start = _by_assignment(opts, days, all_places, tt, max(0, w.venue_balance),
@@ -188,13 +188,13 @@ def assign_places(league: League, tt: Timetable, limits: SolveLimits) -> Placeme
         start = _greedy(games, opts, days, all_places, tt)
     for key, p in start.items():
         for q in opts[key]:
-            m.AddHint(x[(key[0], key[1], q)], q == p)
+            m.add_hint(x[(key[0], key[1], q)], q == p)
     complete = len(start) == len(games)
     start_value: dict[str, int] = {}
     if complete:
         for _wt, var, label in objective:
             start_value[label] = _max_use(start, tt, all_places, label)
-            m.AddHint(var, start_value[label])
+            m.add_hint(var, start_value[label])
         if all(start_value[label] <= bounds[label] for _wt, _v, label in objective):
             return _result(tt, all_places, start, start_value.get("court"),
                            start_value.get("slot"), "optimal")
@@ -206,27 +206,28 @@ def assign_places(league: League, tt: Timetable, limits: SolveLimits) -> Placeme
             "the courts and time slots cannot hold the games of some match day",
             ["venue capacities (courts × time slots)",
              f"{per_day} round(s) on each match day"])
-    start_score = sum(wt * start_value[label] for wt, _v, label in objective) if complete else None
-    if complete and (status not in (cp_model.OPTIMAL, cp_model.FEASIBLE)
-                     or solver.ObjectiveValue() > start_score):
-        return _result(tt, all_places, start, start_value.get("court"), start_value.get("slot"),
-                       "feasible")
+    if complete:
+        start_score = sum(wt * start_value[label] for wt, _v, label in objective)
+        if (status not in (cp_model.OPTIMAL, cp_model.FEASIBLE)
+                or solver.objective_value > start_score):
+            return _result(tt, all_places, start, start_value.get("court"),
+                           start_value.get("slot"), "feasible")
     if status not in (cp_model.OPTIMAL, cp_model.FEASIBLE):
         raise InfeasibleError("no assignment of courts and time slots was found in the time "
                               "limit; allow more time (time_limit_seconds in the league file, or "
                               "--time-limit)", [])
     chosen = {}
     for (s, i, p), lit in x.items():
-        if solver.BooleanValue(lit):
+        if solver.boolean_value(lit):
             chosen[(s, i)] = p
     for _wt, var, label in objective:
         if label == "court":
-            court_max = solver.Value(var)
+            court_max = solver.value(var)
         else:
-            slot_max = solver.Value(var)
+            slot_max = solver.value(var)
     out = _result(tt, all_places, chosen, court_max, slot_max,
                   "optimal" if status == cp_model.OPTIMAL else "feasible")
-    if status != cp_model.OPTIMAL and solver.WallTime() >= limits.wall * 0.98:
+    if status != cp_model.OPTIMAL and solver.wall_time >= limits.wall * 0.98:
         out = Placement(out.places, out.court_max, out.slot_max, out.status, True)
     return out
 

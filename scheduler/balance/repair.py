@@ -37,6 +37,7 @@ import itertools
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, field, replace
 from datetime import date, time, timedelta
+from typing import Any
 
 from ortools.sat.python import cp_model
 
@@ -240,8 +241,8 @@ class RepairModel:
                 swapped = forced.home != old.home
                 place = self._forced_place(forced)
                 self.forced_place[g] = place
-                lit = m.NewBoolVar(f"game{g}_moved_by_hand")
-                m.Add(lit == 1)
+                lit = m.new_bool_var(f"game{g}_moved_by_hand")
+                m.add(lit == 1)
                 opts.append((self.day_index[forced.date], swapped, -1 - g, lit))
                 self.options.append(opts)
                 self.same.append(None)
@@ -267,19 +268,19 @@ class RepairModel:
                             and place.slot_label == old.slot
                         )
                         name = f"game{g}_day{d}_{'swapped' if swapped else 'kept'}_place{p}"
-                        lit = m.NewBoolVar(name)
+                        lit = m.new_bool_var(name)
                         opts.append((d, swapped, p, lit))
                         if is_same:
                             same_lit = lit
             if not opts:
                 self.empty.append(g)
             else:
-                m.AddExactlyOne(lit for *_, lit in opts)
+                m.add_exactly_one(lit for *_, lit in opts)
             self.options.append(opts)
             self.same.append(same_lit)
             if same_lit is not None:
                 for *_, lit in opts:
-                    m.AddHint(lit, lit is same_lit)
+                    m.add_hint(lit, lit is same_lit)
         # each place at most once per day
         use: dict[tuple[int, int], list[cp_model.IntVar]] = {}
         for g, opts in enumerate(self.options):
@@ -288,15 +289,15 @@ class RepairModel:
                 use.setdefault(key, []).append(lit)
         for key in sorted(use):
             if len(use[key]) > 1:
-                m.AddAtMostOne(use[key])
+                m.add_at_most_one(use[key])
         self.changed = []
         for g, same_lit in enumerate(self.same):
-            flag = m.NewBoolVar(f"game{g}_differs_from_old_plan")
+            flag = m.new_bool_var(f"game{g}_differs_from_old_plan")
             if same_lit is None:
                 forced_same = g in self.problem.forced and self._forced_same(g)
-                m.Add(flag == (0 if forced_same else 1))
+                m.add(flag == (0 if forced_same else 1))
             else:
-                m.Add(flag == 1 - same_lit)
+                m.add(flag == 1 - same_lit)
             self.changed.append(flag)
 
     def _place_key(self, place: Place) -> int:
@@ -350,24 +351,24 @@ class RepairModel:
         for team in self.teams:
             hs, aws = [], []
             for d in range(len(self.days)):
-                h = m.NewBoolVar(f"{team}_home_day{d}")
-                a = m.NewBoolVar(f"{team}_away_day{d}")
-                m.Add(h == sum(home_lits.get((team, d), [])))
-                m.Add(a == sum(away_lits.get((team, d), [])))
-                m.AddBoolOr([h.Not(), a.Not()])
+                h = m.new_bool_var(f"{team}_home_day{d}")
+                a = m.new_bool_var(f"{team}_away_day{d}")
+                m.add(h == sum(home_lits.get((team, d), [])))
+                m.add(a == sum(away_lits.get((team, d), [])))
+                m.add_bool_or([h.negated(), a.negated()])
                 hs.append(h)
                 aws.append(a)
             self.home_on[team] = hs
             self.away_on[team] = aws
 
-    def plays(self, team: str, d: int):
+    def plays(self, team: str, d: int) -> cp_model.LinearExpr:
         return self.home_on[team][d] + self.away_on[team][d]
 
     # --- rules ----------------------------------------------------------------------------
     def _rule(self, text: str):
         lit = self.book.rule(text)
         if not self.explainable:
-            self.model.Add(lit == 1)
+            self.model.add(lit == 1)
         return lit
 
     def _build_rules(self) -> None:
@@ -381,7 +382,7 @@ class RepairModel:
                     if (days[j] - d1).days - 1 >= rules.min_rest_days:
                         break
                     for team in self.teams:
-                        m.Add(self.plays(team, i) + self.plays(team, j) <= 1).OnlyEnforceIf(lit)
+                        m.add(self.plays(team, i) + self.plays(team, j) <= 1).only_enforce_if(lit)
         for value, home, word in ((rules.max_home_run, True, "home"),
                                   (rules.max_away_run, False, "away")):
             if value is None:
@@ -396,7 +397,7 @@ class RepairModel:
             for team in self.teams:
                 for d in range(len(days)):
                     later = sum(self.plays(team, e) for e in range(d + 1, len(days)))
-                    m.Add(later >= rules.no_breaks_last).OnlyEnforceIf([lit, self.brk[team][d]])
+                    m.add(later >= rules.no_breaks_last).only_enforce_if([lit, self.brk[team][d]])
         if rules.no_breaks_first:
             lit = self._rule(f"no break in a team's games 2..{rules.no_breaks_first + 1} "
                              "(no_breaks_first)")
@@ -404,13 +405,13 @@ class RepairModel:
                 for d in range(len(days)):
                     before = self.history_count[team] + sum(
                         self.plays(team, e) for e in range(d))
-                    m.Add(before >= rules.no_breaks_first + 1).OnlyEnforceIf(
+                    m.add(before >= rules.no_breaks_first + 1).only_enforce_if(
                         [lit, self.brk[team][d]])
         for group in lg.shared_ground_groups:
             lit = self._rule("shared ground: at most one of " + ", ".join(group)
                              + " at home on a match day")
             for d in range(len(days)):
-                m.Add(sum(self.home_on[t][d] for t in group) <= 1).OnlyEnforceIf(lit)
+                m.add(sum(self.home_on[t][d] for t in group) <= 1).only_enforce_if(lit)
         if lg.format.legs > 1:
             self._pair_home_counts()
             if rules.min_separation is not None:
@@ -424,11 +425,11 @@ class RepairModel:
         for d in range(len(self.days)):
             same = self.home_on[team][d] if home else self.away_on[team][d]
             other = self.away_on[team][d] if home else self.home_on[team][d]
-            count = m.NewIntVar(0, top, f"{team}_{'home' if home else 'away'}_run_day{d}")
-            m.Add(count == prev + 1).OnlyEnforceIf([lit, same])
-            m.Add(count <= value).OnlyEnforceIf([lit, same])
-            m.Add(count == 0).OnlyEnforceIf([lit, other])
-            m.Add(count == prev).OnlyEnforceIf([lit, same.Not(), other.Not()])
+            count = m.new_int_var(0, top, f"{team}_{'home' if home else 'away'}_run_day{d}")
+            m.add(count == prev + 1).only_enforce_if([lit, same])
+            m.add(count <= value).only_enforce_if([lit, same])
+            m.add(count == 0).only_enforce_if([lit, other])
+            m.add(count == prev).only_enforce_if([lit, same.negated(), other.negated()])
             prev = count
 
     def _build_breaks(self) -> None:
@@ -443,23 +444,23 @@ class RepairModel:
             row = []
             for d in range(len(self.days)):
                 h, a = self.home_on[team][d], self.away_on[team][d]
-                b = m.NewBoolVar(f"{team}_break_day{d}")
+                b = m.new_bool_var(f"{team}_break_day{d}")
                 if prev_home is not None:
-                    m.Add(b >= h + prev_home + started - 2)
-                    m.Add(b >= a + (1 - prev_home) + started - 2)
+                    m.add(b >= h + prev_home + started - 2)
+                    m.add(b >= a + (1 - prev_home) + started - 2)
                 row.append(b)
                 total.append(b)
-                now_home = m.NewBoolVar(f"{team}_last_side_home_day{d}")
-                m.Add(now_home == 1).OnlyEnforceIf(h)
-                m.Add(now_home == 0).OnlyEnforceIf(a)
+                now_home = m.new_bool_var(f"{team}_last_side_home_day{d}")
+                m.add(now_home == 1).only_enforce_if(h)
+                m.add(now_home == 0).only_enforce_if(a)
                 if prev_home is None:
-                    m.Add(now_home == 0).OnlyEnforceIf([h.Not(), a.Not()])
+                    m.add(now_home == 0).only_enforce_if([h.negated(), a.negated()])
                 else:
-                    m.Add(now_home == prev_home).OnlyEnforceIf([h.Not(), a.Not()])
-                now_started = m.NewBoolVar(f"{team}_has_played_day{d}")
-                m.Add(now_started >= started)
-                m.Add(now_started >= h + a)
-                m.Add(now_started <= started + h + a)
+                    m.add(now_home == prev_home).only_enforce_if([h.negated(), a.negated()])
+                now_started = m.new_bool_var(f"{team}_has_played_day{d}")
+                m.add(now_started >= started)
+                m.add(now_started >= h + a)
+                m.add(now_started <= started + h + a)
                 prev_home, started = now_home, now_started
             self.brk[team] = row
         self.total_breaks = sum(total)
@@ -479,7 +480,7 @@ class RepairModel:
                 for _, swapped, _, lit in self.options[g]:
                     if (old.home == first) != swapped:
                         terms.append(lit)
-            m.Add(sum(terms) == planned)
+            m.add(sum(terms) == planned)
 
     def _separation(self, value: int) -> None:
         m = self.model
@@ -487,7 +488,7 @@ class RepairModel:
         position = {d: i for i, d in enumerate(axis)}
         lit = self._rule(f"at least {value} match days between two meetings of a pair "
                          "(min_separation)")
-        meetings: dict[frozenset[str], list[tuple[int, object]]] = {}
+        meetings: dict[frozenset[str], list[tuple[int, int | cp_model.LinearExpr]]] = {}
         for f in self.problem.history:
             if f.date is not None:
                 meetings.setdefault(f.pair, []).append((f.leg, position[f.date]))
@@ -499,29 +500,29 @@ class RepairModel:
             for (_, early), (_, late) in itertools.pairwise(items):
                 if isinstance(early, int) and isinstance(late, int):
                     continue  # both in history
-                m.Add(late - early - 1 >= value).OnlyEnforceIf(lit)
+                m.add(late - early - 1 >= value).only_enforce_if(lit)
 
     # --- solving --------------------------------------------------------------------------
     def solve(self, limits: SolveLimits) -> RepairResult:
         self.precheck()
         m = self.model
         changed = sum(self.changed)
-        m.Minimize(changed)
+        m.minimize(changed)
         solver = cp_model.CpSolver()
         configure(solver, limits)
         status = solve_interruptibly(solver, m)
-        seconds = proof_seconds = solver.WallTime()
+        seconds = proof_seconds = solver.wall_time
         if status == cp_model.INFEASIBLE:
             raise InfeasibleError("no re-plan keeps every rule", [])
         if status not in (cp_model.OPTIMAL, cp_model.FEASIBLE):
             raise InfeasibleError(
                 "no re-plan was found within the time limit; allow more solve_seconds", [])
-        best = round(solver.ObjectiveValue())
-        bound = round(solver.BestObjectiveBound())
+        best = round(solver.objective_value)
+        bound = round(solver.best_objective_bound)
         proven = status == cp_model.OPTIMAL
-        values = {lit.Index(): solver.Value(lit) for opts in self.options for *_, lit in opts}
+        values = {lit.index: solver.value(lit) for opts in self.options for *_, lit in opts}
         # second stage: keep the change count, prefer reserve dates, then fewest breaks
-        m.Add(changed <= best)
+        m.add(changed <= best)
         off_reserve = []
         for g, opts in enumerate(self.options):
             for d, _, _, lit in opts:
@@ -536,23 +537,23 @@ class RepairModel:
             late += [d * lit for d, _, _, lit in opts if lit is not self.same[g] and d]
         breaks_weight = (len(self.days) + 1) * len(self.options) + 1
         reserve_weight = breaks_weight * (len(self.days) * len(self.teams) + 1)
-        m.Minimize(reserve_weight * sum(off_reserve) + breaks_weight * self.total_breaks
+        m.minimize(reserve_weight * sum(off_reserve) + breaks_weight * self.total_breaks
                    + sum(late))
-        m.ClearHints()
+        m.clear_hints()
         for opts in self.options:
             for *_, lit in opts:
-                m.AddHint(lit, values[lit.Index()])
+                m.add_hint(lit, values[lit.index])
         second = cp_model.CpSolver()
         configure(second, SolveLimits(max(1.0, min(5.0, limits.deterministic / 4)), limits.wall,
                                       limits.seed))
         status2 = solve_interruptibly(second, m)
         notes = []
         use = second if status2 in (cp_model.OPTIMAL, cp_model.FEASIBLE) else solver
-        seconds += second.WallTime()
+        seconds += second.wall_time
         if use is solver:
             notes.append("the reserve-date and breaks stage found nothing better in its time")
         fixtures, on_reserve = self._extract(use)
-        breaks = int(sum(use.Value(b) for row in self.brk.values() for b in row))
+        breaks = int(sum(use.value(b) for row in self.brk.values() for b in row))
         return RepairResult(tuple(fixtures), best, proven, bound, on_reserve, breaks, seconds,
                             tuple(notes), proof_seconds)
 
@@ -560,9 +561,10 @@ class RepairModel:
         out = []
         on_reserve = 0
         for g, old in enumerate(self.problem.future):
-            chosen = [(d, s, p) for d, s, p, lit in self.options[g] if solver.Value(lit)]
+            chosen = [(d, s, p) for d, s, p, lit in self.options[g] if solver.value(lit)]
             d, swapped, p = chosen[0]
-            if self.same[g] is not None and solver.Value(self.same[g]):
+            same_lit = self.same[g]
+            if same_lit is not None and solver.value(same_lit):
                 out.append(old)
                 continue
             day = self.days[d]
@@ -615,8 +617,8 @@ class RepairModel:
             return InfeasibleError("no re-plan was found within the time limit", [])
 
         def still(indices: list[int]) -> bool:
-            self.model.ClearAssumptions()
-            self.model.AddAssumptions([self.book.literals[i] for i in indices])
+            self.model.clear_assumptions()
+            self.model.add_assumptions([self.book.literals[i] for i in indices])
             trial = cp_model.CpSolver()
             configure(trial, SolveLimits(min(limits.deterministic, 2.0), min(limits.wall, 10.0),
                                          limits.seed))
@@ -687,7 +689,8 @@ def relaxations(problem: RepairProblem, limits: SolveLimits) -> list[str]:
     if rules.min_separation:
         lowered.append(("min_separation", rules.min_separation - 1))
     for name, value in lowered:
-        trial = replace(problem, league=replace(league, rules=replace(rules, **{name: value})))
+        lowered_rule: dict[str, Any] = {name: value}
+        trial = replace(problem, league=replace(league, rules=replace(rules, **lowered_rule)))
         if is_feasible(trial, small):
             found.append(f"relax rules.{name} to {value}")
     return found

@@ -12,6 +12,7 @@ it is no worse); the annealing alone for odd leagues above 16 vertices.
 
 from __future__ import annotations
 
+from collections.abc import Sequence
 from dataclasses import dataclass
 from functools import lru_cache
 
@@ -19,7 +20,7 @@ from scheduler import leg_schemes
 from scheduler.balance.anneal import anneal, breaks_of
 from scheduler.balance.orders import EXACT_HALF, MAX_N, OrderResult, search_order
 from scheduler.factorization.circle import circle_rounds
-from scheduler.factorization.model import Factorization
+from scheduler.factorization.model import Factorization, Round
 
 SEARCH_WORK = 7.5e8
 """Order-search work units per second of deterministic solve limit (about half a second of one
@@ -50,7 +51,7 @@ def canonical_hint(n: int) -> tuple[list[int], Orientation]:
     home: Orientation = {}
     for k in range(1, n):
         games = [(m, k % m)] + [((k + i) % m, (k - i) % m) for i in range(1, n // 2)]
-        key = tuple(sorted(tuple(sorted(g)) for g in games))
+        key = tuple(sorted((min(g), max(g)) for g in games))
         order.append(index[key])
         home_first = [k % 2 == 1] + [i % 2 == 1 for i in range(1, n // 2)]
         for (a, b), first in zip(games, home_first, strict=True):
@@ -65,7 +66,7 @@ def _order_search(rounds, n: int, seed: int, work: float, bye: int | None) -> Or
     return search_order(rounds, n, seed=seed, work=work, bye=bye)
 
 
-def greedy_orientation(rounds, order) -> Orientation:
+def greedy_orientation(rounds: Sequence[Round], order: Sequence[int]) -> Orientation:
     """A start orientation for other factorizations: alternate each vertex where possible."""
     last: dict[int, bool] = {}
     home: Orientation = {}

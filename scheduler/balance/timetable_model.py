@@ -95,7 +95,7 @@ class TimetableModel:
         self.rounds_per_leg = n - 1
         self.legs = max(1, league.format.legs)
         self.season_rounds = self.legs * self.rounds_per_leg
-        self.scheme = league.format.scheme if self.legs > 1 else "mirrored"
+        self.scheme: str = league.format.scheme if self.legs > 1 else "mirrored"
         self.bye = n - 1 if self.odd else None
         self.vertices = list(range(n - 1)) if self.odd else list(range(n))
         self.partner = fact.partner_table()
@@ -115,7 +115,7 @@ class TimetableModel:
         self._build_objective()
 
     # --- the interface offered to the rules (scheduler.rules.TimetableView) -----------------
-    def switch(self, statement: str):
+    def switch(self, statement: str) -> cp_model.IntVar:
         """The assumption literal of ``statement`` (one per distinct statement)."""
         return self.book.rule(statement)
 
@@ -123,53 +123,53 @@ class TimetableModel:
         """A statement that cannot hold at all (found before solving): its literal is false."""
         self.book.forbid(statement)
 
-    def vertex_home(self, s: int, v: int):
+    def vertex_home(self, s: int, v: int) -> cp_model.IntVar:
         """Literal: vertex ``v`` plays at home in season round ``s`` (false at its bye)."""
         return self.home_in_round[s][v]
 
-    def vertex_plays(self, s: int, v: int):
+    def vertex_plays(self, s: int, v: int) -> cp_model.BoolVarT | None:
         """Literal 'vertex v plays in season round s' (None = always)."""
         if not self.odd:
             return None
-        return self.round_holds[s][self.bye_round[v]].Not()
+        return self.round_holds[s][self.bye_round[v]].negated()
 
-    def break_at(self, s: int, v: int):
+    def break_at(self, s: int, v: int) -> cp_model.IntVar:
         """Literal: vertex ``v`` has a break in season round ``s`` (``s >= 1``)."""
         return self.break_in_round[s][v]
 
-    def team_home(self, t: int, s: int):
+    def team_home(self, t: int, s: int) -> cp_model.IntVar:
         """Literal 'team t (named) plays at home in season round s'."""
         key = (t, s)
         if key not in self._team_home:
-            literal = self.cp.NewBoolVar(f"team{t}_home_in_round{s}")
+            literal = self.cp.new_bool_var(f"team{t}_home_in_round{s}")
             for v, on_vertex in self.team_on_vertex[t].items():
-                self.cp.Add(literal == self.home_in_round[s][v]).OnlyEnforceIf(on_vertex)
+                self.cp.add(literal == self.home_in_round[s][v]).only_enforce_if(on_vertex)
             self._team_home[key] = literal
         return self._team_home[key]
 
-    def team_bye(self, t: int, s: int):
+    def team_bye(self, t: int, s: int) -> cp_model.IntVar:
         """Literal 'team t (named) has its bye in season round s' (odd leagues)."""
         key = (t, s)
         if key not in self._team_bye:
-            literal = self.cp.NewBoolVar(f"team{t}_bye_in_round{s}")
+            literal = self.cp.new_bool_var(f"team{t}_bye_in_round{s}")
             for v, on_vertex in self.team_on_vertex[t].items():
-                self.cp.Add(literal == self.round_holds[s][self.bye_round[v]]
-                            ).OnlyEnforceIf(on_vertex)
+                self.cp.add(literal == self.round_holds[s][self.bye_round[v]]
+                            ).only_enforce_if(on_vertex)
             self._team_bye[key] = literal
         return self._team_bye[key]
 
-    def teams_meet(self, a: int, b: int, s: int, literal) -> None:
+    def teams_meet(self, a: int, b: int, s: int, literal: cp_model.IntVar) -> None:
         """Under ``literal``: teams a and b (named) meet in season round s."""
         for v in self.vertices:
             for k in range(self.rounds_per_leg):
                 w = self.partner[k][v]
-                clause = [literal.Not(), self.team_on_vertex[a][v].Not(),
-                          self.round_holds[s][k].Not()]
+                clause = [literal.negated(), self.team_on_vertex[a][v].negated(),
+                          self.round_holds[s][k].negated()]
                 if w != self.bye:
                     clause.append(self.team_on_vertex[b][w])
-                self.cp.AddBoolOr(clause)
+                self.cp.add_bool_or(clause)
 
-    def position_in_leg(self, leg: int, k: int):
+    def position_in_leg(self, leg: int, k: int) -> cp_model.LinearExpr | int:
         """Linear expression: the 0-based position of factorization round ``k`` in ``leg``."""
         return sum(q * self.leg_order[leg][q][k] for q in range(self.rounds_per_leg))
 
@@ -181,12 +181,12 @@ class TimetableModel:
     def _permutation(self, leg_name: str) -> list[list[cp_model.IntVar]]:
         """``x[q][k]``: position ``q`` of the leg plays factorization round ``k``."""
         cp, rounds = self.cp, self.rounds_per_leg
-        x = [[cp.NewBoolVar(f"{leg_name}_position{q}_plays_round{k}") for k in range(rounds)]
+        x = [[cp.new_bool_var(f"{leg_name}_position{q}_plays_round{k}") for k in range(rounds)]
              for q in range(rounds)]
         for q in range(rounds):
-            cp.AddExactlyOne(x[q])
+            cp.add_exactly_one(x[q])
         for k in range(rounds):
-            cp.AddExactlyOne(x[q][k] for q in range(rounds))
+            cp.add_exactly_one(x[q][k] for q in range(rounds))
         return x
 
     def _build_round_order(self, fixed_order) -> None:
@@ -200,11 +200,11 @@ class TimetableModel:
         hint_order, hint_home = start.order, start.home
         if fixed_order is not None:
             for q, k in enumerate(fixed_order):
-                cp.Add(self.leg1_order[q][k] == 1)
+                cp.add(self.leg1_order[q][k] == 1)
         self.hint_order, self.hint_home = hint_order, hint_home
         for q in range(rounds):
             for k in range(rounds):
-                cp.AddHint(self.leg1_order[q][k], hint_order[q] == k)
+                cp.add_hint(self.leg1_order[q][k], hint_order[q] == k)
         maps = leg_schemes.leg_maps(self.scheme, self.legs, rounds)
         self.leg_order: list[list[list[cp_model.IntVar]]] = []
         if maps is None:
@@ -217,7 +217,7 @@ class TimetableModel:
                 x = self._permutation(f"leg{leg + 1}")
                 for q in range(rounds):
                     for k in range(rounds):
-                        cp.AddHint(x[q][k], hint_order[inverted[leg][q]] == k)
+                        cp.add_hint(x[q][k], hint_order[inverted[leg][q]] == k)
                 self.leg_order.append(x)
         else:
             for leg_map in maps:
@@ -233,9 +233,9 @@ class TimetableModel:
             for a, b in games:
                 if self.bye in (a, b):
                     continue
-                var = cp.NewBoolVar(f"round{k}_{a}v{b}_vertex{a}_home_in_leg1")
+                var = cp.new_bool_var(f"round{k}_{a}v{b}_vertex{a}_home_in_leg1")
                 self.first_vertex_home[(a, b)] = var
-                cp.AddHint(var, bool(self.hint_home.get((a, b), True)))
+                cp.add_hint(var, bool(self.hint_home.get((a, b), True)))
         # home_in_round[s][v]: vertex v plays at home in season round s (false at its bye)
         self.home_in_round: list[dict[int, cp_model.IntVar]] = []
         self.bye_round: dict[int, int] = {}
@@ -248,19 +248,19 @@ class TimetableModel:
             swapped = leg_schemes.flipped(s // self.rounds_per_leg)
             row = {}
             for v in self.vertices:
-                at_home = cp.NewBoolVar(f"vertex{v}_home_in_round{s}")
+                at_home = cp.new_bool_var(f"vertex{v}_home_in_round{s}")
                 for k in range(self.rounds_per_leg):
                     holds = self.round_holds[s][k]
                     w = self.partner[k][v]
                     if w == self.bye:
-                        cp.Add(at_home == 0).OnlyEnforceIf(holds)
+                        cp.add(at_home == 0).only_enforce_if(holds)
                         continue
                     a, b = (v, w) if v < w else (w, v)
                     var = self.first_vertex_home[(a, b)]
                     if (v == a) != swapped:
-                        cp.Add(at_home == var).OnlyEnforceIf(holds)
+                        cp.add(at_home == var).only_enforce_if(holds)
                     else:
-                        cp.Add(at_home + var == 1).OnlyEnforceIf(holds)
+                        cp.add(at_home + var == 1).only_enforce_if(holds)
                 row[v] = at_home
             self.home_in_round.append(row)
 
@@ -274,13 +274,13 @@ class TimetableModel:
         cp = self.cp
         self.team_on_vertex: dict[int, dict[int, cp_model.IntVar]] = {}
         for t in self.named:
-            self.team_on_vertex[t] = {v: cp.NewBoolVar(f"team{t}_on_vertex{v}")
+            self.team_on_vertex[t] = {v: cp.new_bool_var(f"team{t}_on_vertex{v}")
                                       for v in self.vertices}
-            cp.AddExactlyOne(self.team_on_vertex[t].values())
+            cp.add_exactly_one(self.team_on_vertex[t].values())
             for v in self.vertices:
-                cp.AddHint(self.team_on_vertex[t][v], v == t)
+                cp.add_hint(self.team_on_vertex[t][v], v == t)
         for v in self.vertices:
-            cp.AddAtMostOne(self.team_on_vertex[t][v] for t in self.named)
+            cp.add_at_most_one(self.team_on_vertex[t][v] for t in self.named)
 
     def _build_breaks(self) -> None:
         cp = self.cp
@@ -291,38 +291,40 @@ class TimetableModel:
             for s in range(self.season_rounds):
                 row = {}
                 for v in self.vertices:
-                    last = cp.NewBoolVar(f"vertex{v}_last_game_home_by_round{s}")
+                    last = cp.new_bool_var(f"vertex{v}_last_game_home_by_round{s}")
                     plays = self.vertex_plays(s, v)
-                    cp.Add(last == self.home_in_round[s][v]).OnlyEnforceIf(plays)
+                    assert plays is not None  # odd league
+                    cp.add(last == self.home_in_round[s][v]).only_enforce_if(plays)
                     if s > 0:
-                        cp.Add(last == self.last_venue[s - 1][v]).OnlyEnforceIf(plays.Not())
+                        cp.add(last == self.last_venue[s - 1][v]).only_enforce_if(plays.negated())
                     row[v] = last
                 self.last_venue.append(row)
         for s in range(1, self.season_rounds):
             row = {}
             for v in self.vertices:
-                brk = cp.NewBoolVar(f"vertex{v}_break_in_round{s}")
+                brk = cp.new_bool_var(f"vertex{v}_break_in_round{s}")
                 x = self.home_in_round[s][v]
                 if not self.odd:
                     y = self.home_in_round[s - 1][v]
-                    cp.AddBoolOr([brk, x, y])
-                    cp.AddBoolOr([brk, x.Not(), y.Not()])
-                    cp.AddBoolOr([brk.Not(), x, y.Not()])
-                    cp.AddBoolOr([brk.Not(), x.Not(), y])
+                    cp.add_bool_or([brk, x, y])
+                    cp.add_bool_or([brk, x.negated(), y.negated()])
+                    cp.add_bool_or([brk.negated(), x, y.negated()])
+                    cp.add_bool_or([brk.negated(), x.negated(), y])
                 else:
                     y = self.last_venue[s - 1][v]
                     plays = self.vertex_plays(s, v)
-                    cp.AddBoolOr([brk.Not(), plays])
-                    cp.AddBoolOr([brk.Not(), x, y.Not()])
-                    cp.AddBoolOr([brk.Not(), x.Not(), y])
-                    cp.AddBoolOr([brk, plays.Not(), x, y])
-                    cp.AddBoolOr([brk, plays.Not(), x.Not(), y.Not()])
+                    assert plays is not None  # odd league
+                    cp.add_bool_or([brk.negated(), plays])
+                    cp.add_bool_or([brk.negated(), x, y.negated()])
+                    cp.add_bool_or([brk.negated(), x.negated(), y])
+                    cp.add_bool_or([brk, plays.negated(), x, y])
+                    cp.add_bool_or([brk, plays.negated(), x.negated(), y.negated()])
                 row[v] = brk
             self.break_in_round.append(row)
         self.total_breaks = sum(b for row in self.break_in_round for b in row.values())
         self.bound = leg_schemes.break_lower_bound(self.teams, self.legs, self.scheme)
         if self.season_rounds > 1:
-            cp.Add(self.total_breaks >= self.bound.value)
+            cp.add(self.total_breaks >= self.bound.value)
             per_leg = leg_schemes.leg_break_bound(self.n, self.odd)
             if per_leg:
                 for leg in range(self.legs):
@@ -330,7 +332,7 @@ class TimetableModel:
                               for s in range(leg * self.rounds_per_leg + 1,
                                              (leg + 1) * self.rounds_per_leg)
                               for v in self.vertices]
-                    cp.Add(sum(inside) >= per_leg)
+                    cp.add(sum(inside) >= per_leg)
 
     def _build_days(self) -> None:
         self.candidate_days = candidate_days(self.league, self.season_rounds)
@@ -348,15 +350,15 @@ class TimetableModel:
         if self.earliest_days or (not dated and r.min_rest_days is None):
             # nothing depends on the choice of days: use the first ones
             for g in range(groups):
-                self.cp.Add(self.days.on[(g, g)] == 1)
+                self.cp.add(self.days.on[(g, g)] == 1)
 
     def _build_objective(self) -> None:
         late = self.days.lateness() if self.days is not None else 0
         if self.minimise_breaks:
             span = len(self.day_groups) * max(1, len(self.candidate_days)) + 1
-            self.cp.Minimize(span * self.total_breaks + late)
+            self.cp.minimize(span * self.total_breaks + late)
         else:
-            self.cp.Minimize(late)
+            self.cp.minimize(late)
 
     # --- solving -------------------------------------------------------------------------------
     def solve(self, limits: SolveLimits, *, explain_failure: bool = True) -> Timetable:
@@ -379,7 +381,7 @@ class TimetableModel:
             raise InfeasibleError(
                 "no timetable was found within the time limit; allow more solve_seconds or relax "
                 "the rules", [])
-        hit = status != cp_model.OPTIMAL and solver.WallTime() >= limits.wall * 0.98
+        hit = status != cp_model.OPTIMAL and solver.wall_time >= limits.wall * 0.98
         found = self._extract(solver)
         return Timetable(
             n=self.n, breaks=total_breaks(found["games"], self.teams),
@@ -388,8 +390,8 @@ class TimetableModel:
             days=self.candidate_days, **found)
 
     def _still_infeasible(self, indices: list[int], limits: SolveLimits) -> bool:
-        self.cp.ClearAssumptions()
-        self.cp.AddAssumptions([self.book.literals[i] for i in indices])
+        self.cp.clear_assumptions()
+        self.cp.add_assumptions([self.book.literals[i] for i in indices])
         solver = cp_model.CpSolver()
         # the deterministic limit decides (reproducible answers); the wall clock is only a
         # generous safety net, so that a loaded machine does not change the explanation

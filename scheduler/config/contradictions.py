@@ -78,8 +78,8 @@ def season_problems(league: League) -> list[str]:
     home_count: Counter[tuple[str, str]] = Counter()
     busy_round: dict[tuple[str, int], int] = {}
     busy_day: Counter[tuple[str, date]] = Counter()
-    unavailable = defaultdict(set)
-    no_home = defaultdict(set)
+    unavailable: defaultdict[str, set[date]] = defaultdict(set)
+    no_home: defaultdict[str, set[date]] = defaultdict(set)
     for entry in rules.unavailable:
         unavailable[entry.team] |= set(entry.dates)
     for entry in rules.no_home_games:
@@ -139,7 +139,7 @@ def season_problems(league: League) -> list[str]:
     # A team plays at most rounds_per_day games on a match day, so it needs at least
     # ceil(games / rounds_per_day) match days it is available on.
     if days and not open_end:
-        first_index = {}
+        first_index: dict[str, int] = {}
         for i, entry in enumerate(rules.unavailable):
             first_index.setdefault(entry.team, i)
         for team, i in first_index.items():

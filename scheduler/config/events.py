@@ -50,7 +50,7 @@ from dataclasses import dataclass
 from pathlib import Path
 from typing import Annotated, Any, Literal
 
-from pydantic import BeforeValidator, Field, ValidationError
+from pydantic import BaseModel, BeforeValidator, Field, ValidationError
 
 from scheduler.config.messages import describe, field_path
 from scheduler.config.model import League
@@ -130,7 +130,7 @@ class EventsFile(Section):
         default_factory=list)
 
 
-_SECTIONS = {
+_SECTIONS: dict[str, type[BaseModel]] = {
     "postponed": _GameSection,
     "unavailable": _TeamDates,
     "closed": _Closed,

@@ -101,7 +101,7 @@ def _parse(data: Mapping[str, Any], source: str) -> League:
 DEFAULT_TIME_LIMIT_SECONDS = 10.0
 
 
-def _time_limit(doc: LeagueFile, source: str) -> float:
+def _time_limit(doc: LeagueFile, source: str | None) -> float:
     """``league.time_limit_seconds``, or its old name ``solve_seconds``, or the default."""
     new, old = doc.league.time_limit_seconds, doc.league.solve_seconds
     if new is not None and old is not None:

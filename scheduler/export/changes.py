@@ -13,6 +13,7 @@ from __future__ import annotations
 import csv
 import io
 from collections import Counter
+from collections.abc import Sequence
 from dataclasses import dataclass
 
 from scheduler.season import Fixture
@@ -49,7 +50,7 @@ class GameChange:
         return self.old.teams
 
 
-def team_counts(changes: list[GameChange] | tuple[GameChange, ...]) -> list[tuple[str, int]]:
+def team_counts(changes: Sequence[GameChange]) -> list[tuple[str, int]]:
     """Teams with changed games and how many, most first, then by name."""
     counts: Counter[str] = Counter()
     for change in changes:
@@ -66,7 +67,7 @@ def _day(f: Fixture | None) -> str:
     return f.date.isoformat() if f is not None and f.date is not None else ""
 
 
-def changes_csv(changes: list[GameChange] | tuple[GameChange, ...]) -> str:
+def changes_csv(changes: Sequence[GameChange]) -> str:
     """The text of ``changes.csv`` (see the module docstring).
 
     Parameters

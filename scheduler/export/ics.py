@@ -41,6 +41,7 @@ from collections import Counter
 from collections.abc import Iterable, Mapping
 from dataclasses import dataclass, field, replace
 from datetime import UTC, date, datetime, timedelta
+from typing import SupportsInt, cast
 from zoneinfo import ZoneInfo
 
 from icalendar import Calendar, Event, vText
@@ -388,6 +389,7 @@ def game_summary(record: Mapping[str, object], season: Season) -> str:
 def _event(uid: str, state: EventState, season: Season) -> Event:
     rec = state.record
     start = _start_from_record(rec)
+    assert start is not None, "every calendar record has a start (undated games are left out)"
     event = Event()
     event.add("uid", uid)
     event.add("dtstamp", state.dtstamp)
@@ -406,7 +408,8 @@ def _event(uid: str, state: EventState, season: Season) -> Event:
     event.add("summary", ical_text(game_summary(rec, season)))
     event.add("dtstart", start)
     if isinstance(start, datetime):
-        event.add("dtend", start + timedelta(minutes=int(rec.get("minutes") or 0)))
+        minutes = cast(SupportsInt, rec.get("minutes") or 0)
+        event.add("dtend", start + timedelta(minutes=int(minutes)))
     else:
         event.add("dtend", start + timedelta(days=1))
     location = _location(rec)

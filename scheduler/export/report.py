@@ -32,6 +32,8 @@ from pathlib import Path
 from jinja2 import Environment, FileSystemLoader, StrictUndefined
 from markupsafe import Markup, escape
 
+from scheduler.export.changes import GameChange, team_counts
+from scheduler.fairness.model import FairnessReport
 from scheduler.fairness.names import (
     carry_over_over,
     figure_lines,
@@ -40,7 +42,7 @@ from scheduler.fairness.names import (
     plain_source,
     plain_text,
 )
-from scheduler.season import Season
+from scheduler.season import Fixture, Season
 
 TEXT_LIMIT = 40
 """Largest number of rows (teams, rounds) whose SVG cells get their own text."""
@@ -207,7 +209,7 @@ _HA_STYLE = {
 }
 
 
-def home_away_grid(fairness, letters: dict[str, str] | None = None) -> Markup:
+def home_away_grid(fairness: FairnessReport, letters: dict[str, str] | None = None) -> Markup:
     """Team-by-round grid of the home-away patterns (H, A, B = bye, X = more than one game,
     or the ``letters`` given for them, see :func:`side_letters`); a black bar under a cell
     marks a break (the second of two home or two away games)."""
@@ -232,7 +234,7 @@ def home_away_grid(fairness, letters: dict[str, str] | None = None) -> Markup:
             )
         breaks = set(team.break_rounds)
         for r, ch in enumerate(team.pattern, start=1):
-            x = left + (r - 1) * cell
+            x: float = left + (r - 1) * cell
             style, ink = _HA_STYLE.get(ch, _HA_STYLE["B"])
             paths.cell(style, x, y, cell - 1, cell - 1)
             if small:
@@ -284,7 +286,7 @@ def heat_map(
                 f"<title>{escape(labels[i])}</title>{escape(_label(labels[i], 22))}</text>"
             )
         for j, v in enumerate(row):
-            x = left + j * cell
+            x: float = left + j * cell
             if diagonal and i == j:
                 paths.cell('fill="url(#p-hatch)"', x, y, cell - 1, cell - 1)
                 continue
@@ -305,7 +307,7 @@ def heat_map(
     return _svg(width, height, paths.svg() + "".join(text), title)
 
 
-def mixing_map(fairness) -> Markup | None:
+def mixing_map(fairness: FairnessReport) -> Markup | None:
     """Round-pair mixing matrix: 1 cycle = perfect (green, ✓); more cycles = imperfect
     (vermillion with a cross-hatch, the number of cycles written in the cell)."""
     matrix = fairness.mixing_matrix
@@ -327,7 +329,7 @@ def mixing_map(fairness) -> Markup | None:
                 f"{escape(labels[i])}</text>"
             )
         for j, v in enumerate(row):
-            x = left + j * cell
+            x: float = left + j * cell
             if i == j:
                 style, label, ink = 'fill="url(#p-hatch)"', "", "#000000"
             elif v == 1:
@@ -777,10 +779,10 @@ def _title(season: Season) -> str:
     return " · ".join(part for part in (season.league, season.season_id) if part) or "Schedule"
 
 
-def _change_rows(changes) -> list[dict]:
+def _change_rows(changes: Sequence[GameChange]) -> list[dict]:
     """One row per changed game of a re-plan, old and new side by side, in plain words."""
 
-    def when(f) -> str:
+    def when(f: Fixture | None) -> str:
         if f is None:
             return "cancelled"
         day = f.date.isoformat() if f.date else ""
@@ -799,13 +801,14 @@ def _change_rows(changes) -> list[dict]:
     ]
 
 
-def report_context(season: Season, fairness, changes=None) -> dict:
+def report_context(
+    season: Season, fairness: FairnessReport, changes: Sequence[GameChange] | None = None
+) -> dict:
     """Everything the template shows (plain values, and SVG already made safe as Markup).
 
     ``changes`` are a re-plan's changed games (:class:`scheduler.export.changes.GameChange`);
     ``None`` for a first plan or a schedule read from elsewhere.
     """
-    from scheduler.export.changes import team_counts
 
     fr = fairness
     small = len(fr.team_figures) <= TEXT_LIMIT
@@ -883,7 +886,7 @@ def report_context(season: Season, fairness, changes=None) -> dict:
     }
 
 
-def carry_over_words(fr) -> str:
+def carry_over_words(fr: FairnessReport) -> str:
     """How the carry-over matrix is counted, in words and symbols (a footnote)."""
     over = carry_over_over(fr)
     bye = (
@@ -901,7 +904,9 @@ def carry_over_words(fr) -> str:
     )
 
 
-def render_report(season: Season, fairness, *, changes=None) -> str:
+def render_report(
+    season: Season, fairness: FairnessReport, *, changes: Sequence[GameChange] | None = None
+) -> str:
     """The report page as HTML text (deterministic: no clock, no random values).
 
     ``changes``: a re-plan's changed games, listed in a section of their own.

@@ -50,6 +50,7 @@ from scheduler.export.safety import (
     restore_cell,
     safe_sheet_title,
 )
+from scheduler.fairness.model import FairnessReport
 from scheduler.fairness.names import figure_lines, plain_source
 from scheduler.season import Season
 
@@ -251,7 +252,7 @@ def _fixtures_sheet(ws: Worksheet, season: Season) -> None:
                 cell.number_format = DATE_FORMAT
             elif c == 4 and value is not None:
                 cell.number_format = TIME_FORMAT
-            elif c >= 5 and value and "\n" in value:
+            elif c >= 5 and isinstance(value, str) and value and "\n" in value:
                 cell.alignment = _WRAP
     _finish(ws)
 
@@ -494,7 +495,10 @@ def _fairness_sheet(ws: Worksheet, season: Season, fairness) -> None:
 
 
 def build_workbook(
-    season: Season, fairness=None, *, side_labels: tuple[str, str] = ("H", "A")
+    season: Season,
+    fairness: FairnessReport | None = None,
+    *,
+    side_labels: tuple[str, str] = ("H", "A"),
 ) -> Workbook:
     """The workbook object (``fairness`` optional: without it there is no Fairness sheet)."""
     wb = Workbook()
@@ -527,7 +531,10 @@ def build_workbook(
 
 
 def workbook_bytes(
-    season: Season, fairness=None, *, side_labels: tuple[str, str] = ("H", "A")
+    season: Season,
+    fairness: FairnessReport | None = None,
+    *,
+    side_labels: tuple[str, str] = ("H", "A"),
 ) -> bytes:
     """The .xlsx file as bytes; the same season and figures always give the same bytes."""
     return stable_workbook_bytes(build_workbook(season, fairness, side_labels=side_labels))

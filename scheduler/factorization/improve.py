@@ -28,6 +28,7 @@ machine).
 from __future__ import annotations
 
 import time
+from typing import Any
 
 import numpy as np
 
@@ -149,8 +150,8 @@ def near_perfect_starter(
     best = None
     need = [beat // m + 1] * len(cands)
     own_best = [0] * len(cands)
-    record = {"tried": [f"{g.name} u={u}" for g, u, _, _ in cands], "runs": 0, "nodes": 0,
-              "clock": False}
+    record: dict[str, Any] = {"tried": [f"{g.name} u={u}" for g, u, _, _ in cands], "runs": 0,
+                              "nodes": 0, "clock": False}
     out = np.zeros((classes, 2), dtype=np.int32)
     run = 0
     spent = 0

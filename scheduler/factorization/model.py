@@ -6,7 +6,9 @@ on ``n = teams + 1`` and vertex ``n - 1`` is the bye: the team paired with it si
 
 from __future__ import annotations
 
+from collections.abc import Iterable
 from dataclasses import dataclass, field
+from typing import SupportsInt
 
 # The verifier's result types live with the verifier; they are re-exported here so the value
 # types of the engine stay importable from one module.
@@ -63,7 +65,7 @@ class Factorization:
     def relabel(self, mapping: list[int] | tuple[int, ...]) -> Factorization:
         """The same factorization with vertex ``v`` renamed ``mapping[v]``."""
         rounds = tuple(
-            tuple(sorted(tuple(sorted((mapping[a], mapping[b]))) for a, b in games))
+            tuple(sorted(_game(mapping[a], mapping[b]) for a, b in games))
             for games in self.rounds
         )
         return Factorization(self.n, rounds, self.method, self.source, dict(self.details))
@@ -74,6 +76,11 @@ class Factorization:
         return Factorization(self.n, rounds, self.method, self.source, dict(self.details))
 
 
-def normalise_round(games) -> Round:
+def _game(first: int, second: int) -> Game:
+    """The game of two vertices with the smaller vertex first."""
+    return (first, second) if first <= second else (second, first)
+
+
+def normalise_round(games: Iterable[Iterable[SupportsInt]]) -> Round:
     """Sort a matching into the canonical form used by :class:`Factorization`."""
-    return tuple(sorted(tuple(sorted((int(a), int(b)))) for a, b in games))
+    return tuple(sorted(_game(int(a), int(b)) for a, b in games))

@@ -303,6 +303,7 @@ def search_perfect_group_starter(
 
     m = group.order
     perm = group.automorphism(*automorphism)
+    automorphism_pair = (automorphism[0], automorphism[1])
     orbits = _orbits(group, perm)
     add = np.ascontiguousarray(group.mul, dtype=np.int32)
     neg = np.ascontiguousarray(group.inv, dtype=np.int32)
@@ -325,14 +326,14 @@ def search_perfect_group_starter(
             starter = tuple(sorted((int(min(a, b)), int(max(a, b))) for a, b in out))
             if not is_perfect_group_starter(group, starter):  # pragma: no cover - kernel guard
                 raise AssertionError(f"search kernel returned a non-perfect starter {starter}")
-            return GroupStarterSearchResult(group.name, tuple(automorphism), seed, starter, runs,
+            return GroupStarterSearchResult(group.name, automorphism_pair, seed, starter, runs,
                                             nodes, elapsed, False)
         if status == -1:
-            return GroupStarterSearchResult(group.name, tuple(automorphism), seed, None, runs,
+            return GroupStarterSearchResult(group.name, automorphism_pair, seed, None, runs,
                                             nodes, elapsed, True)
         if progress:
             progress(f"searching {group.name}: {runs} runs, {nodes} nodes",
                      min(1.0, elapsed / budget))
         if elapsed >= budget or (max_nodes is not None and nodes >= max_nodes):
-            return GroupStarterSearchResult(group.name, tuple(automorphism), seed, None, runs,
+            return GroupStarterSearchResult(group.name, automorphism_pair, seed, None, runs,
                                             nodes, elapsed, False)

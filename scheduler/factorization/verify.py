@@ -34,6 +34,7 @@ from __future__ import annotations
 
 from collections.abc import Iterable, Sequence
 from dataclasses import dataclass
+from typing import Any
 
 import numpy as np
 
@@ -171,7 +172,7 @@ def half_cycle_lengths(partners: np.ndarray, first: np.ndarray, second: np.ndarr
     """
     n = partners.shape[1]
     flat = np.ascontiguousarray(partners).ravel()
-    idx_dtype = np.int32 if flat.size < 2**31 else np.int64
+    idx_dtype: type[np.signedinteger[Any]] = np.int32 if flat.size < 2**31 else np.int64
     out = np.zeros(len(first), dtype=np.int64)
     half = n // 2
     for start in range(0, len(first), _BLOCK):

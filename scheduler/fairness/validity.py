@@ -275,9 +275,9 @@ def _check_byes(season: Season, table: SeasonTable, out: _Collector) -> None:
         idle = [teams[t] for t in np.flatnonzero(idle_matrix[r]).tolist()]
         if declared:
             listed = set(declared.get(rnd, ()))
-            for t in idle:
-                if t not in listed:
-                    out.add("bye", f"round {rnd}: {t} has no game and no bye")
+            for idle_team in idle:
+                if idle_team not in listed:
+                    out.add("bye", f"round {rnd}: {idle_team} has no game and no bye")
         if odd and len(idle) > 1:
             out.add(
                 "bye",

@@ -50,14 +50,14 @@ class BreakFreeEnds(HardRule):
             literal = model.switch(f"no_breaks_first = {r.no_breaks_first} (no break in {where})")
             for s in range(1, min(rounds, r.no_breaks_first + 1)):
                 for v in model.vertices:
-                    cp.AddImplication(literal, model.break_at(s, v).Not())
+                    cp.add_implication(literal, model.break_at(s, v).negated())
         if r.no_breaks_last:
             last = "round" if r.no_breaks_last == 1 else f"{r.no_breaks_last} rounds"
             literal = model.switch(f"no_breaks_last = {r.no_breaks_last} (no break in the last "
                                    f"{last})")
             for s in range(max(1, rounds - r.no_breaks_last), rounds):
                 for v in model.vertices:
-                    cp.AddImplication(literal, model.break_at(s, v).Not())
+                    cp.add_implication(literal, model.break_at(s, v).negated())
 
     def check(self, league: League, season: Season) -> tuple[Violation, ...]:
         r = league.rules

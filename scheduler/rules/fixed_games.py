@@ -64,31 +64,31 @@ def _fixed(model: TimetableView, f: FixedFixture) -> None:
     if f.round is not None:
         s = f.round - 1
         if not 0 <= s < model.season_rounds:
-            cp.AddBoolOr([literal.Not()])
+            cp.add_bool_or([literal.negated()])
             return
         model.teams_meet(a, b, s, literal)
         if not f.any_venue:
-            cp.AddImplication(literal, model.team_home(a, s))
+            cp.add_implication(literal, model.team_home(a, s))
         if f.date is not None:  # both a round and a date: that round on that date
             on = None
             if model.days is not None and f.date in model.day_index:
                 on = model.days.on.get((model.group_of_round[s], model.day_index[f.date]))
             if on is None:
-                cp.AddBoolOr([literal.Not()])
+                cp.add_bool_or([literal.negated()])
             else:
-                cp.AddImplication(literal, on)
+                cp.add_implication(literal, on)
         return
     if model.days is None or f.date not in model.day_index:
-        cp.AddBoolOr([literal.Not()])
+        cp.add_bool_or([literal.negated()])
         return
     d = model.day_index[f.date]
     options = []
     for g, on in model.days.groups_on(d):
         for s in model.day_groups[g]:
-            meets_here = cp.NewBoolVar(f"fixed_{a}_v_{b}_in_round{s}")
-            cp.AddImplication(meets_here, on)
+            meets_here = cp.new_bool_var(f"fixed_{a}_v_{b}_in_round{s}")
+            cp.add_implication(meets_here, on)
             model.teams_meet(a, b, s, meets_here)
             if not f.any_venue:
-                cp.AddImplication(meets_here, model.team_home(a, s))
+                cp.add_implication(meets_here, model.team_home(a, s))
             options.append(meets_here)
-    cp.AddBoolOr([literal.Not(), *options])
+    cp.add_bool_or([literal.negated(), *options])

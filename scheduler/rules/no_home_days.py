@@ -54,4 +54,4 @@ def _no_home(model: TimetableView, t: int, name: str, d: date) -> None:
     literal = model.switch(f"{name} cannot play at home on {d.isoformat()}")
     for g, on in model.days.groups_on(model.day_index[d]):
         for s in model.day_groups[g]:
-            model.cp.AddBoolOr([literal.Not(), on.Not(), model.team_home(t, s).Not()])
+            model.cp.add_bool_or([literal.negated(), on.negated(), model.team_home(t, s).negated()])

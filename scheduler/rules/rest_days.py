@@ -63,7 +63,7 @@ class RestDays(HardRule):
         literal = model.switch(text)
         ordinal = model.days.ordinal
         for g in range(len(model.day_groups) - 1):
-            model.cp.Add(ordinal[g + 1] - ordinal[g] >= value + 1).OnlyEnforceIf(literal)
+            model.cp.add(ordinal[g + 1] - ordinal[g] >= value + 1).only_enforce_if(literal)
 
     def check(self, league: League, season: Season) -> tuple[Violation, ...]:
         value = league.rules.min_rest_days

@@ -40,7 +40,7 @@ class RunLimits(HardRule):
         for value, home, word in _limits(model.league):
             literal = model.switch(f"max_{word}_run = {value} for every team")
             if value < 1:
-                model.cp.AddBoolOr([literal.Not()])
+                model.cp.add_bool_or([literal.negated()])
                 continue
             for v in model.vertices:
                 _run_limit(model, v, value, home, literal)
@@ -74,23 +74,23 @@ def _run_limit(model: TimetableView, v: int, value: int, home: bool, literal) ->
         for s in range(rounds - value):
             window = [model.vertex_home(u, v) for u in range(s, s + value + 1)]
             if home:
-                cp.Add(sum(window) <= value).OnlyEnforceIf(literal)
+                cp.add(sum(window) <= value).only_enforce_if(literal)
             else:
-                cp.Add(sum(window) >= 1).OnlyEnforceIf(literal)
+                cp.add(sum(window) >= 1).only_enforce_if(literal)
         return
     # odd league: a counter of the current run that a bye leaves unchanged
     previous = None
     for s in range(rounds):
-        run = cp.NewIntVar(0, value, f"{'home' if home else 'away'}_run_of_vertex{v}_round{s}")
+        run = cp.new_int_var(0, value, f"{'home' if home else 'away'}_run_of_vertex{v}_round{s}")
         plays = model.vertex_plays(s, v)
         at_home = model.vertex_home(s, v)
-        same = at_home if home else at_home.Not()
+        same = at_home if home else at_home.negated()
         if previous is None:
-            cp.Add(run == 1).OnlyEnforceIf([literal, plays, same])
-            cp.Add(run == 0).OnlyEnforceIf([literal, plays, same.Not()])
-            cp.Add(run == 0).OnlyEnforceIf([literal, plays.Not()])
+            cp.add(run == 1).only_enforce_if([literal, plays, same])
+            cp.add(run == 0).only_enforce_if([literal, plays, same.negated()])
+            cp.add(run == 0).only_enforce_if([literal, plays.negated()])
         else:
-            cp.Add(run == previous + 1).OnlyEnforceIf([literal, plays, same])
-            cp.Add(run == 0).OnlyEnforceIf([literal, plays, same.Not()])
-            cp.Add(run == previous).OnlyEnforceIf([literal, plays.Not()])
+            cp.add(run == previous + 1).only_enforce_if([literal, plays, same])
+            cp.add(run == 0).only_enforce_if([literal, plays, same.negated()])
+            cp.add(run == previous).only_enforce_if([literal, plays.negated()])
         previous = run

@@ -51,7 +51,7 @@ class Separation(HardRule):
         for leg in range(model.legs - 1):
             for k in range(rounds):
                 gap = rounds + model.position_in_leg(leg + 1, k) - model.position_in_leg(leg, k) - 1
-                model.cp.Add(gap >= value).OnlyEnforceIf(literal)
+                model.cp.add(gap >= value).only_enforce_if(literal)
 
     def check(self, league: League, season: Season) -> tuple[Violation, ...]:
         value = league.rules.min_separation

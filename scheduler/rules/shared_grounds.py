@@ -66,11 +66,11 @@ def home_days_at_most(model: TimetableView, members: list[int], cap: int, litera
         if per_team and len(rounds) > 1:
             home_that_day = []
             for t in members:
-                at_home = cp.NewBoolVar(f"team{t}_at_home_on_day_of_round{rounds[0]}")
+                at_home = cp.new_bool_var(f"team{t}_at_home_on_day_of_round{rounds[0]}")
                 for s in rounds:
-                    cp.AddImplication(model.team_home(t, s), at_home)
+                    cp.add_implication(model.team_home(t, s), at_home)
                 home_that_day.append(at_home)
-            cp.Add(sum(home_that_day) <= cap).OnlyEnforceIf(literal)
+            cp.add(sum(home_that_day) <= cap).only_enforce_if(literal)
         else:
-            cp.Add(sum(model.team_home(t, s) for t in members for s in rounds) <= cap
-                   ).OnlyEnforceIf(literal)
+            cp.add(sum(model.team_home(t, s) for t in members for s in rounds) <= cap
+                   ).only_enforce_if(literal)

@@ -58,7 +58,7 @@ def _unavailable(model: TimetableView, t: int, name: str, d: date) -> None:
     literal = model.switch(f"{name} is unavailable on {d.isoformat()}")
     for g, on in model.days.groups_on(model.day_index[d]):
         if not model.odd:
-            model.cp.AddBoolOr([literal.Not(), on.Not()])
+            model.cp.add_bool_or([literal.negated(), on.negated()])
         else:
             for s in model.day_groups[g]:
-                model.cp.AddBoolOr([literal.Not(), on.Not(), model.team_bye(t, s)])
+                model.cp.add_bool_or([literal.negated(), on.negated(), model.team_bye(t, s)])

@@ -1,4 +1,4 @@
-"""The report opened in a real headless Chromium (Debian's /usr/bin/chromium) via Playwright:
+"""The report opened in a real headless Chromium (Debian's chromium package, found on PATH) via Playwright:
 it loads with no console error and no failed request, asks for nothing but itself, and its
 screenshot is not blank. Skipped only when Chromium is missing and CI is not set; under CI a
 missing browser is a failure (the CI script installs Debian's chromium package)."""
@@ -7,6 +7,7 @@ from __future__ import annotations
 
 import base64
 import os
+import shutil
 from pathlib import Path
 
 import pytest
@@ -15,7 +16,7 @@ from scheduler.export.report import render_report
 from scheduler.fairness import compute_fairness
 from tests.export.samples import FORMULA, TRICKY, make_season
 
-CHROMIUM = os.environ.get("CHROMIUM", "/usr/bin/chromium")
+CHROMIUM = os.environ.get("CHROMIUM") or shutil.which("chromium") or "chromium"
 ARGS = [
     "--no-sandbox", "--disable-gpu", "--disable-background-networking",
     "--disable-component-update", "--disable-sync", "--no-first-run", "--disable-quic",

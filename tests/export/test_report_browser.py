@@ -1,4 +1,4 @@
-"""The report opened in a real headless Chromium (Debian's chromium package, found on PATH) via Playwright:
+"""The report opened in a real headless Chromium (Debian's chromium, found on PATH), via Playwright:
 it loads with no console error and no failed request, asks for nothing but itself, and its
 screenshot is not blank. Skipped only when Chromium is missing and CI is not set; under CI a
 missing browser is a failure (the CI script installs Debian's chromium package)."""

@@ -1,4 +1,4 @@
-"""The season site in a real headless Chromium (Debian's chromium package, found on PATH) via Playwright.
+"""The season site in a real headless Chromium (Debian's chromium, found on PATH), via Playwright.
 
 Every page loads with no console error and asks for nothing but itself; every link, followed in
 the browser, reaches a file that exists; printed on A4 (ISO 216: 210 mm wide, minus the page's

@@ -17,8 +17,10 @@ The list ``"structured"`` of the same file holds perfect one-factorizations of o
 (:class:`StructuredEntry`), also found by this project's own search
 (``benchmarks/find_structured.py``): ``"group_starter"``, a starter in a non-abelian group
 ``Z_p ⋊_r Z_q`` (:mod:`scheduler.factorization.nonabelian_starters`), and ``"even_starter"``,
-an even starter in ``Z_{n-2}`` (:mod:`scheduler.factorization.even_starters`). They serve the
-orders without a plain starter entry.
+an even starter in ``Z_{n-2}`` (:mod:`scheduler.factorization.even_starters`), and
+``"twin_starter"``, an even starter over ``Z_2 × H`` (``base`` names ``H``; points at infinity
+kept; :mod:`scheduler.factorization.twin_point_starters`, found by
+``benchmarks/find_k52_k56.py``). They serve the orders without a plain starter entry.
 """
 
 from __future__ import annotations
@@ -52,8 +54,10 @@ class CatalogueEntry:
 @dataclass(frozen=True)
 class StructuredEntry:
     """A perfect one-factorization of ``K_n`` of kind ``"group_starter"`` (``group`` is
-    ``(p, q, r)`` for ``Z_p ⋊_r Z_q``; ``automorphism`` the ``(s, c)`` it is invariant under) or
-    ``"even_starter"`` (in ``Z_{n-2}``; ``group`` and ``automorphism`` empty)."""
+    ``(p, q, r)`` for ``Z_p ⋊_r Z_q``; ``automorphism`` the ``(s, c)`` it is invariant under),
+    ``"even_starter"`` (in ``Z_{n-2}``; ``group`` and ``automorphism`` empty) or
+    ``"twin_starter"`` (over ``Z_2 × H``, ``H`` named by ``base``, invariant under the
+    ``multiplier``)."""
 
     n: int
     kind: str
@@ -64,6 +68,8 @@ class StructuredEntry:
     runs: int
     nodes: int
     found_by: str
+    base: str = ""
+    multiplier: int = 1
 
 
 def _read() -> dict:
@@ -87,6 +93,8 @@ def structured_entries() -> tuple[StructuredEntry, ...]:
             runs=int(item["runs"]),
             nodes=int(item["nodes"]),
             found_by=str(item["found_by"]),
+            base=str(item.get("base", "")),
+            multiplier=int(item.get("multiplier", 1)),
         )
         for item in _read().get("structured", [])
     )
@@ -116,6 +124,16 @@ def structured_factorization(entry: StructuredEntry) -> Factorization:
         return even_starter_factorization(
             entry.n - 2, entry.starter, method=f"even starter in Z_{entry.n - 2} (catalogue)",
             source=f"{EVEN_SOURCE}; perfect even starter {found}", details=details,
+        )
+    if entry.kind == "twin_starter":
+        from scheduler.factorization.twin_point_starters import SOURCE as TWIN_SOURCE
+        from scheduler.factorization.twin_point_starters import twin_factorization
+
+        mult = f", multiplier {entry.multiplier}" if entry.multiplier != 1 else ""
+        return twin_factorization(
+            entry.base, entry.starter, method=f"even starter in Z_2 x {entry.base} (catalogue)",
+            source=f"{TWIN_SOURCE}; perfect even starter {found}{mult}",
+            details={**details, "multiplier": entry.multiplier},
         )
     raise ValueError(f"unknown catalogue kind {entry.kind!r}")  # pragma: no cover
 

@@ -1,0 +1,172 @@
+"""Search for perfect one-factorizations of K_52 and K_56 as independent restarts.
+
+Spaces (``scheduler.factorization.twin_point_starters``): even starters over ``Z_2 x H`` with
+``|H| = 25`` (K_52: ``Z_25``, ``Z_5 x Z_5``, ``GF(25)``) or ``|H| = 27`` (K_56: ``Z_27``,
+``Z_3 x Z_9``, ``Z_3 x Z_3 x Z_3``, ``GF(27)``), for every admissible missing element and
+multiplier. Multiplier spaces are small and run to exhaustion first; the plain spaces then get
+seeded restarts until the stop time. Each task is ``run_task(order, space, seed, budget)``, a
+plain top-level function with plain arguments and a JSON-ready result, so that a process pool
+(here) or a distributed engine can map it.
+
+    nice -n 15 python benchmarks/find_k52_k56.py --orders 52 56 --task-seconds 120 \\
+        --stop 17:55 --workers 1
+    nice -n 15 python benchmarks/find_k52_k56.py --rate
+
+Prints one ``#`` line per task (space, seed, found, exhausted, nodes, seconds, nodes/s), then
+per order the nodes searched, the node rate and the time to the first find (or the nodes
+searched without one); finds as JSON lines. ``--rate`` prints the node rate of the new kernel on
+a K_52 space against the cyclic-starter kernel on ``Z_51`` (the reference) in the same run.
+Recorded runs: docs/factorization-search.md.
+"""
+
+from __future__ import annotations
+
+import argparse
+import concurrent.futures as cf
+import datetime as dt
+import json
+import sys
+import time
+
+from scheduler.factorization import twin_point_starters as tw
+
+BASES = {52: ["GF(25)", "Z_25", "Z_5 x Z_5"],
+         56: ["GF(27)", "Z_27", "Z_3 x Z_9", "Z_3 x Z_3 x Z_3"]}
+
+
+def run_task(order: int, space: str, seed: int, budget: float) -> dict:
+    """One restart: the search of ``space`` for ``K_order`` with ``seed`` for ``budget`` s."""
+    return tw.search_task(order, space, seed, budget)
+
+
+def spaces(order: int) -> tuple[list[str], list[str]]:
+    """``(multiplier spaces, plain spaces)`` for ``K_order``."""
+    small, plain = [], []
+    for base in BASES[order]:
+        for missing in tw.missing_representatives(base):
+            for size, u in tw.multiplier_choices(base, missing):
+                name = tw.space_name(base, swapped=False, missing=missing,
+                                     multiplier=1 if size == 1 else u)
+                (plain if size == 1 else small).append(name)
+    return small, plain
+
+
+def _stop_time(text: str | None) -> float | None:
+    if not text:
+        return None
+    now = dt.datetime.now(dt.UTC)
+    hour, minute = (int(v) for v in text.split(":"))
+    stop = now.replace(hour=hour, minute=minute, second=0, microsecond=0)
+    return time.time() + (stop - now).total_seconds()
+
+
+def rate() -> None:
+    from scheduler.factorization.groups import cyclic
+    from scheduler.factorization.search import search_perfect_starter
+
+    work = 3_000_000
+    search_perfect_starter(cyclic(15), budget=1)
+    tw.search_perfect_twin_starter("Z_5", 3, budget=1)
+    figures = {}
+    for label, call in [
+        ("cyclic starters Z_51 (reference)",
+         lambda: search_perfect_starter(cyclic(51), max_nodes=work, budget=60)),
+        ("even starters Z_2 x GF(25), m=3",
+         lambda: tw.search_perfect_twin_starter("GF(25)", 3, max_nodes=work, budget=60)),
+        ("even starters Z_2 x Z_27, m=2",
+         lambda: tw.search_perfect_twin_starter("Z_27", 2, max_nodes=work, budget=60)),
+    ]:
+        start = time.perf_counter()
+        res = call()
+        figures[label] = res.nodes / (time.perf_counter() - start)
+    ref = next(iter(figures.values()))
+    for label, value in figures.items():
+        print(f"{label:36s} {value:12,.0f} nodes/s  ratio {value / ref:5.2f}")
+
+
+def main() -> None:
+    parser = argparse.ArgumentParser(description=__doc__,
+                                     formatter_class=argparse.RawDescriptionHelpFormatter)
+    parser.add_argument("--orders", type=int, nargs="+", default=[52, 56], choices=[52, 56])
+    parser.add_argument("--task-seconds", type=float, default=120.0)
+    parser.add_argument("--small-seconds", type=float, default=60.0,
+                        help="budget of one multiplier-space task")
+    parser.add_argument("--seeds", type=int, default=1000, help="restarts per plain space")
+    parser.add_argument("--stop", help="UTC time HH:MM after which no task starts")
+    parser.add_argument("--workers", type=int, default=1)
+    parser.add_argument("--skip-small", action="store_true")
+    parser.add_argument("--space", action="append", default=[],
+                        help="search only this space (repeatable; seeds round-robin)")
+    parser.add_argument("--rate", action="store_true")
+    args = parser.parse_args()
+    if args.rate:
+        rate()
+        return
+    stop = _stop_time(args.stop)
+    tasks: list[tuple[int, str, int, float]] = []
+    plain_tasks: list[tuple[int, str, int, float]] = []
+    for name in args.space:
+        base = tw.parse_space(name)[0]
+        order = tw.twin_group(base).order + 2
+        plain_tasks += [(order, name, seed, args.task_seconds) for seed in range(args.seeds)]
+    for order in [] if args.space else args.orders:
+        small, plain = spaces(order)
+        if not args.skip_small:
+            tasks += [(order, name, 0, args.small_seconds) for name in small]
+        plain_tasks += [(order, name, seed, args.task_seconds)
+                        for seed in range(args.seeds) for name in plain]
+    # interleave the orders' plain restarts so both get time
+    tasks += sorted(plain_tasks, key=lambda t: (t[2], t[0]))
+    totals = {order: {"nodes": 0, "seconds": 0.0, "tasks": 0, "first": None}
+              for order in sorted({t[0] for t in tasks})}
+    start = time.perf_counter()
+    with cf.ProcessPoolExecutor(max_workers=args.workers) as pool:
+        pending: set[cf.Future] = set()
+        queue = iter(tasks)
+        done_orders: set[int] = set()
+
+        def submit() -> bool:
+            for order, name, seed, budget in queue:
+                if order in done_orders:
+                    continue
+                if stop is not None:
+                    left = stop - time.time()
+                    if left < 5:
+                        return False
+                    budget = min(budget, left)
+                pending.add(pool.submit(run_task, order, name, seed, budget))
+                return True
+            return False
+
+        for _ in range(args.workers):
+            submit()
+        while pending:
+            finished, _ = cf.wait(pending, return_when=cf.FIRST_COMPLETED)
+            for fut in finished:
+                pending.discard(fut)
+                res = fut.result()
+                tot = totals[res["order"]]
+                tot["nodes"] += res["nodes"]
+                tot["seconds"] += res["seconds"]
+                tot["tasks"] += 1
+                speed = res["nodes"] / max(res["seconds"], 1e-9)
+                print(f"# K_{res['order']} {res['space']} seed {res['seed']}: "
+                      f"found={res['found']} exhausted={res['exhausted']} "
+                      f"nodes={res['nodes']} {res['seconds']:.1f}s {speed:,.0f} nodes/s",
+                      file=sys.stderr, flush=True)
+                if res["found"]:
+                    if tot["first"] is None:
+                        tot["first"] = time.perf_counter() - start
+                    done_orders.add(res["order"])
+                    print(json.dumps(res), flush=True)
+                submit()
+    for order, tot in totals.items():
+        speed = tot["nodes"] / max(tot["seconds"], 1e-9)
+        first = (f"first find after {tot['first']:.1f}s" if tot["first"] is not None
+                 else f"no find in {tot['nodes']:,} nodes")
+        print(f"K_{order}: {tot['tasks']} tasks, {tot['nodes']:,} nodes, "
+              f"{tot['seconds']:.0f}s of search, {speed:,.0f} nodes/s, {first}", flush=True)
+
+
+if __name__ == "__main__":
+    main()

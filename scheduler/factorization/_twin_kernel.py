@@ -1,0 +1,185 @@
+"""Numba kernel of the search for perfect even starters over ``Z_2 × H`` with the two fixed
+points kept or swapped (see :mod:`scheduler.factorization.twin_point_starters`; imported lazily
+from there).
+
+Vertices are the group codes ``0..M-1``, ``∞1 = M`` and ``∞2 = M + 1``. Path system ``s`` with
+``s < len(reps)`` holds the partial union ``F_0 ∪ F_g`` (``g = reps[s]``); the last system holds
+``F_0 ∪ E`` (``E`` the fixed round). Pairs are chosen whole orbits at a time under the
+multiplier permutation ``mulu``; a pair is refused as soon as it closes a cycle shorter than
+``M + 2`` in any system. Path-system helpers: those of the odd-starter kernel
+(``_search_kernel.py``).
+"""
+
+from __future__ import annotations
+
+import numba
+import numpy as np
+
+from scheduler.factorization._search_kernel import (
+    _add_edge,
+    _path_state,
+    _shuffle_row,
+    _undo,
+)
+
+
+@numba.njit(cache=True)
+def twin_search_kernel(M, add, neg, mulu, par, tinv, mis, twist, reps, seed, shuffle,
+                       node_limit, out_pairs):
+    """Returns ``(status, nodes)``: 1 found (pairs in ``out_pairs``), 0 node limit hit, -1 the
+    space (this missing element, multiplier and twist) holds no perfect even starter."""
+    np.random.seed(seed)
+    n = M + 2
+    inf1 = M
+    inf2 = M + 1
+    R = reps.shape[0]
+    T = R + 1
+    end, size, trail_t, trail_v, trail_e, trail_s, top = _path_state(T, n)
+    ok = True
+    for s in range(R):
+        g = reps[s]
+        ok = ok and _add_edge(s, inf1, 0, n, end, size, trail_t, trail_v, trail_e, trail_s, top)
+        ok = ok and _add_edge(s, inf2, mis, n, end, size, trail_t, trail_v, trail_e, trail_s,
+                              top)
+        a1 = inf1
+        a2 = inf2
+        if twist and par[g] == 1:
+            a1 = inf2
+            a2 = inf1
+        ok = ok and _add_edge(s, a1, g, n, end, size, trail_t, trail_v, trail_e, trail_s, top)
+        ok = ok and _add_edge(s, a2, add[mis, g], n, end, size,
+                              trail_t, trail_v, trail_e, trail_s, top)
+    e = R
+    ok = ok and _add_edge(e, inf1, inf2, n, end, size, trail_t, trail_v, trail_e, trail_s, top)
+    ok = ok and _add_edge(e, inf1, 0, n, end, size, trail_t, trail_v, trail_e, trail_s, top)
+    ok = ok and _add_edge(e, inf2, mis, n, end, size, trail_t, trail_v, trail_e, trail_s, top)
+    for x in range(M):
+        y = add[x, tinv]
+        if x < y:
+            ok = ok and _add_edge(e, x, y, n, end, size, trail_t, trail_v, trail_e, trail_s,
+                                  top)
+    if not ok:
+        return -1, 0
+    top[0] = 0
+
+    used = np.zeros(M, np.bool_)
+    used[0] = True
+    used[mis] = True
+    dused = np.zeros(M, np.bool_)
+    dused[0] = True
+    dused[tinv] = True
+    maxd = M // 2 + 1
+    cand = np.empty((maxd, M), np.int32)
+    ncand = np.zeros(maxd, np.int32)
+    ci = np.zeros(maxd, np.int32)
+    cx = np.zeros(maxd, np.int32)
+    mark = np.zeros(maxd, np.int64)
+    op = np.empty((maxd, M, 2), np.int32)
+    opn = np.zeros(maxd, np.int32)
+    depth = 0
+    nodes = 0
+    need_gen = True
+    while True:
+        if need_gen:
+            x = 1
+            while x < M and used[x]:
+                x += 1
+            if x == M:
+                k = 0
+                for d in range(depth):
+                    for j in range(opn[d]):
+                        out_pairs[k, 0] = op[d, j, 0]
+                        out_pairs[k, 1] = op[d, j, 1]
+                        k += 1
+                return 1, nodes
+            c = 0
+            for y in range(1, M):
+                if y != x and not used[y] and not dused[add[x, neg[y]]]:
+                    cand[depth, c] = y
+                    c += 1
+            if shuffle:
+                _shuffle_row(cand, depth, c)
+            cx[depth] = x
+            ncand[depth] = c
+            ci[depth] = 0
+            need_gen = False
+        if ci[depth] >= ncand[depth]:
+            if depth == 0:
+                return -1, nodes
+            depth -= 1
+            _undo(mark[depth], end, size, trail_t, trail_v, trail_e, trail_s, top)
+            for j in range(opn[depth]):
+                a = op[depth, j, 0]
+                b = op[depth, j, 1]
+                used[a] = False
+                used[b] = False
+                d1 = add[a, neg[b]]
+                dused[d1] = False
+                dused[neg[d1]] = False
+            continue
+        x = cx[depth]
+        y = cand[depth, ci[depth]]
+        ci[depth] += 1
+        nodes += 1
+        if nodes > node_limit:
+            return 0, nodes
+        # the orbit of the pair {x, y} under the multiplier
+        k = 0
+        a = x
+        b = y
+        ok = True
+        while True:
+            if a == b or used[a] or used[b]:
+                ok = False
+                break
+            d1 = add[a, neg[b]]
+            if dused[d1] or dused[neg[d1]]:
+                ok = False
+                break
+            used[a] = True
+            used[b] = True
+            dused[d1] = True
+            dused[neg[d1]] = True
+            op[depth, k, 0] = a
+            op[depth, k, 1] = b
+            k += 1
+            a = mulu[a]
+            b = mulu[b]
+            if (a == x and b == y) or (a == y and b == x):
+                break
+        opn[depth] = k
+        if ok:
+            mark[depth] = top[0]
+            for j in range(k):
+                pa = op[depth, j, 0]
+                pb = op[depth, j, 1]
+                if not _add_edge(e, pa, pb, n, end, size, trail_t, trail_v, trail_e, trail_s,
+                                 top):
+                    ok = False
+                    break
+                for s in range(R):
+                    g = reps[s]
+                    if not (
+                        _add_edge(s, pa, pb, n, end, size,
+                                  trail_t, trail_v, trail_e, trail_s, top)
+                        and _add_edge(s, add[pa, g], add[pb, g], n, end, size,
+                                      trail_t, trail_v, trail_e, trail_s, top)
+                    ):
+                        ok = False
+                        break
+                if not ok:
+                    break
+            if not ok:
+                _undo(mark[depth], end, size, trail_t, trail_v, trail_e, trail_s, top)
+        if not ok:
+            for j in range(k):
+                a = op[depth, j, 0]
+                b = op[depth, j, 1]
+                used[a] = False
+                used[b] = False
+                d1 = add[a, neg[b]]
+                dused[d1] = False
+                dused[neg[d1]] = False
+            continue
+        depth += 1
+        need_gen = True

@@ -1,0 +1,459 @@
+"""Even starters over ``G = Z_2 × H`` (``H`` abelian of odd order) and the one-factorizations
+of ``K_{|G|+2}`` they induce with the two points at infinity *kept* or *swapped*; randomised
+search for perfect ones.
+
+Group. ``G = Z_2 × H`` on the codes ``c = 2 h + b`` (``h`` a code of ``H``, ``b`` the ``Z_2``
+part, the *parity* of ``c``); ``t = 1`` (``h = 0``, ``b = 1``) is its only involution. For
+``H = Z_k`` this is ``Z_{2k}`` (Chinese remainder theorem) with a different numbering.
+
+Even starter. A set ``S`` of ``|G|/2 - 1`` pairs that partition ``G \\ {0, m}`` (``m`` the
+*missing* element, ``m`` not ``0`` or ``t``) whose differences ``±(x - y)`` cover ``G \\ {0, t}``
+exactly once (B. A. Anderson, "A class of starter induced 1-factorizations", Graphs and
+Combinatorics, Springer LNM 406 (1974) 180-185; J. H. Dinitz, "Starters", Handbook of
+Combinatorial Designs, 2nd ed., 2007, §VI.55; both from memory, unverified). On the vertices
+``G ∪ {∞1, ∞2}`` (``∞1 = |G|``, ``∞2 = |G| + 1``) take ``E = {∞1 ∞2} ∪ {{x, x + t}}`` and, for
+each ``g`` in ``G``,
+
+* kept points (the classical even-starter factorization, the cyclic case of which is
+  :mod:`scheduler.factorization.even_starters`): ``F_g = {∞1, g} ∪ {∞2, m + g} ∪ (S + g)``;
+* swapped points: the same when ``g`` is even, but ``F_g = {∞2, g} ∪ {∞1, m + g} ∪ (S + g)``
+  when ``g`` is odd. This needs ``m`` even.
+
+Why the swapped version is a one-factorization (computed here; we know no publication of it,
+so it is this project's variant): the translation ``τ_c: x -> x + c`` that also exchanges
+``∞1, ∞2`` when ``c`` is odd maps ``F_g`` to ``F_{g+c}`` (parity is additive) and fixes ``E``,
+so ``G`` acts on the rounds with orbits ``{E}`` and ``{F_g}``. ``∞1`` meets ``g`` in ``F_g``
+for even ``g`` and ``m + g`` in ``F_g`` for odd ``g``: all of ``G`` exactly once when ``m`` is
+even; likewise ``∞2``. An edge ``{x, y}`` of ``G`` with ``y - x ≠ t`` lies in ``S + g`` for
+exactly one ``g`` (the differences of ``S`` cover each class ``±d`` once and the ``G``-orbit of
+one such edge is the whole class); the ``t``-class is ``E``.
+
+Perfection. In both versions ``τ_c`` maps the pair ``{F_a, F_b}`` to ``{F_0, F_{b-a}}`` and
+``{F_a, E}`` to ``{F_0, E}``; ``{F_0, F_g}`` and ``{F_0, F_{-g}}`` are images of each other. A
+*multiplier* ``μ: (b, h) -> (b, u h)`` (``u`` a unit of ``H``'s ring) with ``u m = m`` and
+``S μ = S`` maps ``F_g`` to ``F_{μ g}``. So the factorization is perfect exactly when
+``F_0 ∪ E`` and ``F_0 ∪ F_g`` are Hamiltonian cycles for one ``g`` in each orbit of
+``<g -> -g, μ>`` on ``G \\ {0}``: at most ``|G|/2 + 1`` cycle walks. Missing elements in one
+orbit of the units of ``H`` give isomorphic spaces, so only orbit representatives are tried.
+
+Two facts computed here (proofs; the tests confirm them on small groups):
+
+* *Parity.* Mixed-parity pairs have odd differences and there are ``(k - 1) / 2`` odd classes
+  (``k = |H|``), so counting the even elements left to same-parity pairs shows that an even
+  starter exists only with ``m`` odd when ``k ≡ 1 (mod 4)`` and only with ``m`` even when
+  ``k ≡ 3 (mod 4)``. So ``K_52`` (``k = 25``) has no swapped version at all.
+* *The swapped version is never perfect.* ``τ_t`` is a fixed-point-free involution exchanging
+  ``F_0`` and ``F_t``, so it preserves the cycle ``F_0 ∪ F_t`` if that is Hamiltonian; a
+  half-turn of a cycle of length ``2k + 2`` (``k`` odd) or a reflection without fixed vertices
+  keeps the two alternating edge classes, so it cannot exchange them. It stays here as a valid
+  (non-perfect) construction; the searches use the kept version.
+
+Why this space (reference notes, from memory): the perfect one-factorizations of ``K_52`` and
+``K_56`` were found by computer searches over one-factorizations with a prescribed automorphism
+group; a group of order ``n - 2`` acting regularly on all but two points is the even-starter
+analogue of the starter construction (a group of order ``n - 1`` with one fixed point), and the
+swapped version is the same group acting transitively on the two extra points. The search
+(smallest free element first, random partner order per seed, Luby restarts) is the project's
+own, as in :mod:`scheduler.factorization.search`.
+"""
+
+from __future__ import annotations
+
+import time
+from collections.abc import Iterator, Sequence
+from dataclasses import dataclass
+from functools import cache
+
+import numpy as np
+
+from scheduler.errors import InputError
+from scheduler.factorization.groups import AbelianGroup, group_from_name
+from scheduler.factorization.model import Factorization, normalise_round
+from scheduler.factorization.search import element_orbits, luby, run_seed
+from scheduler.progress import Progress
+
+Pair = tuple[int, int]
+
+SOURCE = (
+    "even starter over Z_2 x H with two points at infinity, kept (B. A. Anderson 1974, from "
+    "memory) or swapped by the odd translations (this project's variant, "
+    "docs/factorization-search.md)"
+)
+
+MAX_ORDER = 1000
+"""Largest ``|G| = 2 |H|`` accepted."""
+
+
+@dataclass(frozen=True, eq=False)
+class TwinGroup:
+    """``G = Z_2 × H`` on the codes ``2 h + b`` with numpy tables ``add``, ``neg``, the parity
+    ``par`` (``b``) and the base group ``base`` (``H``)."""
+
+    base: AbelianGroup
+    add: np.ndarray
+    neg: np.ndarray
+    par: np.ndarray
+
+    @property
+    def order(self) -> int:
+        return 2 * self.base.order
+
+    @property
+    def name(self) -> str:
+        return f"Z_2 x {self.base.name}"
+
+    def multiplier(self, u: int) -> np.ndarray:
+        """``(b, h) -> (b, u h)`` as a permutation of the codes (``u`` a unit of ``H``)."""
+        mul = self.base.multiplier(u)
+        codes = np.arange(self.order)
+        return (2 * mul[codes // 2] + codes % 2).astype(np.int64)
+
+    def label(self, c: int) -> str:
+        return f"{c % 2}|{self.base.label(c // 2)}"
+
+
+@cache
+def twin_group(base: str) -> TwinGroup:
+    """``Z_2 × H`` for ``H`` given by its name (``"Z_25"``, ``"Z_5 x Z_5"``, ``"GF(25)"``)."""
+    if not isinstance(base, str):
+        raise InputError(f"the base group must be given by its name, got {base!r}",
+                         location="group")
+    group = group_from_name(base)
+    if 2 * group.order > MAX_ORDER or group.order < 3:
+        raise InputError(f"|Z_2 x {base}| must lie in 6..{MAX_ORDER}", location="group")
+    k = group.order
+    codes = np.arange(2 * k)
+    h, b = codes // 2, codes % 2
+    add = 2 * group.add[h[:, None], h[None, :]] + (b[:, None] ^ b[None, :])
+    neg = 2 * group.neg[h] + b
+    return TwinGroup(group, add.astype(np.int64), neg.astype(np.int64), b.astype(np.int64))
+
+
+def _pairs(starter: Sequence[Sequence[int]]) -> list[Pair]:
+    out = []
+    for pair in starter:
+        a, b = (int(v) for v in pair)
+        out.append((min(a, b), max(a, b)))
+    return sorted(out)
+
+
+def is_twin_starter(base: str, starter, *, swapped: bool = False) -> bool:
+    """Is ``starter`` an even starter of ``Z_2 × H`` (with an even missing element when
+    ``swapped``)?"""
+    G = twin_group(base)
+    M = G.order
+    try:
+        pairs = _pairs(starter)
+    except (TypeError, ValueError):
+        return False
+    if len(pairs) != M // 2 - 1:
+        return False
+    elements = [v for p in pairs for v in p]
+    if any(v <= 0 or v >= M for v in elements) or len(set(elements)) != M - 2:
+        return False
+    missing = next(x for x in range(1, M) if x not in set(elements))
+    if missing == 1 or (swapped and G.par[missing]):
+        return False
+    diffs = set()
+    for a, b in pairs:
+        diffs.add(int(G.add[a, G.neg[b]]))
+        diffs.add(int(G.add[b, G.neg[a]]))
+    return len(diffs) == M - 2 and 0 not in diffs and 1 not in diffs
+
+
+def _require(base: str, starter, swapped: bool) -> tuple[TwinGroup, list[Pair], int]:
+    if not is_twin_starter(base, starter, swapped=swapped):
+        kind = "an even starter with an even missing element" if swapped else "an even starter"
+        raise InputError(f"not {kind} of Z_2 x {base}: {starter!r}", location="starter")
+    G = twin_group(base)
+    pairs = _pairs(starter)
+    covered = {v for p in pairs for v in p}
+    missing = next(x for x in range(1, G.order) if x not in covered)
+    return G, pairs, missing
+
+
+def twin_rounds(base: str, starter, *, swapped: bool = False) -> tuple[tuple[Pair, ...], ...]:
+    """Rounds ``F_0, ..., F_{|G|-1}, E`` on ``0..|G|+1`` (``∞1 = |G|``, ``∞2 = |G| + 1``)."""
+    G, pairs, m = _require(base, starter, swapped)
+    M = G.order
+    rounds = []
+    for g in range(M):
+        first, second = (M + 1, M) if swapped and G.par[g] else (M, M + 1)
+        games = [(first, g), (second, int(G.add[m, g]))]
+        games += [(int(G.add[a, g]), int(G.add[b, g])) for a, b in pairs]
+        rounds.append(normalise_round(games))
+    rounds.append(normalise_round([(M, M + 1)] + [(x, x + 1) for x in range(0, M, 2)]))
+    return tuple(rounds)
+
+
+def twin_factorization(base: str, starter, *, swapped: bool = False,
+                       method: str | None = None, source: str | None = None,
+                       details: dict | None = None) -> Factorization:
+    """The one-factorization of ``K_{2|H|+2}`` induced by an even starter of ``Z_2 × H``."""
+    G, pairs, m = _require(base, starter, swapped)
+    info = {"construction": "even starter over Z_2 x H", "group": G.name, "base": base,
+            "swapped": swapped, "missing": m, "starter": [list(p) for p in pairs]}
+    info.update(details or {})
+    kind = "swapped" if swapped else "kept"
+    return Factorization(G.order + 2, twin_rounds(base, pairs, swapped=swapped),
+                         method or f"even starter in {G.name} (points at infinity {kind})",
+                         source or SOURCE, info)
+
+
+def check_representatives(base: str, multiplier: int = 1) -> list[int]:
+    """One ``g`` (the smallest code) per orbit of ``<g -> -g, μ>`` on ``G \\ {0}``."""
+    G = twin_group(base)
+    perm = G.multiplier(multiplier) if multiplier != 1 else np.arange(G.order)
+    return [g for g, _ in element_orbits(G.neg, perm)]
+
+
+def missing_representatives(base: str, *, swapped: bool = False, multiplier: int = 1
+                            ) -> list[int]:
+    """Missing elements worth trying: one per orbit of the units of ``H`` (acting on the
+    ``H`` part), not ``0`` or ``t``, of the parity that admits even starters (odd when
+    ``|H| ≡ 1 (mod 4)``, even otherwise), fixed by the multiplier."""
+    G = twin_group(base)
+    units = G.base.units()
+    seen: set[int] = set()
+    out = []
+    fixed = G.multiplier(multiplier) if multiplier != 1 else np.arange(G.order)
+    parity = 1 if G.base.order % 4 == 1 else 0  # the parity rule of the module docstring
+    for c in range(2, G.order):
+        if c in seen or (swapped and G.par[c]) or G.par[c] != parity:
+            continue
+        orbit = {int(G.multiplier(u)[c]) for u in units}
+        seen |= orbit
+        rep = next((x for x in sorted(orbit) if fixed[x] == x), None)
+        if rep is not None:
+            out.append(rep)
+    return out
+
+
+def enumerate_twin_starters(base: str, missing: int, multiplier: int = 1
+                            ) -> Iterator[tuple[Pair, ...]]:
+    """Every even starter of ``Z_2 × H`` missing ``missing`` and invariant under the multiplier
+    (exhaustive, plain Python; tiny groups only)."""
+    G = twin_group(base)
+    M = G.order
+    mu = G.multiplier(multiplier) if multiplier != 1 else np.arange(M)
+    used = [False] * M
+    dused = [False] * M
+    used[0] = used[missing] = True
+    dused[0] = dused[1] = True
+    chosen: list[Pair] = []
+
+    def orbit(x: int, y: int) -> list[Pair] | None:
+        out: list[Pair] = []
+        a, b = x, y
+        while True:
+            out.append((a, b))
+            a, b = int(mu[a]), int(mu[b])
+            if {a, b} == {x, y}:
+                return out
+            if len(out) > M:  # pragma: no cover - a permutation cycles back
+                return None
+
+    def rec() -> Iterator[tuple[Pair, ...]]:
+        x = next((v for v in range(1, M) if not used[v]), None)
+        if x is None:
+            yield tuple(sorted((min(a, b), max(a, b)) for a, b in chosen))
+            return
+        for y in range(1, M):
+            if y == x or used[y]:
+                continue
+            pairs = orbit(x, y) or []
+            marked: list[tuple[int, int, int]] = []
+            good = True
+            for a, b in pairs:
+                d = int(G.add[a, G.neg[b]])
+                if a == b or used[a] or used[b] or dused[d] or dused[int(G.neg[d])]:
+                    good = False
+                    break
+                used[a] = used[b] = dused[d] = dused[int(G.neg[d])] = True
+                marked.append((a, b, d))
+            if good:
+                chosen.extend(pairs)
+                yield from rec()
+                del chosen[len(chosen) - len(pairs):]
+            for a, b, d in marked:
+                used[a] = used[b] = dused[d] = dused[int(G.neg[d])] = False
+
+    yield from rec()
+
+
+@dataclass(frozen=True)
+class TwinSearchResult:
+    """Outcome of :func:`search_perfect_twin_starter`; ``exhausted``: no perfect even starter
+    with this missing element, multiplier and kind of points exists."""
+
+    base: str
+    swapped: bool
+    missing: int
+    multiplier: int
+    seed: int
+    starter: tuple[Pair, ...] | None
+    runs: int
+    nodes: int
+    seconds: float
+    exhausted: bool
+
+    @property
+    def found(self) -> bool:
+        return self.starter is not None
+
+
+_TWIN_SALT = 24_680
+
+
+def search_perfect_twin_starter(
+    base: str,
+    missing: int,
+    *,
+    swapped: bool = False,
+    multiplier: int = 1,
+    seed: int = 0,
+    budget: float = 10.0,
+    base_nodes: int = 20_000,
+    max_run_nodes: int = 5_000_000,
+    max_nodes: int | None = None,
+    shuffle: bool = True,
+    progress: Progress | None = None,
+) -> TwinSearchResult:
+    """Search ``Z_2 × H`` for a perfect even starter missing ``missing``.
+
+    Runs follow the Luby sequence times ``base_nodes`` (capped by ``max_run_nodes``); ``budget``
+    is wall seconds checked between runs and ``max_nodes`` an optional total work limit (the
+    outcome then depends only on the arguments, not on the machine). With ``shuffle=False`` and
+    large limits a run is a plain exhaustive search. Every starter returned has been re-checked
+    by walking the induced factorization's unions (:func:`is_perfect_twin_starter`).
+    """
+    G = twin_group(base)
+    M = G.order
+    if isinstance(seed, bool) or not isinstance(seed, int):
+        raise InputError(f"the seed must be an integer, got {seed!r}", location="seed")
+    if not budget > 0:
+        raise InputError(f"the time budget must be positive, got {budget!r}", location="budget")
+    mu = G.multiplier(multiplier) if multiplier != 1 else np.arange(M)
+    parity = 1 if G.base.order % 4 == 1 else 0
+    if (not 1 < int(missing) < M or G.par[int(missing)] != parity
+            or (swapped and G.par[int(missing)]) or mu[missing] != missing):
+        raise InputError(f"missing element {missing!r} is not allowed here (not 0 or t, of the "
+                         f"parity that admits even starters, even when the points are swapped, "
+                         f"fixed by the multiplier)", location="missing")
+    from scheduler.factorization._twin_kernel import twin_search_kernel  # numba: lazily
+
+    reps = np.array(check_representatives(base, multiplier), dtype=np.int64)
+    out = np.zeros((M // 2 - 1, 2), dtype=np.int64)
+    start = time.perf_counter()
+    runs = nodes = 0
+    while True:
+        runs += 1
+        limit = min(max_run_nodes, base_nodes * luby(runs))
+        if max_nodes is not None:
+            limit = max(1, min(limit, max_nodes - nodes))
+        status, used = twin_search_kernel(
+            M, G.add, G.neg, mu.astype(np.int64), G.par, 1, int(missing), swapped, reps,
+            run_seed(seed, runs, _TWIN_SALT), shuffle, limit, out)
+        nodes += int(used)
+        elapsed = time.perf_counter() - start
+        result = dict(base=base, swapped=swapped, missing=int(missing), multiplier=multiplier,
+                      seed=seed, runs=runs, nodes=nodes, seconds=elapsed)
+        if status == 1:
+            starter = tuple(sorted((int(min(a, b)), int(max(a, b))) for a, b in out))
+            if not is_perfect_twin_starter(base, starter, swapped=swapped):  # pragma: no cover
+                raise AssertionError(f"twin kernel returned a non-perfect starter {starter}")
+            return TwinSearchResult(starter=starter, exhausted=False, **result)
+        if status == -1:
+            return TwinSearchResult(starter=None, exhausted=True, **result)
+        if progress:
+            progress(f"searching {G.name}: {runs} runs, {nodes} nodes",
+                     min(1.0, elapsed / budget))
+        if elapsed >= budget or (max_nodes is not None and nodes >= max_nodes):
+            return TwinSearchResult(starter=None, exhausted=False, **result)
+
+
+def _hamiltonian(p: list[int], q: list[int]) -> bool:
+    n = len(p)
+    v, length = 0, 0
+    while True:
+        v = q[p[v]]
+        length += 2
+        if v == 0:
+            return length == n
+
+
+def is_perfect_twin_starter(base: str, starter, *, swapped: bool = False) -> bool:
+    """Is the induced factorization perfect? (``|G|/2 + 1`` union walks, by the argument of the
+    module docstring; the test suite compares this with the independent verifier.)"""
+    if not is_twin_starter(base, starter, swapped=swapped):
+        return False
+    rounds = twin_rounds(base, starter, swapped=swapped)
+    n = len(rounds) + 1
+
+    def partners(rnd) -> list[int]:
+        p = [0] * n
+        for a, b in rnd:
+            p[a], p[b] = b, a
+        return p
+
+    p0 = partners(rounds[0])
+    if not _hamiltonian(p0, partners(rounds[-1])):
+        return False
+    return all(_hamiltonian(p0, partners(rounds[g])) for g in check_representatives(base))
+
+
+def multiplier_choices(base: str, missing: int) -> list[tuple[int, int]]:
+    """``(order, u)``: one generator ``u`` per cyclic subgroup of the units of ``H`` whose
+    multipliers fix ``missing``, largest subgroups first (``(1, 1)``, no multiplier, last)."""
+    G = twin_group(base)
+    seen: set[frozenset[int]] = set()
+    out = []
+    for u in G.base.units():
+        if int(G.multiplier(u)[missing]) != missing:
+            continue
+        sub, x = set(), u
+        while True:
+            sub.add(x)
+            x = int(G.base.mul[x, u])
+            if x == u:
+                break
+        if frozenset(sub) not in seen:
+            seen.add(frozenset(sub))
+            out.append((len(sub), u))
+    out.sort(key=lambda t: (-t[0], t[1]))
+    return out
+
+
+def search_task(order: int, space: str, seed: int, budget: float) -> dict:
+    """One independent restart, for a process pool or a distributed engine (picklable, plain
+    arguments and result): search the space named ``space`` (:func:`parse_space`) for a
+    perfect one-factorization of ``K_order`` for ``budget`` seconds with ``seed``. Returns a
+    JSON-ready dict (``found``, ``starter``, ``nodes``, ``seconds``, ``exhausted``, ...)."""
+    base, swapped, missing, multiplier = parse_space(space)
+    G = twin_group(base)
+    if G.order + 2 != order:
+        raise InputError(f"space {space!r} gives K_{G.order + 2}, not K_{order}",
+                         location="space")
+    res = search_perfect_twin_starter(base, missing, swapped=swapped, multiplier=multiplier,
+                                      seed=seed, budget=budget)
+    return {"order": order, "space": space, "seed": seed, "found": res.found,
+            "exhausted": res.exhausted, "runs": res.runs, "nodes": res.nodes,
+            "seconds": round(res.seconds, 3),
+            "starter": [list(p) for p in res.starter] if res.starter else None}
+
+
+def space_name(base: str, *, swapped: bool, missing: int, multiplier: int = 1) -> str:
+    """``"Z_2 x <H> | swapped | m=<m> | u=<u>"``, read back by :func:`parse_space`."""
+    return f"Z_2 x {base} | {'swapped' if swapped else 'kept'} | m={missing} | u={multiplier}"
+
+
+def parse_space(space: str) -> tuple[str, bool, int, int]:
+    """``(base, swapped, missing, multiplier)`` from a :func:`space_name` string."""
+    try:
+        group, kind, mis, mult = (part.strip() for part in space.split("|"))
+        if not group.startswith("Z_2 x ") or kind not in ("kept", "swapped"):
+            raise ValueError(space)
+        return (group[len("Z_2 x "):], kind == "swapped", int(mis.removeprefix("m=")),
+                int(mult.removeprefix("u=")))
+    except ValueError:
+        raise InputError(f"unknown search space {space!r}", location="space") from None

@@ -94,6 +94,16 @@ def dask_client(workers: int = 2, cluster: str | None = None) -> Iterator[Any]:
         local.close()
 
 
+def _unit_size(fed: Federation, unit: Unit) -> int:
+    """A work estimate of a unit: its games (teams choose 2, times legs) over its divisions."""
+    leagues = {d.name: d.league for d in fed.divisions}
+    return sum(
+        len(leagues[name].teams) * (len(leagues[name].teams) - 1) // 2
+        * max(1, leagues[name].format.legs)
+        for name in unit.divisions
+    )
+
+
 def plan_federation(
     fed: Federation,
     *,
@@ -143,9 +153,12 @@ def plan_federation(
     results: dict[str, UnitResult] = {}
     with dask_client(workers, cluster) as client:
         shared = client.scatter(fed, broadcast=True)
+        # Largest units first (longest-processing-time-first list scheduling, R. L. Graham,
+        # SIAM J. Appl. Math. 17, 1969, from memory): the last units to finish are small, so
+        # the workers finish close together. Only the order of work changes, never a result.
         futures = {
             client.submit(plan_unit, shared, unit, time_limit, key=f"plan-{digest}-{unit.key}",
-                          pure=False): unit.key
+                          pure=False, priority=_unit_size(fed, unit)): unit.key
             for unit in units
         }
         for done, future in enumerate(as_completed(futures), start=1):

@@ -53,8 +53,8 @@ SPORADIC_P1F = {
         for n in (126, 170, 244, 344, 730)
     },
 }
-"""Orders with a perfect one-factorization outside the two prime families, as listed in the
-reference notes §1 (WEGA list, verified there; attributions mostly from memory)."""
+"""Orders with a perfect one-factorization outside the two prime families (docs/
+one-factorizations.md §1; the WEGA list is verified, the attributions mostly from memory)."""
 
 PERFECT_SEARCH_SHARE = 0.5
 
@@ -67,7 +67,7 @@ def is_prime(k: int) -> bool:
 
 
 def known_perfect(n: int) -> tuple[bool, str]:
-    """Is a perfect one-factorization of ``K_n`` known (to the reference notes)? And why."""
+    """Is a perfect one-factorization of ``K_n`` known (docs/one-factorizations.md §1)? And why."""
     if n <= 2:
         return True, "K_2 has a single round"
     if is_prime(n - 1):
@@ -77,23 +77,24 @@ def known_perfect(n: int) -> tuple[bool, str]:
     if n in SPORADIC_P1F:
         return True, f"sporadic order: {SPORADIC_P1F[n]}"
     return False, (
-        "no perfect one-factorization of this order is known to the project's reference notes "
+        "no perfect one-factorization of this order is known to this program "
         "(64 is believed to be the smallest open order; Kotzig's conjecture says one exists)"
     )
 
 
-def _check_teams(teams) -> int:
+def _check_teams(teams: object) -> int:
     if isinstance(teams, bool) or not isinstance(teams, numbers.Integral):
         raise InputError(
             f"the number of teams must be a whole number, got {teams!r}", location="teams"
         )
+    teams = int(teams)
     if teams < 2:
         raise InputError(f"a league needs at least 2 teams, got {teams}", location="teams")
     if teams > MAX_TEAMS:
         raise InputError(
             f"at most {MAX_TEAMS} teams are supported, got {teams}", location="teams"
         )
-    return int(teams)
+    return teams
 
 
 def _check_seed_budget(seed, budget) -> float:

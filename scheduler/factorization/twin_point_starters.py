@@ -48,7 +48,8 @@ Two facts computed here (proofs; the tests confirm them on small groups):
   keeps the two alternating edge classes, so it cannot exchange them. It stays here as a valid
   (non-perfect) construction; the searches use the kept version.
 
-Why this space (reference notes, from memory): the perfect one-factorizations of ``K_52`` and
+Why this space (docs/factorization-search.md; the attributions from memory): the perfect
+one-factorizations of ``K_52`` and
 ``K_56`` were found by computer searches over one-factorizations with a prescribed automorphism
 group; a group of order ``n - 2`` acting regularly on all but two points is the even-starter
 analogue of the starter construction (a group of order ``n - 1`` with one fixed point), and the
@@ -356,20 +357,26 @@ def search_perfect_twin_starter(
             run_seed(seed, runs, _TWIN_SALT), shuffle, limit, out)
         nodes += int(used)
         elapsed = time.perf_counter() - start
-        result = dict(base=base, swapped=swapped, missing=int(missing), multiplier=multiplier,
-                      seed=seed, runs=runs, nodes=nodes, seconds=elapsed)
+
+        def result(starter, exhausted: bool, runs: int = runs, nodes: int = nodes,
+                   elapsed: float = elapsed) -> TwinSearchResult:
+            return TwinSearchResult(
+                starter=starter, exhausted=exhausted, base=base, swapped=swapped,
+                missing=int(missing), multiplier=multiplier, seed=seed, runs=runs,
+                nodes=nodes, seconds=elapsed)
+
         if status == 1:
             starter = tuple(sorted((int(min(a, b)), int(max(a, b))) for a, b in out))
             if not is_perfect_twin_starter(base, starter, swapped=swapped):  # pragma: no cover
                 raise AssertionError(f"twin kernel returned a non-perfect starter {starter}")
-            return TwinSearchResult(starter=starter, exhausted=False, **result)
+            return result(starter, exhausted=False)
         if status == -1:
-            return TwinSearchResult(starter=None, exhausted=True, **result)
+            return result(None, exhausted=True)
         if progress:
             progress(f"searching {G.name}: {runs} runs, {nodes} nodes",
                      min(1.0, elapsed / budget))
         if elapsed >= budget or (max_nodes is not None and nodes >= max_nodes):
-            return TwinSearchResult(starter=None, exhausted=False, **result)
+            return result(None, exhausted=False)
 
 
 def _hamiltonian(p: list[int], q: list[int]) -> bool:

@@ -154,8 +154,8 @@ def test_multiplier_spaces_hold_invariant_starters_only():
 
 @pytest.mark.parametrize("base, n", [("Z_7", 16), ("Z_13", 28)])
 def test_search_finds_perfect_factorizations(base, n):
-    """K_16 and K_28 have perfect one-factorizations (reference notes table); the search finds
-    one in this space and the verifier certifies it."""
+    """K_16 and K_28 have perfect one-factorizations (docs/one-factorizations.md §1); the search
+    finds one in this space and the verifier certifies it."""
     results = []
     for m in tw.missing_representatives(base):
         res = tw.search_perfect_twin_starter(base, m, seed=1, max_nodes=3_000_000, budget=60)

@@ -11,6 +11,8 @@ plain top-level function with plain arguments and a JSON-ready result, so that a
     nice -n 15 python benchmarks/find_k52_k56.py --orders 52 56 --task-seconds 120 \\
         --stop 17:55 --workers 1
     nice -n 15 python benchmarks/find_k52_k56.py --rate
+    python benchmarks/find_k52_k56.py --engine dask --workers 2 --stop 18:30
+    python benchmarks/find_k52_k56.py --engine dask --cluster tcp://192.0.2.10:8786
 
 Prints one ``#`` line per task (space, seed, found, exhausted, nodes, seconds, nodes/s), then
 per order the nodes searched, the node rate and the time to the first find (or the nodes
@@ -23,10 +25,12 @@ from __future__ import annotations
 
 import argparse
 import concurrent.futures as cf
+import contextlib
 import datetime as dt
 import json
 import sys
 import time
+from collections.abc import Callable, Iterator
 
 from scheduler.factorization import twin_point_starters as tw
 
@@ -84,6 +88,28 @@ def rate() -> None:
         print(f"{label:36s} {value:12,.0f} nodes/s  ratio {value / ref:5.2f}")
 
 
+@contextlib.contextmanager
+def _engine(args: argparse.Namespace) -> Iterator[tuple[Callable, Callable]]:
+    """``(submit(order, space, seed, budget) -> future, wait_first(futures) -> finished)`` on a
+    local process pool or on Dask distributed (the same engine and the same connection errors
+    as ``scheduler plan`` for several divisions: :func:`scheduler.divisions.execute.dask_client`).
+    Each restart is an independent task of the package's picklable
+    :func:`scheduler.factorization.twin_point_starters.search_task`, so workers on other
+    machines need only the installed package."""
+    if args.engine == "dask":
+        from distributed import wait
+
+        from scheduler.divisions.execute import dask_client
+
+        with dask_client(args.workers, args.cluster) as client:
+            yield (lambda *task: client.submit(tw.search_task, *task, pure=False),
+                   lambda pending: wait(pending, return_when="FIRST_COMPLETED").done)
+        return
+    with cf.ProcessPoolExecutor(max_workers=args.workers) as pool:
+        yield (lambda *task: pool.submit(run_task, *task),
+               lambda pending: cf.wait(pending, return_when=cf.FIRST_COMPLETED)[0])
+
+
 def main() -> None:
     parser = argparse.ArgumentParser(description=__doc__,
                                      formatter_class=argparse.RawDescriptionHelpFormatter)
@@ -94,6 +120,11 @@ def main() -> None:
     parser.add_argument("--seeds", type=int, default=1000, help="restarts per plain space")
     parser.add_argument("--stop", help="UTC time HH:MM after which no task starts")
     parser.add_argument("--workers", type=int, default=1)
+    parser.add_argument("--engine", choices=["pool", "dask"], default="pool",
+                        help="pool: a local process pool; dask: Dask distributed, an embedded "
+                        "local cluster of --workers processes, or --cluster ADDRESS")
+    parser.add_argument("--cluster",
+                        help="address of a running Dask scheduler (with --engine dask)")
     parser.add_argument("--skip-small", action="store_true")
     parser.add_argument("--space", action="append", default=[],
                         help="search only this space (repeatable; seeds round-robin)")
@@ -120,8 +151,8 @@ def main() -> None:
     totals = {order: {"nodes": 0, "seconds": 0.0, "tasks": 0, "first": None}
               for order in sorted({t[0] for t in tasks})}
     start = time.perf_counter()
-    with cf.ProcessPoolExecutor(max_workers=args.workers) as pool:
-        pending: set[cf.Future] = set()
+    with _engine(args) as (submit_task, wait_first):
+        pending: set = set()
         queue = iter(tasks)
         done_orders: set[int] = set()
 
@@ -134,14 +165,14 @@ def main() -> None:
                     if left < 5:
                         return False
                     budget = min(budget, left)
-                pending.add(pool.submit(run_task, order, name, seed, budget))
+                pending.add(submit_task(order, name, seed, budget))
                 return True
             return False
 
         for _ in range(args.workers):
             submit()
         while pending:
-            finished, _ = cf.wait(pending, return_when=cf.FIRST_COMPLETED)
+            finished = wait_first(pending)
             for fut in finished:
                 pending.discard(fut)
                 res = fut.result()

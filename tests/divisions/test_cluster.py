@@ -149,3 +149,24 @@ def test_plan_through_separate_scheduler_and_worker(dask_processes, small_text):
     assert remote.check.valid
     here = {p.name: p.season for u in units_of(fed) for p in plan_unit(fed, u).plans}
     assert [p.season for p in remote.plans] == [here[name] for name in fed.division_names]
+
+
+def test_factorization_restarts_run_as_tasks_on_a_local_cluster():
+    """Independent restarts of a perfect-factorization search are units of work for Dask too:
+    each task's result equals the same task run here, whichever worker ran it, and every find
+    is certified by the independent verifier."""
+    from scheduler.divisions.execute import dask_client
+    from scheduler.factorization import twin_point_starters as tw
+    from scheduler.factorization.verify import verify_rounds
+
+    space = tw.space_name("Z_13", swapped=False, missing=3)
+    tasks = [(28, space, seed, 30.0) for seed in range(3)]
+    with dask_client(2) as client:
+        futures = [client.submit(tw.search_task, *task, pure=False) for task in tasks]
+        remote = client.gather(futures)
+    for task, got in zip(tasks, remote, strict=True):
+        here = tw.search_task(*task)
+        assert got["found"] == here["found"] and got.get("starter") == here.get("starter")
+        assert got["nodes"] == here["nodes"]
+        if got["found"]:
+            assert verify_rounds(28, tw.twin_rounds("Z_13", got["starter"])).perfect

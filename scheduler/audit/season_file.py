@@ -156,7 +156,7 @@ def _revisions(data: dict) -> tuple[Revision, ...]:
     return tuple(out)
 
 
-def season_from_dict(data) -> Season:
+def season_from_dict(data: object) -> Season:
     """Rebuild a :class:`Season` from :func:`season_to_dict` output; located
     :class:`InputError` on anything malformed. Kick-offs are put in the season's time zone."""
     if not isinstance(data, dict):

@@ -23,10 +23,11 @@ from collections.abc import Sequence
 from scheduler import leg_schemes
 from scheduler.balance.anneal import breaks_of
 from scheduler.carry_over import carry_over_of_rounds
+from scheduler.factorization.model import Round
 
 
 def improve_order(
-    fact_rounds,
+    fact_rounds: Sequence[Round],
     n: int,
     order: Sequence[int],
     home_first: dict[tuple[int, int], bool],

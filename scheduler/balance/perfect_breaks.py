@@ -34,6 +34,7 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 from dataclasses import dataclass, field
+from typing import TYPE_CHECKING
 
 import numpy as np
 
@@ -43,6 +44,9 @@ from scheduler.errors import InputError
 from scheduler.factorization.model import Factorization
 from scheduler.home_away import total_breaks
 from scheduler.interrupt import solve_interruptibly
+
+if TYPE_CHECKING:  # imported lazily at run time (perfect_family imports this package)
+    from scheduler.factorization.perfect_family import FamilyMember
 
 EXACT_MAX_N = 16
 """Largest order with the exact subset dynamic programme (2^15 subsets x 15 rounds x 128)."""
@@ -176,7 +180,8 @@ def _walk_back(f: np.ndarray, cost: np.ndarray, last: int, cls: int) -> list[tup
     return path[::-1]
 
 
-def home_away_from_classes(rounds, n: int, path: Sequence[tuple[int, int]],
+def home_away_from_classes(rounds: Sequence[Sequence[tuple[int, int]]], n: int,
+                           path: Sequence[tuple[int, int]],
                            masks: np.ndarray) -> tuple[tuple[int, ...], dict, int]:
     """Order, home/away and breaks of a path of (round, class): each step takes the
     representative (colouring or its swap) nearer to the previous colouring."""
@@ -201,7 +206,8 @@ def home_away_from_classes(rounds, n: int, path: Sequence[tuple[int, int]],
     return tuple(r for r, _ in path), home, total
 
 
-def count_breaks(rounds, order: Sequence[int], home: dict[tuple[int, int], bool], n: int) -> int:
+def count_breaks(rounds: Sequence[Sequence[tuple[int, int]]], order: Sequence[int],
+                 home: dict[tuple[int, int], bool], n: int) -> int:
     """Breaks of the single round robin ``order`` with venues ``home`` (``home[(a, b)]``, a < b:
     is ``a`` at home), counted by the project's one break count
     (:func:`scheduler.home_away.total_breaks`; de Werra 1981)."""
@@ -438,7 +444,9 @@ def _round_transitive(fact: Factorization) -> bool:
 
 
 def best_perfect_for_breaks(n: int, *, seed: int = 0, budget: float = 30.0,
-                            family=None, bound_seconds: float = 5.0,
+                            family: (Sequence[FamilyMember | tuple[Factorization, str]]
+                                     | None) = None,
+                            bound_seconds: float = 5.0,
                             exact: bool = True) -> list[Candidate]:
     """Perfect one-factorizations of ``K_n`` ranked by the fewest breaks of a single round robin.
 

@@ -24,12 +24,16 @@ import time as clock
 from collections.abc import Iterable
 from dataclasses import dataclass, field, replace
 from datetime import date, datetime
+from typing import TYPE_CHECKING
 
 from scheduler.config.federation import Federation
 from scheduler.config.model import League, TeamDates
 from scheduler.divisions.grouping import Coupling, Unit, couplings_of, venue_shares
 from scheduler.errors import InfeasibleError, SchedulerError
 from scheduler.season import Season
+
+if TYPE_CHECKING:
+    from scheduler.fairness.model import FairnessReport
 
 
 @dataclass(frozen=True)
@@ -40,7 +44,7 @@ class DivisionPlan:
     name: str
     league: League
     season: Season
-    fairness: object
+    fairness: FairnessReport
     notes: tuple[str, ...]
     added: tuple[str, ...]
     seconds: float

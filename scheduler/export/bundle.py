@@ -62,6 +62,7 @@ from scheduler.export.manifest import MANIFEST_FILE, Manifest
 from scheduler.export.safety import fsync_folder
 from scheduler.export.site import site_files, site_paths
 from scheduler.export.xlsx import workbook_bytes
+from scheduler.fairness.model import FairnessReport
 from scheduler.interrupt import deferred_interrupts, pause_point, raise_if_interrupted
 from scheduler.season import Season
 
@@ -341,7 +342,7 @@ def _previous(out: Path, season: Season, force: bool) -> tuple[Season | None, Ca
 
 def render_season_files(
     season: Season,
-    fairness,
+    fairness: FairnessReport | None,
     previous: Season | None = None,
     state: CalendarState | None = None,
     *,
@@ -528,7 +529,7 @@ def _rescue_late_files(old: Path, target: Path, ours: set[str]) -> None:
 
 def write_season_outputs(
     season: Season,
-    fairness,
+    fairness: FairnessReport | None,
     out_dir: str | os.PathLike[str],
     *,
     force: bool = False,

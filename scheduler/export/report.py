@@ -42,7 +42,7 @@ from scheduler.fairness.names import (
     plain_source,
     plain_text,
 )
-from scheduler.season import Fixture, Season
+from scheduler.season import Fixture, PlanOptionFigures, Season
 
 TEXT_LIMIT = 40
 """Largest number of rows (teams, rounds) whose SVG cells get their own text."""
@@ -418,16 +418,17 @@ def stacked_bars(
     return _svg(width, height, paths.svg() + "".join(text), title)
 
 
-def options_chart(options) -> Markup | None:
+def options_chart(options: Sequence[PlanOptionFigures]) -> Markup | None:
     """The options the planner weighed as points: breaks across (fewer is better, to the left),
     pairs of rounds that mix perfectly upwards (more is better); the chosen option filled, the
     options no other beats in every figure ringed, the others grey. Numbers match the table."""
     shown = [(k, o) for k, o in enumerate(options, 1) if o.breaks is not None]
+    breaks = {k: o.breaks for k, o in shown if o.breaks is not None}
     if len(shown) < 2:
         return None
     left, bottom, span_x, span_y, top = 70, 40, 420, 180, 14
-    lo_b = min(min(o.breaks for _, o in shown), min(o.break_bound for _, o in shown))
-    hi_b = max(o.breaks for _, o in shown)
+    lo_b = min(min(breaks.values()), min(o.break_bound for _, o in shown))
+    hi_b = max(breaks.values())
     lo_p = min(o.perfect_pairs for _, o in shown)
     hi_p = max(o.pairs for _, o in shown)
     width, height = left + span_x + 30, top + span_y + bottom
@@ -456,7 +457,7 @@ def options_chart(options) -> Markup | None:
         body.append(f'<text x="{left - 6}" y="{y(value) + 4:g}" text-anchor="end" '
                     f'class="lbl">{value}</text>')
     for k, o in shown:
-        cx, cy = x(o.breaks), y(o.perfect_pairs)
+        cx, cy = x(breaks[k]), y(o.perfect_pairs)
         fill = OI_BLUE if o.chosen else ("#FFFFFF" if o.not_dominated else "#BBBBBB")
         ring = OI_BLUE if (o.chosen or o.not_dominated) else "#888888"
         body.append(

@@ -25,6 +25,7 @@ from dataclasses import dataclass
 
 from scheduler.export.csv_out import FixtureRow, fixture_rows
 from scheduler.export.ics import team_feed_names
+from scheduler.fairness.model import FairnessReport
 from scheduler.season import Season
 
 SITE_CAUTION = (
@@ -97,7 +98,7 @@ def site_paths(season: Season, feed_names: Mapping[str, str] | None = None) -> l
 
 def site_files(
     season: Season,
-    fairness=None,
+    fairness: FairnessReport | None = None,
     *,
     feed_names: Mapping[str, str] | None = None,
     calendar_folder: str = "calendars",

@@ -552,7 +552,7 @@ def stable_workbook_bytes(wb: Workbook) -> bytes:
 
 def write_workbook(
     season: Season,
-    fairness,
+    fairness: FairnessReport | None,
     path: str | os.PathLike[str],
     *,
     side_labels: tuple[str, str] = ("H", "A"),

@@ -96,14 +96,14 @@ def _require(M: int, starter) -> tuple[int, list[Pair]]:
     return M, _pairs(starter)
 
 
-def missing_element(M: int, starter) -> int:
+def missing_element(M: int, starter: Sequence[Sequence[int]]) -> int:
     """The non-zero element of ``Z_M`` that no pair of the even starter covers."""
     M, pairs = _require(M, starter)
     covered = {v for p in pairs for v in p}
     return next(x for x in range(1, M) if x not in covered)
 
 
-def even_starter_rounds(M: int, starter) -> tuple[tuple[Pair, ...], ...]:
+def even_starter_rounds(M: int, starter: Sequence[Sequence[int]]) -> tuple[tuple[Pair, ...], ...]:
     """Rounds ``F_0, ..., F_{M-1}, E`` on ``0..M+1`` (``∞1 = M``, ``∞2 = M + 1``)."""
     M, pairs = _require(M, starter)
     h = M // 2
@@ -118,7 +118,8 @@ def even_starter_rounds(M: int, starter) -> tuple[tuple[Pair, ...], ...]:
 
 
 def even_starter_factorization(
-    M: int, starter, *, method: str | None = None, source: str | None = None,
+    M: int, starter: Sequence[Sequence[int]], *, method: str | None = None,
+    source: str | None = None,
     details: dict | None = None,
 ) -> Factorization:
     """The one-factorization of ``K_{M+2}`` induced by an even starter of ``Z_M``."""
@@ -155,7 +156,7 @@ def _partners(M: int, pairs: list[Pair], g: int, m: int) -> list[int]:
     return p
 
 
-def good_even_differences(M: int, starter) -> list[int]:
+def good_even_differences(M: int, starter: Sequence[Sequence[int]]) -> list[int]:
     """The ``g`` in ``1..h`` with ``F_0 ∪ F_g`` Hamiltonian, and ``h + 1`` standing for ``E``
     when ``F_0 ∪ E`` is Hamiltonian."""
     M, pairs = _require(M, starter)
@@ -172,7 +173,7 @@ def good_even_differences(M: int, starter) -> list[int]:
     return good
 
 
-def is_perfect_even_starter(M: int, starter) -> bool:
+def is_perfect_even_starter(M: int, starter: Sequence[Sequence[int]]) -> bool:
     """Is ``starter`` an even starter whose induced one-factorization is perfect?"""
     if not is_even_starter(M, starter):
         return False

@@ -141,7 +141,7 @@ def _pairs(starter: Sequence[Sequence[int]]) -> list[Pair]:
     return sorted(out)
 
 
-def is_group_starter(group: SemidirectGroup, starter) -> bool:
+def is_group_starter(group: SemidirectGroup, starter: Sequence[Sequence[int]]) -> bool:
     """Do the pairs partition ``G \\ {e}`` with every quotient ``x y^-1`` exactly once?"""
     m = group.order
     try:
@@ -166,7 +166,8 @@ def _require(group: SemidirectGroup, starter) -> list[Pair]:
     return _pairs(starter)
 
 
-def group_starter_rounds(group: SemidirectGroup, starter) -> tuple[tuple[Pair, ...], ...]:
+def group_starter_rounds(group: SemidirectGroup,
+                         starter: Sequence[Sequence[int]]) -> tuple[tuple[Pair, ...], ...]:
     """Rounds ``F_g`` for ``g = 0..m-1`` on ``0..m`` (``∞ = m``)."""
     pairs = _require(group, starter)
     m = group.order
@@ -187,7 +188,7 @@ def _partners(group: SemidirectGroup, pairs: list[Pair], g: int) -> list[int]:
     return p
 
 
-def is_perfect_group_starter(group: SemidirectGroup, starter) -> bool:
+def is_perfect_group_starter(group: SemidirectGroup, starter: Sequence[Sequence[int]]) -> bool:
     """Is ``starter`` a starter of ``group`` whose induced one-factorization is perfect?
     (Walks ``F_e ∪ F_g`` for one ``g`` of each pair ``{g, g^-1}``.)"""
     if not is_group_starter(group, starter):
@@ -210,7 +211,8 @@ def is_perfect_group_starter(group: SemidirectGroup, starter) -> bool:
     return True
 
 
-def group_starter_factorization(group: SemidirectGroup, starter, *, method: str | None = None,
+def group_starter_factorization(group: SemidirectGroup, starter: Sequence[Sequence[int]], *,
+                                method: str | None = None,
                                 source: str | None = None,
                                 details: dict | None = None) -> Factorization:
     """The one-factorization of ``K_{m+1}`` induced by a starter of ``group``."""

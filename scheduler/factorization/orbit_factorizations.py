@@ -28,7 +28,7 @@ restarts) is this project's, as in :mod:`scheduler.factorization.search`.
 from __future__ import annotations
 
 import time
-from collections.abc import Iterator
+from collections.abc import Iterator, Sequence
 from dataclasses import dataclass
 
 import numpy as np
@@ -94,7 +94,7 @@ def union_systems(r: int, k: int) -> list[tuple[int, int, int]]:
     return out
 
 
-def kernel_tables(r: int, k: int):
+def kernel_tables(r: int, k: int) -> tuple[np.ndarray, np.ndarray, np.ndarray, int]:
     """``(ent_sys, ent_shift, n_ent, T)`` for the numba kernel."""
     systems = union_systems(r, k)
     entries: list[list[tuple[int, int]]] = [[] for _ in range(r)]
@@ -115,7 +115,7 @@ def _base_pairs(base) -> list[list[Pair]]:
     return [sorted((min(int(a), int(b)), max(int(a), int(b))) for a, b in rnd) for rnd in base]
 
 
-def is_orbit_base(r: int, k: int, base) -> bool:
+def is_orbit_base(r: int, k: int, base: Sequence[Sequence[Sequence[int]]]) -> bool:
     """Are ``base`` (``r`` lists of pairs) base rounds of a ``σ``-invariant one-factorization?"""
     r, k = _check(r, k)
     try:
@@ -147,7 +147,8 @@ def _require(r: int, k: int, base) -> list[list[Pair]]:
     return _base_pairs(base)
 
 
-def orbit_rounds(r: int, k: int, base) -> tuple[tuple[Pair, ...], ...]:
+def orbit_rounds(r: int, k: int,
+                 base: Sequence[Sequence[Sequence[int]]]) -> tuple[tuple[Pair, ...], ...]:
     """All ``r k`` rounds ``B_i + a`` in the order ``i`` then ``a``."""
     rounds = _require(r, k, base)
     return tuple(
@@ -156,7 +157,7 @@ def orbit_rounds(r: int, k: int, base) -> tuple[tuple[Pair, ...], ...]:
     )
 
 
-def is_perfect_orbit_base(r: int, k: int, base) -> bool:
+def is_perfect_orbit_base(r: int, k: int, base: Sequence[Sequence[Sequence[int]]]) -> bool:
     """Is every union ``B_i ∪ (B_j + d)`` of :func:`union_systems` Hamiltonian?"""
     if not is_orbit_base(r, k, base):
         return False
@@ -183,7 +184,8 @@ def is_perfect_orbit_base(r: int, k: int, base) -> bool:
     return True
 
 
-def orbit_factorization(r: int, k: int, base, *, method: str | None = None,
+def orbit_factorization(r: int, k: int, base: Sequence[Sequence[Sequence[int]]], *,
+                        method: str | None = None,
                         source: str | None = None, details: dict | None = None
                         ) -> Factorization:
     """The one-factorization of ``K_{rk+1}`` with base rounds ``base``."""

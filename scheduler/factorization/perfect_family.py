@@ -46,6 +46,7 @@ one-factorizations (J. H. Dinitz & P. Garnick, J. Combin. Des. 4 (1996), from me
 from __future__ import annotations
 
 import math
+from collections.abc import Sequence
 from dataclasses import dataclass
 
 import numpy as np
@@ -85,7 +86,7 @@ def _is_prime(k: int) -> bool:
     return k >= 2 and all(k % d for d in range(2, math.isqrt(k) + 1))
 
 
-def triple_profile(rounds, n: int) -> tuple[int, ...]:
+def triple_profile(rounds: Sequence[Sequence[tuple[int, int]]], n: int) -> tuple[int, ...]:
     """Isomorphism invariant (module docstring): the sorted cycle types of ``p_k ∘ p_j ∘ p_i``
     over all ordered triples of distinct rounds (``p_r`` the partner map of round ``r``;
     relabelling conjugates every product, which keeps its cycle type)."""
@@ -119,7 +120,7 @@ def triple_profile(rounds, n: int) -> tuple[int, ...]:
     return tuple(flat)
 
 
-def isomorphism_key(rounds, n: int) -> bytes | tuple[int, ...]:
+def isomorphism_key(rounds: Sequence[Sequence[tuple[int, int]]], n: int) -> bytes | tuple[int, ...]:
     """Exact canonical form up to ``n =`` :data:`CANONICAL_MAX_N`, else :func:`triple_profile`."""
     if n <= CANONICAL_MAX_N:
         return canonical_form(rounds, n)[0]
@@ -189,7 +190,7 @@ def _canon_kernel():
 _CANON = None
 
 
-def canonical_form(rounds, n: int) -> tuple[bytes, int]:
+def canonical_form(rounds: Sequence[Sequence[tuple[int, int]]], n: int) -> tuple[bytes, int]:
     """Canonical form and automorphism-group order of a perfect one-factorization of ``K_n``.
 
     Parameters

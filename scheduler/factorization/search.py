@@ -106,7 +106,9 @@ def orbit_representatives(group: AbelianGroup, multiplier: int = 1) -> list[int]
     return [g for g, _ in multiplier_orbits(group, multiplier)]
 
 
-def kernel_arrays(group: AbelianGroup, multiplier: int = 1):
+def kernel_arrays(
+    group: AbelianGroup, multiplier: int = 1
+) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
     """``(add, neg, mulu, reps, weights)`` as int32 arrays for the numba kernel; ``weights[t]``
     is the number of classes ``{g, -g}`` in the orbit of ``reps[t]``."""
     m = group.order

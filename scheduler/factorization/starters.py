@@ -67,7 +67,7 @@ def _require_starter(group: AbelianGroup, starter) -> list[Pair]:
     return _pairs(starter)
 
 
-def starter_partner(group: AbelianGroup, starter) -> np.ndarray:
+def starter_partner(group: AbelianGroup, starter: Sequence[Sequence[int]]) -> np.ndarray:
     """Partner map of ``F_0`` on ``0..m`` (``∞ = m`` is paired with ``0``)."""
     m = group.order
     p0 = np.empty(m + 1, dtype=np.int64)
@@ -102,14 +102,14 @@ def _union_is_hamiltonian(group: AbelianGroup, p0: np.ndarray, g: int) -> bool:
             return length == m + 1
 
 
-def good_differences(group: AbelianGroup, starter) -> list[int]:
+def good_differences(group: AbelianGroup, starter: Sequence[Sequence[int]]) -> list[int]:
     """Representatives ``g`` (of ``{g, -g}``) with ``F_0 ∪ F_g`` Hamiltonian."""
     pairs = _require_starter(group, starter)
     p0 = starter_partner(group, pairs)
     return [g for g in difference_representatives(group) if _union_is_hamiltonian(group, p0, g)]
 
 
-def is_perfect_starter(group: AbelianGroup, starter) -> bool:
+def is_perfect_starter(group: AbelianGroup, starter: Sequence[Sequence[int]]) -> bool:
     """Is ``starter`` a starter whose induced one-factorization is perfect?"""
     if not is_starter(group, starter):
         return False
@@ -117,7 +117,8 @@ def is_perfect_starter(group: AbelianGroup, starter) -> bool:
     return all(_union_is_hamiltonian(group, p0, g) for g in difference_representatives(group))
 
 
-def starter_rounds(group: AbelianGroup, starter) -> tuple[tuple[Pair, ...], ...]:
+def starter_rounds(group: AbelianGroup,
+                   starter: Sequence[Sequence[int]]) -> tuple[tuple[Pair, ...], ...]:
     """The rounds ``F_0, ..., F_{m-1}`` (round ``g`` is ``F_g``, group codes, ``∞ = m``)."""
     pairs = _require_starter(group, starter)
     m = group.order
@@ -130,7 +131,7 @@ def starter_rounds(group: AbelianGroup, starter) -> tuple[tuple[Pair, ...], ...]
 
 def starter_factorization(
     group: AbelianGroup,
-    starter,
+    starter: Sequence[Sequence[int]],
     *,
     method: str | None = None,
     source: str | None = None,

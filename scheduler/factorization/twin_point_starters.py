@@ -138,7 +138,7 @@ def _pairs(starter: Sequence[Sequence[int]]) -> list[Pair]:
     return sorted(out)
 
 
-def is_twin_starter(base: str, starter, *, swapped: bool = False) -> bool:
+def is_twin_starter(base: str, starter: Sequence[Sequence[int]], *, swapped: bool = False) -> bool:
     """Is ``starter`` an even starter of ``Z_2 × H`` (with an even missing element when
     ``swapped``)?"""
     G = twin_group(base)
@@ -173,7 +173,8 @@ def _require(base: str, starter, swapped: bool) -> tuple[TwinGroup, list[Pair], 
     return G, pairs, missing
 
 
-def twin_rounds(base: str, starter, *, swapped: bool = False) -> tuple[tuple[Pair, ...], ...]:
+def twin_rounds(base: str, starter: Sequence[Sequence[int]], *,
+                swapped: bool = False) -> tuple[tuple[Pair, ...], ...]:
     """Rounds ``F_0, ..., F_{|G|-1}, E`` on ``0..|G|+1`` (``∞1 = |G|``, ``∞2 = |G| + 1``)."""
     G, pairs, m = _require(base, starter, swapped)
     M = G.order
@@ -187,7 +188,7 @@ def twin_rounds(base: str, starter, *, swapped: bool = False) -> tuple[tuple[Pai
     return tuple(rounds)
 
 
-def twin_factorization(base: str, starter, *, swapped: bool = False,
+def twin_factorization(base: str, starter: Sequence[Sequence[int]], *, swapped: bool = False,
                        method: str | None = None, source: str | None = None,
                        details: dict | None = None) -> Factorization:
     """The one-factorization of ``K_{2|H|+2}`` induced by an even starter of ``Z_2 × H``."""
@@ -389,7 +390,8 @@ def _hamiltonian(p: list[int], q: list[int]) -> bool:
             return length == n
 
 
-def is_perfect_twin_starter(base: str, starter, *, swapped: bool = False) -> bool:
+def is_perfect_twin_starter(base: str, starter: Sequence[Sequence[int]], *,
+                            swapped: bool = False) -> bool:
     """Is the induced factorization perfect? (``|G|/2 + 1`` union walks, by the argument of the
     module docstring; the test suite compares this with the independent verifier.)"""
     if not is_twin_starter(base, starter, swapped=swapped):

@@ -18,6 +18,10 @@ from __future__ import annotations
 import math
 import re
 from dataclasses import dataclass
+from typing import TYPE_CHECKING
+
+if TYPE_CHECKING:
+    from scheduler.fairness.model import FairnessReport
 
 
 @dataclass(frozen=True, slots=True)
@@ -177,7 +181,7 @@ def _rounds_span(rounds) -> str:
     return "rounds " + ", ".join(str(r) for r in rounds)
 
 
-def mixing_over(fr) -> str:
+def mixing_over(fr: FairnessReport) -> str:
     """What the mixing figure is measured over, in words."""
     span = _rounds_span(fr.mixing_rounds)
     if fr.legs > 1:
@@ -188,20 +192,20 @@ def mixing_over(fr) -> str:
     return f"every pair of the season's rounds ({span})"
 
 
-def carry_over_over(fr) -> str:
+def carry_over_over(fr: FairnessReport) -> str:
     """What the carry-over value is measured over, in words."""
     if fr.legs > 1:
         return "leg 1 only (its last round followed by its first); each later leg alike"
     return "the whole round robin, its last round followed by its first"
 
 
-def court_uses_max(fr) -> int | None:
+def court_uses_max(fr: FairnessReport) -> int | None:
     """The most games one team plays on one court (``None`` when no courts are named)."""
     counts = [count for t in fr.team_figures for _, count in t.courts]
     return max(counts) if counts and fr.court_names else None
 
 
-def figure_lines(fr) -> list[FigureLine]:
+def figure_lines(fr: FairnessReport) -> list[FigureLine]:
     """The measured figures of a :class:`~scheduler.fairness.model.FairnessReport` in words.
 
     Every comparison compares two numbers of the report (nothing is recomputed).

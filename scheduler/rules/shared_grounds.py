@@ -8,7 +8,7 @@ from __future__ import annotations
 
 from collections import defaultdict
 from dataclasses import dataclass
-from typing import TYPE_CHECKING
+from typing import TYPE_CHECKING, Any
 
 from scheduler.config.model import League
 from scheduler.rules.base import HardRule, TimetableView, Violation
@@ -57,7 +57,7 @@ class SharedGrounds(HardRule):
         return tuple(out)
 
 
-def home_days_at_most(model: TimetableView, members: list[int], cap: int, literal, *,
+def home_days_at_most(model: TimetableView, members: list[int], cap: int, literal: Any, *,
                       per_team: bool) -> None:
     """Under ``literal``: on every match day at most ``cap`` of ``members`` at home
     (``per_team``: counting teams) or at most ``cap`` home games of theirs (counting games)."""

@@ -215,6 +215,21 @@ def plan_season(
     D. de Werra, "Scheduling in sports", Annals of Discrete Mathematics 11 (1981) 381-395;
     K. G. Russell, Biometrika 67 (1980) 127-131; U. Junker, "QUICKXPLAIN", AAAI 2004 (from
     memory).
+
+    Examples
+    --------
+    >>> from scheduler.config import parse_league
+    >>> clubs = ["Quenby", "Larkholt", "Ebbside", "Morrow"]
+    >>> league = parse_league({
+    ...     "league": {"name": "Quenby Four", "season": "2031", "timezone": "Europe/London"},
+    ...     "calendar": {"start": "2031-01-07", "end": "2031-04-29", "weekdays": ["tue"]},
+    ...     "venues": [{"name": f"{club} Hall"} for club in clubs],
+    ...     "teams": [{"name": club, "home_venue": f"{club} Hall"} for club in clubs]})
+    >>> result = plan_season(league)
+    >>> result.status, len(result.season.fixtures), result.season.mixing.perfect
+    ('optimal', 6, True)
+    >>> result.options[0].breaks, result.options[0].break_bound
+    (2, 2)
     """
     seed = league.seed if seed is None else int(seed)
     total = float(time_limit if time_limit is not None else league.solve_seconds)

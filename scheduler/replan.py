@@ -421,7 +421,45 @@ def replan_season(league: League, previous: Season, events: Events, *,
 
 def load_replan(league_path: str | Path, season_dir: str | Path, events_path: str | Path, *,
                 time_limit: float | None = None) -> ReplanResult:
-    """Read the three inputs and :func:`replan_season` (nothing is written)."""
+    """Read the three inputs and :func:`replan_season` (nothing is written).
+
+    Parameters
+    ----------
+    league_path
+        The league file.
+    season_dir
+        The season folder written by the first plan (its ``season.json`` is read).
+    events_path
+        The events file (results played, postponements, hand-moved games).
+    time_limit
+        Overrides the league's solver seconds.
+
+    Returns
+    -------
+    ReplanResult
+        As :func:`replan_season`.
+
+    Raises
+    ------
+    ConfigError
+        For a league or events file with problems (each located).
+    InputError
+        When the folder holds no ``season.json``, or for an unreadable one, or events that do
+        not fit the season.
+    InfeasibleError
+        When no re-plan keeps every rule.
+
+    References
+    ----------
+    ``docs/replanning.md``.
+
+    Examples
+    --------
+    >>> result = load_replan("sample_leagues/county_double.toml", "out/county",
+    ...                      "sample_leagues/county_double.events.toml")  # doctest: +SKIP
+    >>> len(result.changes) > 0  # doctest: +SKIP
+    True
+    """
     from scheduler.export.season_json import load_season_json
 
     league = load_league(league_path)
@@ -438,7 +476,39 @@ def write_replan(result: ReplanResult, season_dir: str | Path, *, league: League
                  config_path: str | Path | None = None) -> list[Path]:
     """Write the re-planned season into ``season_dir`` (the folder it came from), its
     ``changes.csv`` and the report's list of changes included, as one unit (the previous
-    season stays whole until the new one is swapped in). Returns the paths written."""
+    season stays whole until the new one is swapped in). Returns the paths written.
+
+    Parameters
+    ----------
+    result
+        The re-plan (:func:`replan_season` or :func:`load_replan`).
+    season_dir
+        The season folder the previous season came from.
+    league
+        The league (length of the games in the calendars, labels of the sides).
+    config_path
+        The user's league file, which is never overwritten.
+
+    Returns
+    -------
+    list of Path
+        The paths written (:func:`scheduler.export.write_season_outputs`).
+
+    Raises
+    ------
+    OutputError
+        For a folder that may not be written or a write that failed; the previous season is
+        then left as it was.
+
+    References
+    ----------
+    ``docs/replanning.md``; ``docs/season-folder.md``.
+
+    Examples
+    --------
+    >>> write_replan(result, "out/county", league=result.league)  # doctest: +SKIP
+    [...]
+    """
     from scheduler.export import write_season_outputs
 
     return write_season_outputs(

@@ -133,6 +133,33 @@ def audit_file(
     ------
     InputError
         Unusable input (the CLI's exit code 2), with its location.
+
+    References
+    ----------
+    RFC 4180 (CSV); ECMA-376 (xlsx); ``docs/audit-input.md`` (how each format is read).
+
+    Examples
+    --------
+    A season written by :func:`scheduler.export.write_season_outputs`, read back:
+
+    >>> import tempfile
+    >>> from pathlib import Path
+    >>> from scheduler.config import parse_league
+    >>> from scheduler.export import write_season_outputs
+    >>> from scheduler.fairness import compute_fairness
+    >>> from scheduler.plan import plan_season
+    >>> clubs = ["Quenby", "Larkholt", "Ebbside", "Morrow"]
+    >>> league = parse_league({
+    ...     "league": {"name": "Quenby Four", "season": "2031", "timezone": "Europe/London"},
+    ...     "calendar": {"start": "2031-01-07", "end": "2031-04-29", "weekdays": ["tue"]},
+    ...     "venues": [{"name": f"{club} Hall"} for club in clubs],
+    ...     "teams": [{"name": club, "home_venue": f"{club} Hall"} for club in clubs]})
+    >>> season = plan_season(league).season
+    >>> with tempfile.TemporaryDirectory() as folder:
+    ...     _ = write_season_outputs(season, compute_fairness(season), Path(folder) / "out")
+    ...     audit = audit_file(Path(folder) / "out" / "fixtures.csv", timezone="Europe/London")
+    >>> audit.valid, audit.problems, len(audit.season.fixtures)
+    (True, (), 6)
     """
     source = read_schedule_with_rows(path, timezone=timezone, columns=columns)
     rows = source.rows if any(r is not None for r in source.rows) else None

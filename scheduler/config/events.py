@@ -254,6 +254,10 @@ def load_events(path: str | Path, league: League) -> Events:
         With every located problem (``postponed[0].home: 'Holin Town' is not a team; did you
         mean 'Hollin Town'?``).
 
+    References
+    ----------
+    ``docs/replanning.md`` (the events file and how each event is checked).
+
     Examples
     --------
     >>> from scheduler.config import load_league                    # doctest: +SKIP

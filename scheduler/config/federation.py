@@ -219,6 +219,10 @@ def load_federation(path: str | Path) -> Federation:
     ConfigError
         Every problem found, each located by its field path (``divisions[2].teams[0].name``).
 
+    References
+    ----------
+    ``docs/divisions.md`` (what a federation file holds and what is checked).
+
     Examples
     --------
     >>> fed = load_federation("sample_leagues/federation.toml")  # doctest: +SKIP

@@ -59,12 +59,82 @@ def read_config_data(path: str | Path) -> Any:
 
 
 def load_league(path: str | Path) -> League:
-    """Read, check and build the league in ``path`` (``.toml``, ``.yaml`` or ``.yml``)."""
+    """Read, check and build the league in ``path`` (``.toml``, ``.yaml`` or ``.yml``).
+
+    Parameters
+    ----------
+    path
+        The league file.
+
+    Returns
+    -------
+    League
+        Frozen, checked values.
+
+    Raises
+    ------
+    ConfigError
+        Every problem found (unreadable file, syntax, unknown options, wrong values, references,
+        contradictions), each located by line or field path.
+
+    References
+    ----------
+    TOML v1.0.0 (toml.io); YAML 1.2; ``docs/limits.md`` for the size limits of the input.
+
+    Examples
+    --------
+    >>> league = load_league("sample_leagues/club_day.toml")  # doctest: +SKIP
+    >>> league.name  # doctest: +SKIP
+    'Marrowby Chess Club Squad Weekend'
+    """
     return parse_league(read_config_data(path), source=str(path))
 
 
 def parse_league(data: Mapping[str, Any], source: str = "<config>") -> League:
-    """Check and build a league from already-parsed data (the dict a TOML/YAML file gives)."""
+    """Check and build a league from already-parsed data (the dict a TOML/YAML file gives).
+
+    Parameters
+    ----------
+    data
+        The parsed sections (``league``, ``calendar``, ``venues``, ``teams``, ...).
+    source
+        Name of the input in messages (the file's path when it came from a file).
+
+    Returns
+    -------
+    League
+        Frozen, checked values.
+
+    Raises
+    ------
+    ConfigError
+        Every problem found, each located by its field path.
+
+    References
+    ----------
+    ``docs/limits.md`` (limits of the input); ``docs/rules.md`` (the rules a league switches on).
+
+    Examples
+    --------
+    >>> clubs = ["Quenby", "Larkholt", "Ebbside", "Morrow"]
+    >>> league = parse_league({
+    ...     "league": {"name": "Quenby Four", "season": "2031", "timezone": "Europe/London"},
+    ...     "calendar": {"start": "2031-01-07", "end": "2031-04-29", "weekdays": ["tue"]},
+    ...     "venues": [{"name": f"{club} Hall"} for club in clubs],
+    ...     "teams": [{"name": club, "home_venue": f"{club} Hall"} for club in clubs]})
+    >>> league.name, [team.name for team in league.teams]
+    ('Quenby Four', ['Quenby', 'Larkholt', 'Ebbside', 'Morrow'])
+    >>> parse_league({
+    ...     "league": {"name": "Quenby Two", "season": "2031", "timezone": "Europe/London"},
+    ...     "calendar": {"start": "2031-01-07", "end": "2031-04-29", "weekdays": ["tue"]},
+    ...     "venues": [{"name": "Quenby Hall"}],
+    ...     "teams": [{"name": "Quenby", "home_venue": "Quenby Hal"},
+    ...               {"name": "Larkholt", "home_venue": "Quenby Hall"}]})
+    Traceback (most recent call last):
+    ...
+    scheduler.errors.ConfigError: <config>: teams[0].home_venue: 'Quenby Hal' is not a venue; \
+did you mean 'Quenby Hall'?
+    """
     try:
         return _parse(data, source)
     except ConfigError:

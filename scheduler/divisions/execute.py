@@ -139,6 +139,11 @@ def plan_federation(
     InputError
         When no scheduler answers at ``cluster``.
 
+    References
+    ----------
+    ``docs/divisions.md`` (units of work, couplings and the independent check); Dask
+    distributed documentation (``Client.submit``, ``as_completed``).
+
     Examples
     --------
     >>> plan = plan_federation(fed, workers=2)  # doctest: +SKIP

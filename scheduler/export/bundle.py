@@ -577,9 +577,30 @@ def write_season_outputs(
         When interrupted before the swap (the previous season is left as it was); an interrupt
         during the swap is held back until the swap is done.
 
+    References
+    ----------
+    ``docs/season-folder.md`` (what the folder guarantees); ``docs/outputs.md`` (each file);
+    RFC 5545 (iCalendar); RFC 4180 (CSV).
+
     Examples
     --------
-    See ``tests/export/test_bundle.py``.
+    >>> import tempfile
+    >>> from pathlib import Path
+    >>> from scheduler.config import parse_league
+    >>> from scheduler.fairness import compute_fairness
+    >>> from scheduler.plan import plan_season
+    >>> clubs = ["Quenby", "Larkholt", "Ebbside", "Morrow"]
+    >>> league = parse_league({
+    ...     "league": {"name": "Quenby Four", "season": "2031", "timezone": "Europe/London"},
+    ...     "calendar": {"start": "2031-01-07", "end": "2031-04-29", "weekdays": ["tue"]},
+    ...     "venues": [{"name": f"{club} Hall"} for club in clubs],
+    ...     "teams": [{"name": club, "home_venue": f"{club} Hall"} for club in clubs]})
+    >>> season = plan_season(league).season
+    >>> with tempfile.TemporaryDirectory() as folder:
+    ...     written = write_season_outputs(season, compute_fairness(season), Path(folder) / "out")
+    ...     names = [path.name for path in written]
+    >>> names[:2], names[-2:]
+    (['fixtures.csv', 'fixtures.xlsx'], ['season.json', '.season-manifest.json'])
     """
     out = Path(out_dir)
     paths = output_paths(season, out)

@@ -50,7 +50,38 @@ def anderson_rounds(n: int) -> tuple[tuple[tuple[int, int], ...], ...]:
 
 
 def anderson_factorization(n: int) -> Factorization:
-    """GA_n, Anderson's one-factorization of ``K_n`` for ``n = 2p``, ``p`` odd."""
+    """GA_n, Anderson's one-factorization of ``K_n`` for ``n = 2p``, ``p`` odd.
+
+    Parameters
+    ----------
+    n
+        The order, ``2p`` with ``p`` odd.
+
+    Returns
+    -------
+    Factorization
+        The rounds ``G_0..G_{p-1}`` then ``H_1..H_{p-1}`` of :func:`anderson_rounds`; perfect
+        when ``p`` is prime.
+
+    Raises
+    ------
+    ValueError
+        When ``n`` is not twice an odd number.
+
+    References
+    ----------
+    B. A. Anderson, "Finite topologies and Hamiltonian paths", J. Combin. Theory Ser. B 14
+    (1973) 87-93; ``docs/one-factorizations.md`` §2.2.
+
+    Examples
+    --------
+    >>> from scheduler.factorization import anderson_factorization, verify_rounds
+    >>> ga10 = anderson_factorization(10)
+    >>> ga10.method
+    'Anderson GA_10'
+    >>> verify_rounds(10, ga10.rounds).perfect
+    True
+    """
     return Factorization(
         n, anderson_rounds(n), f"Anderson GA_{n}", SOURCE, {"construction": "GA", "p": n // 2}
     )

@@ -33,5 +33,38 @@ def circle_rounds(n: int) -> tuple[tuple[tuple[int, int], ...], ...]:
 
 
 def circle_factorization(n: int) -> Factorization:
-    """GK_n, the circle (polygon) one-factorization of K_n."""
+    """GK_n, the circle (polygon) one-factorization of K_n.
+
+    Parameters
+    ----------
+    n
+        The even order (number of vertices), at least 2.
+
+    Returns
+    -------
+    Factorization
+        The ``n - 1`` rounds of :func:`circle_rounds`, vertex ``n - 1`` the fixed vertex ``∞``.
+        It is perfect exactly when ``n - 1`` is prime.
+
+    Raises
+    ------
+    ValueError
+        For an odd ``n`` or ``n < 2``.
+
+    References
+    ----------
+    A. Kotzig, "Hamilton graphs and Hamilton circuits", 1964; W. D. Wallis,
+    *One-Factorizations*, Kluwer 1997, ch. 16; ``docs/one-factorizations.md``.
+
+    Examples
+    --------
+    >>> from scheduler.factorization import circle_factorization, verify_rounds
+    >>> gk6 = circle_factorization(6)
+    >>> gk6.method
+    'circle GK_6'
+    >>> gk6.rounds[0]
+    ((0, 5), (1, 4), (2, 3))
+    >>> verify_rounds(6, gk6.rounds).perfect
+    True
+    """
     return Factorization(n, circle_rounds(n), f"circle GK_{n}", SOURCE, {"construction": "GK"})

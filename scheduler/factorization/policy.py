@@ -127,6 +127,48 @@ def factorize(
     ``budget`` (nominal seconds, converted to fixed work so the result depends only on
     ``teams`` and ``seed``) is used only for orders without a formula or catalogue entry.
     ``progress(message, fraction)`` is called during searches.
+
+    Parameters
+    ----------
+    teams
+        Number of teams, 2 to :data:`MAX_TEAMS`; an odd number adds a bye vertex ``n - 1``.
+    seed
+        Seed of any search (same ``teams`` and ``seed``: same factorization).
+    budget
+        Nominal seconds for a search, converted to a fixed amount of work.
+    progress
+        Called as ``progress(message, fraction)`` during searches.
+
+    Returns
+    -------
+    Factorization
+        A one-factorization of ``K_n`` (``n = teams + teams % 2``); ``details`` records the bye,
+        whether a perfect one is known to exist for ``n`` and what was tried.
+
+    Raises
+    ------
+    InputError
+        For a number of teams that is not a whole number in range, or a bad seed or budget.
+
+    References
+    ----------
+    Module docstring (Kotzig 1964; Anderson 1973; Wallis 1997); ``docs/one-factorizations.md``
+    and ``docs/factorization-search.md``.
+
+    Examples
+    --------
+    Seven teams use ``K_8``, whose circle factorization is perfect (7 is prime):
+
+    >>> from scheduler.factorization import factorize, verify_rounds
+    >>> seven = factorize(7)
+    >>> seven.n, seven.method, seven.details["bye"]
+    (8, 'circle GK_8', True)
+    >>> verify_rounds(seven.n, seven.rounds).perfect
+    True
+    >>> factorize(1)
+    Traceback (most recent call last):
+    ...
+    scheduler.errors.InputError: teams: a league needs at least 2 teams, got 1
     """
     teams = _check_teams(teams)
     budget = _check_seed_budget(seed, budget)

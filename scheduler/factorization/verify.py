@@ -232,6 +232,43 @@ def verify_rounds(n: int, rounds: Iterable, *, max_listed: int = 50) -> Certific
     number of pairs of rounds examined (``C(n-1, 2)`` for a valid factorization).
     ``imperfect`` lists the first ``max_listed`` imperfect pairs (in order of ``(first, second)``)
     with their sorted cycle lengths; ``imperfect_total`` counts all of them.
+
+    Parameters
+    ----------
+    n
+        The even order of the complete graph (vertices ``0..n-1``).
+    rounds
+        The rounds, each an iterable of games ``(a, b)``.
+    max_listed
+        How many imperfect pairs are listed in the certificate.
+
+    Returns
+    -------
+    Certificate
+        Validity, the perfect pairs out of the pairs examined, the problems found and the
+        imperfect pairs with their cycle lengths.
+
+    References
+    ----------
+    A. Kotzig 1964 (perfect one-factorizations); W. D. Wallis, *One-Factorizations*, Kluwer
+    1997, ch. 16; ``docs/one-factorizations.md``.
+
+    Examples
+    --------
+    The circle factorization GK_6 is perfect (5 is prime); GK_10 is not (9 is not):
+
+    >>> from scheduler.factorization import circle_factorization, verify_rounds
+    >>> verify_rounds(6, circle_factorization(6).rounds)
+    Certificate(n=6, valid=True, perfect_pairs=10, pairs=10, problems=(), imperfect=(), \
+imperfect_total=0)
+    >>> gk10 = verify_rounds(10, circle_factorization(10).rounds)
+    >>> gk10.valid, gk10.perfect_pairs, gk10.pairs, gk10.imperfect[0].label
+    (True, 27, 36, '4+6')
+
+    A defect is reported, not raised:
+
+    >>> verify_rounds(4, [[(0, 1), (2, 3)], [(0, 2), (1, 3)], [(0, 1), (2, 3)]]).problems[-1]
+    'vertices 1 and 2 never meet'
     """
     problems = _Problems()
     if isinstance(n, bool) or not isinstance(n, int | np.integer):

@@ -50,6 +50,29 @@ def compute_fairness(season: Season, league: League | None = None) -> FairnessRe
     Returns
     -------
     FairnessReport
+        Every figure, computed from the fixtures alone; legs and scheme are read from them.
+
+    References
+    ----------
+    D. de Werra, "Scheduling in sports", Annals of Discrete Mathematics 11 (1981) 381-395
+    (breaks); K. G. Russell, Biometrika 67 (1980) 127-131 (carry-over); ``docs/fairness.md``
+    (every figure, its bound and its source).
+
+    Examples
+    --------
+    >>> from scheduler.config import parse_league
+    >>> from scheduler.plan import plan_season
+    >>> clubs = ["Quenby", "Larkholt", "Ebbside", "Morrow"]
+    >>> league = parse_league({
+    ...     "league": {"name": "Quenby Four", "season": "2031", "timezone": "Europe/London"},
+    ...     "calendar": {"start": "2031-01-07", "end": "2031-04-29", "weekdays": ["tue"]},
+    ...     "venues": [{"name": f"{club} Hall"} for club in clubs],
+    ...     "teams": [{"name": club, "home_venue": f"{club} Hall"} for club in clubs]})
+    >>> report = compute_fairness(plan_season(league).season, league)
+    >>> report.breaks_total, report.breaks_lower_bound, report.perfect
+    (2, 2, True)
+    >>> report.carry_over_value, report.carry_over_lower_bound
+    (12, 12)
     """
     table = build_table(season)
     n = table.n

@@ -55,6 +55,10 @@ def check_rules(league: League, season: Season) -> tuple[RuleCheck, ...]:
     tuple of RuleCheck
         One entry per rule the league switches on, in :data:`RULES` order.
 
+    References
+    ----------
+    ``docs/rules.md`` (each rule, its fields, its constraints and its check).
+
     Examples
     --------
     >>> from datetime import date

@@ -97,14 +97,50 @@ def _require(M: int, starter) -> tuple[int, list[Pair]]:
 
 
 def missing_element(M: int, starter: Sequence[Sequence[int]]) -> int:
-    """The non-zero element of ``Z_M`` that no pair of the even starter covers."""
+    """The non-zero element of ``Z_M`` that no pair of the even starter covers.
+
+    Parameters
+    ----------
+    M
+        The even order of ``Z_M``.
+    starter
+        The ``M/2 - 1`` pairs ``(x, y)`` of ``Z_M``.
+
+    Returns
+    -------
+    int
+        The missing element ``m``.
+
+    Raises
+    ------
+    InputError
+        When ``starter`` is not an even starter of ``Z_M``.
+    """
     M, pairs = _require(M, starter)
     covered = {v for p in pairs for v in p}
     return next(x for x in range(1, M) if x not in covered)
 
 
 def even_starter_rounds(M: int, starter: Sequence[Sequence[int]]) -> tuple[tuple[Pair, ...], ...]:
-    """Rounds ``F_0, ..., F_{M-1}, E`` on ``0..M+1`` (``∞1 = M``, ``∞2 = M + 1``)."""
+    """Rounds ``F_0, ..., F_{M-1}, E`` on ``0..M+1`` (``∞1 = M``, ``∞2 = M + 1``).
+
+    Parameters
+    ----------
+    M
+        The even order of ``Z_M``.
+    starter
+        The ``M/2 - 1`` pairs ``(x, y)`` of ``Z_M``.
+
+    Returns
+    -------
+    tuple of rounds
+        ``M + 1`` rounds of games on ``0..M+1``.
+
+    Raises
+    ------
+    InputError
+        When ``starter`` is not an even starter of ``Z_M``.
+    """
     M, pairs = _require(M, starter)
     h = M // 2
     m = missing_element(M, pairs)
@@ -122,7 +158,29 @@ def even_starter_factorization(
     source: str | None = None,
     details: dict | None = None,
 ) -> Factorization:
-    """The one-factorization of ``K_{M+2}`` induced by an even starter of ``Z_M``."""
+    """The one-factorization of ``K_{M+2}`` induced by an even starter of ``Z_M``.
+
+    Parameters
+    ----------
+    M
+        The even order of ``Z_M``.
+    starter
+        The ``M/2 - 1`` pairs ``(x, y)`` of ``Z_M``.
+    method, source
+        Override the factorization's description and citation.
+    details
+        Extra entries for the factorization's ``details``.
+
+    Returns
+    -------
+    Factorization
+        The one-factorization of ``K_{M+2}``.
+
+    Raises
+    ------
+    InputError
+        When ``starter`` is not an even starter of ``Z_M``.
+    """
     M, pairs = _require(M, starter)
     info = {
         "construction": "even starter",
@@ -158,7 +216,25 @@ def _partners(M: int, pairs: list[Pair], g: int, m: int) -> list[int]:
 
 def good_even_differences(M: int, starter: Sequence[Sequence[int]]) -> list[int]:
     """The ``g`` in ``1..h`` with ``F_0 ∪ F_g`` Hamiltonian, and ``h + 1`` standing for ``E``
-    when ``F_0 ∪ E`` is Hamiltonian."""
+    when ``F_0 ∪ E`` is Hamiltonian.
+
+    Parameters
+    ----------
+    M
+        The even order of ``Z_M``.
+    starter
+        The ``M/2 - 1`` pairs ``(x, y)`` of ``Z_M``.
+
+    Returns
+    -------
+    list of int
+        The good ``g`` in increasing order.
+
+    Raises
+    ------
+    InputError
+        When ``starter`` is not an even starter of ``Z_M``.
+    """
     M, pairs = _require(M, starter)
     h = M // 2
     m = missing_element(M, pairs)
@@ -174,7 +250,20 @@ def good_even_differences(M: int, starter: Sequence[Sequence[int]]) -> list[int]
 
 
 def is_perfect_even_starter(M: int, starter: Sequence[Sequence[int]]) -> bool:
-    """Is ``starter`` an even starter whose induced one-factorization is perfect?"""
+    """Is ``starter`` an even starter whose induced one-factorization is perfect?
+
+    Parameters
+    ----------
+    M
+        The even order of ``Z_M``.
+    starter
+        The ``M/2 - 1`` pairs ``(x, y)`` of ``Z_M``.
+
+    Returns
+    -------
+    bool
+        False also for anything that is not an even starter.
+    """
     if not is_even_starter(M, starter):
         return False
     return len(good_even_differences(M, starter)) == M // 2 + 1

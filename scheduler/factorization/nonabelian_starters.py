@@ -142,7 +142,20 @@ def _pairs(starter: Sequence[Sequence[int]]) -> list[Pair]:
 
 
 def is_group_starter(group: SemidirectGroup, starter: Sequence[Sequence[int]]) -> bool:
-    """Do the pairs partition ``G \\ {e}`` with every quotient ``x y^-1`` exactly once?"""
+    """Do the pairs partition ``G \\ {e}`` with every quotient ``x y^-1`` exactly once?
+
+    Parameters
+    ----------
+    group
+        The group ``Z_p ⋊_r Z_q`` of odd order ``m``.
+    starter
+        The pairs ``(x, y)`` of group codes.
+
+    Returns
+    -------
+    bool
+        False also for input that is not a list of pairs.
+    """
     m = group.order
     try:
         pairs = _pairs(starter)
@@ -168,7 +181,25 @@ def _require(group: SemidirectGroup, starter) -> list[Pair]:
 
 def group_starter_rounds(group: SemidirectGroup,
                          starter: Sequence[Sequence[int]]) -> tuple[tuple[Pair, ...], ...]:
-    """Rounds ``F_g`` for ``g = 0..m-1`` on ``0..m`` (``∞ = m``)."""
+    """Rounds ``F_g`` for ``g = 0..m-1`` on ``0..m`` (``∞ = m``).
+
+    Parameters
+    ----------
+    group
+        The group ``Z_p ⋊_r Z_q`` of odd order ``m``.
+    starter
+        The pairs ``(x, y)`` of group codes.
+
+    Returns
+    -------
+    tuple of rounds
+        ``m`` rounds of games on ``0..m``.
+
+    Raises
+    ------
+    InputError
+        When ``starter`` is not a starter of ``group``.
+    """
     pairs = _require(group, starter)
     m = group.order
     mul = group.mul
@@ -190,7 +221,20 @@ def _partners(group: SemidirectGroup, pairs: list[Pair], g: int) -> list[int]:
 
 def is_perfect_group_starter(group: SemidirectGroup, starter: Sequence[Sequence[int]]) -> bool:
     """Is ``starter`` a starter of ``group`` whose induced one-factorization is perfect?
-    (Walks ``F_e ∪ F_g`` for one ``g`` of each pair ``{g, g^-1}``.)"""
+    (Walks ``F_e ∪ F_g`` for one ``g`` of each pair ``{g, g^-1}``.)
+
+    Parameters
+    ----------
+    group
+        The group ``Z_p ⋊_r Z_q`` of odd order ``m``.
+    starter
+        The pairs ``(x, y)`` of group codes.
+
+    Returns
+    -------
+    bool
+        False also for anything that is not a starter.
+    """
     if not is_group_starter(group, starter):
         return False
     pairs = _pairs(starter)
@@ -215,7 +259,29 @@ def group_starter_factorization(group: SemidirectGroup, starter: Sequence[Sequen
                                 method: str | None = None,
                                 source: str | None = None,
                                 details: dict | None = None) -> Factorization:
-    """The one-factorization of ``K_{m+1}`` induced by a starter of ``group``."""
+    """The one-factorization of ``K_{m+1}`` induced by a starter of ``group``.
+
+    Parameters
+    ----------
+    group
+        The group ``Z_p ⋊_r Z_q`` of odd order ``m``.
+    starter
+        The pairs ``(x, y)`` of group codes.
+    method, source
+        Override the factorization's description and citation.
+    details
+        Extra entries for the factorization's ``details``.
+
+    Returns
+    -------
+    Factorization
+        The one-factorization of ``K_{m+1}``.
+
+    Raises
+    ------
+    InputError
+        When ``starter`` is not a starter of ``group``.
+    """
     pairs = _require(group, starter)
     info = {"construction": "group starter", "group": group.name, "p": group.p, "q": group.q,
             "r": group.r, "starter": [list(pr) for pr in pairs]}

@@ -95,7 +95,19 @@ def union_systems(r: int, k: int) -> list[tuple[int, int, int]]:
 
 
 def kernel_tables(r: int, k: int) -> tuple[np.ndarray, np.ndarray, np.ndarray, int]:
-    """``(ent_sys, ent_shift, n_ent, T)`` for the numba kernel."""
+    """``(ent_sys, ent_shift, n_ent, T)`` for the numba kernel.
+
+    Parameters
+    ----------
+    r, k
+        Number of blocks and their odd length.
+
+    Returns
+    -------
+    tuple
+        ``ent_sys`` and ``ent_shift`` (``r × width`` int32: the unions each base round enters and
+        its shift there), ``n_ent`` (int32, entries per base round) and ``T`` (number of unions).
+    """
     systems = union_systems(r, k)
     entries: list[list[tuple[int, int]]] = [[] for _ in range(r)]
     for t, (i, j, d) in enumerate(systems):
@@ -116,7 +128,20 @@ def _base_pairs(base) -> list[list[Pair]]:
 
 
 def is_orbit_base(r: int, k: int, base: Sequence[Sequence[Sequence[int]]]) -> bool:
-    """Are ``base`` (``r`` lists of pairs) base rounds of a ``σ``-invariant one-factorization?"""
+    """Are ``base`` (``r`` lists of pairs) base rounds of a ``σ``-invariant one-factorization?
+
+    Parameters
+    ----------
+    r, k
+        Number of blocks and their odd length (``n = r k + 1``).
+    base
+        The ``r`` base rounds, each a list of pairs ``(a, b)``.
+
+    Returns
+    -------
+    bool
+        False also for input that is not a list of lists of pairs.
+    """
     r, k = _check(r, k)
     try:
         rounds = _base_pairs(base)
@@ -149,7 +174,25 @@ def _require(r: int, k: int, base) -> list[list[Pair]]:
 
 def orbit_rounds(r: int, k: int,
                  base: Sequence[Sequence[Sequence[int]]]) -> tuple[tuple[Pair, ...], ...]:
-    """All ``r k`` rounds ``B_i + a`` in the order ``i`` then ``a``."""
+    """All ``r k`` rounds ``B_i + a`` in the order ``i`` then ``a``.
+
+    Parameters
+    ----------
+    r, k
+        Number of blocks and their odd length (``n = r k + 1``).
+    base
+        The ``r`` base rounds, each a list of pairs ``(a, b)``.
+
+    Returns
+    -------
+    tuple of rounds
+        ``r k`` rounds of games on ``0..r k``.
+
+    Raises
+    ------
+    InputError
+        When ``base`` are not base rounds of a ``σ``-invariant one-factorization.
+    """
     rounds = _require(r, k, base)
     return tuple(
         normalise_round([(shift(a, s, r, k), shift(b, s, r, k)) for a, b in rounds[i]])
@@ -158,7 +201,20 @@ def orbit_rounds(r: int, k: int,
 
 
 def is_perfect_orbit_base(r: int, k: int, base: Sequence[Sequence[Sequence[int]]]) -> bool:
-    """Is every union ``B_i ∪ (B_j + d)`` of :func:`union_systems` Hamiltonian?"""
+    """Is every union ``B_i ∪ (B_j + d)`` of :func:`union_systems` Hamiltonian?
+
+    Parameters
+    ----------
+    r, k
+        Number of blocks and their odd length (``n = r k + 1``).
+    base
+        The ``r`` base rounds, each a list of pairs ``(a, b)``.
+
+    Returns
+    -------
+    bool
+        False also for anything that is not a base.
+    """
     if not is_orbit_base(r, k, base):
         return False
     rounds = _base_pairs(base)
@@ -188,7 +244,29 @@ def orbit_factorization(r: int, k: int, base: Sequence[Sequence[Sequence[int]]],
                         method: str | None = None,
                         source: str | None = None, details: dict | None = None
                         ) -> Factorization:
-    """The one-factorization of ``K_{rk+1}`` with base rounds ``base``."""
+    """The one-factorization of ``K_{rk+1}`` with base rounds ``base``.
+
+    Parameters
+    ----------
+    r, k
+        Number of blocks and their odd length (``n = r k + 1``).
+    base
+        The ``r`` base rounds, each a list of pairs ``(a, b)``.
+    method, source
+        Override the factorization's description and citation.
+    details
+        Extra entries for the factorization's ``details``.
+
+    Returns
+    -------
+    Factorization
+        The one-factorization of ``K_{rk+1}``.
+
+    Raises
+    ------
+    InputError
+        When ``base`` are not base rounds of a ``σ``-invariant one-factorization.
+    """
     rounds = _require(r, k, base)
     info = {"construction": "prescribed automorphism", "r": r, "k": k,
             "base": [[list(p) for p in rnd] for rnd in rounds]}

@@ -110,7 +110,21 @@ def kernel_arrays(
     group: AbelianGroup, multiplier: int = 1
 ) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
     """``(add, neg, mulu, reps, weights)`` as int32 arrays for the numba kernel; ``weights[t]``
-    is the number of classes ``{g, -g}`` in the orbit of ``reps[t]``."""
+    is the number of classes ``{g, -g}`` in the orbit of ``reps[t]``.
+
+    Parameters
+    ----------
+    group
+        The abelian group searched.
+    multiplier
+        The unit ``u`` whose orbits (with ``x -> -x``) are searched together.
+
+    Returns
+    -------
+    tuple of numpy.ndarray
+        ``add`` and ``neg`` (the group tables), ``mulu`` (multiplication by ``u``), ``reps`` and
+        ``weights`` (one entry per orbit).
+    """
     m = group.order
     mulu = group.multiplier(multiplier) if multiplier != 1 % m else np.arange(m)
     orbits = multiplier_orbits(group, multiplier)

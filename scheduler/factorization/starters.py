@@ -68,7 +68,20 @@ def _require_starter(group: AbelianGroup, starter) -> list[Pair]:
 
 
 def starter_partner(group: AbelianGroup, starter: Sequence[Sequence[int]]) -> np.ndarray:
-    """Partner map of ``F_0`` on ``0..m`` (``∞ = m`` is paired with ``0``)."""
+    """Partner map of ``F_0`` on ``0..m`` (``∞ = m`` is paired with ``0``).
+
+    Parameters
+    ----------
+    group
+        The abelian group of odd order ``m``.
+    starter
+        The pairs ``(x, y)`` of group codes.
+
+    Returns
+    -------
+    numpy.ndarray
+        ``partner[v]`` for ``v`` in ``0..m``.
+    """
     m = group.order
     p0 = np.empty(m + 1, dtype=np.int64)
     p0[m], p0[0] = 0, m
@@ -103,14 +116,45 @@ def _union_is_hamiltonian(group: AbelianGroup, p0: np.ndarray, g: int) -> bool:
 
 
 def good_differences(group: AbelianGroup, starter: Sequence[Sequence[int]]) -> list[int]:
-    """Representatives ``g`` (of ``{g, -g}``) with ``F_0 ∪ F_g`` Hamiltonian."""
+    """Representatives ``g`` (of ``{g, -g}``) with ``F_0 ∪ F_g`` Hamiltonian.
+
+    Parameters
+    ----------
+    group
+        The abelian group of odd order.
+    starter
+        The pairs ``(x, y)`` of group codes.
+
+    Returns
+    -------
+    list of int
+        The good representatives, in the order of :func:`difference_representatives`.
+
+    Raises
+    ------
+    InputError
+        When ``starter`` is not a starter of ``group``.
+    """
     pairs = _require_starter(group, starter)
     p0 = starter_partner(group, pairs)
     return [g for g in difference_representatives(group) if _union_is_hamiltonian(group, p0, g)]
 
 
 def is_perfect_starter(group: AbelianGroup, starter: Sequence[Sequence[int]]) -> bool:
-    """Is ``starter`` a starter whose induced one-factorization is perfect?"""
+    """Is ``starter`` a starter whose induced one-factorization is perfect?
+
+    Parameters
+    ----------
+    group
+        The abelian group of odd order.
+    starter
+        The pairs ``(x, y)`` of group codes.
+
+    Returns
+    -------
+    bool
+        False also for anything that is not a starter.
+    """
     if not is_starter(group, starter):
         return False
     p0 = starter_partner(group, starter)
@@ -119,7 +163,25 @@ def is_perfect_starter(group: AbelianGroup, starter: Sequence[Sequence[int]]) ->
 
 def starter_rounds(group: AbelianGroup,
                    starter: Sequence[Sequence[int]]) -> tuple[tuple[Pair, ...], ...]:
-    """The rounds ``F_0, ..., F_{m-1}`` (round ``g`` is ``F_g``, group codes, ``∞ = m``)."""
+    """The rounds ``F_0, ..., F_{m-1}`` (round ``g`` is ``F_g``, group codes, ``∞ = m``).
+
+    Parameters
+    ----------
+    group
+        The abelian group of odd order ``m``.
+    starter
+        The pairs ``(x, y)`` of group codes.
+
+    Returns
+    -------
+    tuple of rounds
+        ``m`` rounds of games ``(a, b)`` on ``0..m``.
+
+    Raises
+    ------
+    InputError
+        When ``starter`` is not a starter of ``group``.
+    """
     pairs = _require_starter(group, starter)
     m = group.order
     rounds = []
@@ -137,7 +199,29 @@ def starter_factorization(
     source: str | None = None,
     details: dict | None = None,
 ) -> Factorization:
-    """The one-factorization of ``K_{m+1}`` induced by ``starter`` in ``group``."""
+    """The one-factorization of ``K_{m+1}`` induced by ``starter`` in ``group``.
+
+    Parameters
+    ----------
+    group
+        The abelian group of odd order ``m``.
+    starter
+        The pairs ``(x, y)`` of group codes.
+    method, source
+        Override the factorization's description and citation.
+    details
+        Extra entries for the factorization's ``details``.
+
+    Returns
+    -------
+    Factorization
+        The one-factorization of ``K_{m+1}``.
+
+    Raises
+    ------
+    InputError
+        When ``starter`` is not a starter of ``group``.
+    """
     pairs = _require_starter(group, starter)
     info = {"construction": "starter", "group": group.name, "starter": [list(p) for p in pairs]}
     info.update(details or {})

@@ -140,7 +140,22 @@ def _pairs(starter: Sequence[Sequence[int]]) -> list[Pair]:
 
 def is_twin_starter(base: str, starter: Sequence[Sequence[int]], *, swapped: bool = False) -> bool:
     """Is ``starter`` an even starter of ``Z_2 × H`` (with an even missing element when
-    ``swapped``)?"""
+    ``swapped``)?
+
+    Parameters
+    ----------
+    base
+        Name of the odd-order abelian group ``H`` (as :func:`twin_group` reads it).
+    starter
+        The pairs ``(x, y)`` of codes of ``Z_2 × H``.
+    swapped
+        Whether the two points at infinity swap on the odd translates.
+
+    Returns
+    -------
+    bool
+        False also for input that is not a list of pairs.
+    """
     G = twin_group(base)
     M = G.order
     try:
@@ -175,7 +190,27 @@ def _require(base: str, starter, swapped: bool) -> tuple[TwinGroup, list[Pair], 
 
 def twin_rounds(base: str, starter: Sequence[Sequence[int]], *,
                 swapped: bool = False) -> tuple[tuple[Pair, ...], ...]:
-    """Rounds ``F_0, ..., F_{|G|-1}, E`` on ``0..|G|+1`` (``∞1 = |G|``, ``∞2 = |G| + 1``)."""
+    """Rounds ``F_0, ..., F_{|G|-1}, E`` on ``0..|G|+1`` (``∞1 = |G|``, ``∞2 = |G| + 1``).
+
+    Parameters
+    ----------
+    base
+        Name of the odd-order abelian group ``H`` (as :func:`twin_group` reads it).
+    starter
+        The pairs ``(x, y)`` of codes of ``Z_2 × H``.
+    swapped
+        Whether the two points at infinity swap on the odd translates.
+
+    Returns
+    -------
+    tuple of rounds
+        ``|G| + 1`` rounds of games on ``0..|G|+1``.
+
+    Raises
+    ------
+    InputError
+        When ``starter`` is not an even starter of ``Z_2 × H`` (of the kind ``swapped`` needs).
+    """
     G, pairs, m = _require(base, starter, swapped)
     M = G.order
     rounds = []
@@ -191,7 +226,31 @@ def twin_rounds(base: str, starter: Sequence[Sequence[int]], *,
 def twin_factorization(base: str, starter: Sequence[Sequence[int]], *, swapped: bool = False,
                        method: str | None = None, source: str | None = None,
                        details: dict | None = None) -> Factorization:
-    """The one-factorization of ``K_{2|H|+2}`` induced by an even starter of ``Z_2 × H``."""
+    """The one-factorization of ``K_{2|H|+2}`` induced by an even starter of ``Z_2 × H``.
+
+    Parameters
+    ----------
+    base
+        Name of the odd-order abelian group ``H`` (as :func:`twin_group` reads it).
+    starter
+        The pairs ``(x, y)`` of codes of ``Z_2 × H``.
+    swapped
+        Whether the two points at infinity swap on the odd translates.
+    method, source
+        Override the factorization's description and citation.
+    details
+        Extra entries for the factorization's ``details``.
+
+    Returns
+    -------
+    Factorization
+        The one-factorization of ``K_{2|H|+2}``.
+
+    Raises
+    ------
+    InputError
+        When ``starter`` is not an even starter of ``Z_2 × H`` (of the kind ``swapped`` needs).
+    """
     G, pairs, m = _require(base, starter, swapped)
     info = {"construction": "even starter over Z_2 x H", "group": G.name, "base": base,
             "swapped": swapped, "missing": m, "starter": [list(p) for p in pairs]}
@@ -393,7 +452,22 @@ def _hamiltonian(p: list[int], q: list[int]) -> bool:
 def is_perfect_twin_starter(base: str, starter: Sequence[Sequence[int]], *,
                             swapped: bool = False) -> bool:
     """Is the induced factorization perfect? (``|G|/2 + 1`` union walks, by the argument of the
-    module docstring; the test suite compares this with the independent verifier.)"""
+    module docstring; the test suite compares this with the independent verifier.)
+
+    Parameters
+    ----------
+    base
+        Name of the odd-order abelian group ``H`` (as :func:`twin_group` reads it).
+    starter
+        The pairs ``(x, y)`` of codes of ``Z_2 × H``.
+    swapped
+        Whether the two points at infinity swap on the odd translates.
+
+    Returns
+    -------
+    bool
+        False also for anything that is not such an even starter.
+    """
     if not is_twin_starter(base, starter, swapped=swapped):
         return False
     rounds = twin_rounds(base, starter, swapped=swapped)

@@ -158,7 +158,28 @@ def _revisions(data: dict) -> tuple[Revision, ...]:
 
 def season_from_dict(data: object) -> Season:
     """Rebuild a :class:`Season` from :func:`season_to_dict` output; located
-    :class:`InputError` on anything malformed. Kick-offs are put in the season's time zone."""
+    :class:`InputError` on anything malformed. Kick-offs are put in the season's time zone.
+
+    Parameters
+    ----------
+    data
+        The parsed JSON of a ``season.json`` file.
+
+    Returns
+    -------
+    Season
+        The season, revisions and plan options included.
+
+    Raises
+    ------
+    InputError
+        For anything malformed: not an object, another format or version, a missing or wrong
+        field (located by its JSON path).
+
+    References
+    ----------
+    RFC 8259 (JSON); ``docs/season-folder.md``.
+    """
     if not isinstance(data, dict):
         raise InputError("a season file must hold one JSON object", location="(top level)")
     tag = data.get("format")

@@ -40,7 +40,38 @@ def improve_order(
     keep_breaks: bool = True,
 ) -> tuple[int, ...]:
     """A leg-1 order with lower carry-over and, when ``keep_breaks``, no more breaks (see the
-    module docstring; ``keep_breaks=False`` when carry-over weighs more than breaks)."""
+    module docstring; ``keep_breaks=False`` when carry-over weighs more than breaks).
+
+    Parameters
+    ----------
+    fact_rounds
+        The rounds of the factorization (vertex games).
+    n
+        Number of vertices (a bye counts as a dummy team).
+    order
+        The current leg-1 order of the rounds.
+    home_first
+        ``home_first[(a, b)]``, ``a < b``: is ``a`` at home in the first meeting.
+    scheme, legs
+        The leg scheme (:mod:`scheduler.leg_schemes`) and number of legs.
+    other_orders
+        The orders of the later legs for the free scheme (``None`` otherwise).
+    bye
+        The bye vertex, or ``None``.
+    passes
+        Passes over all pairs of rounds.
+    keep_breaks
+        Refuse swaps that add breaks.
+
+    Returns
+    -------
+    tuple of int
+        The improved leg-1 order (``order`` itself when no swap helps).
+
+    References
+    ----------
+    K. G. Russell, Biometrika 67 (1980) 127-131; ``docs/carry-over.md``.
+    """
     R = len(order)
     maps = leg_schemes.leg_maps(scheme, legs, R)
 

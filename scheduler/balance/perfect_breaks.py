@@ -182,9 +182,28 @@ def _walk_back(f: np.ndarray, cost: np.ndarray, last: int, cls: int) -> list[tup
 
 def home_away_from_classes(rounds: Sequence[Sequence[tuple[int, int]]], n: int,
                            path: Sequence[tuple[int, int]],
-                           masks: np.ndarray) -> tuple[tuple[int, ...], dict, int]:
+                           masks: np.ndarray
+                           ) -> tuple[tuple[int, ...], dict[tuple[int, int], bool], int]:
     """Order, home/away and breaks of a path of (round, class): each step takes the
-    representative (colouring or its swap) nearer to the previous colouring."""
+    representative (colouring or its swap) nearer to the previous colouring.
+
+    Parameters
+    ----------
+    rounds
+        The rounds of a one-factorization of ``K_n`` (games of vertices ``0..n-1``).
+    n
+        The even order.
+    path
+        The ``(round, class)`` steps, in playing order.
+    masks
+        ``masks[round, class]``: the colouring (bit ``v`` set: vertex ``v`` at home).
+
+    Returns
+    -------
+    tuple
+        The order of the rounds, ``home[(a, b)]`` (``a < b``: is ``a`` at home) and the number of
+        breaks.
+    """
     full = (1 << n) - 1
     t_prev = int(masks[path[0][0], path[0][1]])
     colourings = [t_prev]
@@ -210,7 +229,24 @@ def count_breaks(rounds: Sequence[Sequence[tuple[int, int]]], order: Sequence[in
                  home: dict[tuple[int, int], bool], n: int) -> int:
     """Breaks of the single round robin ``order`` with venues ``home`` (``home[(a, b)]``, a < b:
     is ``a`` at home), counted by the project's one break count
-    (:func:`scheduler.home_away.total_breaks`; de Werra 1981)."""
+    (:func:`scheduler.home_away.total_breaks`; de Werra 1981).
+
+    Parameters
+    ----------
+    rounds
+        The rounds of a one-factorization of ``K_n`` (games of vertices ``0..n-1``).
+    order
+        The order in which the rounds are played.
+    home
+        The venue of every game.
+    n
+        The even order.
+
+    Returns
+    -------
+    int
+        The total number of breaks.
+    """
     games = [
         [(min(a, b), max(a, b)) if home[(min(a, b), max(a, b))] else (max(a, b), min(a, b))
          for a, b in rounds[r]]

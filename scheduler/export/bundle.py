@@ -357,6 +357,32 @@ def render_season_files(
 
     All computation of the outputs happens here, so that anything that can fail fails before
     a single byte is written.
+
+    Parameters
+    ----------
+    season
+        The season to write.
+    fairness
+        Its fairness figures (the report and ``season.json`` carry them; ``None`` leaves out
+        the report).
+    previous, state
+        The season the folder held before and its calendar state, so that calendar events keep
+        their identity and sequence numbers (RFC 5545).
+    game_minutes
+        Length of each calendar event.
+    side_labels
+        Labels of the two sides in the workbook's grid.
+    changes
+        The changed games of a re-plan.
+
+    Returns
+    -------
+    dict of str to bytes
+        Relative path -> contents, in writing order, the manifest last.
+
+    References
+    ----------
+    ``docs/outputs.md``; ``docs/season-folder.md``; RFC 5545 (iCalendar).
     """
     from scheduler.export.season_json import dumps_season
 

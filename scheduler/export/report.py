@@ -421,7 +421,18 @@ def stacked_bars(
 def options_chart(options: Sequence[PlanOptionFigures]) -> Markup | None:
     """The options the planner weighed as points: breaks across (fewer is better, to the left),
     pairs of rounds that mix perfectly upwards (more is better); the chosen option filled, the
-    options no other beats in every figure ringed, the others grey. Numbers match the table."""
+    options no other beats in every figure ringed, the others grey. Numbers match the table.
+
+    Parameters
+    ----------
+    options
+        The plan options of the season (:attr:`scheduler.season.Season.options`).
+
+    Returns
+    -------
+    Markup or None
+        An inline SVG chart, or ``None`` when fewer than two options have a break count.
+    """
     shown = [(k, o) for k, o in enumerate(options, 1) if o.breaks is not None]
     breaks = {k: o.breaks for k, o in shown if o.breaks is not None}
     if len(shown) < 2:

@@ -557,5 +557,31 @@ def write_workbook(
     *,
     side_labels: tuple[str, str] = ("H", "A"),
 ) -> Path:
-    """Write the workbook to ``path`` atomically; returns the path."""
+    """Write the workbook to ``path`` atomically; returns the path.
+
+    Parameters
+    ----------
+    season
+        The season to write.
+    fairness
+        Its fairness figures for the ``Fairness`` sheet (``None``: no such sheet).
+    path
+        The ``.xlsx`` file to write.
+    side_labels
+        Labels of the two sides in the grid.
+
+    Returns
+    -------
+    Path
+        ``path``.
+
+    Raises
+    ------
+    OSError
+        When the file cannot be written (a file already at ``path`` is left untouched).
+
+    References
+    ----------
+    ECMA-376 (Office Open XML); ``docs/outputs.md``.
+    """
     return atomic_write_bytes(path, workbook_bytes(season, fairness, side_labels=side_labels))

@@ -89,7 +89,25 @@ def _is_prime(k: int) -> bool:
 def triple_profile(rounds: Sequence[Sequence[tuple[int, int]]], n: int) -> tuple[int, ...]:
     """Isomorphism invariant (module docstring): the sorted cycle types of ``p_k ∘ p_j ∘ p_i``
     over all ordered triples of distinct rounds (``p_r`` the partner map of round ``r``;
-    relabelling conjugates every product, which keeps its cycle type)."""
+    relabelling conjugates every product, which keeps its cycle type).
+
+    Parameters
+    ----------
+    rounds
+        The rounds of a one-factorization of ``K_n`` (games of vertices ``0..n-1``).
+    n
+        The even order.
+
+    Returns
+    -------
+    tuple of int
+        The cycle types, flattened in sorted order.
+
+    Raises
+    ------
+    InputError
+        When a round is not a perfect matching of ``0..n-1``.
+    """
     partners = partner_table(n, rounds).astype(np.int64)
     R = partners.shape[0]
     types = []
@@ -121,7 +139,21 @@ def triple_profile(rounds: Sequence[Sequence[tuple[int, int]]], n: int) -> tuple
 
 
 def isomorphism_key(rounds: Sequence[Sequence[tuple[int, int]]], n: int) -> bytes | tuple[int, ...]:
-    """Exact canonical form up to ``n =`` :data:`CANONICAL_MAX_N`, else :func:`triple_profile`."""
+    """Exact canonical form up to ``n =`` :data:`CANONICAL_MAX_N`, else :func:`triple_profile`.
+
+    Parameters
+    ----------
+    rounds
+        The rounds of a one-factorization of ``K_n`` (games of vertices ``0..n-1``).
+    n
+        The even order.
+
+    Returns
+    -------
+    bytes or tuple of int
+        Equal for isomorphic factorizations; for ``n <=`` :data:`CANONICAL_MAX_N` equal only for
+        them.
+    """
     if n <= CANONICAL_MAX_N:
         return canonical_form(rounds, n)[0]
     return triple_profile(rounds, n)

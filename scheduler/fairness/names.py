@@ -182,7 +182,18 @@ def _rounds_span(rounds) -> str:
 
 
 def mixing_over(fr: FairnessReport) -> str:
-    """What the mixing figure is measured over, in words."""
+    """What the mixing figure is measured over, in words.
+
+    Parameters
+    ----------
+    fr
+        The fairness report.
+
+    Returns
+    -------
+    str
+        The rounds of the figure and, for several legs, why later legs are left out.
+    """
     span = _rounds_span(fr.mixing_rounds)
     if fr.legs > 1:
         return (
@@ -193,14 +204,36 @@ def mixing_over(fr: FairnessReport) -> str:
 
 
 def carry_over_over(fr: FairnessReport) -> str:
-    """What the carry-over value is measured over, in words."""
+    """What the carry-over value is measured over, in words.
+
+    Parameters
+    ----------
+    fr
+        The fairness report.
+
+    Returns
+    -------
+    str
+        The rounds the value is measured over.
+    """
     if fr.legs > 1:
         return "leg 1 only (its last round followed by its first); each later leg alike"
     return "the whole round robin, its last round followed by its first"
 
 
 def court_uses_max(fr: FairnessReport) -> int | None:
-    """The most games one team plays on one court (``None`` when no courts are named)."""
+    """The most games one team plays on one court (``None`` when no courts are named).
+
+    Parameters
+    ----------
+    fr
+        The fairness report.
+
+    Returns
+    -------
+    int or None
+        The largest count over teams and courts.
+    """
     counts = [count for t in fr.team_figures for _, count in t.courts]
     return max(counts) if counts and fr.court_names else None
 

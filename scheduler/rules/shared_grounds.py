@@ -60,7 +60,25 @@ class SharedGrounds(HardRule):
 def home_days_at_most(model: TimetableView, members: list[int], cap: int, literal: Any, *,
                       per_team: bool) -> None:
     """Under ``literal``: on every match day at most ``cap`` of ``members`` at home
-    (``per_team``: counting teams) or at most ``cap`` home games of theirs (counting games)."""
+    (``per_team``: counting teams) or at most ``cap`` home games of theirs (counting games).
+
+    Parameters
+    ----------
+    model
+        The timetable model the constraints are added to.
+    members
+        Team indices of the group.
+    cap
+        The most that may be at home on one match day.
+    literal
+        The rule's assumption literal (the constraints hold only under it).
+    per_team
+        Count teams at home (True) or home games (False).
+
+    References
+    ----------
+    ``docs/rules.md``.
+    """
     cp = model.cp
     for rounds in model.day_groups:
         if per_team and len(rounds) > 1:

@@ -78,7 +78,26 @@ def audit_season(season: Season, rows: Sequence[int | None] | None = None,
                  league: League | None = None) -> AuditResult:
     """Audit a season held in memory (``rows``: optional source row of each fixture). With
     ``league``, the season is also checked against that league's hard rules
-    (``fairness.rule_checks``); a broken rule makes it invalid."""
+    (``fairness.rule_checks``); a broken rule makes it invalid.
+
+    Parameters
+    ----------
+    season
+        The season to audit.
+    rows
+        The source row of each fixture (``None`` where unknown), for messages.
+    league
+        When given, its hard rules are checked too.
+
+    Returns
+    -------
+    AuditResult
+        Validity, problems and the fairness figures.
+
+    References
+    ----------
+    ``docs/audit-input.md``; ``docs/fairness.md``.
+    """
     problems = tuple(validate_season(season, rows))
     fairness = compute_fairness(season, league) if season.fixtures else None
     broken = bool(fairness and fairness.rule_checks

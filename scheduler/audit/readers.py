@@ -654,5 +654,28 @@ def read_schedule(path: str | Path, *, timezone: str | None = None,
     """Read a CSV, xlsx or season.json schedule into a :class:`Season`.
 
     See :func:`read_schedule_with_rows` for the parameters and errors.
+
+    Parameters
+    ----------
+    path
+        The schedule file.
+    timezone
+        IANA time zone of kick-off times written without a UTC offset.
+    columns
+        Fields named by hand (field -> header text).
+
+    Returns
+    -------
+    Season
+        The schedule as a season.
+
+    Raises
+    ------
+    InputError
+        Unusable input, with its location.
+
+    References
+    ----------
+    RFC 4180 (CSV); ECMA-376 (xlsx); ``docs/audit-input.md``.
     """
     return read_schedule_with_rows(path, timezone=timezone, columns=columns).season

@@ -296,7 +296,25 @@ def _presentation(data: dict) -> dict:
 
 
 def loads_season(text: str, *, source: str = "season.json") -> Season:
-    """Parse ``season.json`` text (``source`` names it in error locations)."""
+    """Parse ``season.json`` text (``source`` names it in error locations).
+
+    Parameters
+    ----------
+    text
+        The JSON text.
+    source
+        Name of the input in error locations.
+
+    Returns
+    -------
+    Season
+        The season, as :func:`season_from_dict` builds it.
+
+    Raises
+    ------
+    InputError
+        For text that is not JSON, nested too deeply, or not a season file of this tool.
+    """
     check_nesting(text, source)
     try:
         data = json.loads(text)
@@ -314,7 +332,27 @@ def loads_season(text: str, *, source: str = "season.json") -> Season:
 
 
 def load_season_json(path: str | Path) -> Season:
-    """Read a ``season.json`` file (size-limited, UTF-8 with or without BOM)."""
+    """Read a ``season.json`` file (size-limited, UTF-8 with or without BOM).
+
+    Parameters
+    ----------
+    path
+        The ``season.json`` file.
+
+    Returns
+    -------
+    Season
+        The season it holds.
+
+    Raises
+    ------
+    InputError
+        For a file that cannot be read, is too large, is not UTF-8 or is not a season file.
+
+    References
+    ----------
+    RFC 8259 (JSON); ``docs/season-folder.md``.
+    """
     path = Path(path)
     return loads_season_bytes(read_bytes_limited(path), source=str(path))
 

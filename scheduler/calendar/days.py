@@ -32,14 +32,36 @@ MAX_SEARCH_YEARS = 30
 
 
 def rounds_needed(league: CalendarLeague) -> int:
-    """Rounds of the season: ``legs * (n - 1)`` for even ``n``, ``legs * n`` for odd ``n``."""
+    """Rounds of the season: ``legs * (n - 1)`` for even ``n``, ``legs * n`` for odd ``n``.
+
+    Parameters
+    ----------
+    league
+        The league (anything with the league's ``teams``, ``format`` and ``calendar``).
+
+    Returns
+    -------
+    int
+        The number of rounds.
+    """
     n = len(league.teams)
     per_leg = n - 1 if n % 2 == 0 else n
     return league.format.legs * per_leg
 
 
 def days_needed(league: CalendarLeague) -> int:
-    """Match days the season needs: rounds divided by ``rounds_per_day``, rounded up."""
+    """Match days the season needs: rounds divided by ``rounds_per_day``, rounded up.
+
+    Parameters
+    ----------
+    league
+        The league (anything with the league's ``teams``, ``format`` and ``calendar``).
+
+    Returns
+    -------
+    int
+        The number of match days.
+    """
     per_day = league.calendar.rounds_per_day
     return -(-rounds_needed(league) // per_day)
 
@@ -51,7 +73,24 @@ def _holidays_of_year(country: str, subdivision: str | None, year: int) -> froze
 
 
 def public_holidays(spec: CalendarSpec, first_year: int, last_year: int) -> frozenset[date]:
-    """The public holidays of the league's country/subdivision in the years given (inclusive)."""
+    """The public holidays of the league's country/subdivision in the years given (inclusive).
+
+    Parameters
+    ----------
+    spec
+        The calendar section (``holidays`` country and subdivision).
+    first_year, last_year
+        The years covered.
+
+    Returns
+    -------
+    frozenset of datetime.date
+        The holidays (empty when the league names no country).
+
+    References
+    ----------
+    The ``holidays`` package (python-holidays) supplies the dates.
+    """
     if not spec.holidays_country:
         return frozenset()
     days: set[date] = set()
@@ -83,6 +122,25 @@ def match_days(
     League uses :func:`days_needed` as the default. With a fixed end, or explicit dates, every
     match day is returned (the balancer may use a subset) and a :class:`ConfigError` says so
     when there are fewer than ``needed``.
+
+    Parameters
+    ----------
+    league_or_spec
+        A league, or its calendar section alone.
+    needed
+        Match days the caller needs (default with a league: :func:`days_needed`).
+
+    Returns
+    -------
+    list of datetime.date
+        The match days in date order.
+
+    Raises
+    ------
+    ConfigError
+        When a fixed calendar has fewer than ``needed`` match days.
+    InputError
+        With an open end and no ``needed`` (a bare calendar section).
     """
     spec = _spec_of(league_or_spec)
     league = None if isinstance(league_or_spec, CalendarSpec) else league_or_spec
@@ -144,6 +202,21 @@ def round_days(league: CalendarLeague) -> list[date]:
 
     Round ``i`` is on match day ``i // rounds_per_day``. The balancer may instead choose a subset
     of :func:`match_days` when there are more match days than needed.
+
+    Parameters
+    ----------
+    league
+        The league (anything with the league's ``teams``, ``format`` and ``calendar``).
+
+    Returns
+    -------
+    list of datetime.date
+        One date per round.
+
+    Raises
+    ------
+    ConfigError
+        When the calendar has fewer match days than the season needs.
     """
     days = match_days(league, days_needed(league))
     per_day = league.calendar.rounds_per_day

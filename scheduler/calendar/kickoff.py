@@ -32,7 +32,28 @@ def zone(name: str) -> ZoneInfo:
 
 
 def parse_slot(slot: time | str) -> time:
-    """A time-slot label such as ``"19:30"`` (or a :class:`time`) as a :class:`time`."""
+    """A time-slot label such as ``"19:30"`` (or a :class:`time`) as a :class:`time`.
+
+    Parameters
+    ----------
+    slot
+        ``"HH:MM"`` text or a time.
+
+    Returns
+    -------
+    datetime.time
+        The time of day.
+
+    Raises
+    ------
+    InputError
+        For text that is not a time of day.
+
+    Examples
+    --------
+    >>> parse_slot("19:30")
+    datetime.time(19, 30)
+    """
     if isinstance(slot, time):
         return slot
     text = str(slot).strip()
@@ -46,6 +67,24 @@ def local_datetime(day: date, clock: time, tz: ZoneInfo) -> datetime:
     """``day`` at wall-clock ``clock`` in ``tz``, aware; gaps move forward, folds take the first.
 
     See the module docstring for the daylight-saving rules.
+
+    Parameters
+    ----------
+    day
+        The date.
+    clock
+        The wall-clock time.
+    tz
+        The time zone.
+
+    Returns
+    -------
+    datetime.datetime
+        Aware local date and time.
+
+    References
+    ----------
+    PEP 495 (local time disambiguation, ``fold``).
     """
     naive = datetime.combine(day, clock.replace(tzinfo=None, fold=0))
     first = naive.replace(tzinfo=tz, fold=0)
@@ -58,12 +97,44 @@ def kickoff(league: CalendarLeague, day: date, slot: time | str | None = None) -
     """When a game of ``league`` on ``day`` in time slot ``slot`` starts (aware datetime).
 
     ``slot`` ``None`` means the league's ``calendar.kickoff``.
+
+    Parameters
+    ----------
+    league
+        The league (anything with the league's ``teams``, ``format`` and ``calendar``).
+    day
+        The match day.
+    slot
+        The time slot (``None``: the league's kick-off).
+
+    Returns
+    -------
+    datetime.datetime
+        Aware kick-off time in the league's time zone.
+
+    Raises
+    ------
+    InputError
+        For a slot that is not a time of day.
     """
     clock = league.calendar.kickoff if slot is None else parse_slot(slot)
     return local_datetime(day, clock, zone(league.timezone))
 
 
 def game_end(league: CalendarLeague, start: datetime) -> datetime:
-    """When a game that starts at ``start`` ends (``calendar.game_minutes`` of elapsed time)."""
+    """When a game that starts at ``start`` ends (``calendar.game_minutes`` of elapsed time).
+
+    Parameters
+    ----------
+    league
+        The league (anything with the league's ``teams``, ``format`` and ``calendar``).
+    start
+        The aware kick-off time.
+
+    Returns
+    -------
+    datetime.datetime
+        ``start`` plus the game's length in elapsed time.
+    """
     ends = start.astimezone(UTC) + timedelta(minutes=league.calendar.game_minutes)
     return ends.astimezone(start.tzinfo)

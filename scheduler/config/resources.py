@@ -50,7 +50,23 @@ def _shipped(folder: Path, name: str, what: str) -> Path:
 
 
 def template_path(name: str) -> Path:
-    """Path of a shipped template file, e.g. ``template_path("league.toml")``."""
+    """Path of a shipped template file, e.g. ``template_path("league.toml")``.
+
+    Parameters
+    ----------
+    name
+        File name of the template.
+
+    Returns
+    -------
+    pathlib.Path
+        Its path inside the installed package.
+
+    Raises
+    ------
+    InputError
+        When no such file is shipped (with a did-you-mean suggestion).
+    """
     return _shipped(templates_dir(), name, "template")
 
 
@@ -58,6 +74,21 @@ def sample_path(name: str) -> Path:
     """Path of a shipped sample league, e.g. ``sample_path("county_double.toml")``.
 
     A name without an ending also finds ``<name>.toml``, ``<name>.yaml`` or ``<name>.yml``.
+
+    Parameters
+    ----------
+    name
+        File name of the sample, with or without its ending.
+
+    Returns
+    -------
+    pathlib.Path
+        Its path inside the installed package.
+
+    Raises
+    ------
+    InputError
+        When no such file is shipped (with a did-you-mean suggestion).
     """
     folder = samples_dir()
     if not Path(name).suffix:
@@ -80,7 +111,13 @@ def _is_league_file(path: Path) -> bool:
 def sample_names() -> tuple[str, ...]:
     """File names of every shipped single-league sample, sorted (season-events files such as
     ``county_double.events.toml`` and files of several divisions such as ``federation.toml``
-    are left out)."""
+    are left out).
+
+    Returns
+    -------
+    tuple of str
+        The file names.
+    """
     folder = samples_dir()
     if not folder.is_dir():
         return ()

@@ -281,6 +281,22 @@ def units_of(fed: Federation, couplings: list[Coupling] | None = None) -> tuple[
     >>> fed = load_federation("sample_leagues/federation.toml")  # doctest: +SKIP
     >>> [u.key for u in units_of(fed)][:2]  # doctest: +SKIP
     ['unit-01', 'unit-02']
+
+    Parameters
+    ----------
+    fed
+        The federation.
+    couplings
+        Its couplings (default: :func:`couplings_of`).
+
+    Returns
+    -------
+    tuple of Unit
+        The units, in the order of their first division.
+
+    References
+    ----------
+    ``docs/divisions.md``; networkx ``connected_components``.
     """
     graph = coupling_graph(fed, couplings)
     rank = {name: i for i, name in enumerate(fed.division_names)}

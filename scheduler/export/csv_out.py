@@ -81,7 +81,22 @@ def fixture_rows(season: Season) -> list[FixtureRow]:
 
 
 def fixtures_csv(season: Season) -> str:
-    """The fixture list as CSV text (CRLF line ends, header row, neutralised user text)."""
+    """The fixture list as CSV text (CRLF line ends, header row, neutralised user text).
+
+    Parameters
+    ----------
+    season
+        The season.
+
+    Returns
+    -------
+    str
+        The CSV text.
+
+    References
+    ----------
+    RFC 4180 (CSV); ``docs/outputs.md``.
+    """
     buffer = io.StringIO(newline="")
     writer = csv.writer(buffer, lineterminator="\r\n", quoting=csv.QUOTE_MINIMAL)
     writer.writerow(CSV_COLUMNS)

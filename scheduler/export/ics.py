@@ -270,6 +270,26 @@ def plan_calendar(
     ``previous_meta`` (the state written last time) wins over ``previous`` (the last
     ``season.json``); with neither, this is a first publication. See the module docstring for
     the rules; the result never lowers a SEQUENCE that ``previous_meta`` holds.
+
+    Parameters
+    ----------
+    season
+        The season to publish.
+    previous
+        The season published before (its ``season.json``), or ``None``.
+    previous_meta
+        The calendar state written last time, or ``None``.
+    game_minutes
+        Length of each event.
+
+    Returns
+    -------
+    CalendarState
+        UIDs, SEQUENCE numbers and cancelled games of every event.
+
+    References
+    ----------
+    RFC 5545 §3.8.4.7 (UID), §3.8.7.4 (SEQUENCE).
     """
     base = plan_stamp(season)
     before: dict[str, EventState] = {}
@@ -489,6 +509,26 @@ def league_calendar(
     """The league feed: every game (and every cancelled game) as RFC 5545 bytes.
 
     ``state`` (from :func:`plan_calendar`) may be passed to share one plan among many feeds.
+
+    Parameters
+    ----------
+    season
+        The season.
+    previous, previous_meta
+        As for :func:`plan_calendar` (ignored when ``state`` is given).
+    game_minutes
+        Length of each event.
+    state
+        A state from :func:`plan_calendar`.
+
+    Returns
+    -------
+    bytes
+        The iCalendar stream.
+
+    References
+    ----------
+    RFC 5545 (iCalendar).
     """
     st = _resolve_state(season, previous, previous_meta, game_minutes, state)
     items = [(u, e) for u, e in st.events.items() if e.record.get("kind") == "game"]
@@ -509,6 +549,35 @@ def team_calendar(
 
     Events keep the UIDs and content of the league feed, so a calendar subscribed to both shows
     each game once.
+
+    Parameters
+    ----------
+    season
+        The season.
+    team
+        The team's name.
+    previous, previous_meta
+        As for :func:`plan_calendar` (ignored when ``state`` is given).
+    game_minutes
+        Length of each event.
+    include_byes
+        Add the team's byes as all-day free events.
+    state
+        A state from :func:`plan_calendar`.
+
+    Returns
+    -------
+    bytes
+        The iCalendar stream.
+
+    Raises
+    ------
+    InputError
+        When ``team`` is not a team of the season.
+
+    References
+    ----------
+    RFC 5545 (iCalendar).
     """
     if team not in season.teams:
         raise InputError(f"no team called {team!r} in {season.league} {season.season_id}")

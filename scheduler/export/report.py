@@ -922,6 +922,24 @@ def render_report(
     """The report page as HTML text (deterministic: no clock, no random values).
 
     ``changes``: a re-plan's changed games, listed in a section of their own.
+
+    Parameters
+    ----------
+    season
+        The season.
+    fairness
+        Its fairness figures (written as given).
+    changes
+        A re-plan's changed games, or ``None``.
+
+    Returns
+    -------
+    str
+        The HTML page.
+
+    References
+    ----------
+    ``docs/outputs.md``; ``docs/figures.md``.
     """
     template = _environment().get_template("report.html.j2")
     return template.render(**report_context(season, fairness, changes))

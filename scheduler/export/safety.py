@@ -45,6 +45,25 @@ def neutralise_cell(text: str | None) -> str | None:
     """Make one cell of user text inert: prefix ``'`` when it could start a formula.
 
     ``None`` stays ``None``. Text that cannot start a formula is returned unchanged.
+
+    Parameters
+    ----------
+    text
+        The cell's text.
+
+    Returns
+    -------
+    str or None
+        The inert text.
+
+    References
+    ----------
+    OWASP, "CSV Injection" (common practice).
+
+    Examples
+    --------
+    >>> neutralise_cell("=SUM(A1)"), neutralise_cell("Quenby")
+    ("'=SUM(A1)", 'Quenby')
     """
     if text is None:
         return None
@@ -52,7 +71,23 @@ def neutralise_cell(text: str | None) -> str | None:
 
 
 def restore_cell(text: str | None) -> str | None:
-    """Undo :func:`neutralise_cell` exactly (``restore_cell(neutralise_cell(t)) == t``)."""
+    """Undo :func:`neutralise_cell` exactly (``restore_cell(neutralise_cell(t)) == t``).
+
+    Parameters
+    ----------
+    text
+        Text written by :func:`neutralise_cell`.
+
+    Returns
+    -------
+    str or None
+        The original text.
+
+    Examples
+    --------
+    >>> restore_cell(neutralise_cell("=SUM(A1)"))
+    '=SUM(A1)'
+    """
     if text is None:
         return None
     if text.startswith(_QUOTE) and _needs_quote(text[1:]):
@@ -94,6 +129,21 @@ def safe_filename(name: str) -> str:
     different names give two different stems (up to a 32-bit hash collision), also on
     case-insensitive file systems: a stem without hash is the name itself, a stem with hash
     ends in the hash pattern, and those two kinds never meet.
+
+    Parameters
+    ----------
+    name
+        A team's or club's name.
+
+    Returns
+    -------
+    str
+        The stem.
+
+    Examples
+    --------
+    >>> safe_filename("quenby"), safe_filename("Quenby Hall")
+    ('quenby', 'quenby-hall-ae3daf95')
     """
     slug = _slug(name)
     if slug and slug == name and slug not in _RESERVED and not _HASHED.search(slug):

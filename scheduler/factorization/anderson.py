@@ -26,7 +26,23 @@ SOURCE = "B. A. Anderson, J. Combin. Theory Ser. B 14 (1973) (family GA_2p)"
 
 
 def anderson_rounds(n: int) -> tuple[tuple[tuple[int, int], ...], ...]:
-    """Rounds of GA_n for ``n = 2p`` with ``p`` odd: ``G_0..G_{p-1}`` then ``H_1..H_{p-1}``."""
+    """Rounds of GA_n for ``n = 2p`` with ``p`` odd: ``G_0..G_{p-1}`` then ``H_1..H_{p-1}``.
+
+    Parameters
+    ----------
+    n
+        The order, ``2p`` with ``p`` odd.
+
+    Returns
+    -------
+    tuple of rounds
+        ``n - 1`` rounds of games on ``0..n-1``.
+
+    Raises
+    ------
+    ValueError
+        When ``n`` is not twice an odd number.
+    """
     if n < 2 or n % 4 != 2:
         raise ValueError(f"GA_n needs n = 2p with p odd, got {n}")
     p = n // 2

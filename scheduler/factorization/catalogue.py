@@ -161,7 +161,13 @@ def catalogue_entries() -> tuple[CatalogueEntry, ...]:
 
 
 def catalogue_orders() -> tuple[int, ...]:
-    """Orders ``n`` of ``K_n`` with at least one catalogue entry (of any kind), ascending."""
+    """Orders ``n`` of ``K_n`` with at least one catalogue entry (of any kind), ascending.
+
+    Returns
+    -------
+    tuple of int
+        The orders.
+    """
     return tuple(sorted({e.n for e in catalogue_entries()} | {e.n for e in structured_entries()}))
 
 
@@ -194,7 +200,18 @@ def entry_factorization(entry: CatalogueEntry) -> Factorization:
 
 def catalogue_factorization(n: int) -> Factorization | None:
     """A perfect one-factorization of ``K_n`` from the catalogue, or ``None`` (a plain starter
-    entry first, else the first structured entry)."""
+    entry first, else the first structured entry).
+
+    Parameters
+    ----------
+    n
+        The order.
+
+    Returns
+    -------
+    Factorization or None
+        The catalogue's factorization of ``K_n``, or ``None`` when it has none.
+    """
     entry = catalogue_entry(n)
     if entry:
         return entry_factorization(entry)

@@ -20,7 +20,28 @@ SOURCE = "A. Kotzig 1964 (patterned one-factorization GK_n); W. D. Wallis, One-F
 
 
 def circle_rounds(n: int) -> tuple[tuple[tuple[int, int], ...], ...]:
-    """The rounds of GK_n in their natural order ``i = 0..n-2``."""
+    """The rounds of GK_n in their natural order ``i = 0..n-2``.
+
+    Parameters
+    ----------
+    n
+        The even order, at least 2.
+
+    Returns
+    -------
+    tuple of rounds
+        ``n - 1`` rounds of games on ``0..n-1``.
+
+    Raises
+    ------
+    ValueError
+        For an odd ``n`` or ``n < 2``.
+
+    Examples
+    --------
+    >>> circle_rounds(4)
+    (((0, 3), (1, 2)), ((0, 2), (1, 3)), ((0, 1), (2, 3)))
+    """
     if n < 2 or n % 2:
         raise ValueError(f"GK_n needs an even n >= 2, got {n}")
     m = n - 1

@@ -116,14 +116,46 @@ def _check_order(m: int) -> None:
 
 
 def cyclic(m: int) -> AbelianGroup:
-    """The cyclic group ``Z_m`` (``m`` odd) with multiplication mod ``m``."""
+    """The cyclic group ``Z_m`` (``m`` odd) with multiplication mod ``m``.
+
+    Parameters
+    ----------
+    m
+        The odd order.
+
+    Returns
+    -------
+    AbelianGroup
+        The group with its addition, negation and multiplication tables.
+
+    Raises
+    ------
+    InputError
+        For an even or non-positive order, or one above :data:`MAX_ORDER`.
+    """
     _check_order(m)
     add, neg, mul = _mixed_tables((m,))
     return AbelianGroup(f"Z_{m}", (m,), "cyclic", add, neg, mul)
 
 
 def product(*moduli: int) -> AbelianGroup:
-    """``Z_a x Z_b x ...`` (each modulus odd), componentwise multiplication."""
+    """``Z_a x Z_b x ...`` (each modulus odd), componentwise multiplication.
+
+    Parameters
+    ----------
+    *moduli
+        The odd moduli of the factors.
+
+    Returns
+    -------
+    AbelianGroup
+        The direct product, named ``"Z_a x Z_b"``.
+
+    Raises
+    ------
+    InputError
+        For no modulus, or an order :func:`cyclic` refuses.
+    """
     if not moduli:
         raise InputError("a product group needs at least one factor", location="group")
     for mod in moduli:
@@ -175,6 +207,25 @@ def galois_field(q: int) -> AbelianGroup:
     The polynomial is the first primitive one in lexicographic order of its coefficient vector
     ``(c_0, ..., c_{k-1})`` of ``x^k + c_{k-1} x^{k-1} + ... + c_0``; multiplication uses
     discrete logarithms to the base ``x`` (Lidl and Niederreiter, ch. 2 and 9).
+
+    Parameters
+    ----------
+    q
+        An odd prime power.
+
+    Returns
+    -------
+    AbelianGroup
+        The additive group, named ``"GF(q)"``, with the field's multiplication table.
+
+    Raises
+    ------
+    InputError
+        When ``q`` is not an odd prime power.
+
+    References
+    ----------
+    R. Lidl and H. Niederreiter, *Finite Fields*, Cambridge University Press, ch. 2 and 9.
     """
     _check_order(q)
     pk = prime_power(q)
@@ -206,7 +257,28 @@ _NAME_FIELD = re.compile(r"^GF\((\d+)\)$")
 
 
 def group_from_name(name: str) -> AbelianGroup:
-    """Parse ``"Z_15"``, ``"Z_3 x Z_5"`` or ``"GF(27)"`` back into a group."""
+    """Parse ``"Z_15"``, ``"Z_3 x Z_5"`` or ``"GF(27)"`` back into a group.
+
+    Parameters
+    ----------
+    name
+        The group's name as :attr:`AbelianGroup.name` writes it.
+
+    Returns
+    -------
+    AbelianGroup
+        The group.
+
+    Raises
+    ------
+    InputError
+        For a name that is not one of the three forms.
+
+    Examples
+    --------
+    >>> group_from_name("Z_3 x Z_5").name
+    'Z_3 x Z_5'
+    """
     text = name.strip()
     if match := _NAME_FIELD.match(text):
         return galois_field(int(match.group(1)))
@@ -222,7 +294,23 @@ def group_from_name(name: str) -> AbelianGroup:
 
 def groups_of_order(m: int) -> list[AbelianGroup]:
     """Useful groups of odd order ``m``: ``Z_m``, ``GF(m)`` when ``m`` is a prime power with
-    exponent > 1, and ``Z_p x Z_{m/p}`` splittings with ``gcd = p`` (non-cyclic products)."""
+    exponent > 1, and ``Z_p x Z_{m/p}`` splittings with ``gcd = p`` (non-cyclic products).
+
+    Parameters
+    ----------
+    m
+        The odd order.
+
+    Returns
+    -------
+    list of AbelianGroup
+        ``Z_m`` first, then the others.
+
+    Examples
+    --------
+    >>> [group.name for group in groups_of_order(9)]
+    ['Z_9', 'GF(9)']
+    """
     _check_order(m)
     out = [cyclic(m)]
     pk = prime_power(m)

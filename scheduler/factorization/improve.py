@@ -253,6 +253,31 @@ def best_available(
 
     ``details`` records the baselines, each phase and the verifier's count
     (``perfect_pairs``, ``pairs``); the rounds are whatever scored best, re-verified.
+
+    Parameters
+    ----------
+    n
+        The even order.
+    seed
+        Seed of the searches.
+    budget
+        Nominal seconds, converted to a fixed amount of work.
+    progress
+        Called as ``progress(message, fraction)``.
+
+    Returns
+    -------
+    Factorization
+        The best factorization found, with its record in ``details``.
+
+    Raises
+    ------
+    InputError
+        For an order that is not an even integer >= 4, or a budget that is not positive.
+
+    References
+    ----------
+    ``docs/factorization-search.md``.
     """
     if isinstance(n, bool) or not isinstance(n, int) or n < 4 or n % 2:
         raise InputError(f"the order must be an even integer >= 4, got {n!r}", location="n")

@@ -67,7 +67,22 @@ def is_prime(k: int) -> bool:
 
 
 def known_perfect(n: int) -> tuple[bool, str]:
-    """Is a perfect one-factorization of ``K_n`` known (docs/one-factorizations.md §1)? And why."""
+    """Is a perfect one-factorization of ``K_n`` known (docs/one-factorizations.md §1)? And why.
+
+    Parameters
+    ----------
+    n
+        The even order.
+
+    Returns
+    -------
+    tuple of (bool, str)
+        Whether one is known, and the construction or source that says so (or why not).
+
+    References
+    ----------
+    ``docs/one-factorizations.md`` §1.
+    """
     if n <= 2:
         return True, "K_2 has a single round"
     if is_prime(n - 1):

@@ -162,6 +162,38 @@ def search_perfect_starter(
     many nodes in total: a work limit, unlike the clock, gives the same outcome on every
     machine. Every starter returned has been re-checked with
     :func:`~scheduler.factorization.starters.is_perfect_starter`.
+
+    Parameters
+    ----------
+    group
+        The abelian group of odd order searched.
+    seed
+        Seed of the restarts.
+    budget
+        Seconds of wall time.
+    multiplier
+        The unit ``u`` the starter must be invariant under.
+    base_nodes, max_run_nodes
+        Nodes of the first run and the most of any run (Luby restarts).
+    max_nodes
+        Optional total work limit.
+    progress
+        Called as ``progress(message, fraction)`` after each run.
+
+    Returns
+    -------
+    StarterSearchResult
+        The starter found (or ``None``) and the record of the search.
+
+    Raises
+    ------
+    InputError
+        For a seed that is not an integer or a budget that is not positive.
+
+    References
+    ----------
+    ``docs/factorization-search.md``; M. Luby, A. Sinclair and D. Zuckerman, "Optimal speedup of
+    Las Vegas algorithms", 1993 (the restart sequence, from memory).
     """
     if isinstance(seed, bool) or not isinstance(seed, int):
         raise InputError(f"the seed must be an integer, got {seed!r}", location="seed")

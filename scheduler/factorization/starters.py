@@ -43,7 +43,26 @@ def _pairs(starter: Sequence[Sequence[int]]) -> list[Pair]:
 
 
 def is_starter(group: AbelianGroup, starter: Sequence[Sequence[int]]) -> bool:
-    """Do the pairs partition ``G \\ {0}`` with every difference ``±(x - y)`` exactly once?"""
+    """Do the pairs partition ``G \\ {0}`` with every difference ``±(x - y)`` exactly once?
+
+    Parameters
+    ----------
+    group
+        The abelian group of odd order.
+    starter
+        The pairs ``(x, y)`` of group codes.
+
+    Returns
+    -------
+    bool
+        False also for input that is not a list of pairs.
+
+    Examples
+    --------
+    >>> from scheduler.factorization.groups import cyclic
+    >>> is_starter(cyclic(7), [(1, 6), (2, 5), (3, 4)])
+    True
+    """
     m = group.order
     try:
         pairs = _pairs(starter)
@@ -238,6 +257,16 @@ def enumerate_starters(group: AbelianGroup) -> Iterator[tuple[Pair, ...]]:
     """Every starter of ``group`` (exhaustive backtracking; feasible up to order about 21).
 
     The smallest unpaired element is always paired next, so each starter is produced once.
+
+    Parameters
+    ----------
+    group
+        The abelian group of odd order.
+
+    Yields
+    ------
+    tuple of Pair
+        Each starter, its pairs sorted.
     """
     m = group.order
     add = group.add.tolist()
@@ -277,7 +306,28 @@ def enumerate_starters(group: AbelianGroup) -> Iterator[tuple[Pair, ...]]:
 
 
 def count_starters(group: AbelianGroup) -> tuple[int, int]:
-    """``(starters, perfect starters)`` of ``group`` by exhaustive enumeration."""
+    """``(starters, perfect starters)`` of ``group`` by exhaustive enumeration.
+
+    Parameters
+    ----------
+    group
+        The abelian group of odd order.
+
+    Returns
+    -------
+    tuple of (int, int)
+        The number of starters and of perfect starters.
+
+    References
+    ----------
+    OEIS A006204 (number of starters in ``Z_m``).
+
+    Examples
+    --------
+    >>> from scheduler.factorization.groups import cyclic
+    >>> count_starters(cyclic(7)), count_starters(cyclic(11))
+    ((3, 1), (25, 3))
+    """
     total = perfect = 0
     reps = difference_representatives(group)
     for s in enumerate_starters(group):

@@ -366,6 +366,23 @@ def hamiltonian_pair_matrix(n: int, rounds: Iterable) -> np.ndarray:
     together form one Hamiltonian cycle (with a bye: one Hamiltonian path on the real teams).
 
     The diagonal is false. Raises :class:`InputError` unless every round is a perfect matching.
+
+    Parameters
+    ----------
+    n
+        The even order.
+    rounds
+        The rounds, each a sequence of games ``(a, b)`` on ``0..n-1``.
+
+    Returns
+    -------
+    numpy.ndarray
+        The ``(R, R)`` boolean matrix.
+
+    Raises
+    ------
+    InputError
+        When a round is not a perfect matching of ``0..n-1``.
     """
     if isinstance(n, bool) or not isinstance(n, int | np.integer) or n < 2 or n % 2:
         raise InputError(f"the order n must be an even integer >= 2, got {n!r}", location="n")

@@ -115,6 +115,27 @@ def validate_season(season: Season, rows: Sequence[int | None] | None = None) ->
     """Every problem that keeps ``season`` from being a valid round robin (empty if valid).
 
     ``rows`` (optional) gives the source row of each fixture, for the messages.
+
+    Parameters
+    ----------
+    season
+        The season.
+    rows
+        The source row of each fixture (``None`` where unknown).
+
+    Returns
+    -------
+    list of Problem
+        The problems, in a fixed order.
+
+    Raises
+    ------
+    ValueError
+        When ``rows`` does not give one row per fixture (a programming error).
+
+    References
+    ----------
+    ``docs/audit-input.md``.
     """
     if rows is not None and len(rows) != len(season.fixtures):
         raise ValueError("rows must give one source row per fixture")

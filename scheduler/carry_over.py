@@ -39,12 +39,40 @@ def carry_over_matrix(partners: np.ndarray) -> np.ndarray:
 
 
 def carry_over_value(matrix: np.ndarray) -> int:
-    """Σ c_ij² of a carry-over matrix."""
+    """Σ c_ij² of a carry-over matrix.
+
+    Parameters
+    ----------
+    matrix
+        A carry-over matrix.
+
+    Returns
+    -------
+    int
+        The carry-over effects value.
+
+    References
+    ----------
+    K. G. Russell, Biometrika 67 (1980) 127-131.
+    """
     return int((matrix.astype(np.int64) ** 2).sum())
 
 
 def partner_table(rounds: Sequence[Sequence[tuple[int, int]]], n: int) -> np.ndarray:
-    """``partners[r][v]`` for rounds given as games of vertices ``0..n-1`` (-1 = none)."""
+    """``partners[r][v]`` for rounds given as games of vertices ``0..n-1`` (-1 = none).
+
+    Parameters
+    ----------
+    rounds
+        The rounds, each a sequence of games ``(a, b)``.
+    n
+        Number of vertices.
+
+    Returns
+    -------
+    numpy.ndarray
+        ``(rounds, n)`` int64 table.
+    """
     table = np.full((len(rounds), n), -1, dtype=np.int64)
     for r, games in enumerate(rounds):
         for a, b in games:

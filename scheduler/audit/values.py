@@ -87,6 +87,22 @@ def month_first(values: Iterable[object]) -> bool:
 
 
 def parse_datetime_text(text: str) -> datetime | None:
+    """An ISO 8601 date and time (a space allowed for ``T``), or ``None`` when it is not one.
+
+    Parameters
+    ----------
+    text
+        The cell's text.
+
+    Returns
+    -------
+    datetime.datetime or None
+        Naive or aware, as written.
+
+    References
+    ----------
+    ISO 8601; Python's :meth:`datetime.datetime.fromisoformat`.
+    """
     try:
         return datetime.fromisoformat(text.replace(" ", "T", 1) if "T" not in text else text)
     except ValueError:

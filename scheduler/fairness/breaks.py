@@ -77,6 +77,24 @@ def longest_runs(venue_sign: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
 
 
 def break_figures(venue_sign: np.ndarray) -> BreakFigures:
+    """Breaks per team, where they fall, home/away counts, home-count gap and longest runs.
+
+    Parameters
+    ----------
+    venue_sign
+        ``venue_sign[r, t]``: +1 home, -1 away, 0 no game (as in
+        :class:`~scheduler.fairness.table.SeasonTable`).
+
+    Returns
+    -------
+    BreakFigures
+        The figures, byes skipped as the module docstring says.
+
+    References
+    ----------
+    D. de Werra, "Scheduling in sports", Annals of Discrete Mathematics 11 (1981) 381-395;
+    ``docs/fairness.md``.
+    """
     per_team, mask = count_breaks(venue_sign)
     gap, gap_round = home_gap(venue_sign)
     home_run, away_run = longest_runs(venue_sign)

@@ -57,6 +57,26 @@ def coe_bounds(n: int) -> tuple[int, int]:
 
 
 def carry_over_figures(table: SeasonTable, round_leg: np.ndarray, legs: int) -> CarryOverFigures:
+    """Carry-over matrix and value of leg 1 (and of every later leg on its own), with the bounds.
+
+    Parameters
+    ----------
+    table
+        The indexed season.
+    round_leg
+        The leg of each round (:func:`scheduler.fairness.legs.detect_legs`).
+    legs
+        The number of legs.
+
+    Returns
+    -------
+    CarryOverFigures
+        Labels, matrix, values and bounds.
+
+    References
+    ----------
+    K. G. Russell, Biometrika 67 (1980) 127-131; ``docs/carry-over.md``.
+    """
     rows, big_n = partner_rows(table)
     labels = table.names + (("bye",) if big_n != table.n else ())
     per_leg: list[int | None] = []

@@ -62,6 +62,22 @@ def pair_meetings(table: SeasonTable) -> tuple[np.ndarray, np.ndarray]:
 
 
 def detect_legs(table: SeasonTable) -> LegStructure:
+    """The number of legs, the leg of each round and the scheme, read from the fixtures.
+
+    Parameters
+    ----------
+    table
+        The indexed season.
+
+    Returns
+    -------
+    LegStructure
+        Legs, ``round_leg`` and the scheme (``free`` when no scheme fits).
+
+    References
+    ----------
+    ``docs/leg-schemes.md``.
+    """
     _, counts = pair_meetings(table)
     if len(counts):
         values, freq = np.unique(counts, return_counts=True)

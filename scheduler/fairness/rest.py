@@ -42,6 +42,24 @@ def _day(f) -> int | None:
 
 
 def rest_figures(season: Season, table: SeasonTable) -> RestFigures:
+    """Rest days before every game of every team, and the rest mismatches.
+
+    Parameters
+    ----------
+    season
+        The season (dates of the games).
+    table
+        Its index.
+
+    Returns
+    -------
+    RestFigures
+        Per-team rest days, the league's minimum and mean, and the mismatches.
+
+    References
+    ----------
+    ``docs/fairness.md`` (rest days, common practice).
+    """
     fixtures = season.fixtures
     days = np.fromiter(
         ((d if (d := _day(fixtures[i])) is not None else -1) for i in table.fixture.tolist()),

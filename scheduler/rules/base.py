@@ -154,4 +154,18 @@ def team_games(season: Season, team: str) -> list[Fixture]:
 
 
 def plural(count: int, word: str) -> str:
+    """``count`` followed by ``word``, with an ``s`` unless ``count`` is 1.
+
+    Parameters
+    ----------
+    count
+        The number.
+    word
+        The singular noun.
+
+    Returns
+    -------
+    str
+        For example ``"1 day"`` or ``"3 days"``.
+    """
     return f"{count} {word}" if count == 1 else f"{count} {word}s"

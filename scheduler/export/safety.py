@@ -197,6 +197,27 @@ def atomic_write_bytes(path: str | os.PathLike[str], data: bytes) -> Path:
 
     The folder must exist. On any failure the temporary file is removed and the old file, if
     any, is left untouched.
+
+    Parameters
+    ----------
+    path
+        The file to write; its folder must exist.
+    data
+        The contents.
+
+    Returns
+    -------
+    pathlib.Path
+        ``path``.
+
+    Raises
+    ------
+    OSError
+        When the file cannot be written (an old file is left untouched).
+
+    References
+    ----------
+    POSIX ``rename`` (atomic replacement within one file system); ``docs/season-folder.md``.
     """
     target = Path(path)
     folder = target.parent
@@ -217,7 +238,27 @@ def atomic_write_bytes(path: str | os.PathLike[str], data: bytes) -> Path:
 
 
 def atomic_write_text(path: str | os.PathLike[str], text: str, encoding: str = "utf-8") -> Path:
-    """:func:`atomic_write_bytes` of ``text`` encoded (UTF-8 by default); newlines kept as given."""
+    """:func:`atomic_write_bytes` of ``text`` encoded (UTF-8 by default); newlines kept as given.
+
+    Parameters
+    ----------
+    path
+        The file to write; its folder must exist.
+    text
+        The contents.
+    encoding
+        The text encoding.
+
+    Returns
+    -------
+    pathlib.Path
+        ``path``.
+
+    Raises
+    ------
+    OSError
+        When the file cannot be written (an old file is left untouched).
+    """
     return atomic_write_bytes(path, text.encode(encoding))
 
 

@@ -263,12 +263,22 @@ def plan_season(
         cands[0].label = found.method
     report("timetable", 0.2)
     share = 0.45 / len(cands)
-    for c in cands:
+    fewest: int | None = None
+    for k, c in enumerate(cands, start=1):
+        report(f"timetable: option {k} of {len(cands)}", 0.2 + 0.4 * (k - 1) / len(cands))
         try:
             c.tt = solve_timetable(league, c.fact, _limits(total, share, seed),
                                    minimise_breaks=league.priorities.breaks > 0)
         except InfeasibleError as exc:
             c.error = exc
+        # the best so far, for the progress lines of a log or a tool
+        if c.tt is not None:
+            fewest = c.tt.breaks if fewest is None else min(fewest, c.tt.breaks)
+        outcome = (f"{c.tt.breaks} breaks (lower bound {c.tt.break_bound})"
+                   if c.tt is not None else "no timetable keeps every rule")
+        best = f"; fewest so far {fewest}" if fewest is not None else ""
+        report(f"timetable: option {k} of {len(cands)}: {outcome}{best}",
+               0.2 + 0.4 * k / len(cands))
     if all(c.tt is None for c in cands):
         _try_other_factorizations(league, cands, total, seed)
     if all(c.tt is None for c in cands):

@@ -73,6 +73,9 @@ class _Display:
         if heartbeat:
             self.thread = threading.Thread(target=self._beat, name="progress", daemon=True)
 
+    message_interval: float | None = None
+    """Seconds between two lines of one phase when not ``interval`` (``None``: ``interval``)."""
+
     # The callback -------------------------------------------------------------------
     def __call__(self, message: str, fraction: float) -> None:
         fraction = max(0.0, min(1.0, float(fraction)))
@@ -81,7 +84,8 @@ class _Display:
             phase = phase_of(message)
             new_phase = phase != self.phase
             self.phase, self.message, self.fraction = phase, message, fraction
-            if new_phase or now - self.last_line >= self.interval:
+            gap = self.interval if self.message_interval is None else self.message_interval
+            if new_phase or now - self.last_line >= gap:
                 self._emit("progress", now)
 
     # Context manager: the heartbeat runs only inside ``with`` -------------------------
@@ -142,7 +146,8 @@ class PlainProgress(_Display):
 
 
 class JsonProgress(_Display):
-    """Progress as JSON Lines for tools (see the module docstring).
+    """Progress as JSON Lines for tools (see the module docstring): every message, at most
+    ten a second (tools filter what they need), and the heartbeat of the plain lines.
 
     Examples
     --------
@@ -153,6 +158,10 @@ class JsonProgress(_Display):
     >>> json.loads(out.getvalue())["phase"]
     'timetable'
     """
+
+    message_interval = 0.1
+    """Seconds between two lines of one phase: tools get each stage's result (the best so
+    far), the rate still bounded when a search reports very often."""
 
     def format(self, event: str, elapsed: float) -> str:
         data = {

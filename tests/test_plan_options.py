@@ -31,7 +31,9 @@ def _breaks_from_fixtures(season) -> int:
 
 @pytest.mark.slow
 def test_sixteen_team_single_round_robin_keeps_perfect_mixing_with_fewer_breaks():
-    result = plan_season(league(16, venues=(BOARDS,), solve_seconds=6.0))
+    messages: list[str] = []
+    result = plan_season(league(16, venues=(BOARDS,), solve_seconds=6.0),
+                         progress=lambda message, fraction: messages.append(message))
     chosen = [o for o in result.options if o.chosen]
     assert len(chosen) == 1
     best = chosen[0]
@@ -42,6 +44,11 @@ def test_sixteen_team_single_round_robin_keeps_perfect_mixing_with_fewer_breaks(
     assert best.breaks is not None and best.breaks <= 20
     assert _breaks_from_fixtures(result.season) == best.breaks
     assert result.season.mixing is not None and result.season.mixing.perfect
+    # progress reports each option's result and the best so far (for logs and tools)
+    best_so_far = [m for m in messages if "fewest so far" in m]
+    assert len(best_so_far) == len(result.options)
+    assert best_so_far[-1].endswith(
+        f"fewest so far {min(o.breaks for o in result.options if o.breaks is not None)}")
 
     def dominated(o, by) -> bool:
         at_least = (by.perfect_pairs >= o.perfect_pairs and by.breaks <= o.breaks

@@ -265,7 +265,7 @@ def plan_season(
     share = 0.45 / len(cands)
     fewest: int | None = None
     for k, c in enumerate(cands, start=1):
-        report(f"timetable: option {k} of {len(cands)}", 0.2 + 0.4 * (k - 1) / len(cands))
+        report(f"timetable: option {k} of {len(cands)}", round(0.2 + 0.4 * (k - 1) / len(cands), 6))
         try:
             c.tt = solve_timetable(league, c.fact, _limits(total, share, seed),
                                    minimise_breaks=league.priorities.breaks > 0)
@@ -278,7 +278,7 @@ def plan_season(
                    if c.tt is not None else "no timetable keeps every rule")
         best = f"; fewest so far {fewest}" if fewest is not None else ""
         report(f"timetable: option {k} of {len(cands)}: {outcome}{best}",
-               0.2 + 0.4 * k / len(cands))
+               round(0.2 + 0.4 * k / len(cands), 6))
     if all(c.tt is None for c in cands):
         _try_other_factorizations(league, cands, total, seed)
     if all(c.tt is None for c in cands):

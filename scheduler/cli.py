@@ -505,7 +505,7 @@ def audit(
                         league=league)
     if report is not None and result.fairness is not None:
         from scheduler.export.report import render_report
-        from scheduler.export.safety import atomic_write_text
+        from scheduler.files import atomic_write_text
 
         page = render_report(result.season, result.fairness)
         try:

@@ -27,7 +27,7 @@ LAYERS: tuple[tuple[str, ...], ...] = (
     (
         "scheduler.errors", "scheduler.progress", "scheduler.season", "scheduler",
         "scheduler.leg_schemes", "scheduler.home_away", "scheduler.carry_over",
-        "scheduler.interrupt",
+        "scheduler.interrupt", "scheduler.files",
     ),
     # The calendar reads only its own CalendarSpec (and any league-like object): the league
     # configuration checks a league's dates with it, and the balancer's day model uses it, so it

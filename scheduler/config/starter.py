@@ -8,13 +8,11 @@ because ``scheduler plan`` reads only these.
 
 from __future__ import annotations
 
-import contextlib
-import os
-import tempfile
 from pathlib import Path
 
 from scheduler.config.resources import template_path
 from scheduler.errors import InputError, OutputError
+from scheduler.files import atomic_write_bytes
 
 STARTER_TEMPLATE = "league.toml"
 STARTER_TEMPLATES = {".toml": "league.toml", ".yaml": "league.yaml", ".yml": "league.yaml"}
@@ -101,27 +99,13 @@ def write_new_text_file(path: str | Path, text: str) -> Path:
         When the file exists, its folder does not, or it cannot be written.
     """
     target = Path(path)
-    if target.exists():
-        raise OutputError(f"{target}: the file already exists; choose another name or remove it")
     folder = target.parent if str(target.parent) else Path(".")
     if not folder.is_dir():
         raise OutputError(f"{target}: the folder {folder} does not exist")
     try:
-        fd, temp_name = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".tmp", dir=folder)
-    except OSError as exc:
-        raise OutputError(f"{target}: cannot write in {folder} ({exc.strerror or exc})") from None
-    try:
-        with os.fdopen(fd, "w", encoding="utf-8", newline="\n") as handle:
-            handle.write(text)
-        mask = os.umask(0)
-        os.umask(mask)
-        os.chmod(temp_name, 0o666 & ~mask)  # mkstemp makes 0600; an ordinary new file instead
-        if target.exists():
-            raise OutputError(f"{target}: the file already exists; choose another name")
-        os.replace(temp_name, target)
+        return atomic_write_bytes(target, text.encode("utf-8"), exclusive=True)
+    except FileExistsError:
+        raise OutputError(
+            f"{target}: the file already exists; choose another name or remove it") from None
     except OSError as exc:
         raise OutputError(f"{target}: cannot write the file ({exc.strerror or exc})") from None
-    finally:
-        with contextlib.suppress(FileNotFoundError):
-            os.unlink(temp_name)
-    return target

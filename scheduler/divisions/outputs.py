@@ -42,13 +42,12 @@ from scheduler.export.ics import (
     team_calendar,
 )
 from scheduler.export.safety import (
-    atomic_write_bytes,
-    atomic_write_text,
     neutralise_cell,
     safe_filenames,
     safe_sheet_title,
 )
 from scheduler.export.xlsx import stable_workbook_bytes
+from scheduler.files import atomic_write_bytes, atomic_write_text
 
 INDEX_FILE = "index.html"
 SUMMARY_FILE = "federation.json"

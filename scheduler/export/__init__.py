@@ -17,13 +17,12 @@ from scheduler.export.csv_out import fixtures_csv
 from scheduler.export.ics import CalendarState, league_calendar, plan_calendar, team_calendar
 from scheduler.export.report import render_report
 from scheduler.export.safety import (
-    atomic_write_bytes,
-    atomic_write_text,
     neutralise_cell,
     restore_cell,
     safe_filename,
 )
 from scheduler.export.xlsx import write_workbook
+from scheduler.files import atomic_write_bytes, atomic_write_text
 
 __all__ = [
     "CalendarState",

@@ -59,10 +59,10 @@ from scheduler.export.ics import (
     team_feed_names,
 )
 from scheduler.export.manifest import MANIFEST_FILE, Manifest
-from scheduler.export.safety import fsync_folder
 from scheduler.export.site import site_files, site_paths
 from scheduler.export.xlsx import workbook_bytes
 from scheduler.fairness.model import FairnessReport
+from scheduler.files import fsync_folder
 from scheduler.interrupt import deferred_interrupts, pause_point, raise_if_interrupted
 from scheduler.season import Season
 

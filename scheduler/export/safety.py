@@ -1,4 +1,4 @@
-"""Safe output: inert spreadsheet cells, safe file and sheet names, atomic file writes.
+"""Safe output: inert spreadsheet cells, safe file and sheet names.
 
 * :func:`neutralise_cell` makes user text inert in CSV and spreadsheet cells. A cell that starts
   with ``=``, ``+``, ``-``, ``@``, a tab or a carriage return may be run as a formula by a
@@ -12,22 +12,16 @@
   differs for different names, including names that differ only in letter case.
 * :func:`safe_sheet_title` makes a valid, unique worksheet title (at most 31 characters, none of
   ``[ ] : * ? / \\``; the limits Excel enforces and openpyxl checks).
-* :func:`atomic_write_bytes` / :func:`atomic_write_text` write a temporary file in the target's
-  folder, flush and ``fsync`` it, then ``os.replace`` it over the target (atomic on POSIX and on
-  Windows for files on one volume, per the Python documentation of ``os.replace``), so a reader
-  never sees half a file.
+
+Atomic file writes live in :mod:`scheduler.files` (one mechanism for every room that writes).
 """
 
 from __future__ import annotations
 
-import contextlib
 import hashlib
-import os
 import re
-import tempfile
 import unicodedata
 from collections.abc import Iterable
-from pathlib import Path
 
 FORMULA_TRIGGERS = ("=", "+", "-", "@", "\t", "\r")
 """First characters that make a spreadsheet treat a cell as a formula (OWASP, common practice)."""
@@ -190,103 +184,3 @@ def safe_sheet_title(name: str, taken: set[str]) -> str:
             counter += 1
     taken.add(title.lower())
     return title
-
-
-def atomic_write_bytes(path: str | os.PathLike[str], data: bytes) -> Path:
-    """Write ``data`` to ``path`` atomically (temp file in the same folder, fsync, os.replace).
-
-    The folder must exist. On any failure the temporary file is removed and the old file, if
-    any, is left untouched.
-
-    Parameters
-    ----------
-    path
-        The file to write; its folder must exist.
-    data
-        The contents.
-
-    Returns
-    -------
-    pathlib.Path
-        ``path``.
-
-    Raises
-    ------
-    OSError
-        When the file cannot be written (an old file is left untouched).
-
-    References
-    ----------
-    POSIX ``rename`` (atomic replacement within one file system); ``docs/season-folder.md``.
-    """
-    target = Path(path)
-    folder = target.parent
-    fd, tmp_name = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".tmp", dir=folder)
-    try:
-        with os.fdopen(fd, "wb") as handle:
-            handle.write(data)
-            handle.flush()
-            os.fsync(handle.fileno())
-        os.chmod(tmp_name, _file_mode(target))
-        os.replace(tmp_name, target)
-    except BaseException:
-        with contextlib.suppress(OSError):
-            os.unlink(tmp_name)
-        raise
-    fsync_folder(folder)
-    return target
-
-
-def atomic_write_text(path: str | os.PathLike[str], text: str, encoding: str = "utf-8") -> Path:
-    """:func:`atomic_write_bytes` of ``text`` encoded (UTF-8 by default); newlines kept as given.
-
-    Parameters
-    ----------
-    path
-        The file to write; its folder must exist.
-    text
-        The contents.
-    encoding
-        The text encoding.
-
-    Returns
-    -------
-    pathlib.Path
-        ``path``.
-
-    Raises
-    ------
-    OSError
-        When the file cannot be written (an old file is left untouched).
-    """
-    return atomic_write_bytes(path, text.encode(encoding))
-
-
-def _file_mode(target: Path) -> int:
-    """The mode an ordinary new file would get (mkstemp makes 0600), or the old file's mode."""
-    try:
-        return target.stat().st_mode & 0o777
-    except OSError:
-        mask = os.umask(0)
-        os.umask(mask)
-        return 0o666 & ~mask
-
-
-def fsync_folder(folder: str | os.PathLike[str]) -> None:
-    """``fsync`` a folder, so that renames and new entries in it are durable (POSIX only).
-
-    Folders cannot be opened this way on Windows; there, and where the file system refuses, this
-    does nothing.
-    """
-    if os.name != "posix":
-        return
-    try:
-        fd = os.open(folder, os.O_RDONLY)
-    except OSError:
-        return
-    try:
-        os.fsync(fd)
-    except OSError:
-        pass
-    finally:
-        os.close(fd)

@@ -45,13 +45,13 @@ from scheduler.export.csv_out import fixture_rows
 from scheduler.export.ics import plan_stamp
 from scheduler.export.safety import (
     FORMULA_TRIGGERS,
-    atomic_write_bytes,
     neutralise_cell,
     restore_cell,
     safe_sheet_title,
 )
 from scheduler.fairness.model import FairnessReport
 from scheduler.fairness.names import figure_lines, plain_source
+from scheduler.files import atomic_write_bytes
 from scheduler.season import Season
 
 DATE_FORMAT = "yyyy-mm-dd"

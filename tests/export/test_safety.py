@@ -13,14 +13,13 @@ from hypothesis import strategies as st
 from openpyxl import Workbook
 
 from scheduler.export.safety import (
-    atomic_write_bytes,
-    atomic_write_text,
     neutralise_cell,
     restore_cell,
     safe_filename,
     safe_filenames,
     safe_sheet_title,
 )
+from scheduler.files import atomic_write_bytes, atomic_write_text
 
 # The characters that start a formula: OWASP Foundation, "CSV Injection" (common practice).
 OWASP_TRIGGERS = ["=", "+", "-", "@", "\t", "\r"]

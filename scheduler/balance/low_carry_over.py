@@ -33,7 +33,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from scheduler.carry_over import carry_over_of_rounds
+from scheduler.carry_over import carry_over_of_rounds, partner_table
 from scheduler.errors import InputError
 from scheduler.factorization.circle import circle_rounds
 from scheduler.factorization.model import normalise_round
@@ -60,15 +60,6 @@ def carry_over_bounds(n: int) -> tuple[int, int]:
     """``(n(n-1), (n-1)(n² - 6n + 12))``: Russell's lower bound and the circle method's value,
     the maximum (Lambrechts et al. 2018)."""
     return n * (n - 1), (n - 1) * (n * n - 6 * n + 12)
-
-
-def _partners(rounds, n: int) -> np.ndarray:
-    table = np.empty((len(rounds), n), dtype=np.int64)
-    for r, games in enumerate(rounds):
-        for a, b in games:
-            table[r, a] = b
-            table[r, b] = a
-    return table
 
 
 def carry_over_value(rounds: Sequence[Sequence[tuple[int, int]]], n: int) -> int:
@@ -174,7 +165,7 @@ def search_low_carry_over(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *
     if n % 2 or n < 4 or len(rounds) != n - 1:
         raise InputError(f"a single round robin of K_{n} needs an even n >= 4 and n - 1 rounds",
                          location="rounds")
-    state = _State(_partners(rounds, n))
+    state = _State(partner_table(rounds, n))
     rng = random.Random(seed)
     lower, upper = carry_over_bounds(n)
     best_value, best_table = state.value, state.table.copy()

@@ -170,29 +170,11 @@ class BreakPaths:
         S = self.cand.shape[1]
         return self.round_count * self.width * (20 * self.n + 2 * S + 60) + CALL_WORK
 
-    def beam(self, order: Sequence[int]) -> int:
-        """Value of the beam path for ``order`` (an upper bound)."""
-        o = np.asarray(order, dtype=np.int64)
-        return int(
-            _kernel()._beam_path(
-                self.cand,
-                o,
-                self.first_vertex,
-                self.second_vertex,
-                self.width,
-                self._beam_masks,
-                self._beam_values,
-                self._beam_parents,
-                self._beam_sizes,
-            )[0]
-        )
-
-    def beam_colourings(self, order: Sequence[int]) -> tuple[int, list[int]]:
-        """(value, colouring at every position) of the beam path for ``order``."""
-        o = np.asarray(order, dtype=np.int64)
-        value, j = _kernel()._beam_path(
+    def _beam_path(self, order: Sequence[int]) -> tuple[int, int]:
+        """The beam kernel on ``order``: (value, index of the best last state)."""
+        return _kernel()._beam_path(
             self.cand,
-            o,
+            np.asarray(order, dtype=np.int64),
             self.first_vertex,
             self.second_vertex,
             self.width,
@@ -201,6 +183,14 @@ class BreakPaths:
             self._beam_parents,
             self._beam_sizes,
         )
+
+    def beam(self, order: Sequence[int]) -> int:
+        """Value of the beam path for ``order`` (an upper bound)."""
+        return int(self._beam_path(order)[0])
+
+    def beam_colourings(self, order: Sequence[int]) -> tuple[int, list[int]]:
+        """(value, colouring at every position) of the beam path for ``order``."""
+        value, j = self._beam_path(order)
         t = [0] * self.round_count
         for q in range(self.round_count - 1, -1, -1):
             t[q] = int(self._beam_masks[q, j])

@@ -31,11 +31,11 @@ def atomic_write_bytes(
 
     Parameters
     ----------
-    path
+    path : str or os.PathLike
         The file to write; its folder must exist.
-    data
+    data : bytes
         The contents.
-    exclusive
+    exclusive : bool, optional
         Never replace an existing file: the new file is linked into place, which fails with
         ``FileExistsError`` when ``path`` exists (also when it appeared during the write).
 
@@ -52,6 +52,19 @@ def atomic_write_bytes(
     References
     ----------
     POSIX ``rename`` (atomic replacement within one file system); ``docs/season-folder.md``.
+
+    Examples
+    --------
+    >>> import tempfile
+    >>> with tempfile.TemporaryDirectory() as folder:
+    ...     target = atomic_write_bytes(Path(folder) / "a.bin", b"round 1")
+    ...     print(target.read_bytes(), sorted(p.name for p in Path(folder).iterdir()))
+    ...     try:
+    ...         atomic_write_bytes(target, b"round 2", exclusive=True)
+    ...     except FileExistsError:
+    ...         print("kept:", target.read_bytes())
+    b'round 1' ['a.bin']
+    kept: b'round 1'
     """
     target = Path(path)
     folder = target.parent
@@ -80,11 +93,11 @@ def atomic_write_text(path: str | os.PathLike[str], text: str, encoding: str = "
 
     Parameters
     ----------
-    path
+    path : str or os.PathLike
         The file to write; its folder must exist.
-    text
+    text : str
         The contents.
-    encoding
+    encoding : str, optional
         The text encoding.
 
     Returns
@@ -96,6 +109,16 @@ def atomic_write_text(path: str | os.PathLike[str], text: str, encoding: str = "
     ------
     OSError
         When the file cannot be written (an old file is left untouched).
+
+    Examples
+    --------
+    >>> import tempfile
+    >>> with tempfile.TemporaryDirectory() as folder:
+    ...     target = Path(folder) / "note.txt"
+    ...     _ = atomic_write_text(target, "old")
+    ...     _ = atomic_write_text(target, "new")
+    ...     print(target.read_text())
+    new
     """
     return atomic_write_bytes(path, text.encode(encoding))
 
@@ -115,6 +138,11 @@ def fsync_folder(folder: str | os.PathLike[str]) -> None:
 
     Folders cannot be opened this way on Windows; there, and where the file system refuses, this
     does nothing.
+
+    Parameters
+    ----------
+    folder : str or os.PathLike
+        The folder whose entries were just changed.
     """
     if os.name != "posix":
         return

@@ -38,6 +38,16 @@ DEFAULT_INTERVAL = 3.0
 def phase_of(message: str) -> str:
     """The phase a progress message belongs to: its text before the first colon.
 
+    Parameters
+    ----------
+    message : str
+        A progress message such as ``"factorize: searching Z_15"``.
+
+    Returns
+    -------
+    str
+        The text before the first colon, stripped; ``"working"`` when that is empty.
+
     Examples
     --------
     >>> phase_of("factorize: searching Z_15")
@@ -118,11 +128,43 @@ class _Display:
             self.stop_event.set()
 
     def format(self, event: str, elapsed: float) -> str:  # pragma: no cover - abstract
+        """One output line (without its newline) for an event of the current message.
+
+        Parameters
+        ----------
+        event : str
+            ``"progress"`` (a new message), ``"heartbeat"`` (the last message repeated while
+            the phase is silent) or ``"done"`` (the end of a ``with`` block).
+        elapsed : float
+            Seconds since the display was made.
+
+        Returns
+        -------
+        str
+            The line, in the display's own format.
+        """
         raise NotImplementedError
 
 
 class PlainProgress(_Display):
     """Plain progress lines for logs and CI jobs (see the module docstring).
+
+    Call it as the ``progress(message, fraction)`` callback; use it as a context manager so
+    that the heartbeat runs and a final ``done`` line is written.
+
+    Parameters
+    ----------
+    stream : TextIO
+        Where the lines go (the CLI passes standard error).
+    interval : float, optional
+        Seconds between two lines of one phase, and the silence after which a heartbeat line
+        is written (default :data:`DEFAULT_INTERVAL`).
+    clock : callable, optional
+        Returns the time in seconds; a monotonic clock by default (the elapsed times printed
+        count from the creation of the display).
+    heartbeat : bool, optional
+        Start a background thread, inside ``with``, that repeats the last message while a
+        phase is silent; False for no thread (tests, or callers that report often).
 
     Examples
     --------
@@ -148,6 +190,20 @@ class PlainProgress(_Display):
 class JsonProgress(_Display):
     """Progress as JSON Lines for tools (see the module docstring): every message, at most
     ten a second (tools filter what they need), and the heartbeat of the plain lines.
+
+    Parameters
+    ----------
+    stream : TextIO
+        Where the lines go (the CLI passes standard error).
+    interval : float, optional
+        Seconds between two lines of one phase, and the silence after which a heartbeat line
+        is written (default :data:`DEFAULT_INTERVAL`).
+    clock : callable, optional
+        Returns the time in seconds; a monotonic clock by default (the elapsed times printed
+        count from the creation of the display).
+    heartbeat : bool, optional
+        Start a background thread, inside ``with``, that repeats the last message while a
+        phase is silent; False for no thread (tests, or callers that report often).
 
     Examples
     --------

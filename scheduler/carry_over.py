@@ -23,6 +23,27 @@ import numpy as np
 def carry_over_matrix(partners: np.ndarray) -> np.ndarray:
     """Cyclic carry-over matrix of a ``(rounds, N)`` partner table (-1 = no opponent).
 
+    ``c[i][j]`` counts the rounds ``r`` in which some team meets ``i`` in round ``r`` and ``j`` in
+    round ``r + 1``, the last round followed by the first. A team without an opponent in either
+    of the two rounds (a bye) adds nothing.
+
+    Parameters
+    ----------
+    partners : numpy.ndarray
+        ``partners[r, v]`` is the opponent of vertex ``v`` in round ``r``, or -1 for none;
+        integer array of shape ``(rounds, N)``.
+
+    Returns
+    -------
+    numpy.ndarray
+        The ``(N, N)`` int64 matrix ``c``; its entries sum to the number of (team, round) pairs
+        with an opponent in both rounds.
+
+    References
+    ----------
+    K. G. Russell, "Balancing carry-over effects in round robin tournaments", Biometrika 67
+    (1980) 127-131; ``docs/carry-over.md``.
+
     Examples
     --------
     >>> carry_over_matrix(np.array([[1, 0], [1, 0]])).tolist()
@@ -43,8 +64,8 @@ def carry_over_value(matrix: np.ndarray) -> int:
 
     Parameters
     ----------
-    matrix
-        A carry-over matrix.
+    matrix : numpy.ndarray
+        A carry-over matrix, as made by :func:`carry_over_matrix`.
 
     Returns
     -------
@@ -63,15 +84,20 @@ def partner_table(rounds: Sequence[Sequence[tuple[int, int]]], n: int) -> np.nda
 
     Parameters
     ----------
-    rounds
+    rounds : sequence of sequence of tuple of int
         The rounds, each a sequence of games ``(a, b)``.
-    n
+    n : int
         Number of vertices.
 
     Returns
     -------
     numpy.ndarray
         ``(rounds, n)`` int64 table.
+
+    Examples
+    --------
+    >>> partner_table([[(0, 1)], [(1, 2)]], 3).tolist()
+    [[1, 0, -1], [-1, 2, 1]]
     """
     table = np.full((len(rounds), n), -1, dtype=np.int64)
     for r, games in enumerate(rounds):
@@ -82,6 +108,23 @@ def partner_table(rounds: Sequence[Sequence[tuple[int, int]]], n: int) -> np.nda
 
 def carry_over_of_rounds(rounds: Sequence[Sequence[tuple[int, int]]], n: int) -> int:
     """The carry-over value of one single round robin given round by round (cyclic).
+
+    Parameters
+    ----------
+    rounds : sequence of sequence of tuple of int
+        The rounds of one leg, each a sequence of games ``(a, b)`` of vertices ``0..n-1``.
+    n : int
+        Number of vertices (teams, plus the bye vertex for an odd league).
+
+    Returns
+    -------
+    int
+        ``Σ c_ij²`` of the cyclic carry-over matrix; ``n(n-1)`` is the least value possible,
+        reached by the 4 teams below.
+
+    References
+    ----------
+    K. G. Russell, Biometrika 67 (1980) 127-131; ``docs/carry-over.md``.
 
     Examples
     --------

@@ -54,6 +54,19 @@ def count_breaks(venue_sign: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
 def venue_signs(games: Sequence[Sequence[tuple[int, int]]], teams: int) -> np.ndarray:
     """The ``(rounds, teams)`` venue-sign table of rounds given as ``(home, away)`` pairs.
 
+    Parameters
+    ----------
+    games : sequence of sequence of tuple of int
+        The rounds in playing order, each a sequence of games ``(home, away)`` of team indices.
+    teams : int
+        Number of teams (the width of the table).
+
+    Returns
+    -------
+    numpy.ndarray
+        int8 table: +1 where the team plays at home in the round, -1 away, 0 no game; the
+        input of :func:`count_breaks`.
+
     Examples
     --------
     >>> venue_signs([[(0, 1)], [(1, 0)]], 2).tolist()
@@ -69,6 +82,22 @@ def venue_signs(games: Sequence[Sequence[tuple[int, int]]], teams: int) -> np.nd
 
 def total_breaks(games: Sequence[Sequence[tuple[int, int]]], teams: int) -> int:
     """Total breaks of a season given round by round as ``(home, away)`` pairs (byes skipped).
+
+    Parameters
+    ----------
+    games : sequence of sequence of tuple of int
+        The rounds in playing order, each a sequence of games ``(home, away)`` of team indices.
+    teams : int
+        Number of teams.
+
+    Returns
+    -------
+    int
+        The number of breaks of all teams together, counted as :func:`count_breaks` does.
+
+    References
+    ----------
+    D. de Werra, "Scheduling in sports", Annals of Discrete Mathematics 11 (1981) 381-395.
 
     Examples
     --------

@@ -77,6 +77,24 @@ def leg_maps(scheme: str, legs: int, rounds: int) -> tuple[tuple[int, ...], ...]
     """For a fixed scheme, ``maps[l][s]``: the leg-1 position that leg ``l`` plays at position
     ``s``; ``None`` for the free scheme with more than one leg.
 
+    Parameters
+    ----------
+    scheme : str
+        One of :data:`SCHEMES`.
+    legs : int
+        Number of single round robins (1 or more).
+    rounds : int
+        Rounds per leg (``R``).
+
+    Returns
+    -------
+    tuple of tuple of int or None
+        One map per leg, leg 1 the identity; None when the scheme leaves later legs free.
+
+    References
+    ----------
+    ``docs/leg-schemes.md`` (the index maps of the schemes).
+
     Examples
     --------
     >>> leg_maps("english", 3, 3)
@@ -99,6 +117,16 @@ def leg_maps(scheme: str, legs: int, rounds: int) -> tuple[tuple[int, ...], ...]
 def flipped(leg: int) -> bool:
     """Legs alternate venues: leg ``l`` (0-based) swaps the venues of leg 1 when ``l`` is odd.
 
+    Parameters
+    ----------
+    leg : int
+        The leg, 0-based.
+
+    Returns
+    -------
+    bool
+        True when the leg plays every pairing of leg 1 with home and away swapped.
+
     Examples
     --------
     >>> [flipped(leg) for leg in range(3)]
@@ -109,6 +137,18 @@ def flipped(leg: int) -> bool:
 
 def scheme_of_maps(maps: tuple[tuple[int, ...], ...]) -> str:
     """The fixed scheme whose index maps are ``maps`` (all legs), else ``"free"``.
+
+    Parameters
+    ----------
+    maps : tuple of tuple of int
+        The index maps of every leg, as :func:`leg_maps` makes them (read back from a planned
+        or audited season).
+
+    Returns
+    -------
+    str
+        The first of :data:`FIXED_SCHEMES` that gives exactly these maps, or ``"free"``. With
+        one leg every fixed scheme matches, and ``"mirrored"`` is returned.
 
     Examples
     --------
@@ -127,6 +167,25 @@ def scheme_of_maps(maps: tuple[tuple[int, ...], ...]) -> str:
 def separations(scheme: str, legs: int, rounds: int) -> tuple[int, ...]:
     """Fixed scheme: for every leg-1 position, the fewest rounds strictly between two
     consecutive meetings of the pair that plays there. Empty for one leg or the free scheme.
+
+    Parameters
+    ----------
+    scheme : str
+        One of :data:`SCHEMES`.
+    legs : int
+        Number of single round robins (1 or more).
+    rounds : int
+        Rounds per leg (``R``).
+
+    Returns
+    -------
+    tuple of int
+        One separation (rounds strictly between, ``>= 0``) per leg-1 position, the least over
+        every pair of consecutive legs.
+
+    References
+    ----------
+    ``docs/leg-schemes.md``.
 
     Examples
     --------
@@ -148,6 +207,20 @@ def least_separation(scheme: str, legs: int, rounds: int) -> int | None:
     """The fewest rounds strictly between two meetings of a pair that the scheme allows at all
     (``None`` for one leg or the free scheme, which fixes nothing).
 
+    Parameters
+    ----------
+    scheme : str
+        One of :data:`SCHEMES`.
+    legs : int
+        Number of single round robins (1 or more).
+    rounds : int
+        Rounds per leg (``R``).
+
+    Returns
+    -------
+    int or None
+        The least of :func:`separations`; None when the scheme fixes no separation.
+
     Examples
     --------
     >>> least_separation("mirrored", 2, 9), least_separation("english", 2, 9)
@@ -159,7 +232,20 @@ def least_separation(scheme: str, legs: int, rounds: int) -> int | None:
 
 @dataclass(frozen=True)
 class BreakBound:
-    """A lower bound on the total number of breaks and the argument it rests on."""
+    """A lower bound on the total number of breaks and the argument it rests on.
+
+    Parameters
+    ----------
+    value : int
+        The bound: no timetable of the league has fewer breaks in total (byes skipped).
+    reason : str
+        The argument in words, naming its source (shown beside the break figures).
+
+    Examples
+    --------
+    >>> BreakBound(4, "de Werra 1981").value
+    4
+    """
 
     value: int
     reason: str
@@ -168,6 +254,22 @@ class BreakBound:
 def leg_break_bound(n: int, odd: bool) -> int:
     """Breaks inside one single-round-robin leg on ``n`` (even) vertices: at least ``n - 2`` for
     an even league (de Werra 1981), 0 for an odd league (a break-free leg exists).
+
+    Parameters
+    ----------
+    n : int
+        Number of vertices of the leg (even: the teams, plus the bye vertex for an odd league).
+    odd : bool
+        True when the league has an odd number of teams (one vertex is the bye).
+
+    Returns
+    -------
+    int
+        The least number of breaks one leg can have.
+
+    References
+    ----------
+    D. de Werra, "Scheduling in sports", Annals of Discrete Mathematics 11 (1981) 381-395.
 
     Examples
     --------

@@ -36,13 +36,24 @@ def rounds_needed(league: CalendarLeague) -> int:
 
     Parameters
     ----------
-    league
+    league : CalendarLeague
         The league (anything with the league's ``teams``, ``format`` and ``calendar``).
 
     Returns
     -------
     int
         The number of rounds.
+
+    Examples
+    --------
+    >>> from datetime import date
+    >>> from types import SimpleNamespace
+    >>> league = SimpleNamespace(
+    ...     teams=("Ashby", "Brook", "Cole", "Dale", "Eston"), format=SimpleNamespace(legs=2),
+    ...     calendar=CalendarSpec(start=date(2026, 9, 5), weekdays=(5,)),
+    ...     timezone="Europe/Berlin", source=None)
+    >>> rounds_needed(league)  # 5 teams: 5 rounds per leg, one bye in each
+    10
     """
     n = len(league.teams)
     per_leg = n - 1 if n % 2 == 0 else n
@@ -54,13 +65,28 @@ def days_needed(league: CalendarLeague) -> int:
 
     Parameters
     ----------
-    league
+    league : CalendarLeague
         The league (anything with the league's ``teams``, ``format`` and ``calendar``).
 
     Returns
     -------
     int
         The number of match days.
+
+    Examples
+    --------
+    >>> from datetime import date
+    >>> from types import SimpleNamespace
+    >>> league = SimpleNamespace(
+    ...     teams=("Ashby", "Brook", "Cole", "Dale", "Eston"), format=SimpleNamespace(legs=2),
+    ...     calendar=CalendarSpec(start=date(2026, 9, 5), weekdays=(5,)),
+    ...     timezone="Europe/Berlin", source=None)
+    >>> days_needed(league)
+    10
+    >>> from dataclasses import replace
+    >>> league.calendar = replace(league.calendar, rounds_per_day=3)
+    >>> days_needed(league)  # 10 rounds, 3 a day
+    4
     """
     per_day = league.calendar.rounds_per_day
     return -(-rounds_needed(league) // per_day)
@@ -77,10 +103,10 @@ def public_holidays(spec: CalendarSpec, first_year: int, last_year: int) -> froz
 
     Parameters
     ----------
-    spec
+    spec : CalendarSpec
         The calendar section (``holidays`` country and subdivision).
-    first_year, last_year
-        The years covered.
+    first_year, last_year : int
+        The years covered, both included.
 
     Returns
     -------
@@ -90,6 +116,15 @@ def public_holidays(spec: CalendarSpec, first_year: int, last_year: int) -> froz
     References
     ----------
     The ``holidays`` package (python-holidays) supplies the dates.
+
+    Examples
+    --------
+    >>> from datetime import date
+    >>> spec = CalendarSpec(start=date(2026, 9, 5), holidays_country="DE")
+    >>> date(2026, 10, 3) in public_holidays(spec, 2026, 2026)  # German Unity Day
+    True
+    >>> public_holidays(CalendarSpec(start=date(2026, 9, 5)), 2026, 2026)
+    frozenset()
     """
     if not spec.holidays_country:
         return frozenset()
@@ -125,10 +160,11 @@ def match_days(
 
     Parameters
     ----------
-    league_or_spec
+    league_or_spec : CalendarLeague or CalendarSpec
         A league, or its calendar section alone.
-    needed
-        Match days the caller needs (default with a league: :func:`days_needed`).
+    needed : int or None, optional
+        Match days the caller needs (default with a league: :func:`days_needed`; None with a
+        calendar section: no minimum, which needs an end date or listed dates).
 
     Returns
     -------
@@ -141,6 +177,14 @@ def match_days(
         When a fixed calendar has fewer than ``needed`` match days.
     InputError
         With an open end and no ``needed`` (a bare calendar section).
+
+    Examples
+    --------
+    >>> from datetime import date
+    >>> spec = CalendarSpec(start=date(2026, 9, 5), weekdays=(5, 6),
+    ...                     reserve_dates=(date(2026, 9, 6),))
+    >>> match_days(spec, 3)
+    [datetime.date(2026, 9, 5), datetime.date(2026, 9, 12), datetime.date(2026, 9, 13)]
     """
     spec = _spec_of(league_or_spec)
     league = None if isinstance(league_or_spec, CalendarSpec) else league_or_spec
@@ -182,7 +226,22 @@ def match_days(
 
 
 def shortage_message(spec: CalendarSpec, have: int, needed: int) -> str:
-    """The problem text for a calendar with too few match days."""
+    """The problem text for a calendar with too few match days.
+
+    Parameters
+    ----------
+    spec : CalendarSpec
+        The calendar section (its listed dates and ``rounds_per_day`` shape the advice).
+    have : int
+        Match days the calendar gives.
+    needed : int
+        Match days the season needs.
+
+    Returns
+    -------
+    str
+        One located sentence: what is short and how to fix it.
+    """
     per_day = spec.rounds_per_day
     rounds = f"{per_day} rounds" if per_day != 1 else "1 round"
     where = "calendar.dates" if spec.dates else "calendar"
@@ -205,7 +264,7 @@ def round_days(league: CalendarLeague) -> list[date]:
 
     Parameters
     ----------
-    league
+    league : CalendarLeague
         The league (anything with the league's ``teams``, ``format`` and ``calendar``).
 
     Returns
@@ -217,6 +276,18 @@ def round_days(league: CalendarLeague) -> list[date]:
     ------
     ConfigError
         When the calendar has fewer match days than the season needs.
+
+    Examples
+    --------
+    >>> from datetime import date
+    >>> from types import SimpleNamespace
+    >>> league = SimpleNamespace(
+    ...     teams=("Ashby", "Brook", "Cole", "Dale", "Eston"), format=SimpleNamespace(legs=2),
+    ...     calendar=CalendarSpec(start=date(2026, 9, 5), weekdays=(5,)),
+    ...     timezone="Europe/Berlin", source=None)
+    >>> days = round_days(league)
+    >>> len(days), days[0], days[-1]
+    (10, datetime.date(2026, 9, 5), datetime.date(2026, 11, 7))
     """
     days = match_days(league, days_needed(league))
     per_day = league.calendar.rounds_per_day

@@ -27,7 +27,18 @@ from scheduler.errors import InputError
 
 @functools.lru_cache(maxsize=64)
 def zone(name: str) -> ZoneInfo:
-    """The :class:`ZoneInfo` of an IANA name (cached)."""
+    """The :class:`ZoneInfo` of an IANA name (cached).
+
+    Parameters
+    ----------
+    name : str
+        An IANA time zone name such as ``"Europe/Berlin"``.
+
+    Returns
+    -------
+    zoneinfo.ZoneInfo
+        The time zone.
+    """
     return ZoneInfo(name)
 
 
@@ -36,7 +47,7 @@ def parse_slot(slot: time | str) -> time:
 
     Parameters
     ----------
-    slot
+    slot : datetime.time or str
         ``"HH:MM"`` text or a time.
 
     Returns
@@ -70,11 +81,11 @@ def local_datetime(day: date, clock: time, tz: ZoneInfo) -> datetime:
 
     Parameters
     ----------
-    day
+    day : datetime.date
         The date.
-    clock
-        The wall-clock time.
-    tz
+    clock : datetime.time
+        The wall-clock time (any ``tzinfo`` or ``fold`` it has is ignored).
+    tz : zoneinfo.ZoneInfo
         The time zone.
 
     Returns
@@ -85,6 +96,14 @@ def local_datetime(day: date, clock: time, tz: ZoneInfo) -> datetime:
     References
     ----------
     PEP 495 (local time disambiguation, ``fold``).
+
+    Examples
+    --------
+    >>> berlin = ZoneInfo("Europe/Berlin")
+    >>> local_datetime(date(2026, 3, 29), time(2, 30), berlin).isoformat()  # in the gap
+    '2026-03-29T03:30:00+02:00'
+    >>> local_datetime(date(2026, 10, 25), time(2, 30), berlin).isoformat()  # in the fold
+    '2026-10-25T02:30:00+02:00'
     """
     naive = datetime.combine(day, clock.replace(tzinfo=None, fold=0))
     first = naive.replace(tzinfo=tz, fold=0)
@@ -100,12 +119,12 @@ def kickoff(league: CalendarLeague, day: date, slot: time | str | None = None) -
 
     Parameters
     ----------
-    league
-        The league (anything with the league's ``teams``, ``format`` and ``calendar``).
-    day
+    league : CalendarLeague
+        The league (its ``calendar`` and ``timezone`` are read).
+    day : datetime.date
         The match day.
-    slot
-        The time slot (``None``: the league's kick-off).
+    slot : datetime.time or str or None, optional
+        The time slot, a time or ``"HH:MM"`` text (``None``: the league's kick-off).
 
     Returns
     -------
@@ -116,6 +135,18 @@ def kickoff(league: CalendarLeague, day: date, slot: time | str | None = None) -
     ------
     InputError
         For a slot that is not a time of day.
+
+    Examples
+    --------
+    >>> from types import SimpleNamespace
+    >>> from scheduler.calendar import CalendarSpec
+    >>> league = SimpleNamespace(
+    ...     calendar=CalendarSpec(start=date(2026, 9, 5), game_minutes=90),
+    ...     timezone="Europe/Berlin")
+    >>> kickoff(league, date(2026, 10, 24)).isoformat()
+    '2026-10-24T15:00:00+02:00'
+    >>> kickoff(league, date(2026, 10, 31), "19:30").isoformat()
+    '2026-10-31T19:30:00+01:00'
     """
     clock = league.calendar.kickoff if slot is None else parse_slot(slot)
     return local_datetime(day, clock, zone(league.timezone))
@@ -126,15 +157,26 @@ def game_end(league: CalendarLeague, start: datetime) -> datetime:
 
     Parameters
     ----------
-    league
-        The league (anything with the league's ``teams``, ``format`` and ``calendar``).
-    start
+    league : CalendarLeague
+        The league (its ``calendar.game_minutes`` is read).
+    start : datetime.datetime
         The aware kick-off time.
 
     Returns
     -------
     datetime.datetime
-        ``start`` plus the game's length in elapsed time.
+        ``start`` plus the game's length in elapsed time, on the clock of ``start``.
+
+    Examples
+    --------
+    >>> from types import SimpleNamespace
+    >>> from scheduler.calendar import CalendarSpec
+    >>> league = SimpleNamespace(
+    ...     calendar=CalendarSpec(start=date(2026, 9, 5), game_minutes=90),
+    ...     timezone="Europe/Berlin")
+    >>> start = kickoff(league, date(2026, 10, 25), "01:30")  # clocks go back at 03:00
+    >>> game_end(league, start).isoformat()  # 90 minutes later, 02:00 winter time
+    '2026-10-25T02:00:00+01:00'
     """
     ends = start.astimezone(UTC) + timedelta(minutes=league.calendar.game_minutes)
     return ends.astimezone(start.tzinfo)

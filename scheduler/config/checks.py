@@ -30,7 +30,26 @@ def _all_zones() -> tuple[str, ...]:
 
 
 def timezone_problems(name: str) -> list[str]:
-    """``league.timezone`` must be an IANA zone :mod:`zoneinfo` knows (PEP 615)."""
+    """``league.timezone`` must be an IANA zone :mod:`zoneinfo` knows (PEP 615).
+
+    Parameters
+    ----------
+    name : str
+        The ``league.timezone`` text.
+
+    Returns
+    -------
+    list of str
+        Empty when the zone is known; else one located problem, with the nearest known name
+        when one is close.
+
+    Examples
+    --------
+    >>> timezone_problems("Europe/Berlin")
+    []
+    >>> timezone_problems("Europe/Berln")
+    ["league.timezone: 'Europe/Berln' is not a time zone; did you mean 'Europe/Berlin'?"]
+    """
     try:
         zoneinfo.ZoneInfo(name)
     except (zoneinfo.ZoneInfoNotFoundError, ValueError, OSError):
@@ -45,7 +64,30 @@ def timezone_problems(name: str) -> list[str]:
 def resolve_holidays(
     country: str, subdivision: str | None
 ) -> tuple[str | None, str | None, list[str]]:
-    """The holiday region in the spelling the ``holidays`` package uses, or problems."""
+    """The holiday region in the spelling the ``holidays`` package uses, or problems.
+
+    Parameters
+    ----------
+    country : str
+        The country as written in ``calendar.holidays.country`` (any case).
+    subdivision : str or None
+        The region as written in ``calendar.holidays.subdivision`` (any case, aliases accepted);
+        None for the national holidays only.
+
+    Returns
+    -------
+    country : str or None
+        The country code as the ``holidays`` package spells it; None when unknown.
+    subdivision : str or None
+        The subdivision code as the package spells it; None when not given or unknown.
+    problems : list of str
+        Located problems; empty when both are known.
+
+    Examples
+    --------
+    >>> resolve_holidays("gb", "eng")
+    ('GB', 'ENG', [])
+    """
     supported = holidays_lib.list_supported_countries(include_aliases=True)
     by_upper = {c.upper(): c for c in supported}
     code = by_upper.get(country.strip().upper())
@@ -91,7 +133,19 @@ def resolve_holidays(
 
 
 def season_window(doc: LeagueFile) -> tuple[dt.date | None, dt.date | None]:
-    """First and last possible match day (``None`` where open or unknown)."""
+    """First and last possible match day (``None`` where open or unknown).
+
+    Parameters
+    ----------
+    doc : LeagueFile
+        The shape-valid league file.
+
+    Returns
+    -------
+    first, last : datetime.date or None
+        ``calendar.start`` and ``calendar.end``, or the first and last listed date when those
+        are not given; None where open or unknown.
+    """
     cal = doc.calendar
     dates = [d for group in cal.dates for d in group]
     first = cal.start or (min(dates) if dates else None)
@@ -120,6 +174,21 @@ def date_list_problems(
     """Single dates outside the season, and ranges that miss the season entirely, are problems.
 
     A range that overlaps the season only in part is fine (the days outside are ignored).
+
+    Parameters
+    ----------
+    path : str
+        The field path for the messages, for example ``"calendar.excluded"``.
+    groups : iterable of tuple of datetime.date
+        The listed entries: a single date, or the days of a ``"first..last"`` range.
+    first, last : datetime.date or None
+        The season's first and last possible match day (:func:`season_window`); None where
+        open.
+
+    Returns
+    -------
+    list of str
+        One located problem per entry outside the season (``path[index]: ...``).
     """
     problems = []
     for i, group in enumerate(groups):
@@ -159,7 +228,18 @@ def _team_ref(path: str, name: str, teams: list[str]) -> list[str]:
 
 
 def reference_problems(doc: LeagueFile) -> list[str]:
-    """Every cross-reference and range problem of a shape-valid league file."""
+    """Every cross-reference and range problem of a shape-valid league file.
+
+    Parameters
+    ----------
+    doc : LeagueFile
+        The league file, already valid in shape (:mod:`scheduler.config.schema`).
+
+    Returns
+    -------
+    list of str
+        Every problem found, each ``"<field path>: <what is wrong>"``; empty for a usable file.
+    """
     problems: list[str] = []
     problems += timezone_problems(doc.league.timezone)
 

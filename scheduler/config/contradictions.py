@@ -33,6 +33,24 @@ def leg_separation(scheme: str, per_leg: int, legs: int = 2) -> int | None:
     ``docs/leg-schemes.md``): mirrored ``per_leg - 1``, French ``per_leg - 2``, English and
     inverted 0; ``None`` for ``free``, which fixes nothing.
 
+    Parameters
+    ----------
+    scheme : str
+        The league's scheme (``format.scheme``).
+    per_leg : int
+        Rounds per leg.
+    legs : int, optional
+        Number of legs; fewer than 2 is read as 2 (the question is about a second meeting).
+
+    Returns
+    -------
+    int or None
+        The least separation in rounds; None for the free scheme or an empty leg.
+
+    References
+    ----------
+    ``docs/leg-schemes.md``.
+
     Examples
     --------
     >>> leg_separation("french", 9), leg_separation("free", 9) is None
@@ -44,7 +62,28 @@ def leg_separation(scheme: str, per_leg: int, legs: int = 2) -> int | None:
 
 
 def season_problems(league: League) -> list[str]:
-    """Contradictions a league organizer can fix in the file; empty when none are certain."""
+    """Contradictions a league organizer can fix in the file; empty when none are certain.
+
+    Checked against the match days and the format: enough days for the rounds, fixed games on
+    rounds and dates that exist, dates that leave a team too few days to play (or to play at
+    home), run limits no timetable can keep (de Werra's bound on breaks), rest days with several
+    rounds a day, a separation the scheme cannot give, and room at the venues.
+
+    Parameters
+    ----------
+    league : League
+        A league whose file is already valid in shape and references.
+
+    Returns
+    -------
+    list of str
+        Located problems (``"<field path>: <what is wrong and how to fix it>"``); empty when no
+        contradiction is certain (the balancer may still find the rules cannot all hold).
+
+    References
+    ----------
+    ``docs/rules.md`` (the rules), ``docs/leg-schemes.md`` (separations).
+    """
     # Local import: the calendar package imports scheduler.config.model.
     from scheduler.calendar.days import days_needed, match_days, rounds_needed
 

@@ -47,7 +47,24 @@ from scheduler.errors import ConfigError
 
 def read_config_data(path: str | Path) -> Any:
     """The parsed data of a config file (league or federation), every failure a ConfigError
-    naming the file: never a traceback for a league organizer."""
+    naming the file: never a traceback for a league organizer.
+
+    Parameters
+    ----------
+    path : str or pathlib.Path
+        A TOML or YAML file.
+
+    Returns
+    -------
+    Any
+        The parsed document (a dict for a usable file).
+
+    Raises
+    ------
+    ConfigError
+        When the file cannot be read or parsed; the message names the file and, for syntax
+        errors, the line.
+    """
     try:
         return read_file(path)
     except ConfigError:
@@ -199,6 +216,16 @@ def priorities_of(doc: LeagueFile) -> Priorities:
 
     ``order = [a, b, c]`` gives ``a`` the weight 3, ``b`` 2, ``c`` 1 (the first is the most
     important) and every goal left out 0 (not pursued).
+
+    Parameters
+    ----------
+    doc : LeagueFile
+        The shape-valid league file.
+
+    Returns
+    -------
+    Priorities
+        The weights; goals the file does not mention keep their defaults (without ``order``).
     """
     pri = doc.priorities
     if pri.order is not None:
@@ -215,7 +242,21 @@ def priorities_of(doc: LeagueFile) -> Priorities:
 
 
 def build_league(doc: LeagueFile, source: str | None = None) -> League:
-    """The frozen League of a checked league file (no further checks)."""
+    """The frozen League of a checked league file (no further checks).
+
+    Parameters
+    ----------
+    doc : LeagueFile
+        A league file that passed every check (shape, references and contradictions).
+    source : str or None, optional
+        The file it was read from, kept for messages.
+
+    Returns
+    -------
+    League
+        The frozen league: codes made for teams without one, date ranges expanded and clipped
+        to the season, the holiday region in the ``holidays`` package's spelling.
+    """
     cal = doc.calendar
     first, last = season_window(doc)
     country = subdivision = None

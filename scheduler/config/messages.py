@@ -18,7 +18,26 @@ from scheduler.config.schema import LeagueFile, show, suggestion
 
 
 def field_path(loc: tuple[str | int, ...] | list[str | int]) -> str:
-    """``("teams", 3, "home_venue")`` -> ``"teams[3].home_venue"``."""
+    """``("teams", 3, "home_venue")`` -> ``"teams[3].home_venue"``.
+
+    Parameters
+    ----------
+    loc : tuple or list of str and int
+        A pydantic error location: names of sections and options, and list indices.
+
+    Returns
+    -------
+    str
+        The field path as the league organizer reads it; ``"(top level)"`` for an empty
+        location.
+
+    Examples
+    --------
+    >>> field_path(("teams", 3, "home_venue"))
+    'teams[3].home_venue'
+    >>> field_path(())
+    '(top level)'
+    """
     out = ""
     for part in loc:
         if isinstance(part, int):
@@ -48,7 +67,20 @@ def _model_in(annotation: Any) -> type[BaseModel] | None:
 def model_at(
     loc: tuple[str | int, ...], root: type[BaseModel] = LeagueFile
 ) -> type[BaseModel] | None:
-    """The section model that holds the option at ``loc`` (for the list of allowed names)."""
+    """The section model that holds the option at ``loc`` (for the list of allowed names).
+
+    Parameters
+    ----------
+    loc : tuple of str and int
+        The pydantic error location of an option.
+    root : type of pydantic.BaseModel, optional
+        The model of the whole file.
+
+    Returns
+    -------
+    type of pydantic.BaseModel or None
+        The section model; None when the location leaves the known sections.
+    """
     model: type[BaseModel] | None = root
     for part in loc[:-1]:
         if isinstance(part, int):
@@ -89,7 +121,19 @@ _KIND = {
 
 
 def describe(error: dict[str, Any]) -> str:
-    """One pydantic error as ``path: message``."""
+    """One pydantic error as ``path: message``.
+
+    Parameters
+    ----------
+    error : dict
+        One entry of :meth:`pydantic.ValidationError.errors`.
+
+    Returns
+    -------
+    str
+        ``"<field path>: <what is wrong>"`` in plain words, with the nearest known name for an
+        unknown option.
+    """
     loc = tuple(error.get("loc", ()))
     kind = error.get("type", "")
     ctx = error.get("ctx") or {}
@@ -132,7 +176,18 @@ def describe(error: dict[str, Any]) -> str:
 
 
 def problems_from(exc: ValidationError) -> list[str]:
-    """Every error of a pydantic validation, described, in file order, without repeats."""
+    """Every error of a pydantic validation, described, in file order, without repeats.
+
+    Parameters
+    ----------
+    exc : pydantic.ValidationError
+        The failed validation of a league file.
+
+    Returns
+    -------
+    list of str
+        One described problem per error (:func:`describe`), duplicates left out.
+    """
     out: list[str] = []
     for error in exc.errors(include_url=False):
         text = describe(dict(error))

@@ -69,6 +69,16 @@ def character_problem(text: str) -> str | None:
 def normal_form(text: str) -> str:
     """``text`` in Normalization Form C (UAX #15), the form names are stored in.
 
+    Parameters
+    ----------
+    text : str
+        A name as written in the file.
+
+    Returns
+    -------
+    str
+        The NFC form of ``text`` (case and spacing kept).
+
     Examples
     --------
     >>> normal_form("Cafe\\u0301") == "Caf\\u00e9"
@@ -81,6 +91,16 @@ def name_key(text: str) -> str:
     """The key under which two names are the same: the canonical caseless form
     ``NFD(casefold(NFD(text)))`` of the Unicode Standard, section 3.13, definition D145 (from
     memory).
+
+    Parameters
+    ----------
+    text : str
+        A name.
+
+    Returns
+    -------
+    str
+        The caseless key; two names with the same key name the same team or venue.
 
     Examples
     --------

@@ -113,7 +113,22 @@ class _Moved(Section):
 
 
 class EventsFile(Section):
-    """A whole events file (shape only)."""
+    """A whole events file (shape only).
+
+    The options are those of the module docstring; list entries are checked by their own models.
+
+    Parameters
+    ----------
+    league : str
+        The league's name; must match the season folder.
+    season : str
+        The season's label; a number is kept as text.
+    played_through : datetime.date
+        Every game dated on or before it is history.
+    postponed, unavailable, closed, withdrawn, moved : list
+        The ``[[postponed]]``, ``[[unavailable]]``, ``[[closed]]``, ``[[withdrawn]]`` and
+        ``[[moved]]`` entries (a single table is read as a list of one).
+    """
 
     league: Text
     season: Annotated[Text, BeforeValidator(_season)]
@@ -144,7 +159,17 @@ _SECTIONS: dict[str, type[BaseModel]] = {
 
 @dataclass(frozen=True, slots=True)
 class Postponed:
-    """A game that did not take place. ``date`` is its planned date when given."""
+    """A game that did not take place. ``date`` is its planned date when given.
+
+    Parameters
+    ----------
+    home, away : str
+        The two teams, as planned.
+    date : datetime.date or None, optional
+        The planned date; needed when the pair meets more than once.
+    where : str, optional
+        The entry's location in the events file (for example ``"postponed[1]"``), for messages.
+    """
 
     home: str
     away: str
@@ -154,6 +179,18 @@ class Postponed:
 
 @dataclass(frozen=True, slots=True)
 class TeamUnavailable:
+    """Days a team cannot play, reported after the plan was made.
+
+    Parameters
+    ----------
+    team : str
+        The team's name.
+    dates : tuple of datetime.date
+        The days, ranges expanded.
+    where : str, optional
+        The entry's location in the events file (for example ``"postponed[1]"``), for messages.
+    """
+
     team: str
     dates: tuple[dt.date, ...]
     where: str = ""
@@ -161,7 +198,19 @@ class TeamUnavailable:
 
 @dataclass(frozen=True, slots=True)
 class Closure:
-    """A venue closed on ``dates``; only ``courts`` when given, else every court."""
+    """A venue closed on ``dates``; only ``courts`` when given, else every court.
+
+    Parameters
+    ----------
+    venue : str
+        The venue's name.
+    courts : tuple of str
+        The closed courts; empty for the whole venue.
+    dates : tuple of datetime.date
+        The days it is closed, ranges expanded.
+    where : str, optional
+        The entry's location in the events file (for example ``"postponed[1]"``), for messages.
+    """
 
     venue: str
     courts: tuple[str, ...]
@@ -171,6 +220,19 @@ class Closure:
 
 @dataclass(frozen=True, slots=True)
 class Withdrawal:
+    """A team that left the league, and what happens to its games.
+
+    Parameters
+    ----------
+    team : str
+        The team's name.
+    policy : {"void_all", "keep_played"}
+        ``void_all``: every game of the team leaves the table, played ones included;
+        ``keep_played``: its played games stand, the rest are cancelled.
+    where : str, optional
+        The entry's location in the events file (for example ``"postponed[1]"``), for messages.
+    """
+
     team: str
     policy: WithdrawalPolicy
     where: str = ""
@@ -180,6 +242,21 @@ class Withdrawal:
 class MovedGame:
     """A game the organizer already moved by hand to ``date`` at ``start`` (local clock), on
     ``court`` when given. ``planned_date`` picks the meeting when the pair meets more than once.
+
+    Parameters
+    ----------
+    home, away : str
+        The two teams, as planned.
+    date : datetime.date
+        The new day.
+    start : datetime.time
+        The new kick-off, on the league's clock.
+    court : str or None, optional
+        The court; None to keep the planned one.
+    planned_date : datetime.date or None, optional
+        The planned date, to pick the meeting when the pair meets more than once.
+    where : str, optional
+        The entry's location in the events file (for example ``"postponed[1]"``), for messages.
     """
 
     home: str
@@ -196,6 +273,27 @@ class Events:
     """Everything that happened since the plan, checked against the league.
 
     ``where`` fields hold the entry's location in the file (``postponed[1]``) for messages.
+
+    Parameters
+    ----------
+    league : str
+        The league's name, as in the events file.
+    season : str
+        The season's label.
+    played_through : datetime.date
+        Every game dated on or before it is history.
+    postponed : tuple of Postponed, optional
+        Games that did not take place.
+    unavailable : tuple of TeamUnavailable, optional
+        Days teams cannot play from now on.
+    closed : tuple of Closure, optional
+        Venues or courts closed on some days.
+    withdrawn : tuple of Withdrawal, optional
+        Teams that left the league.
+    moved : tuple of MovedGame, optional
+        Games already moved by hand.
+    source : str or None, optional
+        The events file, for messages.
     """
 
     league: str
@@ -209,6 +307,13 @@ class Events:
     source: str | None = None
 
     def withdrawn_teams(self) -> frozenset[str]:
+        """The names of the teams that withdrew.
+
+        Returns
+        -------
+        frozenset of str
+            The team names of :attr:`withdrawn`.
+        """
         return frozenset(w.team for w in self.withdrawn)
 
 
@@ -271,7 +376,27 @@ def load_events(path: str | Path, league: League) -> Events:
 
 
 def parse_events(data: dict[str, Any], league: League, *, source: str = "<events>") -> Events:
-    """Check already-parsed events data (see :func:`load_events`)."""
+    """Check already-parsed events data (see :func:`load_events`).
+
+    Parameters
+    ----------
+    data : dict
+        The parsed events file (TOML or YAML tables).
+    league : League
+        The league the events belong to: names and dates are checked against it.
+    source : str, optional
+        The file name for messages.
+
+    Returns
+    -------
+    Events
+        The checked events, ranges of dates expanded.
+
+    Raises
+    ------
+    ConfigError
+        Every problem of shape or reference found, each located by its field path.
+    """
     try:
         doc = EventsFile.model_validate(dict(data))
     except ValidationError as exc:
@@ -288,7 +413,21 @@ def parse_events(data: dict[str, Any], league: League, *, source: str = "<events
 
 
 def season_window(league: League) -> tuple[dt.date, dt.date | None]:
-    """First and last day of the league's season (the last is ``None`` when open-ended)."""
+    """First and last day of the league's season (the last is ``None`` when open-ended).
+
+    Parameters
+    ----------
+    league : League
+        The league.
+
+    Returns
+    -------
+    first : datetime.date
+        The earliest of ``calendar.start`` and the listed dates.
+    last : datetime.date or None
+        The latest of ``calendar.end``, the listed dates and the reserve dates; None when the
+        calendar has an open end.
+    """
     cal = league.calendar
     first = min([cal.start, *cal.dates]) if cal.dates else cal.start
     last = cal.end

@@ -60,6 +60,22 @@ RawList = Annotated[list[dict[str, Any]], BeforeValidator(_as_list)]
 
 
 class FederationSection(Section):
+    """The ``[federation]`` section: what every division shares (shape only).
+
+    Parameters
+    ----------
+    name : str
+        The federation's name.
+    season : str
+        The season's label; a number is kept as text.
+    timezone : str
+        The IANA time zone of every division.
+    seed : int, optional
+        The default seed of the divisions (0 or more).
+    solve_seconds : float, optional
+        The default planning time of a division, in seconds (more than 0, at most a day).
+    """
+
     name: Text
     season: Annotated[Text, BeforeValidator(_season)]
     timezone: Text
@@ -68,6 +84,25 @@ class FederationSection(Section):
 
 
 class DivisionSection(Section):
+    """One ``[[divisions]]`` entry (shape only; its league sections are checked as a league).
+
+    Parameters
+    ----------
+    name : str
+        The division's name.
+    format, calendar, rules, priorities : dict, optional
+        The division's sections, with the options of a league file (``calendar`` overrides the
+        shared calendar option by option).
+    teams : list of dict, optional
+        The division's teams, as a league file's ``[[teams]]``.
+    venues : list of str, optional
+        Names of shared venues the division plays at when "home" means a side.
+    seed : int or None, optional
+        The division's seed; None for the federation's.
+    solve_seconds : float or None, optional
+        The division's planning time in seconds; None for the federation's.
+    """
+
     name: Text
     format: Raw = Field(default_factory=dict)
     calendar: Raw = Field(default_factory=dict)
@@ -80,17 +115,62 @@ class DivisionSection(Section):
 
 
 class SharedGroundSection(Section):
+    """One ``[[shared_grounds]]`` entry (shape only).
+
+    Parameters
+    ----------
+    teams : list of str
+        Two or more teams of different divisions on one ground.
+    pattern : {"apart", "complementary"}, optional
+        ``"apart"``: never two of them at home on one day; ``"complementary"``: in addition the
+        first team is at home when the other is away, as far as the calendars allow.
+    name : str or None, optional
+        A name for messages; made from the teams when left out.
+    """
+
     teams: Annotated[TextList, Field(min_length=2)]
     pattern: Annotated[str, BeforeValidator(_choice(PATTERNS, "pattern"))] = "apart"
     name: Text | None = None
 
 
 class GroupSection(Section):
+    """One ``[[player_groups]]`` or ``[[clubs]]`` entry (shape only).
+
+    Parameters
+    ----------
+    name : str
+        The group's or club's name.
+    teams : list of str
+        Its teams (one or more), in any divisions.
+    """
+
     name: Text
     teams: Annotated[TextList, Field(min_length=1)]
 
 
 class FederationFile(Section):
+    """A whole federation file (shape only; see the module docstring for the sections).
+
+    Parameters
+    ----------
+    federation : FederationSection
+        The shared name, season, time zone and defaults.
+    calendar : dict
+        The shared calendar, with the options of a league's ``[calendar]``.
+    venues : list of dict, optional
+        Every ground and hall, with the options of a league's ``[[venues]]``.
+    divisions : list of DivisionSection
+        One or more divisions.
+    teams : list of dict, optional
+        Teams listed outside their division (with a ``division`` option).
+    shared_grounds : list of SharedGroundSection, optional
+        Grounds shared across divisions.
+    player_groups : list of GroupSection, optional
+        Teams whose players overlap.
+    clubs : list of GroupSection, optional
+        Clubs and their teams.
+    """
+
     federation: FederationSection
     calendar: Raw
     venues: RawList = Field(default_factory=list)
@@ -108,7 +188,15 @@ class FederationFile(Section):
 
 @dataclass(frozen=True)
 class Division:
-    """One division: its name and the league it is (teams, format, rules, calendar, venues)."""
+    """One division: its name and the league it is (teams, format, rules, calendar, venues).
+
+    Parameters
+    ----------
+    name : str
+        The division's name, unique in the federation.
+    league : League
+        The division as an ordinary league, checked by the league parser.
+    """
 
     name: str
     league: League
@@ -116,7 +204,18 @@ class Division:
 
 @dataclass(frozen=True, slots=True)
 class SharedGround:
-    """Teams of different divisions on one ground; ``pattern`` as in the module docstring."""
+    """Teams of different divisions on one ground; ``pattern`` as in the module docstring.
+
+    Parameters
+    ----------
+    name : str
+        A name for messages.
+    teams : tuple of str
+        Two or more teams of different divisions.
+    pattern : {"apart", "complementary"}, optional
+        ``"apart"``: never two of them at home on one day; ``"complementary"``: in addition the
+        first team is at home when the other is away, as far as the calendars allow.
+    """
 
     name: str
     teams: tuple[str, ...]
@@ -125,7 +224,15 @@ class SharedGround:
 
 @dataclass(frozen=True, slots=True)
 class PlayerGroup:
-    """Teams whose players overlap: no two of them play at the same time."""
+    """Teams whose players overlap: no two of them play at the same time.
+
+    Parameters
+    ----------
+    name : str
+        The group's name.
+    teams : tuple of str
+        Its teams, in any divisions.
+    """
 
     name: str
     teams: tuple[str, ...]
@@ -133,7 +240,15 @@ class PlayerGroup:
 
 @dataclass(frozen=True, slots=True)
 class Club:
-    """A club and its teams (in any divisions)."""
+    """A club and its teams (in any divisions).
+
+    Parameters
+    ----------
+    name : str
+        The club's name.
+    teams : tuple of str
+        Its teams, in any divisions.
+    """
 
     name: str
     teams: tuple[str, ...]
@@ -141,7 +256,33 @@ class Club:
 
 @dataclass(frozen=True)
 class Federation:
-    """Several divisions on one calendar with the rules across them."""
+    """Several divisions on one calendar with the rules across them.
+
+    See ``docs/divisions.md``.
+
+    Parameters
+    ----------
+    name : str
+        The federation's name.
+    season : str
+        The season's label.
+    timezone : str
+        The IANA time zone of every division.
+    divisions : tuple of Division
+        The divisions, in the file's order.
+    venues : tuple of Venue
+        Every ground and hall of the federation.
+    shared_grounds : tuple of SharedGround, optional
+        Grounds shared across divisions.
+    player_groups : tuple of PlayerGroup, optional
+        Teams whose players overlap.
+    clubs : tuple of Club, optional
+        Clubs and their teams.
+    seed : int, optional
+        The federation's default seed.
+    source : str or None, optional
+        The file it was read from, for messages.
+    """
 
     name: str
     season: str
@@ -156,17 +297,50 @@ class Federation:
 
     @property
     def division_names(self) -> tuple[str, ...]:
+        """The division names, in the file's order."""
         return tuple(d.name for d in self.divisions)
 
     def division(self, name: str) -> Division:
-        """The division called ``name`` (``KeyError`` when there is none)."""
+        """The division called ``name`` (``KeyError`` when there is none).
+
+        Parameters
+        ----------
+        name : str
+            The exact division name.
+
+        Returns
+        -------
+        Division
+            The division.
+
+        Raises
+        ------
+        KeyError
+            For a name that is not a division.
+        """
         for d in self.divisions:
             if d.name == name:
                 return d
         raise KeyError(name)
 
     def division_of(self, team: str) -> str:
-        """The name of the division ``team`` plays in (``KeyError`` when none)."""
+        """The name of the division ``team`` plays in (``KeyError`` when none).
+
+        Parameters
+        ----------
+        team : str
+            A team name.
+
+        Returns
+        -------
+        str
+            The division's name.
+
+        Raises
+        ------
+        KeyError
+            For a team that plays in no division.
+        """
         for d in self.divisions:
             if team in d.league.team_names:
                 return d.name
@@ -177,7 +351,23 @@ class Federation:
 
 
 def is_federation_data(data: Mapping[str, Any]) -> bool:
-    """True when parsed file data is a federation file (it has a ``[federation]`` section)."""
+    """True when parsed file data is a federation file (it has a ``[federation]`` section).
+
+    Parameters
+    ----------
+    data : Mapping
+        Parsed file data (anything; a non-mapping is not a federation).
+
+    Returns
+    -------
+    bool
+        True for a federation file.
+
+    Examples
+    --------
+    >>> is_federation_data({"federation": {"name": "Weald FA"}}), is_federation_data({"league": {}})
+    (True, False)
+    """
     return isinstance(data, Mapping) and FEDERATION_KEY in data
 
 
@@ -185,6 +375,16 @@ def is_federation_file(path: str | Path) -> bool:
     """True when the file at ``path`` is a federation file: a top-level ``[federation]`` table
     (TOML) or ``federation:`` key (YAML). A cheap look at the text, before any parsing; a file
     that cannot be read is not one (reading it as a league then reports the problem).
+
+    Parameters
+    ----------
+    path : str or pathlib.Path
+        The file.
+
+    Returns
+    -------
+    bool
+        True when the text has a top-level ``federation`` table or key.
 
     Examples
     --------
@@ -234,6 +434,18 @@ def load_federation(path: str | Path) -> Federation:
 
 def parse_federation(data: Mapping[str, Any], source: str = "<federation>") -> Federation:
     """Check and build a federation from already-parsed file data (see :func:`load_federation`).
+
+    Parameters
+    ----------
+    data : Mapping
+        The parsed federation file.
+    source : str, optional
+        The file name for messages.
+
+    Returns
+    -------
+    Federation
+        The checked federation; each division a checked league.
 
     Raises
     ------

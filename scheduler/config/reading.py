@@ -31,9 +31,37 @@ YAML_SUFFIXES = (".yaml", ".yml")
 
 
 class LeagueYamlLoader(yaml.SafeLoader):
-    """PyYAML safe loader with YAML 1.2 style booleans and numbers and no duplicate keys."""
+    """PyYAML safe loader with YAML 1.2 style booleans and numbers and no duplicate keys.
+
+    Used as ``yaml.load(text, Loader=LeagueYamlLoader)``, so that YAML and TOML league files
+    read alike.
+
+    Parameters
+    ----------
+    stream : str or file
+        The YAML text or an open text file (as for any PyYAML loader).
+    """
 
     def construct_mapping(self, node: yaml.MappingNode, deep: bool = False) -> dict[Any, Any]:
+        """A mapping of the file, refusing keys that appear twice or are not plain values.
+
+        Parameters
+        ----------
+        node : yaml.MappingNode
+            The mapping's node.
+        deep : bool, optional
+            Build nested values at once (PyYAML's own option).
+
+        Returns
+        -------
+        dict
+            The mapping.
+
+        Raises
+        ------
+        yaml.constructor.ConstructorError
+            For a duplicate or unhashable key, with its place in the text.
+        """
         seen: set[Any] = set()
         for key_node, _value_node in node.value:
             key = self.construct_object(key_node, deep=True)
@@ -99,7 +127,35 @@ def _yaml_problem(exc: yaml.YAMLError) -> str:
 
 
 def parse_text(text: str, kind: str, *, path: str = "<config>") -> dict[str, Any]:
-    """Parse league text of ``kind`` ``"toml"`` or ``"yaml"`` into a dict."""
+    """Parse league text of ``kind`` ``"toml"`` or ``"yaml"`` into a dict.
+
+    Parameters
+    ----------
+    text : str
+        The file's text.
+    kind : {"toml", "yaml"}
+        The file's syntax (:func:`file_kind`).
+    path : str, optional
+        The file name for messages.
+
+    Returns
+    -------
+    dict
+        The file's top-level tables.
+
+    Raises
+    ------
+    ConfigError
+        For empty text, a syntax error (with its line), too deep nesting, several YAML
+        documents, or data that is not a table of sections.
+
+    Examples
+    --------
+    >>> parse_text('league = { name = "Weald Cup" }', "toml")
+    {'league': {'name': 'Weald Cup'}}
+    >>> parse_text("league: {name: Weald Cup}", "yaml")
+    {'league': {'name': 'Weald Cup'}}
+    """
     if not text.strip():
         raise ConfigError(["the file is empty; start from `scheduler new`"], path=path)
     depth = nesting_depth(text, comments=True)
@@ -152,7 +208,28 @@ def parse_text(text: str, kind: str, *, path: str = "<config>") -> dict[str, Any
 
 
 def file_kind(path: Path) -> str:
-    """``"toml"`` or ``"yaml"`` by the file name's ending; a ConfigError otherwise."""
+    """``"toml"`` or ``"yaml"`` by the file name's ending; a ConfigError otherwise.
+
+    Parameters
+    ----------
+    path : pathlib.Path
+        The file.
+
+    Returns
+    -------
+    str
+        ``"toml"`` for ``.toml``, ``"yaml"`` for ``.yaml`` and ``.yml`` (any case).
+
+    Raises
+    ------
+    ConfigError
+        For any other ending.
+
+    Examples
+    --------
+    >>> file_kind(Path("league.YML"))
+    'yaml'
+    """
     suffix = path.suffix.lower()
     if suffix in TOML_SUFFIXES:
         return "toml"
@@ -166,7 +243,23 @@ def file_kind(path: Path) -> str:
 
 
 def read_file(path: str | Path) -> dict[str, Any]:
-    """Read and parse a league file; every failure is a :class:`ConfigError`."""
+    """Read and parse a league file; every failure is a :class:`ConfigError`.
+
+    Parameters
+    ----------
+    path : str or pathlib.Path
+        A ``.toml``, ``.yaml`` or ``.yml`` file, UTF-8 (a byte order mark is allowed).
+
+    Returns
+    -------
+    dict
+        The file's top-level tables (:func:`parse_text`).
+
+    Raises
+    ------
+    ConfigError
+        When the file is missing, too large, not UTF-8, cannot be read or cannot be parsed.
+    """
     p = Path(path)
     kind = file_kind(p)
     try:

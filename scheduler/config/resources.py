@@ -30,12 +30,26 @@ def _folder(installed: str, checkout: str) -> Path:
 
 
 def templates_dir() -> Path:
-    """Folder of the shipped templates (starter config, report template)."""
+    """Folder of the shipped templates (starter config, report template).
+
+    Returns
+    -------
+    pathlib.Path
+        The folder inside the installed package, or the repository's ``templates`` folder when
+        running from a checkout.
+    """
     return _folder("_templates", "templates")
 
 
 def samples_dir() -> Path:
-    """Folder of the shipped sample leagues."""
+    """Folder of the shipped sample leagues.
+
+    Returns
+    -------
+    pathlib.Path
+        The folder inside the installed package, or the repository's ``sample_leagues`` folder
+        when running from a checkout.
+    """
     return _folder("_samples", "sample_leagues")
 
 
@@ -66,6 +80,11 @@ def template_path(name: str) -> Path:
     ------
     InputError
         When no such file is shipped (with a did-you-mean suggestion).
+
+    Examples
+    --------
+    >>> template_path("league.toml").name
+    'league.toml'
     """
     return _shipped(templates_dir(), name, "template")
 
@@ -89,6 +108,11 @@ def sample_path(name: str) -> Path:
     ------
     InputError
         When no such file is shipped (with a did-you-mean suggestion).
+
+    Examples
+    --------
+    >>> sample_path("club_day").name
+    'club_day.toml'
     """
     folder = samples_dir()
     if not Path(name).suffix:
@@ -117,6 +141,11 @@ def sample_names() -> tuple[str, ...]:
     -------
     tuple of str
         The file names.
+
+    Examples
+    --------
+    >>> "county_double.toml" in sample_names()
+    True
     """
     folder = samples_dir()
     if not folder.is_dir():

@@ -62,7 +62,24 @@ def _fail(text: str) -> PydanticCustomError:
 
 
 def show(value: Any) -> str:
-    """A short, readable rendering of a value from the file, for error messages."""
+    """A short, readable rendering of a value from the file, for error messages.
+
+    Parameters
+    ----------
+    value : Any
+        A value as parsed from the file.
+
+    Returns
+    -------
+    str
+        Text quoted with long text cut at 60 characters, ``true``/``false``, ISO dates and times,
+        or a word for a section, a list or null.
+
+    Examples
+    --------
+    >>> show("North Hal"), show(True), show([1, 2])
+    ("'North Hal'", 'true', 'a list [...]')
+    """
     if isinstance(value, str):
         text = repr(value) if len(value) <= 60 else repr(value[:57] + "...")
     elif isinstance(value, bool):
@@ -83,7 +100,28 @@ def show(value: Any) -> str:
 
 
 def suggestion(word: str, options: list[str] | tuple[str, ...]) -> str:
-    """``"; did you mean 'x'?"`` for the closest option (difflib), or ``""``."""
+    """``"; did you mean 'x'?"`` for the closest option (difflib), or ``""``.
+
+    Parameters
+    ----------
+    word : str
+        The unknown name as written.
+    options : list or tuple of str
+        The known names.
+
+    Returns
+    -------
+    str
+        ``"; did you mean '<name>'?"`` for the closest known name (a case-only difference first,
+        then the closest by :func:`difflib.get_close_matches` with cutoff 0.6), or ``""``.
+
+    Examples
+    --------
+    >>> suggestion("North Hal", ["North Hall", "South Hall"])
+    "; did you mean 'North Hall'?"
+    >>> suggestion("Zzz", ["North Hall"])
+    ''
+    """
     if not isinstance(word, str) or not options:
         return ""
     lowered = {o.lower(): o for o in options}
@@ -359,7 +397,27 @@ class PrioritiesSection(Section):
 
 
 class LeagueFile(Section):
-    """A whole league file."""
+    """A whole league file.
+
+    Every option is explained in ``templates/league.toml``.
+
+    Parameters
+    ----------
+    league : LeagueSection
+        The ``[league]`` section: name, season, time zone, seed, planning time.
+    format : FormatSection, optional
+        The ``[format]`` section.
+    calendar : CalendarSection
+        The ``[calendar]`` section.
+    venues : list of VenueSection, optional
+        The ``[[venues]]`` entries.
+    teams : list of TeamSection
+        The ``[[teams]]`` entries (at least two).
+    rules : RulesSection, optional
+        The ``[rules]`` section.
+    priorities : PrioritiesSection, optional
+        The ``[priorities]`` section.
+    """
 
     league: LeagueSection
     format: FormatSection = FormatSection()

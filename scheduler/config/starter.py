@@ -93,6 +93,18 @@ def write_new_text_file(path: str | Path, text: str) -> Path:
     overwrites an existing file. Used for every file the tool creates for the organizer to
     edit (the starter league, a league built from a team list).
 
+    Parameters
+    ----------
+    path : str or pathlib.Path
+        The new file; its folder must exist.
+    text : str
+        The contents.
+
+    Returns
+    -------
+    pathlib.Path
+        The path written.
+
     Raises
     ------
     OutputError

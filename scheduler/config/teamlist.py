@@ -52,7 +52,23 @@ START = dt.date(2027, 9, 4)
 
 @dataclass(frozen=True, slots=True)
 class TeamRow:
-    """One team of the sheet; ``row`` is the spreadsheet row number (header = 1)."""
+    """One team of the sheet; ``row`` is the spreadsheet row number (header = 1).
+
+    Parameters
+    ----------
+    row : int
+        The spreadsheet row number (header = 1), for messages.
+    name : str
+        The team's name.
+    code : str or None
+        Its short code; None when the sheet gives none.
+    division : str or None
+        Its division; None for a sheet of one league.
+    home_ground : str or None
+        The name of its home ground; None when it has none.
+    unavailable : tuple of str
+        The dates it cannot play, checked ISO text: single dates or ``"first..last"`` ranges.
+    """
 
     row: int
     name: str
@@ -64,7 +80,17 @@ class TeamRow:
 
 @dataclass(frozen=True)
 class TeamList:
-    """The teams of a sheet, and where they came from (``source``, ``sheet``)."""
+    """The teams of a sheet, and where they came from (``source``, ``sheet``).
+
+    Parameters
+    ----------
+    source : str
+        The sheet's file.
+    sheet : str
+        The worksheet's name; ``"CSV"`` for a CSV file.
+    rows : tuple of TeamRow
+        The teams, in the sheet's order.
+    """
 
     source: str
     sheet: str
@@ -72,6 +98,7 @@ class TeamList:
 
     @property
     def divisions(self) -> tuple[str, ...]:
+        """The division names, in order of first appearance (empty for one league)."""
         return tuple(dict.fromkeys(r.division for r in self.rows if r.division))
 
 
@@ -279,6 +306,18 @@ def team_list_toml(teams: TeamList, name: str = "My League") -> str:
 
     The calendar is a placeholder (Saturdays from :data:`START`) to edit; teams, codes, home
     grounds (as venues) and unavailable dates come from the sheet.
+
+    Parameters
+    ----------
+    teams : TeamList
+        The teams read from a sheet.
+    name : str, optional
+        The league's (or federation's) name.
+
+    Returns
+    -------
+    str
+        The TOML text: a league file for one division, a federation file for several.
     """
     grounds = list(dict.fromkeys(r.home_ground for r in teams.rows if r.home_ground))
     divisions = teams.divisions
@@ -328,6 +367,18 @@ def team_list_toml(teams: TeamList, name: str = "My League") -> str:
 
 def build_from_team_list(path: str | Path, name: str = "My League") -> str:
     """Read a team list and return the checked file text (league or federation).
+
+    Parameters
+    ----------
+    path : str or pathlib.Path
+        The team list: an ``.xlsx`` workbook or a ``.csv`` file.
+    name : str, optional
+        The league's (or federation's) name.
+
+    Returns
+    -------
+    str
+        The TOML text, already checked by the league (or federation) parser.
 
     Raises
     ------
@@ -379,6 +430,18 @@ def _sheet_problem(problem: str, teams: TeamList) -> str:
 def write_new_file(target: str | Path, text: str) -> Path:
     """Write ``text`` to ``target`` atomically; never overwrites an existing file
     (:func:`scheduler.config.starter.write_new_text_file`).
+
+    Parameters
+    ----------
+    target : str or pathlib.Path
+        The new file; its folder must exist.
+    text : str
+        The contents.
+
+    Returns
+    -------
+    pathlib.Path
+        The path written.
 
     Raises
     ------

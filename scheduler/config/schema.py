@@ -293,6 +293,24 @@ class Section(BaseModel):
 
 
 class LeagueSection(Section):
+    """The ``[league]`` section (shape only; ``templates/league.toml`` explains every option).
+
+    Parameters
+    ----------
+    name : str
+        The league's name (not empty).
+    season : str
+        The season's label; a number such as ``2027`` is kept as the text ``"2027"``.
+    timezone : str
+        The IANA time zone name (checked against :mod:`zoneinfo` later).
+    seed : int, optional
+        The planner's seed, 0 or more.
+    time_limit_seconds : float or None, optional
+        How long the planner may search, in seconds (more than 0, at most a day).
+    solve_seconds : float or None, optional
+        The old name of ``time_limit_seconds``, still read.
+    """
+
     name: Text
     season: Annotated[Text, BeforeValidator(_season)]
     timezone: Text
@@ -303,6 +321,20 @@ class LeagueSection(Section):
 
 
 class FormatSection(Section):
+    """The ``[format]`` section (shape only).
+
+    Parameters
+    ----------
+    legs : int, optional
+        How many times every pair meets, 1 to 12.
+    scheme : str, optional
+        ``mirrored``, ``french``, ``english``, ``inverted`` or ``free``.
+    home_meaning : str, optional
+        ``venue`` (the home team hosts) or ``side`` (home names a side or colour).
+    side_labels : list of str, optional
+        The names of the home and the away side (two entries).
+    """
+
     legs: Annotated[int, Field(ge=1, le=12)] = 1
     scheme: Annotated[str, BeforeValidator(_choice(SCHEMES, "scheme"))] = "mirrored"
     home_meaning: Annotated[str, BeforeValidator(_choice(HOME_MEANINGS, "meaning of home"))] = (
@@ -314,11 +346,45 @@ class FormatSection(Section):
 
 
 class HolidaysSection(Section):
+    """The ``calendar.holidays`` table (shape only).
+
+    Parameters
+    ----------
+    country : str
+        The country code, for example ``"GB"`` (checked against the ``holidays`` package later).
+    subdivision : str or None, optional
+        A region of the country, for example ``"ENG"``; None for the national holidays.
+    """
+
     country: Text
     subdivision: Text | None = None
 
 
 class CalendarSection(Section):
+    """The ``[calendar]`` section (shape only; dates inside the season are checked later).
+
+    Parameters
+    ----------
+    start, end : datetime.date or None, optional
+        The first and the last day games may be played on.
+    weekdays : list of int, optional
+        Match weekdays, 0 = Monday; names such as ``"sat"`` and a single weekday are accepted.
+    rounds_per_day : int, optional
+        Rounds on one match day, 1 to 64.
+    kickoff : datetime.time, optional
+        The kick-off when a venue lists no slots; ``"19:30"`` text is accepted.
+    game_minutes : int, optional
+        Length of a game in minutes, 1 to 1440.
+    excluded : list of tuple of datetime.date, optional
+        Days with no games; each entry one date or the days of a ``"first..last"`` range.
+    reserve_dates : list of tuple of datetime.date, optional
+        Days kept free for re-planned games; same forms as ``excluded``.
+    dates : list of tuple of datetime.date, optional
+        The match days, listed, instead of start, end and weekdays.
+    holidays : HolidaysSection or None, optional
+        Whose public holidays are left out; None for none.
+    """
+
     start: Date | None = None
     end: Date | None = None
     weekdays: Annotated[list[Weekday], BeforeValidator(_scalar_or_list), Field(min_length=1)] = [5]
@@ -332,6 +398,24 @@ class CalendarSection(Section):
 
 
 class VenueSection(Section):
+    """One ``[[venues]]`` entry (shape only).
+
+    Parameters
+    ----------
+    name : str
+        The venue's name.
+    courts : list of str, optional
+        Its courts, pitches or tables (at least one).
+    slots : list of datetime.time, optional
+        Its kick-off times; empty to use ``calendar.kickoff``.
+    address : str or None, optional
+        Postal address for calendar entries.
+    latitude : float or None, optional
+        Degrees north, -90 to 90; give both coordinates or neither.
+    longitude : float or None, optional
+        Degrees east, -180 to 180.
+    """
+
     name: Text
     courts: Annotated[TextList, Field(min_length=1)] = ["Main"]
     slots: Annotated[list[Clock], BeforeValidator(_as_list)] = []
@@ -349,17 +433,53 @@ class VenueSection(Section):
 
 
 class TeamSection(Section):
+    """One ``[[teams]]`` entry (shape only).
+
+    Parameters
+    ----------
+    name : str
+        The team's name.
+    code : str or None, optional
+        A short code of up to 8 letters or digits; made from the name when left out.
+    home_venue : str or None, optional
+        The name of its home venue (needed when home means a venue).
+    """
+
     name: Text
     code: Text | None = None
     home_venue: Text | None = None
 
 
 class TeamDatesSection(Section):
+    """One ``[[rules.unavailable]]`` or ``[[rules.no_home_games]]`` entry (shape only).
+
+    Parameters
+    ----------
+    team : str
+        The team's name.
+    dates : list of tuple of datetime.date
+        One or more dates or ``"first..last"`` ranges.
+    """
+
     team: Text
     dates: Annotated[DateList, Field(min_length=1)]
 
 
 class FixedSection(Section):
+    """One ``[[rules.fixed]]`` entry (shape only).
+
+    Parameters
+    ----------
+    home, away : str
+        The two teams; ``home`` hosts unless ``any_venue``.
+    round : int or None, optional
+        The round, 1 or more; give a round or a date.
+    date : datetime.date or None, optional
+        The date; give a round or a date.
+    any_venue : bool, optional
+        Let the planner choose who is at home.
+    """
+
     home: Text
     away: Text
     round: Annotated[int, Field(ge=1)] | None = None
@@ -368,6 +488,28 @@ class FixedSection(Section):
 
 
 class RulesSection(Section):
+    """The ``[rules]`` section (shape only; ``docs/rules.md`` describes each rule).
+
+    Parameters
+    ----------
+    max_home_run, max_away_run : int or None, optional
+        At most this many home (away) games in a row, 1 or more; None: no limit.
+    no_breaks_first, no_breaks_last : int, optional
+        Rounds at the start (end) of the season without breaks, 0 or more.
+    min_rest_days : int or None, optional
+        Days without a game between two games of a team, 0 or more.
+    min_separation : int or None, optional
+        Rounds between two meetings of a pair, 0 or more.
+    shared_grounds : list of list of str, optional
+        Groups of teams never at home on the same day.
+    unavailable : list of TeamDatesSection, optional
+        Days teams cannot play.
+    no_home_games : list of TeamDatesSection, optional
+        Days teams cannot play at home.
+    fixed : list of FixedSection, optional
+        Games fixed to a round or a date.
+    """
+
     max_home_run: Count | None = None
     max_away_run: Count | None = None
     no_breaks_first: NonNegative = 0
@@ -381,6 +523,16 @@ class RulesSection(Section):
 
 
 class PrioritiesSection(Section):
+    """The ``[priorities]`` section (shape only): weights, or an order of the goals.
+
+    Parameters
+    ----------
+    mixing, breaks, venue_balance, slot_balance, carry_over : int or None, optional
+        The weight of each soft goal, 0 or more; None to keep the default.
+    order : list of str or None, optional
+        The goals from most to least important, instead of weights.
+    """
+
     mixing: NonNegative | None = None
     breaks: NonNegative | None = None
     venue_balance: NonNegative | None = None

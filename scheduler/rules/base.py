@@ -28,7 +28,25 @@ if TYPE_CHECKING:  # the season type only: rules import nothing above config at 
 @dataclass(frozen=True, slots=True)
 class Violation:
     """One place where a rule is broken: by whom (``team``; empty for the league as a whole),
-    where (``round`` 1-based and/or ``date``) and what happened, in plain words."""
+    where (``round`` 1-based and/or ``date``) and what happened, in plain words.
+
+    Parameters
+    ----------
+    team : str
+        The team that breaks the rule; empty when the league as a whole does.
+    round : int or None
+        The round, 1-based over the season; None when only the date is known.
+    date : datetime.date or None
+        The day; None for a season without dates.
+    what : str
+        What happened, in plain words.
+
+    Examples
+    --------
+    >>> from datetime import date
+    >>> Violation("Ashby", 2, date(2026, 9, 12), "3 home games in a row").to_dict()
+    {'team': 'Ashby', 'round': 2, 'date': '2026-09-12', 'what': '3 home games in a row'}
+    """
 
     team: str
     round: int | None
@@ -36,13 +54,45 @@ class Violation:
     what: str
 
     def to_dict(self) -> dict:
+        """The violation as JSON-ready values (the date as ISO text).
+
+        Returns
+        -------
+        dict
+            The keys ``team``, ``round``, ``date`` and ``what``.
+        """
         return {"team": self.team, "round": self.round,
                 "date": self.date.isoformat() if self.date else None, "what": self.what}
 
 
 @dataclass(frozen=True, slots=True)
 class RuleCheck:
-    """The result of checking one of the league's hard rules on a season."""
+    """The result of checking one of the league's hard rules on a season.
+
+    Parameters
+    ----------
+    rule : str
+        The rule's key (:attr:`HardRule.key`).
+    statement : str
+        The rule as the league states it.
+    kept : bool
+        True when the season has no violation of the rule.
+    violations : tuple of Violation
+        Every violation found, in the rule's order (empty when kept).
+
+    Examples
+    --------
+    >>> from scheduler.config.model import League, Rules, Team
+    >>> from scheduler.season import Fixture, Season
+    >>> league = League("Weald Cup", "2026", "UTC", (Team("Ashby", "ASH"), Team("Brook", "BRO")),
+    ...                 (), rules=Rules(max_home_run=1))
+    >>> season = Season("Weald Cup", "2026", ("Ashby", "Brook"),
+    ...                 (Fixture(1, "Ashby", "Brook"), Fixture(2, "Ashby", "Brook")))
+    >>> from scheduler.rules import check_rules
+    >>> result = check_rules(league, season)[0]
+    >>> result.kept, result.to_dict()["violations"][0]["round"]
+    (False, 2)
+    """
 
     rule: str
     statement: str
@@ -50,16 +100,52 @@ class RuleCheck:
     violations: tuple[Violation, ...]
 
     def to_dict(self) -> dict:
+        """The check as JSON-ready values.
+
+        Returns
+        -------
+        dict
+            The keys ``rule``, ``statement``, ``kept`` and ``violations`` (a list of
+            :meth:`Violation.to_dict`).
+        """
         return {"rule": self.rule, "statement": self.statement, "kept": self.kept,
                 "violations": [v.to_dict() for v in self.violations]}
 
 
-class TimetableView(Protocol):
+# A protocol is never instantiated: its (*args, **kwargs) signature is typing's, not ours.
+class TimetableView(Protocol):  # numpydoc ignore=PR01
     """The small, named interface of the timetable model that rules use to add constraints.
 
     Rounds ``s`` are 0-based season rounds; ``v`` is a vertex of the factorization; ``t`` a team
     index (``league.teams`` order) among the teams the rules name (:meth:`HardRule.named_teams`).
     Literals are CP-SAT boolean variables.
+
+    Examples
+    --------
+    A rule states each constraint under the assumption literal of its statement, so that when
+    the rules cannot all hold the solver names the statements involved. A stand-in for one
+    vertex and three rounds:
+
+    >>> from ortools.sat.python import cp_model
+    >>> class OneVertex:
+    ...     def __init__(self):
+    ...         self.cp = cp_model.CpModel()
+    ...         self.home = [self.cp.new_bool_var(f"home_round_{s}") for s in range(3)]
+    ...     def switch(self, statement):
+    ...         return self.cp.new_bool_var(statement)
+    ...     def vertex_home(self, s, v):
+    ...         return self.home[s]
+    >>> view = OneVertex()
+    >>> rule_on = view.switch("at most 1 home game in a row")
+    >>> for s in range(2):
+    ...     _ = view.cp.add_bool_or([view.vertex_home(s, 0).negated(),
+    ...                              view.vertex_home(s + 1, 0).negated()]).only_enforce_if(rule_on)
+    >>> _ = view.cp.add(sum(view.home) == 2)
+    >>> view.cp.add_assumptions([rule_on])
+    >>> solver = cp_model.CpSolver()
+    >>> solver.parameters.num_workers = 1
+    >>> solver.status_name(solver.solve(view.cp)), [solver.value(h) for h in view.home]
+    ('OPTIMAL', [1, 0, 1])
     """
 
     cp: Any
@@ -81,38 +167,174 @@ class TimetableView(Protocol):
     team_index: dict[str, int]
 
     def switch(self, statement: str) -> Any:
-        """The assumption literal of a statement (one per distinct statement)."""
+        """The assumption literal of a statement (one per distinct statement).
+
+        Parameters
+        ----------
+        statement : str
+            The statement in the organizer's words; the same text gives the same literal.
+
+        Returns
+        -------
+        Any
+            The literal: the rule's constraints hold when it is true.
+        """
 
     def impossible(self, statement: str) -> None:
-        """Record a statement that cannot hold at all (its literal is forced false)."""
+        """Record a statement that cannot hold at all (its literal is forced false).
+
+        Parameters
+        ----------
+        statement : str
+            The statement in the organizer's words.
+        """
 
     def vertex_home(self, s: int, v: int) -> Any:
-        """Literal: vertex ``v`` plays at home in round ``s`` (false at its bye)."""
+        """Literal: vertex ``v`` plays at home in round ``s`` (false at its bye).
+
+        Parameters
+        ----------
+        s : int
+            The season round, 0-based.
+        v : int
+            The vertex.
+
+        Returns
+        -------
+        Any
+            The literal.
+        """
 
     def vertex_plays(self, s: int, v: int) -> Any:
-        """Literal: vertex ``v`` plays in round ``s`` (``None`` in an even league: always)."""
+        """Literal: vertex ``v`` plays in round ``s`` (``None`` in an even league: always).
+
+        Parameters
+        ----------
+        s : int
+            The season round, 0-based.
+        v : int
+            The vertex.
+
+        Returns
+        -------
+        Any or None
+            The literal; None when the vertex plays in every round.
+        """
 
     def break_at(self, s: int, v: int) -> Any:
-        """Literal: vertex ``v`` has a break in round ``s`` (``s >= 1``)."""
+        """Literal: vertex ``v`` has a break in round ``s`` (``s >= 1``).
+
+        Parameters
+        ----------
+        s : int
+            The season round, 0-based, 1 or more.
+        v : int
+            The vertex.
+
+        Returns
+        -------
+        Any
+            The literal.
+        """
 
     def team_home(self, t: int, s: int) -> Any:
-        """Literal: named team ``t`` plays at home in round ``s``."""
+        """Literal: named team ``t`` plays at home in round ``s``.
+
+        Parameters
+        ----------
+        t : int
+            The team's index in ``league.teams``; the team must be named by a rule.
+        s : int
+            The season round, 0-based.
+
+        Returns
+        -------
+        Any
+            The literal.
+        """
 
     def team_bye(self, t: int, s: int) -> Any:
-        """Literal: named team ``t`` sits out round ``s`` (odd leagues)."""
+        """Literal: named team ``t`` sits out round ``s`` (odd leagues).
+
+        Parameters
+        ----------
+        t : int
+            The team's index in ``league.teams``; the team must be named by a rule.
+        s : int
+            The season round, 0-based.
+
+        Returns
+        -------
+        Any
+            The literal.
+        """
 
     def teams_meet(self, a: int, b: int, s: int, literal: Any) -> None:
-        """Under ``literal``: named teams ``a`` and ``b`` meet in round ``s``."""
+        """Under ``literal``: named teams ``a`` and ``b`` meet in round ``s``.
+
+        Parameters
+        ----------
+        a, b : int
+            The two teams' indices in ``league.teams``; both must be named by a rule.
+        s : int
+            The season round, 0-based.
+        literal : Any
+            The enforcement literal (usually a statement's :meth:`switch`).
+        """
 
     def position_in_leg(self, leg: int, k: int) -> Any:
-        """Linear expression: the 0-based position of factorization round ``k`` in ``leg``."""
+        """Linear expression: the 0-based position of factorization round ``k`` in ``leg``.
+
+        Parameters
+        ----------
+        leg : int
+            The leg, 0-based.
+        k : int
+            The round of the factorization (leg 1's pairings), 0-based.
+
+        Returns
+        -------
+        Any
+            A CP-SAT linear expression with values ``0 .. rounds_per_leg - 1``.
+        """
 
     def home_venue_groups(self) -> list[tuple[str, int, list[int]]]:
-        """``(venue, capacity, team indices)`` of venues whose capacity a match day could exceed."""
+        """``(venue, capacity, team indices)`` of venues whose capacity a match day could exceed.
+
+        Returns
+        -------
+        list of tuple of (str, int, list of int)
+            One entry per such venue.
+        """
 
 
 class HardRule:
-    """Base of every hard rule (subclasses are frozen dataclasses without fields)."""
+    """Base of every hard rule (subclasses are frozen dataclasses without fields).
+
+    A rule never changes the league; it reads the configuration fields it names
+    (:attr:`config_fields`), adds its constraints to the timetable model, and checks any season
+    from its fixtures alone. The rules of the package are listed in :data:`scheduler.rules.RULES`;
+    ``docs/rules.md`` defines each of them.
+
+    References
+    ----------
+    ``docs/rules.md``.
+
+    Examples
+    --------
+    >>> from scheduler.config.model import League, Rules, Team
+    >>> from scheduler.season import Fixture, Season
+    >>> league = League("Weald Cup", "2026", "UTC", (Team("Ashby", "ASH"), Team("Brook", "BRO")),
+    ...                 (), rules=Rules(max_home_run=1))
+    >>> season = Season("Weald Cup", "2026", ("Ashby", "Brook"),
+    ...                 (Fixture(1, "Ashby", "Brook"), Fixture(2, "Ashby", "Brook")))
+    >>> from scheduler.rules import RULES
+    >>> runs = next(rule for rule in RULES if rule.key == "runs")
+    >>> runs.is_on(league), runs.statement(league)
+    (True, 'at most 1 home games in a row')
+    >>> [(v.team, v.round) for v in runs.check(league, season)]
+    [('Ashby', 2)]
+    """
 
     key: ClassVar[str]
     """Short identifier used in reports (``rest_days``, ``runs``...)."""
@@ -122,33 +344,115 @@ class HardRule:
     """The configuration fields it reads (``rules.min_rest_days``...)."""
 
     def is_on(self, league: League) -> bool:
-        """True when the league uses the rule."""
+        """True when the league uses the rule.
+
+        Parameters
+        ----------
+        league : League
+            The league.
+
+        Returns
+        -------
+        bool
+            Whether any of the rule's configuration fields switches it on.
+        """
         raise NotImplementedError
 
     def statement(self, league: League) -> str:
-        """The rule as the league states it, for checklists."""
+        """The rule as the league states it, for checklists.
+
+        Parameters
+        ----------
+        league : League
+            The league (only a league that uses the rule is asked).
+
+        Returns
+        -------
+        str
+            The statement, for example ``"at most 2 home games in a row"``.
+        """
         raise NotImplementedError
 
     def named_teams(self, league: League) -> set[str]:
-        """Teams the constraints refer to by name (the model places them on vertices)."""
+        """Teams the constraints refer to by name (the model places them on vertices).
+
+        Parameters
+        ----------
+        league : League
+            The league.
+
+        Returns
+        -------
+        set of str
+            Team names; empty (the default) for rules that treat every team alike.
+        """
         return set()
 
     def add_constraints(self, model: TimetableView) -> None:
-        """Add the rule's constraints, each statement under its own assumption literal."""
+        """Add the rule's constraints, each statement under its own assumption literal.
+
+        Parameters
+        ----------
+        model : TimetableView
+            The timetable model being built; ``model.league`` is the league.
+        """
         raise NotImplementedError
 
     def check(self, league: League, season: Season) -> tuple[Violation, ...]:
-        """Every violation of the rule in ``season`` (empty: kept)."""
+        """Every violation of the rule in ``season`` (empty: kept).
+
+        Independent of the balancer: it reads only the fixtures (rounds, dates, venues) of the
+        season, so it checks schedules read from elsewhere too.
+
+        Parameters
+        ----------
+        league : League
+            The league whose rule is checked.
+        season : Season
+            Any season: planned, or read by ``audit``.
+
+        Returns
+        -------
+        tuple of Violation
+            The violations, in the rule's own order.
+        """
         raise NotImplementedError
 
     def relaxation(self, league: League, statement: str) -> str | None:
         """The smallest change of the configuration that removes ``statement`` from a clash,
-        when there is an obvious one (else ``None``)."""
+        when there is an obvious one (else ``None``).
+
+        Parameters
+        ----------
+        league : League
+            The league.
+        statement : str
+            One of the rule's statements (as given to :meth:`TimetableView.switch`).
+
+        Returns
+        -------
+        str or None
+            The change in the organizer's words, for example ``"raise max_home_run to 3"``; None
+            (the default) when no single obvious change exists.
+        """
         return None
 
 
 def team_games(season: Season, team: str) -> list[Fixture]:
-    """The team's fixtures in round order (the order its games are played)."""
+    """The team's fixtures in round order (the order its games are played).
+
+    Parameters
+    ----------
+    season : Season
+        The season.
+    team : str
+        A team name.
+
+    Returns
+    -------
+    list of Fixture
+        Every game of the team, home or away, sorted by round.
+    """
     return sorted((f for f in season.fixtures if team in (f.home, f.away)),
                   key=lambda f: f.round)
 

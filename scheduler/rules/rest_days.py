@@ -95,6 +95,19 @@ def longest_rested_chain(value: int, days: Sequence[date]) -> int:
     """How many of ``days`` (sorted) can be used in order with at least ``value`` free days
     between consecutive ones (greedy from the first day).
 
+    Parameters
+    ----------
+    value : int
+        The least number of free days between two used days.
+    days : sequence of datetime.date
+        Match days in date order.
+
+    Returns
+    -------
+    int
+        The length of the greedy chain, which is the longest possible (taking the earliest day
+        that fits never shortens the chain).
+
     Examples
     --------
     >>> from datetime import date, timedelta
@@ -111,7 +124,22 @@ def longest_rested_chain(value: int, days: Sequence[date]) -> int:
 
 def calendar_clash(value: int, days: Sequence[date], rounds: int) -> str | None:
     """Why the calendar alone makes ``min_rest_days = value`` impossible for ``rounds`` match
-    days, or ``None`` when it does not."""
+    days, or ``None`` when it does not.
+
+    Parameters
+    ----------
+    value : int
+        ``rules.min_rest_days``.
+    days : sequence of datetime.date
+        The match days, in date order.
+    rounds : int
+        How many match days a team needs to play its games.
+
+    Returns
+    -------
+    str or None
+        The reason in the organizer's words, with the fix; None when the calendar leaves room.
+    """
     fit = longest_rested_chain(value, days)
     if fit >= rounds or not days:
         return None

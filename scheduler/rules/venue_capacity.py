@@ -17,7 +17,19 @@ if TYPE_CHECKING:  # the season type only: rules import nothing above config at 
 
 def capacity_groups(league: League) -> list[tuple[str, int, list[int]]]:
     """``(venue, capacity, team indices)`` of the venues whose capacity a match day could
-    exceed (more home teams times rounds a day than the venue has room for)."""
+    exceed (more home teams times rounds a day than the venue has room for).
+
+    Parameters
+    ----------
+    league : League
+        The league; only a league where home means a venue has such groups.
+
+    Returns
+    -------
+    list of tuple of (str, int, list of int)
+        ``(venue, capacity, team indices)``; capacity is games per match day
+        (:attr:`scheduler.config.model.Venue.capacity`), the indices in ``league.teams`` order.
+    """
     if league.format.home_meaning != "venue":
         return []
     per_day = max(1, league.calendar.rounds_per_day)

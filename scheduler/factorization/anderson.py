@@ -42,6 +42,15 @@ def anderson_rounds(n: int) -> tuple[tuple[tuple[int, int], ...], ...]:
     ------
     ValueError
         When ``n`` is not twice an odd number.
+
+    Examples
+    --------
+    >>> rounds = anderson_rounds(6)
+    >>> rounds[0]
+    ((0, 3), (1, 2), (4, 5))
+    >>> from scheduler.factorization.verify import verify_rounds
+    >>> verify_rounds(6, rounds).perfect  # p = 3 is prime (Anderson 1973)
+    True
     """
     if n < 2 or n % 4 != 2:
         raise ValueError(f"GA_n needs n = 2p with p odd, got {n}")

@@ -271,7 +271,18 @@ def canonical_form(rounds: Sequence[Sequence[tuple[int, int]]], n: int) -> tuple
 @dataclass(frozen=True)
 class FamilyMember:
     """One perfect one-factorization of the family, with where it came from and its invariant
-    or canonical form (``key``)."""
+    or canonical form (``key``).
+
+    Parameters
+    ----------
+    factorization : Factorization
+        A perfect one-factorization of ``K_n``.
+    origin : str
+        The construction or search that gave it, in words.
+    key : bytes or tuple of int
+        Its canonical form (exact isomorphism class) up to :data:`CANONICAL_MAX_N`, above that
+        its invariant (:func:`triple_profile`); two members never share a key.
+    """
 
     factorization: Factorization
     origin: str

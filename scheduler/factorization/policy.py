@@ -60,7 +60,23 @@ PERFECT_SEARCH_SHARE = 0.5
 
 
 def is_prime(k: int) -> bool:
-    """Trial division (``k`` is at most about 1000 here)."""
+    """Trial division (``k`` is at most about 1000 here).
+
+    Parameters
+    ----------
+    k : int
+        The number to test.
+
+    Returns
+    -------
+    bool
+        True for a prime; False for ``k < 2``.
+
+    Examples
+    --------
+    >>> [k for k in range(20) if is_prime(k)]
+    [2, 3, 5, 7, 11, 13, 17, 19]
+    """
     if k < 2:
         return False
     return all(k % d for d in range(2, math.isqrt(k) + 1))
@@ -82,6 +98,13 @@ def known_perfect(n: int) -> tuple[bool, str]:
     References
     ----------
     ``docs/one-factorizations.md`` §1.
+
+    Examples
+    --------
+    >>> known_perfect(10)
+    (True, 'n / 2 = 5 is prime (GA_n, Anderson 1973)')
+    >>> known_perfect(64)[0]
+    False
     """
     if n <= 2:
         return True, "K_2 has a single round"

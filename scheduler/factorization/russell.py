@@ -49,7 +49,34 @@ def _times_x(value: int, k: int, poly: int) -> int:
 def primitive_powers(n: int) -> tuple[int, tuple[int, ...]]:
     """``(poly, powers)``: the lexicographically first ``poly`` (lower coefficients of a monic
     polynomial of degree ``k``, ``n = 2^k``) for which ``x`` is primitive, and the codes of
-    ``α^0, ..., α^(n-2)`` with ``α = x``."""
+    ``α^0, ..., α^(n-2)`` with ``α = x``.
+
+    Parameters
+    ----------
+    n : int
+        A power of two, ``4 <= n <= 1024``.
+
+    Returns
+    -------
+    poly : int
+        The bits of the polynomial's lower coefficients (``x^k`` left out).
+    powers : tuple of int
+        The codes of ``α^0 .. α^(n-2)``, all non-zero codes once each.
+
+    Raises
+    ------
+    InputError
+        When ``n`` is not such a power of two.
+
+    References
+    ----------
+    R. Lidl and H. Niederreiter, *Finite Fields*, Cambridge University Press 1997, ch. 2.
+
+    Examples
+    --------
+    >>> primitive_powers(8)  # x^3 + x^2 + 1
+    (5, (1, 2, 4, 5, 7, 3, 6))
+    """
     k = _degree(n)
     for bits in itertools.product((0, 1), repeat=k):
         poly = sum(b << t for t, b in enumerate(bits))
@@ -71,7 +98,32 @@ def primitive_powers(n: int) -> tuple[int, tuple[int, ...]]:
 
 
 def russell_rounds(n: int) -> tuple[tuple[tuple[int, int], ...], ...]:
-    """The rounds in their playing order ``r = 0..n-2`` (module docstring)."""
+    """The rounds in their playing order ``r = 0..n-2`` (module docstring).
+
+    Parameters
+    ----------
+    n : int
+        A power of two, ``4 <= n <= 1024``.
+
+    Returns
+    -------
+    tuple of Round
+        The ``n - 1`` rounds, in the order that gives every off-diagonal carry-over 1.
+
+    Raises
+    ------
+    InputError
+        When ``n`` is not such a power of two.
+
+    References
+    ----------
+    K. G. Russell, Biometrika 67 (1980) 127-131; ``docs/carry-over.md``.
+
+    Examples
+    --------
+    >>> russell_rounds(4)
+    (((0, 1), (2, 3)), ((0, 2), (1, 3)), ((0, 3), (1, 2)))
+    """
     _poly, powers = primitive_powers(n)
     rounds = []
     for power in powers:

@@ -49,7 +49,20 @@ _BLOCK = 1 << 16
 
 @dataclass(frozen=True, slots=True)
 class ImperfectPair:
-    """Two rounds whose union is not one Hamiltonian cycle; ``cycles`` are its cycle lengths."""
+    """Two rounds whose union is not one Hamiltonian cycle; ``cycles`` are its cycle lengths.
+
+    Parameters
+    ----------
+    first, second : int
+        The two rounds, 0-based, ``first < second``.
+    cycles : tuple of int
+        The lengths of the cycles their union splits into, sorted; they sum to ``n``.
+
+    Examples
+    --------
+    >>> ImperfectPair(0, 3, (4, 6)).label
+    '4+6'
+    """
 
     first: int
     second: int
@@ -69,6 +82,36 @@ class Certificate:
     exactly one round. ``perfect_pairs`` counts pairs of rounds whose union is a Hamiltonian
     cycle, out of ``pairs`` = C(n-1, 2). ``imperfect`` lists (some of) the other pairs with their
     cycle lengths; ``imperfect_total`` is their full number.
+
+    Parameters
+    ----------
+    n : int
+        The order.
+    valid : bool
+        Whether the rounds form a one-factorization of ``K_n``.
+    perfect_pairs : int
+        Pairs of rounds whose union is a Hamiltonian cycle.
+    pairs : int
+        All pairs of rounds, ``C(n-1, 2)``.
+    problems : tuple of str, optional
+        Why the rounds are not valid (empty when valid).
+    imperfect : tuple of ImperfectPair, optional
+        Some of the other pairs, with their cycle lengths.
+    imperfect_total : int, optional
+        How many pairs are not perfect.
+
+    References
+    ----------
+    ``docs/one-factorizations.md``.
+
+    Examples
+    --------
+    >>> from scheduler.factorization import circle_factorization
+    >>> cert = circle_factorization(10).certificate(max_listed=1)
+    >>> cert.valid, cert.perfect, cert.perfect_pairs, cert.pairs, cert.imperfect_total
+    (True, False, 27, 36, 9)
+    >>> cert.imperfect[0]
+    ImperfectPair(first=0, second=3, cycles=(4, 6))
     """
 
     n: int
@@ -81,6 +124,7 @@ class Certificate:
 
     @property
     def perfect(self) -> bool:
+        """True when the factorization is valid and every pair of rounds is a Hamiltonian cycle."""
         return self.valid and self.perfect_pairs == self.pairs
 
 
@@ -169,6 +213,25 @@ def half_cycle_lengths(partners: np.ndarray, first: np.ndarray, second: np.ndarr
     ``partners`` is an ``(R, n)`` table of partner maps (every row a fixed-point-free
     involution). The union of rounds ``i`` and ``j`` is Hamiltonian exactly when the value is
     ``n / 2``. Vectorised orbit walk of vertex 0 under ``p_j ∘ p_i`` (see module docstring).
+
+    Parameters
+    ----------
+    partners : numpy.ndarray
+        The ``(R, n)`` partner table.
+    first, second : numpy.ndarray
+        Round indices of the pairs to measure, of equal length.
+
+    Returns
+    -------
+    numpy.ndarray
+        int64, one value per pair: half the length of the cycle of the union through vertex 0.
+
+    Examples
+    --------
+    >>> from scheduler.factorization import circle_factorization
+    >>> table = partner_table(10, circle_factorization(10).rounds)
+    >>> half_cycle_lengths(table, np.array([0, 0]), np.array([1, 3])).tolist()
+    [5, 2]
     """
     n = partners.shape[1]
     flat = np.ascontiguousarray(partners).ravel()
@@ -194,7 +257,27 @@ def half_cycle_lengths(partners: np.ndarray, first: np.ndarray, second: np.ndarr
 
 
 def union_cycle_lengths(partners: np.ndarray, i: int, j: int) -> tuple[int, ...]:
-    """Sorted cycle lengths of the union of rounds ``i`` and ``j`` (partner-table form)."""
+    """Sorted cycle lengths of the union of rounds ``i`` and ``j`` (partner-table form).
+
+    Parameters
+    ----------
+    partners : numpy.ndarray
+        The ``(R, n)`` partner table.
+    i, j : int
+        The two rounds, 0-based.
+
+    Returns
+    -------
+    tuple of int
+        The cycle lengths, sorted; ``(n,)`` exactly when the two rounds mix perfectly.
+
+    Examples
+    --------
+    >>> from scheduler.factorization import circle_factorization
+    >>> table = partner_table(10, circle_factorization(10).rounds)
+    >>> union_cycle_lengths(table, 0, 1), union_cycle_lengths(table, 0, 3)
+    ((10,), (4, 6))
+    """
     pi = partners[i].tolist()
     pj = partners[j].tolist()
     n = len(pi)
@@ -349,7 +432,30 @@ imperfect_total=0)
 
 def partner_table(n: int, rounds: Iterable) -> np.ndarray:
     """``(R, n)`` array of partners; raises :class:`InputError` unless every round is a perfect
-    matching of ``0..n-1``."""
+    matching of ``0..n-1``.
+
+    Parameters
+    ----------
+    n : int
+        The even order.
+    rounds : iterable
+        The rounds, each a sequence of games ``(a, b)`` on ``0..n-1``.
+
+    Returns
+    -------
+    numpy.ndarray
+        ``partners[r, v]``: the vertex ``v`` meets in round ``r``.
+
+    Raises
+    ------
+    InputError
+        When a round is not a perfect matching of ``0..n-1`` (all such rounds are named).
+
+    Examples
+    --------
+    >>> partner_table(4, [((0, 1), (2, 3))]).tolist()
+    [[1, 0, 3, 2]]
+    """
     problems = _Problems()
     matchings = []
     for r, games in enumerate(rounds):
@@ -383,6 +489,12 @@ def hamiltonian_pair_matrix(n: int, rounds: Iterable) -> np.ndarray:
     ------
     InputError
         When a round is not a perfect matching of ``0..n-1``.
+
+    Examples
+    --------
+    >>> from scheduler.factorization import circle_factorization
+    >>> hamiltonian_pair_matrix(4, circle_factorization(4).rounds).astype(int).tolist()
+    [[0, 1, 1], [1, 0, 1], [1, 1, 0]]
     """
     if isinstance(n, bool) or not isinstance(n, int | np.integer) or n < 2 or n % 2:
         raise InputError(f"the order n must be an even integer >= 2, got {n!r}", location="n")

@@ -38,6 +38,38 @@ class AbelianGroup:
     ``name`` is a readable description that :func:`group_from_name` parses back
     (``"Z_15"``, ``"Z_3 x Z_5"``, ``"GF(27)"``). ``add[a, b]``, ``neg[a]`` and ``mul[a, b]`` are
     numpy tables.
+
+    Build groups with :func:`cyclic`, :func:`product`, :func:`galois_field` or
+    :func:`group_from_name`, which check the order and make consistent tables.
+
+    Parameters
+    ----------
+    name : str
+        The readable name, parsed back by :func:`group_from_name`.
+    moduli : tuple of int
+        The digit moduli of the codes (mixed radix, first modulus least significant).
+    kind : {"cyclic", "product", "field"}
+        The construction, which decides the multiplication.
+    add : numpy.ndarray
+        ``(m, m)`` table of the group operation.
+    neg : numpy.ndarray
+        ``(m,)`` table of inverses.
+    mul : numpy.ndarray
+        ``(m, m)`` table of the ring multiplication (for multipliers).
+    poly : tuple of int, optional
+        For a field: the lower coefficients ``c_0 .. c_{k-1}`` of its primitive polynomial.
+
+    References
+    ----------
+    R. Lidl and H. Niederreiter, *Finite Fields*, Cambridge University Press 1997, ch. 2.
+
+    Examples
+    --------
+    >>> group = product(3, 5)
+    >>> group.name, group.order, group.label(7)
+    ('Z_3 x Z_5', 15, '(1,2)')
+    >>> group.label(int(group.add[7, 7]))  # (1,2) + (1,2) = (2,4)
+    '(2,4)'
     """
 
     name: str
@@ -50,10 +82,22 @@ class AbelianGroup:
 
     @property
     def order(self) -> int:
+        """The number of elements ``m``."""
         return int(self.add.shape[0])
 
     def digits(self, x: int) -> tuple[int, ...]:
-        """Mixed-radix digits of code ``x`` (first modulus least significant)."""
+        """Mixed-radix digits of code ``x`` (first modulus least significant).
+
+        Parameters
+        ----------
+        x : int
+            An element's code, ``0 <= x < m``.
+
+        Returns
+        -------
+        tuple of int
+            One digit per modulus.
+        """
         out = []
         for mod in self.moduli:
             out.append(x % mod)
@@ -61,25 +105,84 @@ class AbelianGroup:
         return tuple(out)
 
     def label(self, x: int) -> str:
-        """Human-readable element: ``"7"`` in ``Z_m``, ``"(1,2)"`` in a product or a field."""
+        """Human-readable element: ``"7"`` in ``Z_m``, ``"(1,2)"`` in a product or a field.
+
+        Parameters
+        ----------
+        x : int
+            An element's code.
+
+        Returns
+        -------
+        str
+            The label, as used in certificates and reports.
+        """
         if self.kind == "cyclic":
             return str(x)
         return "(" + ",".join(str(d) for d in self.digits(x)) + ")"
 
     def units(self) -> list[int]:
-        """Codes ``u`` for which ``x -> u x`` is a bijection (the ring's units)."""
+        """Codes ``u`` for which ``x -> u x`` is a bijection (the ring's units).
+
+        Returns
+        -------
+        list of int
+            The units' codes, increasing.
+
+        Examples
+        --------
+        >>> cyclic(9).units()
+        [1, 2, 4, 5, 7, 8]
+        """
         m = self.order
         return [u for u in range(m) if len(np.unique(self.mul[u])) == m]
 
     def multiplier(self, u: int) -> np.ndarray:
-        """The automorphism ``x -> u x`` as a permutation array; ``u`` must be a unit."""
+        """The automorphism ``x -> u x`` as a permutation array; ``u`` must be a unit.
+
+        Parameters
+        ----------
+        u : int
+            A unit's code.
+
+        Returns
+        -------
+        numpy.ndarray
+            ``perm[x]`` is the code of ``u x``.
+
+        Raises
+        ------
+        InputError
+            When ``u`` is not a unit.
+
+        Examples
+        --------
+        >>> cyclic(7).multiplier(3).tolist()
+        [0, 3, 6, 2, 5, 1, 4]
+        """
         perm = self.mul[u].copy()
         if len(np.unique(perm)) != self.order:
             raise InputError(f"{self.label(u)} is not a unit of {self.name}", location="multiplier")
         return perm
 
     def element_order_mul(self, u: int) -> int:
-        """Multiplicative order of the unit ``u``."""
+        """Multiplicative order of the unit ``u``.
+
+        Parameters
+        ----------
+        u : int
+            A unit's code.
+
+        Returns
+        -------
+        int
+            The least ``k >= 1`` with ``u^k = 1``.
+
+        Examples
+        --------
+        >>> cyclic(7).element_order_mul(3), cyclic(7).element_order_mul(2)
+        (6, 3)
+        """
         k, x = 1, u
         while x != 1 % self.order:
             x = int(self.mul[x, u])
@@ -132,6 +235,12 @@ def cyclic(m: int) -> AbelianGroup:
     ------
     InputError
         For an even or non-positive order, or one above :data:`MAX_ORDER`.
+
+    Examples
+    --------
+    >>> group = cyclic(7)
+    >>> group.name, group.order, int(group.add[5, 4]), int(group.mul[3, 5])
+    ('Z_7', 7, 2, 1)
     """
     _check_order(m)
     add, neg, mul = _mixed_tables((m,))
@@ -155,6 +264,13 @@ def product(*moduli: int) -> AbelianGroup:
     ------
     InputError
         For no modulus, or an order :func:`cyclic` refuses.
+
+    Examples
+    --------
+    >>> product(3, 3).name, product(3, 3).order
+    ('Z_3 x Z_3', 9)
+    >>> product(5).name  # one factor: the cyclic group
+    'Z_5'
     """
     if not moduli:
         raise InputError("a product group needs at least one factor", location="group")
@@ -169,7 +285,23 @@ def product(*moduli: int) -> AbelianGroup:
 
 
 def prime_power(q: int) -> tuple[int, int] | None:
-    """``(p, k)`` with ``q = p^k`` and ``p`` prime, or ``None``."""
+    """``(p, k)`` with ``q = p^k`` and ``p`` prime, or ``None``.
+
+    Parameters
+    ----------
+    q : int
+        The number to factor.
+
+    Returns
+    -------
+    tuple of (int, int) or None
+        ``(p, k)``; None when ``q`` is not a prime power (or is below 2).
+
+    Examples
+    --------
+    >>> prime_power(27), prime_power(15)
+    ((3, 3), None)
+    """
     if q < 2:
         return None
     p = next(d for d in range(2, q + 1) if q % d == 0)
@@ -226,6 +358,14 @@ def galois_field(q: int) -> AbelianGroup:
     References
     ----------
     R. Lidl and H. Niederreiter, *Finite Fields*, Cambridge University Press, ch. 2 and 9.
+
+    Examples
+    --------
+    >>> field = galois_field(9)
+    >>> field.name, field.poly  # x^2 + x + 2 is primitive over Z_3
+    ('GF(9)', (2, 1))
+    >>> sorted(field.units()) == list(range(1, 9))  # a field: every non-zero element is a unit
+    True
     """
     _check_order(q)
     pk = prime_power(q)

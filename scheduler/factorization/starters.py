@@ -110,7 +110,24 @@ def starter_partner(group: AbelianGroup, starter: Sequence[Sequence[int]]) -> np
 
 
 def difference_representatives(group: AbelianGroup) -> list[int]:
-    """One element from each pair ``{g, -g}``, ``g != 0`` (the smaller code)."""
+    """One element from each pair ``{g, -g}``, ``g != 0`` (the smaller code).
+
+    Parameters
+    ----------
+    group : AbelianGroup
+        The abelian group of odd order ``m``.
+
+    Returns
+    -------
+    list of int
+        The ``(m - 1) / 2`` representatives, increasing.
+
+    Examples
+    --------
+    >>> from scheduler.factorization.groups import cyclic
+    >>> difference_representatives(cyclic(7))
+    [1, 2, 3]
+    """
     return [g for g in range(1, group.order) if g < int(group.neg[g])]
 
 
@@ -153,6 +170,14 @@ def good_differences(group: AbelianGroup, starter: Sequence[Sequence[int]]) -> l
     ------
     InputError
         When ``starter`` is not a starter of ``group``.
+
+    Examples
+    --------
+    >>> from scheduler.factorization.groups import cyclic
+    >>> good_differences(cyclic(7), [(1, 6), (2, 5), (3, 4)])
+    [1, 2, 3]
+    >>> good_differences(cyclic(7), [(1, 3), (2, 6), (4, 5)])
+    []
     """
     pairs = _require_starter(group, starter)
     p0 = starter_partner(group, pairs)
@@ -173,6 +198,19 @@ def is_perfect_starter(group: AbelianGroup, starter: Sequence[Sequence[int]]) ->
     -------
     bool
         False also for anything that is not a starter.
+
+    References
+    ----------
+    ``docs/one-factorizations.md``; J. H. Dinitz and D. R. Stinson, "Room squares and related
+    designs", in *Contemporary Design Theory*, Wiley 1992 (starters; from memory).
+
+    Examples
+    --------
+    >>> from scheduler.factorization.groups import cyclic
+    >>> is_perfect_starter(cyclic(7), [(1, 6), (2, 5), (3, 4)])  # the patterned starter
+    True
+    >>> is_perfect_starter(cyclic(7), [(1, 3), (2, 6), (4, 5)])
+    False
     """
     if not is_starter(group, starter):
         return False
@@ -240,6 +278,13 @@ def starter_factorization(
     ------
     InputError
         When ``starter`` is not a starter of ``group``.
+
+    Examples
+    --------
+    >>> from scheduler.factorization.groups import cyclic
+    >>> gk8 = starter_factorization(cyclic(7), [(1, 6), (2, 5), (3, 4)])
+    >>> gk8.n, gk8.rounds[0], gk8.certificate().perfect
+    (8, ((0, 7), (1, 6), (2, 5), (3, 4)), True)
     """
     pairs = _require_starter(group, starter)
     info = {"construction": "starter", "group": group.name, "starter": [list(p) for p in pairs]}
@@ -267,6 +312,12 @@ def enumerate_starters(group: AbelianGroup) -> Iterator[tuple[Pair, ...]]:
     ------
     tuple of Pair
         Each starter, its pairs sorted.
+
+    Examples
+    --------
+    >>> from scheduler.factorization.groups import cyclic
+    >>> list(enumerate_starters(cyclic(7)))
+    [((1, 3), (2, 6), (4, 5)), ((1, 5), (2, 3), (4, 6)), ((1, 6), (2, 5), (3, 4))]
     """
     m = group.order
     add = group.add.tolist()

@@ -38,7 +38,31 @@ from scheduler.factorization.starters import starter_factorization
 
 @dataclass(frozen=True)
 class CatalogueEntry:
-    """One perfect starter: ``n = |group| + 1``."""
+    """One perfect starter: ``n = |group| + 1``.
+
+    Parameters
+    ----------
+    n : int
+        The order of ``K_n``.
+    group : str
+        The group's name, as :func:`~scheduler.factorization.groups.group_from_name` reads it.
+    starter : tuple of (int, int)
+        The starter's pairs of group codes.
+    multiplier : int
+        The unit the starter is invariant under (1: none).
+    seed, runs, nodes : int
+        The search that found it: its seed, restarts and nodes, so that it can be found again.
+    found_by : str
+        Who or what found it.
+    note : str, optional
+        Anything else worth knowing.
+
+    Examples
+    --------
+    >>> entry = next(e for e in catalogue_entries() if e.n == 16)
+    >>> entry.group, len(entry.starter)
+    ('Z_15', 7)
+    """
 
     n: int
     group: str
@@ -57,7 +81,29 @@ class StructuredEntry:
     ``(p, q, r)`` for ``Z_p ⋊_r Z_q``; ``automorphism`` the ``(s, c)`` it is invariant under),
     ``"even_starter"`` (in ``Z_{n-2}``; ``group`` and ``automorphism`` empty) or
     ``"twin_starter"`` (over ``Z_2 × H``, ``H`` named by ``base``, invariant under the
-    ``multiplier``)."""
+    ``multiplier``).
+
+    Parameters
+    ----------
+    n : int
+        The order of ``K_n``.
+    kind : {"group_starter", "even_starter", "twin_starter"}
+        The construction.
+    group : tuple of int
+        ``(p, q, r)`` of ``Z_p ⋊_r Z_q`` for a group starter; empty otherwise.
+    automorphism : tuple of int
+        ``(s, c)`` of the automorphism a group starter is invariant under; empty otherwise.
+    starter : tuple of (int, int)
+        The starter's pairs of codes.
+    seed, runs, nodes : int
+        The search that found it: its seed, restarts and nodes.
+    found_by : str
+        Who or what found it.
+    base : str, optional
+        For a twin starter: the name of ``H``.
+    multiplier : int, optional
+        For a twin starter: the unit it is invariant under (1: none).
+    """
 
     n: int
     kind: str
@@ -101,7 +147,19 @@ def structured_entries() -> tuple[StructuredEntry, ...]:
 
 
 def structured_factorization(entry: StructuredEntry) -> Factorization:
-    """The factorization of one structured entry (kernels are not imported)."""
+    """The factorization of one structured entry (kernels are not imported).
+
+    Parameters
+    ----------
+    entry : StructuredEntry
+        A catalogue entry.
+
+    Returns
+    -------
+    Factorization
+        The induced one-factorization, its method and source naming the catalogue and the
+        search that found it.
+    """
     found = f"found by {entry.found_by}, seed {entry.seed}"
     details = {"catalogue": True, "seed": entry.seed, "runs": entry.runs, "nodes": entry.nodes}
     if entry.kind == "group_starter":
@@ -167,17 +225,45 @@ def catalogue_orders() -> tuple[int, ...]:
     -------
     tuple of int
         The orders.
+
+    Examples
+    --------
+    >>> 16 in catalogue_orders()
+    True
     """
     return tuple(sorted({e.n for e in catalogue_entries()} | {e.n for e in structured_entries()}))
 
 
 def catalogue_entry(n: int) -> CatalogueEntry | None:
-    """The first catalogue entry for ``K_n``, or ``None``."""
+    """The first catalogue entry for ``K_n``, or ``None``.
+
+    Parameters
+    ----------
+    n : int
+        The order.
+
+    Returns
+    -------
+    CatalogueEntry or None
+        The first plain starter entry of that order; None when there is none.
+    """
     return next((e for e in catalogue_entries() if e.n == n), None)
 
 
 def entry_factorization(entry: CatalogueEntry) -> Factorization:
-    """The starter-induced factorization of one catalogue entry."""
+    """The starter-induced factorization of one catalogue entry.
+
+    Parameters
+    ----------
+    entry : CatalogueEntry
+        A catalogue entry.
+
+    Returns
+    -------
+    Factorization
+        The induced one-factorization, its method and source naming the catalogue and the
+        search that found it.
+    """
     group = group_from_name(entry.group)
     mult = f", multiplier {entry.multiplier}" if entry.multiplier != 1 else ""
     return starter_factorization(
@@ -211,6 +297,14 @@ def catalogue_factorization(n: int) -> Factorization | None:
     -------
     Factorization or None
         The catalogue's factorization of ``K_n``, or ``None`` when it has none.
+
+    Examples
+    --------
+    >>> f = catalogue_factorization(16)
+    >>> f.method, f.certificate().perfect
+    ('starter in Z_15 (catalogue)', True)
+    >>> catalogue_factorization(6) is None
+    True
     """
     entry = catalogue_entry(n)
     if entry:

@@ -56,7 +56,21 @@ CLOCK_SLACK = 5.0
 
 
 def clock_cap(budget: float) -> float:
-    """The wall-clock safety cap for a phase with ``budget`` nominal seconds."""
+    """The wall-clock safety cap for a phase with ``budget`` nominal seconds.
+
+    The searches stop on a fixed amount of work (so results do not depend on the machine);
+    the clock only guards against a machine far slower than the one the work was measured on.
+
+    Parameters
+    ----------
+    budget : float
+        The phase's nominal seconds.
+
+    Returns
+    -------
+    float
+        ``CLOCK_CAP * budget + CLOCK_SLACK`` seconds.
+    """
     return CLOCK_CAP * budget + CLOCK_SLACK
 
 STARTER_SHARE = 0.4
@@ -79,7 +93,18 @@ def _score(f: Factorization) -> int:
 
 
 def baselines(n: int) -> list[Factorization]:
-    """GK_n, and GA_n when ``n = 2p`` with ``p`` odd."""
+    """GK_n, and GA_n when ``n = 2p`` with ``p`` odd.
+
+    Parameters
+    ----------
+    n : int
+        The even order.
+
+    Returns
+    -------
+    list of Factorization
+        The closed constructions the searches must beat (GK_n first).
+    """
     out = [circle_factorization(n)]
     if n % 4 == 2 and n >= 6:
         out.append(anderson_factorization(n))
@@ -96,7 +121,21 @@ def _multiplier_priority(order: int) -> tuple[int, int]:
 
 
 def starter_candidates(m: int, limit: int = 12) -> list[tuple[AbelianGroup, int, int]]:
-    """``(group, multiplier, multiplier order)`` to try for near-perfect starters of order m."""
+    """``(group, multiplier, multiplier order)`` to try for near-perfect starters of order m.
+
+    Parameters
+    ----------
+    m : int
+        The odd group order ``n - 1``.
+    limit : int, optional
+        At most this many multiplier spaces, the most promising first; the plain space
+        (multiplier 1) of every group is always added.
+
+    Returns
+    -------
+    list of tuple of (AbelianGroup, int, int)
+        The spaces to search.
+    """
     out = []
     groups = groups_of_order(m)
     for gi, group in enumerate(groups):
@@ -140,6 +179,32 @@ def near_perfect_starter(
     more than ``beat`` perfect pairs are kept. ``prune=False`` keeps every space to the end
     (the right choice when only a perfect starter is wanted). Returns the
     best starter-induced factorization (or ``None``) and a record of the search.
+
+    Parameters
+    ----------
+    n : int
+        The even order.
+    seed : int, optional
+        The search's seed.
+    work : int, optional
+        The amount of work (kernel nodes times classes) to spend.
+    beat : int, optional
+        Keep only starters with more perfect pairs than this.
+    clock_limit : float or None, optional
+        Seconds after which the search stops anyway (:func:`clock_cap`); None: no limit.
+    prune : bool, optional
+        Drop the weaker spaces after the probing share of the work.
+
+    Returns
+    -------
+    factorization : Factorization or None
+        The best starter-induced factorization found; None when none beat ``beat``.
+    record : dict
+        The spaces tried, runs, nodes, whether the clock stopped it, and the best space.
+
+    References
+    ----------
+    ``docs/factorization-search.md``.
     """
     m = n - 1
     from scheduler.factorization._search_kernel import search_kernel  # numba: lazily
@@ -210,7 +275,39 @@ def kempe_anneal(
     t_end: float = 0.05,
     chunks: int = 20,
 ) -> tuple[Factorization, dict]:
-    """Kempe-chain simulated annealing from ``f``; returns the best factorization seen."""
+    """Kempe-chain simulated annealing from ``f``; returns the best factorization seen.
+
+    A move exchanges the edges of two rounds along one alternating cycle of their union (a
+    Kempe-chain interchange), which keeps a one-factorization; moves are accepted by a
+    simulated-annealing rule on the number of pairs of rounds that mix perfectly.
+
+    Parameters
+    ----------
+    f : Factorization
+        The starting factorization.
+    seed : int, optional
+        The seed of the moves.
+    work : int, optional
+        The amount of work; the number of moves is ``work / (n (n - 1))``.
+    clock_limit : float or None, optional
+        Seconds after which the search stops anyway; None: no limit.
+    t_start, t_end : float, optional
+        The temperature at the start and at the end (geometric cooling).
+    chunks : int, optional
+        The schedule is run in this many kernel calls (the clock is checked between them).
+
+    Returns
+    -------
+    factorization : Factorization
+        The best factorization seen (same method and source as ``f``).
+    record : dict
+        Moves made, the best score, and whether the clock stopped it.
+
+    References
+    ----------
+    S. Kirkpatrick, C. D. Gelatt and M. P. Vecchi, "Optimization by simulated annealing",
+    Science 220 (1983) 671-680; ``docs/factorization-search.md``.
+    """
     from scheduler.factorization._kempe_kernel import kempe_anneal as kernel  # numba: lazily
     from scheduler.factorization._kempe_kernel import pair_matrix
 
@@ -278,6 +375,15 @@ def best_available(
     References
     ----------
     ``docs/factorization-search.md``.
+
+    Examples
+    --------
+    The searches compile numba kernels on first use (seconds), so the example is not run as a
+    test:
+
+    >>> f = best_available(8, budget=0.01)  # doctest: +SKIP
+    >>> f.method, f.details["perfect_pairs"], f.details["pairs"]  # doctest: +SKIP
+    ('best found: circle GK_8', 21, 21)
     """
     if isinstance(n, bool) or not isinstance(n, int) or n < 4 or n % 2:
         raise InputError(f"the order must be an even integer >= 4, got {n!r}", location="n")

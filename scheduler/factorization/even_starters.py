@@ -70,7 +70,30 @@ def _pairs(starter: Sequence[Sequence[int]]) -> list[Pair]:
 
 
 def is_even_starter(M: int, starter: Sequence[Sequence[int]]) -> bool:
-    """Is ``starter`` an even starter of ``Z_M`` (definition in the module docstring)?"""
+    """Is ``starter`` an even starter of ``Z_M`` (definition in the module docstring)?
+
+    Parameters
+    ----------
+    M : int
+        The even order of the cyclic group ``Z_M`` (the factorization is of ``K_{M+2}``).
+    starter : sequence of pairs of int
+        The pairs of elements of ``Z_M``.
+
+    Returns
+    -------
+    bool
+        False also for anything that is not a sequence of pairs.
+
+    Raises
+    ------
+    InputError
+        For an order ``M`` that is not even and in range.
+
+    Examples
+    --------
+    >>> is_even_starter(6, [(1, 3), (4, 5)]), is_even_starter(6, [(1, 2), (3, 4)])
+    (True, False)
+    """
     M = _check_order(M)
     h = M // 2
     try:
@@ -271,7 +294,23 @@ def is_perfect_even_starter(M: int, starter: Sequence[Sequence[int]]) -> bool:
 
 def enumerate_even_starters(M: int) -> Iterator[tuple[Pair, ...]]:
     """Every even starter of ``Z_M`` (exhaustive; feasible up to ``M`` about 16), each once:
-    for each missing element in increasing order, the smallest free element is paired next."""
+    for each missing element in increasing order, the smallest free element is paired next.
+
+    Parameters
+    ----------
+    M : int
+        The even order of the cyclic group ``Z_M`` (the factorization is of ``K_{M+2}``).
+
+    Yields
+    ------
+    tuple of Pair
+        Each even starter once.
+
+    Examples
+    --------
+    >>> list(enumerate_even_starters(6))[:2]
+    [((1, 3), (4, 5)), ((1, 5), (3, 4))]
+    """
     M = _check_order(M)
     h = M // 2
     used = [False] * M
@@ -306,7 +345,23 @@ def enumerate_even_starters(M: int) -> Iterator[tuple[Pair, ...]]:
 def missing_representatives(M: int) -> list[int]:
     """Missing elements worth trying: the divisors ``d`` of ``M`` with ``d < M``, ``d != M/2``
     (one per orbit of the unit group on ``Z_M``, the orbit of ``x`` being fixed by
-    ``gcd(x, M)``)."""
+    ``gcd(x, M)``).
+
+    Parameters
+    ----------
+    M : int
+        The even order of the cyclic group ``Z_M`` (the factorization is of ``K_{M+2}``).
+
+    Returns
+    -------
+    list of int
+        The divisors, increasing.
+
+    Examples
+    --------
+    >>> missing_representatives(12)
+    [1, 2, 3, 4]
+    """
     M = _check_order(M)
     return [d for d in range(1, M) if M % d == 0 and d != M // 2]
 
@@ -315,7 +370,27 @@ def missing_representatives(M: int) -> list[int]:
 class EvenStarterSearchResult:
     """Outcome of :func:`search_perfect_even_starter`; ``exhausted`` means every tried missing
     element had its whole space explored without success (no perfect even starter exists with
-    those missing elements)."""
+    those missing elements).
+
+    Parameters
+    ----------
+    group : str
+        The group's name, ``"Z_M"``.
+    starter : tuple of Pair or None
+        The perfect even starter found; None when none was found.
+    missing : int or None
+        Its missing element; None when none was found.
+    seed : int
+        The search's seed.
+    runs : int
+        Restarts made.
+    nodes : int
+        Search nodes visited in all runs.
+    seconds : float
+        Wall time spent.
+    exhausted : bool
+        True when every missing element tried had its whole space explored.
+    """
 
     group: str
     seed: int
@@ -328,6 +403,7 @@ class EvenStarterSearchResult:
 
     @property
     def found(self) -> bool:
+        """True when a perfect even starter was found."""
         return self.starter is not None
 
 
@@ -354,6 +430,41 @@ def search_perfect_even_starter(
     optional total work limit. With ``shuffle=False`` (and node limits large enough) the runs
     are plain exhaustive searches, one per missing element. Every starter returned has been
     re-checked with :func:`is_perfect_even_starter`.
+
+    Parameters
+    ----------
+    M : int
+        The even order of the cyclic group ``Z_M`` (the factorization is of ``K_{M+2}``).
+    seed : int, optional
+        The seed of the restarts.
+    budget : float, optional
+        Seconds of wall time, checked between runs.
+    base_nodes : int, optional
+        Nodes of the first run; run ``r`` gets ``base_nodes * luby(r)``.
+    max_run_nodes : int, optional
+        The most nodes of any run.
+    max_nodes : int or None, optional
+        A total work limit (the same outcome on every machine); None: only the clock.
+    missing : sequence of int or None, optional
+        The missing elements to try, in turn; None: :func:`missing_representatives`.
+    shuffle : bool, optional
+        Random partner order; False for plain exhaustive runs.
+    progress : callable or None, optional
+        Called as ``progress(message, fraction)`` after each run.
+
+    Returns
+    -------
+    EvenStarterSearchResult
+        The starter found (or None) and the record of the search.
+
+    Raises
+    ------
+    InputError
+        For a bad order, seed, budget or missing element.
+
+    References
+    ----------
+    ``docs/factorization-search.md``; B. A. Anderson 1974 (see the module docstring).
     """
     M = _check_order(M)
     if isinstance(seed, bool) or not isinstance(seed, int):

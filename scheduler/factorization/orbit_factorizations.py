@@ -60,13 +60,55 @@ def _check(r, k) -> tuple[int, int]:
 
 
 def shift(v: int, s: int, r: int, k: int) -> int:
-    """``σ^s(v)``."""
+    """``σ^s(v)``.
+
+    Parameters
+    ----------
+    v : int
+        A vertex, ``0 <= v <= r k``.
+    s : int
+        The power of ``σ``.
+    r : int
+        The number of cycles of the automorphism.
+    k : int
+        Their odd length; ``r k + 1`` is the even order.
+
+    Returns
+    -------
+    int
+        The image of ``v``: ``∞ = r k`` is fixed, other vertices move ``s`` steps in their block.
+
+    Examples
+    --------
+    >>> shift(4, 1, 2, 3), shift(6, 1, 2, 3)  # block 1 is 3..5; vertex 6 is the fixed point
+    (5, 6)
+    """
     return v if v == r * k else (v // k) * k + (v % k + s) % k
 
 
 def orbit_table(r: int, k: int) -> tuple[np.ndarray, int]:
     """``(orb, count)``: ``orb[u, v]`` numbers the ``σ``-orbit of the edge ``{u, v}``
-    (``u != v`` below ``r k``); the ``∞``-orbits are not numbered."""
+    (``u != v`` below ``r k``); the ``∞``-orbits are not numbered.
+
+    Parameters
+    ----------
+    r : int
+        The number of cycles of the automorphism.
+    k : int
+        Their odd length; ``r k + 1`` is the even order.
+
+    Returns
+    -------
+    orb : numpy.ndarray
+        ``(r k, r k)`` int32 table of orbit numbers, -1 on the diagonal.
+    count : int
+        The number of orbits numbered.
+
+    Raises
+    ------
+    InputError
+        When ``r k + 1`` is not even or too large.
+    """
     r, k = _check(r, k)
     rk = r * k
     orb = np.full((rk, rk), -1, dtype=np.int32)
@@ -88,7 +130,25 @@ def orbit_table(r: int, k: int) -> tuple[np.ndarray, int]:
 
 
 def union_systems(r: int, k: int) -> list[tuple[int, int, int]]:
-    """The unions to check, as ``(i, j, d)`` for ``B_i ∪ (B_j + d)``."""
+    """The unions to check, as ``(i, j, d)`` for ``B_i ∪ (B_j + d)``.
+
+    Parameters
+    ----------
+    r : int
+        The number of cycles of the automorphism.
+    k : int
+        Their odd length; ``r k + 1`` is the even order.
+
+    Returns
+    -------
+    list of tuple of (int, int, int)
+        ``(i, i, d)`` for ``d = 1..(k-1)/2``, then ``(i, j, d)`` for ``i < j`` and every ``d``.
+
+    Examples
+    --------
+    >>> union_systems(2, 3)
+    [(0, 0, 1), (1, 1, 1), (0, 1, 0), (0, 1, 1), (0, 1, 2)]
+    """
     out = [(i, i, d) for i in range(r) for d in range(1, (k - 1) // 2 + 1)]
     out += [(i, j, d) for i in range(r) for j in range(i + 1, r) for d in range(k)]
     return out
@@ -277,7 +337,20 @@ def orbit_factorization(r: int, k: int, base: Sequence[Sequence[Sequence[int]]],
 
 
 def enumerate_orbit_bases(r: int, k: int) -> Iterator[tuple[tuple[Pair, ...], ...]]:
-    """Every admissible ``base`` (exhaustive; tiny orders only, e.g. ``K_10`` with ``k = 3``)."""
+    """Every admissible ``base`` (exhaustive; tiny orders only, e.g. ``K_10`` with ``k = 3``).
+
+    Parameters
+    ----------
+    r : int
+        The number of cycles of the automorphism.
+    k : int
+        Their odd length; ``r k + 1`` is the even order.
+
+    Yields
+    ------
+    tuple of tuple of Pair
+        The ``r`` base rounds ``B_i``, each a sorted perfect matching containing ``{i k, ∞}``.
+    """
     r, k = _check(r, k)
     orb, _ = orbit_table(r, k)
     inf = r * k
@@ -310,7 +383,27 @@ def enumerate_orbit_bases(r: int, k: int) -> Iterator[tuple[tuple[Pair, ...], ..
 @dataclass(frozen=True)
 class OrbitSearchResult:
     """Outcome of :func:`search_perfect_orbit_factorization` (``exhausted``: no perfect
-    one-factorization of this kind exists)."""
+    one-factorization of this kind exists).
+
+    Parameters
+    ----------
+    r : int
+        The number of cycles of the automorphism.
+    k : int
+        Their odd length; ``r k + 1`` is the even order.
+    base : tuple of tuple of Pair or None
+        The base rounds of the perfect factorization found; None when none was found.
+    seed : int
+        The search's seed.
+    runs : int
+        Restarts made.
+    nodes : int
+        Search nodes visited in all runs.
+    seconds : float
+        Wall time spent.
+    exhausted : bool
+        True when a run explored the whole space without success.
+    """
 
     r: int
     k: int
@@ -323,6 +416,7 @@ class OrbitSearchResult:
 
     @property
     def found(self) -> bool:
+        """True when a perfect factorization was found."""
         return self.base is not None
 
 
@@ -339,6 +433,39 @@ def search_perfect_orbit_factorization(
     Luby restarts as in :func:`scheduler.factorization.search.search_perfect_starter`;
     ``budget`` is wall seconds checked between runs and ``max_nodes`` an optional work limit.
     Every result has been re-checked with :func:`is_perfect_orbit_base`.
+
+    Parameters
+    ----------
+    r : int
+        The number of cycles of the automorphism.
+    k : int
+        Their odd length; ``r k + 1`` is the even order.
+    seed : int, optional
+        The seed of the restarts.
+    budget : float, optional
+        Seconds of wall time, checked between runs.
+    base_nodes : int, optional
+        Nodes of the first run; run ``r`` gets ``base_nodes * luby(r)``.
+    max_run_nodes : int, optional
+        The most nodes of any run.
+    max_nodes : int or None, optional
+        A total work limit (the same outcome on every machine); None: only the clock.
+    progress : callable or None, optional
+        Called as ``progress(message, fraction)`` after each run.
+
+    Returns
+    -------
+    OrbitSearchResult
+        The base rounds found (or None) and the record of the search.
+
+    Raises
+    ------
+    InputError
+        For bad ``r``, ``k``, seed or budget.
+
+    References
+    ----------
+    ``docs/factorization-search.md``; E. Seah and D. R. Stinson 1988 (see the module docstring).
     """
     r, k = _check(r, k)
     if isinstance(seed, bool) or not isinstance(seed, int):

@@ -60,7 +60,35 @@ SOURCE = (
 @dataclass(frozen=True, eq=False)
 class SemidirectGroup:
     """``Z_p ⋊_r Z_q`` on the codes ``a + p b`` (identity ``0``) with numpy tables
-    ``mul[x, y]`` (the product ``x y``) and ``inv[x]``."""
+    ``mul[x, y]`` (the product ``x y``) and ``inv[x]``.
+
+    Make it with :func:`semidirect`, which checks ``r`` and builds the tables.
+
+    Parameters
+    ----------
+    p : int
+        The odd modulus of the normal subgroup ``Z_p``.
+    q : int
+        The odd modulus of ``Z_q``.
+    r : int
+        A unit of ``Z_p`` with ``r^q = 1``: ``(0, 1)`` acts on ``Z_p`` as multiplication by ``r``.
+    mul : numpy.ndarray
+        ``(pq, pq)`` product table.
+    inv : numpy.ndarray
+        ``(pq,)`` table of inverses.
+
+    References
+    ----------
+    D. S. Dummit and R. M. Foote, *Abstract Algebra*, 3rd ed., Wiley 2004, §5.5.
+
+    Examples
+    --------
+    >>> group = semidirect(7, 3)
+    >>> group.name, group.order
+    ('Z_7 x|2 Z_3', 21)
+    >>> int(group.mul[1, 7]), int(group.mul[7, 1])  # not abelian
+    (8, 9)
+    """
 
     p: int
     q: int
@@ -70,17 +98,43 @@ class SemidirectGroup:
 
     @property
     def order(self) -> int:
+        """The number of elements ``p q``."""
         return self.p * self.q
 
     @property
     def name(self) -> str:
+        """The readable name ``"Z_p x|r Z_q"``."""
         return f"Z_{self.p} x|{self.r} Z_{self.q}"
 
     def automorphism(self, s: int, c: int) -> np.ndarray:
         """The automorphism ``x -> h^-1 σ_s(x) h`` with ``σ_s(a, b) = (s a, b)`` (``s`` a unit
         of ``Z_p``; it commutes with the action of ``r``) and ``h = (c, 0)``, as a permutation
         array (checked to be an automorphism). ``(1, 0)`` is the identity; ``(1, 1)`` has order
-        ``p``; ``(s, 0)`` has the multiplicative order of ``s``."""
+        ``p``; ``(s, 0)`` has the multiplicative order of ``s``.
+
+        Parameters
+        ----------
+        s : int
+            A unit of ``Z_p``.
+        c : int
+            The first coordinate of the conjugating element ``h = (c, 0)``.
+
+        Returns
+        -------
+        numpy.ndarray
+            ``perm[x]`` is the image of ``x``.
+
+        Raises
+        ------
+        InputError
+            When ``(s, c)`` does not give an automorphism.
+
+        Examples
+        --------
+        >>> group = semidirect(7, 3)
+        >>> is_automorphism(group, group.automorphism(1, 1))
+        True
+        """
         p = self.p
         perm = np.empty(self.order, dtype=np.int64)
         h = c % p
@@ -97,7 +151,26 @@ class SemidirectGroup:
 
 def semidirect(p: int, q: int, r: int | None = None) -> SemidirectGroup:
     """``Z_p ⋊_r Z_q``; by default ``r`` is the smallest unit of multiplicative order ``q``
-    modulo ``p`` (so the group is non-abelian when ``q | p - 1``, ``q > 1``)."""
+    modulo ``p`` (so the group is non-abelian when ``q | p - 1``, ``q > 1``).
+
+    Parameters
+    ----------
+    p, q : int
+        Odd positive moduli.
+    r : int or None, optional
+        A unit of ``Z_p`` with ``r^q = 1 (mod p)``; None: the smallest of multiplicative order
+        ``q``.
+
+    Returns
+    -------
+    SemidirectGroup
+        The group with its product and inverse tables.
+
+    Raises
+    ------
+    InputError
+        For an even or non-positive modulus, or no suitable ``r``.
+    """
     for v, name in ((p, "p"), (q, "q")):
         if isinstance(v, bool) or not isinstance(v, int) or v < 1 or v % 2 == 0:
             raise InputError(f"{name} must be an odd positive integer, got {v!r}",
@@ -126,7 +199,20 @@ def _order(u: int, p: int) -> int:
 
 
 def is_automorphism(group: SemidirectGroup, perm: np.ndarray) -> bool:
-    """Is ``perm`` a bijection with ``perm[x y] = perm[x] perm[y]``?"""
+    """Is ``perm`` a bijection with ``perm[x y] = perm[x] perm[y]``?
+
+    Parameters
+    ----------
+    group : SemidirectGroup
+        The group.
+    perm : numpy.ndarray
+        A candidate map of the codes.
+
+    Returns
+    -------
+    bool
+        True for an automorphism.
+    """
     perm = np.asarray(perm)
     if sorted(perm.tolist()) != list(range(group.order)):
         return False
@@ -291,7 +377,18 @@ def group_starter_factorization(group: SemidirectGroup, starter: Sequence[Sequen
 
 
 def enumerate_group_starters(group: SemidirectGroup) -> Iterator[tuple[Pair, ...]]:
-    """Every starter of ``group`` (exhaustive backtracking; small orders only)."""
+    """Every starter of ``group`` (exhaustive backtracking; small orders only).
+
+    Parameters
+    ----------
+    group : SemidirectGroup
+        The group of odd order.
+
+    Yields
+    ------
+    tuple of Pair
+        Each starter once, its pairs sorted.
+    """
     m = group.order
     mul = group.mul.tolist()
     inv = group.inv.tolist()
@@ -329,7 +426,27 @@ def _orbits(group: SemidirectGroup, perm: np.ndarray) -> list[tuple[int, int]]:
 @dataclass(frozen=True)
 class GroupStarterSearchResult:
     """Outcome of :func:`search_perfect_group_starter` (``exhausted``: the whole space of
-    ``automorphism``-invariant starters was explored without success)."""
+    ``automorphism``-invariant starters was explored without success).
+
+    Parameters
+    ----------
+    group : str
+        The group's name.
+    automorphism : tuple of (int, int)
+        The ``(s, c)`` of the automorphism the starter had to be invariant under.
+    seed : int
+        The search's seed.
+    starter : tuple of Pair or None
+        The perfect starter found; None when none was found.
+    runs : int
+        Restarts made.
+    nodes : int
+        Search nodes visited in all runs.
+    seconds : float
+        Wall time spent.
+    exhausted : bool
+        True when a run explored the whole space without success.
+    """
 
     group: str
     automorphism: tuple[int, int]
@@ -342,6 +459,7 @@ class GroupStarterSearchResult:
 
     @property
     def found(self) -> bool:
+        """True when a perfect starter was found."""
         return self.starter is not None
 
 
@@ -362,7 +480,41 @@ def search_perfect_group_starter(
     """Search ``group`` for a perfect starter invariant under ``group.automorphism(*automorphism)``
     (``(1, 0)``: the identity, plain starters). Luby restarts as in
     :func:`scheduler.factorization.search.search_perfect_starter`; every starter returned is
-    re-checked with :func:`is_perfect_group_starter`."""
+    re-checked with :func:`is_perfect_group_starter`.
+
+    Parameters
+    ----------
+    group : SemidirectGroup
+        The group searched.
+    automorphism : tuple of (int, int), optional
+        ``(s, c)`` of :meth:`SemidirectGroup.automorphism`.
+    seed : int, optional
+        The seed of the restarts.
+    budget : float, optional
+        Seconds of wall time, checked between runs.
+    base_nodes : int, optional
+        Nodes of the first run; run ``r`` gets ``base_nodes * luby(r)``.
+    max_run_nodes : int, optional
+        The most nodes of any run.
+    max_nodes : int or None, optional
+        A total work limit (the same outcome on every machine); None: only the clock.
+    progress : callable or None, optional
+        Called as ``progress(message, fraction)`` after each run.
+
+    Returns
+    -------
+    GroupStarterSearchResult
+        The starter found (or None) and the record of the search.
+
+    Raises
+    ------
+    InputError
+        For a bad seed, budget or automorphism.
+
+    References
+    ----------
+    ``docs/factorization-search.md``.
+    """
     if isinstance(seed, bool) or not isinstance(seed, int):
         raise InputError(f"the seed must be an integer, got {seed!r}", location="seed")
     if not budget > 0:

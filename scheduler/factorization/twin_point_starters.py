@@ -88,7 +88,27 @@ MAX_ORDER = 1000
 @dataclass(frozen=True, eq=False)
 class TwinGroup:
     """``G = Z_2 × H`` on the codes ``2 h + b`` with numpy tables ``add``, ``neg``, the parity
-    ``par`` (``b``) and the base group ``base`` (``H``)."""
+    ``par`` (``b``) and the base group ``base`` (``H``).
+
+    Made (and cached) by :func:`twin_group` from the name of ``H``.
+
+    Parameters
+    ----------
+    base : AbelianGroup
+        ``H``, abelian of odd order.
+    add : numpy.ndarray
+        ``(2|H|, 2|H|)`` addition table of ``G``.
+    neg : numpy.ndarray
+        ``(2|H|,)`` table of negatives.
+    par : numpy.ndarray
+        ``(2|H|,)`` parity ``b`` of every code.
+
+    Examples
+    --------
+    >>> group = twin_group("Z_5")
+    >>> group.name, group.order, group.label(3)
+    ('Z_2 x Z_5', 10, '1|1')
+    """
 
     base: AbelianGroup
     add: np.ndarray
@@ -97,19 +117,49 @@ class TwinGroup:
 
     @property
     def order(self) -> int:
+        """The number of elements ``2 |H|``."""
         return 2 * self.base.order
 
     @property
     def name(self) -> str:
+        """The readable name ``"Z_2 x <H>"``."""
         return f"Z_2 x {self.base.name}"
 
     def multiplier(self, u: int) -> np.ndarray:
-        """``(b, h) -> (b, u h)`` as a permutation of the codes (``u`` a unit of ``H``)."""
+        """``(b, h) -> (b, u h)`` as a permutation of the codes (``u`` a unit of ``H``).
+
+        Parameters
+        ----------
+        u : int
+            A unit of ``H``'s ring.
+
+        Returns
+        -------
+        numpy.ndarray
+            ``perm[c]`` is the image of code ``c``.
+
+        Raises
+        ------
+        InputError
+            When ``u`` is not a unit.
+        """
         mul = self.base.multiplier(u)
         codes = np.arange(self.order)
         return (2 * mul[codes // 2] + codes % 2).astype(np.int64)
 
     def label(self, c: int) -> str:
+        """The element of code ``c`` as ``"<parity>|<label in H>"``.
+
+        Parameters
+        ----------
+        c : int
+            A code of ``G``.
+
+        Returns
+        -------
+        str
+            The label.
+        """
         return f"{c % 2}|{self.base.label(c // 2)}"
 
 
@@ -262,7 +312,27 @@ def twin_factorization(base: str, starter: Sequence[Sequence[int]], *, swapped: 
 
 
 def check_representatives(base: str, multiplier: int = 1) -> list[int]:
-    """One ``g`` (the smallest code) per orbit of ``<g -> -g, μ>`` on ``G \\ {0}``."""
+    """One ``g`` (the smallest code) per orbit of ``<g -> -g, μ>`` on ``G \\ {0}``.
+
+    Parameters
+    ----------
+    base : str
+        The name of ``H``, an abelian group of odd order (as
+        :func:`~scheduler.factorization.groups.group_from_name` reads it).
+    multiplier : int, optional
+        A unit ``u`` of ``H``'s ring; the starter must be invariant under ``(b, h) -> (b, u h)``
+        (1: no multiplier).
+
+    Returns
+    -------
+    list of int
+        The representatives, increasing: the ``g`` for which ``F_0 ∪ F_g`` is walked.
+
+    Examples
+    --------
+    >>> check_representatives("Z_5")
+    [1, 2, 3, 4, 5]
+    """
     G = twin_group(base)
     perm = G.multiplier(multiplier) if multiplier != 1 else np.arange(G.order)
     return [g for g, _ in element_orbits(G.neg, perm)]
@@ -272,7 +342,29 @@ def missing_representatives(base: str, *, swapped: bool = False, multiplier: int
                             ) -> list[int]:
     """Missing elements worth trying: one per orbit of the units of ``H`` (acting on the
     ``H`` part), not ``0`` or ``t``, of the parity that admits even starters (odd when
-    ``|H| ≡ 1 (mod 4)``, even otherwise), fixed by the multiplier."""
+    ``|H| ≡ 1 (mod 4)``, even otherwise), fixed by the multiplier.
+
+    Parameters
+    ----------
+    base : str
+        The name of ``H``, an abelian group of odd order (as
+        :func:`~scheduler.factorization.groups.group_from_name` reads it).
+    swapped : bool, optional
+        For the swapped points, which need an even missing element.
+    multiplier : int, optional
+        A unit ``u`` of ``H``'s ring; the starter must be invariant under ``(b, h) -> (b, u h)``
+        (1: no multiplier).
+
+    Returns
+    -------
+    list of int
+        The codes, increasing (empty when the parity rule leaves none).
+
+    Examples
+    --------
+    >>> missing_representatives("Z_5"), missing_representatives("Z_3")
+    ([3], [2])
+    """
     G = twin_group(base)
     units = G.base.units()
     seen: set[int] = set()
@@ -293,7 +385,29 @@ def missing_representatives(base: str, *, swapped: bool = False, multiplier: int
 def enumerate_twin_starters(base: str, missing: int, multiplier: int = 1
                             ) -> Iterator[tuple[Pair, ...]]:
     """Every even starter of ``Z_2 × H`` missing ``missing`` and invariant under the multiplier
-    (exhaustive, plain Python; tiny groups only)."""
+    (exhaustive, plain Python; tiny groups only).
+
+    Parameters
+    ----------
+    base : str
+        The name of ``H``, an abelian group of odd order (as
+        :func:`~scheduler.factorization.groups.group_from_name` reads it).
+    missing : int
+        The missing element's code.
+    multiplier : int, optional
+        A unit ``u`` of ``H``'s ring; the starter must be invariant under ``(b, h) -> (b, u h)``
+        (1: no multiplier).
+
+    Yields
+    ------
+    tuple of Pair
+        Each even starter once, its pairs sorted.
+
+    Examples
+    --------
+    >>> list(enumerate_twin_starters("Z_3", 2))
+    [((1, 4), (3, 5)), ((1, 5), (3, 4))]
+    """
     G = twin_group(base)
     M = G.order
     mu = G.multiplier(multiplier) if multiplier != 1 else np.arange(M)
@@ -345,7 +459,31 @@ def enumerate_twin_starters(base: str, missing: int, multiplier: int = 1
 @dataclass(frozen=True)
 class TwinSearchResult:
     """Outcome of :func:`search_perfect_twin_starter`; ``exhausted``: no perfect even starter
-    with this missing element, multiplier and kind of points exists."""
+    with this missing element, multiplier and kind of points exists.
+
+    Parameters
+    ----------
+    base : str
+        The name of ``H``.
+    swapped : bool
+        True for the swapped points.
+    missing : int
+        The missing element's code.
+    multiplier : int
+        The unit the starter had to be invariant under (1: none).
+    seed : int
+        The search's seed.
+    starter : tuple of Pair or None
+        The perfect even starter found; None when none was found.
+    runs : int
+        Restarts made.
+    nodes : int
+        Search nodes visited in all runs.
+    seconds : float
+        Wall time spent.
+    exhausted : bool
+        True when a run explored the whole space without success.
+    """
 
     base: str
     swapped: bool
@@ -360,6 +498,7 @@ class TwinSearchResult:
 
     @property
     def found(self) -> bool:
+        """True when a perfect even starter was found."""
         return self.starter is not None
 
 
@@ -387,6 +526,47 @@ def search_perfect_twin_starter(
     outcome then depends only on the arguments, not on the machine). With ``shuffle=False`` and
     large limits a run is a plain exhaustive search. Every starter returned has been re-checked
     by walking the induced factorization's unions (:func:`is_perfect_twin_starter`).
+
+    Parameters
+    ----------
+    base : str
+        The name of ``H``, an abelian group of odd order (as
+        :func:`~scheduler.factorization.groups.group_from_name` reads it).
+    missing : int
+        The missing element's code (:func:`missing_representatives`).
+    swapped : bool, optional
+        Search the swapped version (never perfect; kept for tests of the argument).
+    multiplier : int, optional
+        A unit ``u`` of ``H``'s ring; the starter must be invariant under ``(b, h) -> (b, u h)``
+        (1: no multiplier).
+    seed : int, optional
+        The seed of the restarts.
+    budget : float, optional
+        Seconds of wall time, checked between runs.
+    base_nodes : int, optional
+        Nodes of the first run; run ``r`` gets ``base_nodes * luby(r)``.
+    max_run_nodes : int, optional
+        The most nodes of any run.
+    max_nodes : int or None, optional
+        A total work limit; None: only the clock.
+    shuffle : bool, optional
+        Random partner order; False for plain exhaustive runs.
+    progress : callable or None, optional
+        Called as ``progress(message, fraction)`` after each run.
+
+    Returns
+    -------
+    TwinSearchResult
+        The starter found (or None) and the record of the search.
+
+    Raises
+    ------
+    InputError
+        For a bad seed, budget, missing element or multiplier.
+
+    References
+    ----------
+    ``docs/factorization-search.md``.
     """
     G = twin_group(base)
     M = G.order
@@ -487,7 +667,26 @@ def is_perfect_twin_starter(base: str, starter: Sequence[Sequence[int]], *,
 
 def multiplier_choices(base: str, missing: int) -> list[tuple[int, int]]:
     """``(order, u)``: one generator ``u`` per cyclic subgroup of the units of ``H`` whose
-    multipliers fix ``missing``, largest subgroups first (``(1, 1)``, no multiplier, last)."""
+    multipliers fix ``missing``, largest subgroups first (``(1, 1)``, no multiplier, last).
+
+    Parameters
+    ----------
+    base : str
+        The name of ``H``, an abelian group of odd order (as
+        :func:`~scheduler.factorization.groups.group_from_name` reads it).
+    missing : int
+        The missing element's code; a multiplier must fix it.
+
+    Returns
+    -------
+    list of tuple of (int, int)
+        ``(order of the subgroup, generator u)``, largest first, ``(1, 1)`` last.
+
+    Examples
+    --------
+    >>> multiplier_choices("Z_5", 3)
+    [(1, 1)]
+    """
     G = twin_group(base)
     seen: set[frozenset[int]] = set()
     out = []
@@ -511,7 +710,30 @@ def search_task(order: int, space: str, seed: int, budget: float) -> dict:
     """One independent restart, for a process pool or a distributed engine (picklable, plain
     arguments and result): search the space named ``space`` (:func:`parse_space`) for a
     perfect one-factorization of ``K_order`` for ``budget`` seconds with ``seed``. Returns a
-    JSON-ready dict (``found``, ``starter``, ``nodes``, ``seconds``, ``exhausted``, ...)."""
+    JSON-ready dict (``found``, ``starter``, ``nodes``, ``seconds``, ``exhausted``, ...).
+
+    Parameters
+    ----------
+    order : int
+        The order ``n`` of ``K_n``; must be ``2 |H| + 2`` of the space.
+    space : str
+        The space's name (:func:`space_name`).
+    seed : int
+        The restart's seed.
+    budget : float
+        Seconds of wall time.
+
+    Returns
+    -------
+    dict
+        ``order``, ``space``, ``seed``, ``found``, ``exhausted``, ``runs``, ``nodes``,
+        ``seconds`` and ``starter`` (a list of pairs, or None).
+
+    Raises
+    ------
+    InputError
+        For an unknown space or one of another order.
+    """
     base, swapped, missing, multiplier = parse_space(space)
     G = twin_group(base)
     if G.order + 2 != order:
@@ -526,12 +748,57 @@ def search_task(order: int, space: str, seed: int, budget: float) -> dict:
 
 
 def space_name(base: str, *, swapped: bool, missing: int, multiplier: int = 1) -> str:
-    """``"Z_2 x <H> | swapped | m=<m> | u=<u>"``, read back by :func:`parse_space`."""
+    """``"Z_2 x <H> | swapped | m=<m> | u=<u>"``, read back by :func:`parse_space`.
+
+    Parameters
+    ----------
+    base : str
+        The name of ``H``, an abelian group of odd order (as
+        :func:`~scheduler.factorization.groups.group_from_name` reads it).
+    swapped : bool
+        True for the swapped points.
+    missing : int
+        The missing element's code.
+    multiplier : int, optional
+        A unit ``u`` of ``H``'s ring; the starter must be invariant under ``(b, h) -> (b, u h)``
+        (1: no multiplier).
+
+    Returns
+    -------
+    str
+        The space's name.
+
+    Examples
+    --------
+    >>> space_name("Z_25", swapped=False, missing=3, multiplier=7)
+    'Z_2 x Z_25 | kept | m=3 | u=7'
+    """
     return f"Z_2 x {base} | {'swapped' if swapped else 'kept'} | m={missing} | u={multiplier}"
 
 
 def parse_space(space: str) -> tuple[str, bool, int, int]:
-    """``(base, swapped, missing, multiplier)`` from a :func:`space_name` string."""
+    """``(base, swapped, missing, multiplier)`` from a :func:`space_name` string.
+
+    Parameters
+    ----------
+    space : str
+        A name made by :func:`space_name`.
+
+    Returns
+    -------
+    tuple of (str, bool, int, int)
+        ``(base, swapped, missing, multiplier)``.
+
+    Raises
+    ------
+    InputError
+        For text that is not such a name.
+
+    Examples
+    --------
+    >>> parse_space("Z_2 x Z_25 | kept | m=3 | u=7")
+    ('Z_25', False, 3, 7)
+    """
     try:
         group, kind, mis, mult = (part.strip() for part in space.split("|"))
         if not group.startswith("Z_2 x ") or kind not in ("kept", "swapped"):

@@ -159,7 +159,8 @@ class Factorization:
         Returns
         -------
         Factorization
-            The same rounds in the new order (mixing is unchanged; breaks and carry-over may not be).
+            The same rounds in the new order (mixing is unchanged; breaks and carry-over
+            may not be).
         """
         rounds = tuple(self.rounds[i] for i in order)
         return Factorization(self.n, rounds, self.method, self.source, dict(self.details))

@@ -64,7 +64,7 @@ def venue_signs(games: Sequence[Sequence[tuple[int, int]]], teams: int) -> np.nd
     Returns
     -------
     numpy.ndarray
-        int8 table: +1 where the team plays at home in the round, -1 away, 0 no game; the
+        An int8 table: +1 where the team plays at home in the round, -1 away, 0 no game; the
         input of :func:`count_breaks`.
 
     Examples

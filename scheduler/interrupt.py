@@ -94,6 +94,11 @@ def sticky_interrupts() -> Iterator[None]:
     """Inside the block, every SIGINT is recorded before ``KeyboardInterrupt`` is raised, so
     that :func:`raise_if_interrupted` can raise it again where other code swallowed it.
 
+    Yields
+    ------
+    None
+        The block runs with the recording handler (unchanged outside the main thread).
+
     Examples
     --------
     >>> with sticky_interrupts():
@@ -134,7 +139,8 @@ def solve_interruptibly(solver: Any, model: Any) -> Any:
 
     Returns
     -------
-    The solve status, as ``solver.solve`` returns it.
+    int
+        The solve status, as ``solver.solve`` returns it.
 
     Raises
     ------
@@ -200,6 +206,17 @@ def deferred_interrupts() -> Iterator[None]:
     """Hold SIGINT back inside the block; raise ``KeyboardInterrupt`` after it if one came.
 
     Outside the main thread (where signal handlers cannot be set) the block runs unchanged.
+
+    Yields
+    ------
+    None
+        The block runs with SIGINT held back.
+
+    Raises
+    ------
+    KeyboardInterrupt
+        After the block, when a SIGINT came during it; before it, when
+        :func:`sticky_interrupts` had recorded one.
 
     Examples
     --------

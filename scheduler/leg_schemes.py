@@ -48,6 +48,7 @@ def sigma(scheme: str, rounds: int) -> tuple[int, ...]:
     Returns
     -------
     tuple of int
+        ``σ[s]`` for every position ``s`` of a leg.
 
     Raises
     ------
@@ -298,6 +299,11 @@ def break_lower_bound(teams: int, legs: int, scheme: str) -> BreakBound:
     Returns
     -------
     BreakBound
+        The bound and the argument it rests on.
+
+    References
+    ----------
+    D. de Werra, "Scheduling in sports", Annals of Discrete Mathematics 11 (1981) 381-395.
 
     Examples
     --------
@@ -307,10 +313,6 @@ def break_lower_bound(teams: int, legs: int, scheme: str) -> BreakBound:
     20
     >>> break_lower_bound(5, 2, "mirrored").value
     5
-
-    References
-    ----------
-    D. de Werra, "Scheduling in sports", Annals of Discrete Mathematics 11 (1981) 381-395.
     """
     if teams < 2 or legs < 1:
         return BreakBound(0, "no games")

@@ -142,9 +142,10 @@ def season_window(doc: LeagueFile) -> tuple[dt.date | None, dt.date | None]:
 
     Returns
     -------
-    first, last : datetime.date or None
-        ``calendar.start`` and ``calendar.end``, or the first and last listed date when those
-        are not given; None where open or unknown.
+    first : datetime.date or None
+        ``calendar.start``, or the first listed date when it is not given; None when unknown.
+    last : datetime.date or None
+        ``calendar.end``, or the last listed date when it is not given; None where open.
     """
     cal = doc.calendar
     dates = [d for group in cal.dates for d in group]

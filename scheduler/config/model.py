@@ -137,7 +137,8 @@ class Format:
     @property
     def grid_labels(self) -> tuple[str, str]:
         """Labels of the home and the away side in grids: the side names when "home" is a side
-        or colour, else ``("H", "A")``."""
+        or colour, else ``("H", "A")``.
+        """
         return self.side_labels if self.home_meaning == "side" else ("H", "A")
 
 

@@ -376,12 +376,12 @@ class EvenStarterSearchResult:
     ----------
     group : str
         The group's name, ``"Z_M"``.
+    seed : int
+        The search's seed.
     starter : tuple of Pair or None
         The perfect even starter found; None when none was found.
     missing : int or None
         Its missing element; None when none was found.
-    seed : int
-        The search's seed.
     runs : int
         Restarts made.
     nodes : int
@@ -439,14 +439,14 @@ def search_perfect_even_starter(
         The seed of the restarts.
     budget : float, optional
         Seconds of wall time, checked between runs.
+    missing : sequence of int or None, optional
+        The missing elements to try, in turn; None: :func:`missing_representatives`.
     base_nodes : int, optional
         Nodes of the first run; run ``r`` gets ``base_nodes * luby(r)``.
     max_run_nodes : int, optional
         The most nodes of any run.
     max_nodes : int or None, optional
         A total work limit (the same outcome on every machine); None: only the clock.
-    missing : sequence of int or None, optional
-        The missing elements to try, in turn; None: :func:`missing_representatives`.
     shuffle : bool, optional
         Random partner order; False for plain exhaustive runs.
     progress : callable or None, optional

@@ -486,12 +486,12 @@ def search_perfect_group_starter(
     ----------
     group : SemidirectGroup
         The group searched.
-    automorphism : tuple of (int, int), optional
-        ``(s, c)`` of :meth:`SemidirectGroup.automorphism`.
     seed : int, optional
         The seed of the restarts.
     budget : float, optional
         Seconds of wall time, checked between runs.
+    automorphism : tuple of (int, int), optional
+        ``(s, c)`` of :meth:`SemidirectGroup.automorphism`.
     base_nodes : int, optional
         Nodes of the first run; run ``r`` gets ``base_nodes * luby(r)``.
     max_run_nodes : int, optional

@@ -391,10 +391,10 @@ class OrbitSearchResult:
         The number of cycles of the automorphism.
     k : int
         Their odd length; ``r k + 1`` is the even order.
-    base : tuple of tuple of Pair or None
-        The base rounds of the perfect factorization found; None when none was found.
     seed : int
         The search's seed.
+    base : tuple of tuple of Pair or None
+        The base rounds of the perfect factorization found; None when none was found.
     runs : int
         Restarts made.
     nodes : int

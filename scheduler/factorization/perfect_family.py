@@ -242,15 +242,15 @@ def canonical_form(rounds: Sequence[Sequence[tuple[int, int]]], n: int) -> tuple
     InputError
         When the rounds are not perfect matchings, or the factorization is not perfect.
 
+    References
+    ----------
+    Module docstring (derived here).
+
     Examples
     --------
     >>> from scheduler.factorization.circle import circle_rounds
     >>> canonical_form(circle_rounds(6), 6)[1]
     120
-
-    References
-    ----------
-    Module docstring (derived here).
     """
     global _CANON
     partners = partner_table(n, rounds).astype(np.int64)
@@ -409,14 +409,14 @@ def perfect_family(n: int, *, seed: int = 0, search_tries: int = 12,
     InputError
         For an odd or too small ``n``.
 
+    References
+    ----------
+    Module docstring.
+
     Examples
     --------
     >>> [m.origin.split(" (")[0] for m in perfect_family(12)]
     ['circle GK_12', 'perfect starter in Z_11', 'perfect even starter in Z_10']
-
-    References
-    ----------
-    Module docstring.
     """
     if isinstance(n, bool) or not isinstance(n, int) or n < 4 or n % 2:
         raise InputError(f"a perfect family needs an even n >= 4, got {n!r}", location="n")

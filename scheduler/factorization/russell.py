@@ -150,14 +150,14 @@ def russell_factorization(n: int) -> Factorization:
     InputError
         When ``n`` is not a power of two in range.
 
+    References
+    ----------
+    K. G. Russell, Biometrika 67 (1980) 127-131.
+
     Examples
     --------
     >>> len(russell_factorization(8).rounds)
     7
-
-    References
-    ----------
-    K. G. Russell, Biometrika 67 (1980) 127-131.
     """
     poly, _ = primitive_powers(n)
     return Factorization(n, russell_rounds(n), f"Russell GF({n}) balanced carry-over", SOURCE,

@@ -47,10 +47,10 @@ class StarterSearchResult:
         The name of the group searched.
     multiplier : int
         The unit the starter had to be invariant under (1: none).
-    starter : tuple of (int, int) or None
-        The perfect starter found; None when none was found.
     seed : int
         The search's seed.
+    starter : tuple of (int, int) or None
+        The perfect starter found; None when none was found.
     runs : int
         Restarts made.
     nodes : int

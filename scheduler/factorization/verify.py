@@ -224,7 +224,7 @@ def half_cycle_lengths(partners: np.ndarray, first: np.ndarray, second: np.ndarr
     Returns
     -------
     numpy.ndarray
-        int64, one value per pair: half the length of the cycle of the union through vertex 0.
+        The int64 values, one per pair: half the length of the cycle of the union through vertex 0.
 
     Examples
     --------

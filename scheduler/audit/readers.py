@@ -105,11 +105,47 @@ _MATCH_SPLIT = re.compile(r"\s+(?:v|vs\.?|versus|-|–|—|:)\s+", re.IGNORECASE
 
 @dataclass(frozen=True)
 class ScheduleFile:
-    """A schedule read from a file.
+    r"""A schedule read from a file.
 
-    ``rows[i]`` is the source row (1-based, as a spreadsheet shows it) of ``season.fixtures[i]``,
-    or ``None`` when the format has no rows (season.json). ``columns`` maps each field used to
-    the header it was read from. ``notes`` say what was inferred (encoding, legs, rounds).
+    Parameters
+    ----------
+    season
+        The schedule as a season (league name: the file's stem).
+    rows
+        ``rows[i]`` is the source row (1-based, as a spreadsheet or text editor shows it;
+        CSV records, so a quoted field over two lines counts once) of ``season.fixtures[i]``,
+        or ``None`` when the format has no rows (season.json).
+    path
+        The file as given.
+    kind
+        ``"csv"``, ``"xlsx"`` or ``"season.json"``.
+    sheet
+        The worksheet read (xlsx only).
+    encoding
+        The text encoding used (CSV and season.json).
+    delimiter
+        The field delimiter chosen (CSV only).
+    columns
+        (field, header) for each field used, in the order of
+        :data:`scheduler.audit.headers.FIELDS`.
+    notes
+        What was inferred: the encoding when not UTF-8, the legs, the rounds, the header
+        language, columns named by hand.
+
+    See Also
+    --------
+    read_schedule_with_rows
+
+    Examples
+    --------
+    >>> import tempfile, pathlib
+    >>> path = pathlib.Path(tempfile.mkdtemp()) / "cup.csv"
+    >>> _ = path.write_text("round,home,away\n1,Ash,Elm\n2,Elm,Ash\n", encoding="utf-8")
+    >>> read = read_schedule_with_rows(path)
+    >>> read.kind, read.delimiter, read.rows, read.columns
+    ('csv', ',', (2, 3), (('round', 'round'), ('home', 'home'), ('away', 'away')))
+    >>> read.notes
+    ('no leg column: 2 legs of 1 rounds inferred',)
     """
 
     season: Season
@@ -651,7 +687,7 @@ def read_schedule_with_rows(
 
 def read_schedule(path: str | Path, *, timezone: str | None = None,
                   columns: Mapping[str, str] | None = None) -> Season:
-    """Read a CSV, xlsx or season.json schedule into a :class:`Season`.
+    r"""Read a CSV, xlsx or season.json schedule into a :class:`Season`.
 
     See :func:`read_schedule_with_rows` for the parameters and errors.
 
@@ -677,5 +713,15 @@ def read_schedule(path: str | Path, *, timezone: str | None = None,
     References
     ----------
     RFC 4180 (CSV); ECMA-376 (xlsx); ``docs/audit-input.md``.
+
+    Examples
+    --------
+    >>> import tempfile, pathlib
+    >>> path = pathlib.Path(tempfile.mkdtemp()) / "cup.csv"
+    >>> _ = path.write_text("Date;Time;Home;Away\n07/01/2031;19:30;Ash;Elm\n",
+    ...                     encoding="utf-8")
+    >>> season = read_schedule(path, timezone="Europe/London")
+    >>> season.fixtures[0].round, season.fixtures[0].start.isoformat()
+    (1, '2031-01-07T19:30:00+00:00')
     """
     return read_schedule_with_rows(path, timezone=timezone, columns=columns).season

@@ -84,7 +84,8 @@ class PlanOption:
     feasible
         ``False`` when no timetable keeps every rule with this factorization.
     on_frontier
-        See the attribute below.
+        ``True`` when no other option considered is at least as good in perfect pairs,
+        breaks and carry-over and better in one of them.
 
     Examples
     --------

@@ -44,6 +44,7 @@ from __future__ import annotations
 
 import csv
 import io
+import itertools
 import re
 from collections import Counter
 from collections.abc import Mapping, Sequence
@@ -453,6 +454,7 @@ def _header_notes(found: Mapping[str, int], cells: Sequence[object],
 
 _CONTROL = re.compile(r"[\x00-\x08\x0b\x0c\x0e-\x1f\x7f-\x9f]")
 _DELIMITERS = (",", ";", "\t", "|")
+_UNCLOSED_QUOTE = re.compile(r"EOF inside string starting at row (\d+)")
 
 
 def decode_text(raw: bytes, location: str) -> tuple[str, str]:
@@ -527,6 +529,53 @@ def _choose_delimiter(text: str, named: Mapping[str, str] | None) -> str:
     return best
 
 
+def _header_width(text: str, delimiter: str) -> int:
+    """The most fields of the first :data:`HEADER_SEARCH_ROWS` records (the header row is one
+    of them, so no column the reader uses lies beyond)."""
+    records = itertools.islice(csv.reader(io.StringIO(text), delimiter=delimiter),
+                               HEADER_SEARCH_ROWS)
+    return max((len(cells) for cells in records), default=1) or 1
+
+
+def _csv_rows(text: str, delimiter: str, width: int, where: str) -> list[tuple[int, list]]:
+    """The records of CSV text as (record number, cells), tokenised by :func:`pandas.read_csv`.
+
+    pandas' C tokeniser reads RFC 4180 quoting (a quoted field may hold the delimiter, doubled
+    quotes and line breaks) and keeps blank lines as empty records, so record numbers are those
+    a text editor shows for one-line records. Every record is cut or padded to the width of the
+    header region (``usecols``): title rows above the header may be narrower, data rows may
+    carry extra trailing cells (a trailing delimiter), and neither is an error. pandas has no
+    field-size limit, so the longest field is checked here, with its row and column.
+    """
+    columns = list(range(width))
+    try:
+        frame = pd.read_csv(
+            io.StringIO(text), sep=delimiter, header=None, names=columns, usecols=columns,
+            dtype=str, keep_default_na=False, na_filter=False, skip_blank_lines=False,
+            engine="c", quoting=csv.QUOTE_MINIMAL, doublequote=True,
+        )
+    except (pd.errors.ParserError, ValueError) as exc:
+        message = " ".join(str(exc).replace("Error tokenizing data. C error:", "").split())
+        unclosed = _UNCLOSED_QUOTE.search(message)
+        if unclosed:  # pandas counts records from 0
+            raise InputError(
+                "a quoted field is never closed (a closing quote is missing)",
+                location=f"{where}, row {int(unclosed.group(1)) + 1}",
+            ) from exc
+        raise InputError(f"malformed CSV: {message}", location=where) from exc
+    for column in columns:
+        lengths = frame[column].str.len()
+        if len(lengths) and lengths.max() > MAX_CSV_FIELD_CHARS:
+            record = int(lengths.to_numpy().argmax()) + 1
+            raise InputError(
+                f"a quoted field is longer than {MAX_CSV_FIELD_CHARS} characters; is this a "
+                "schedule?",
+                location=f"{where}, row {record}, column {column + 1}",
+            )
+    return [(k + 1, list(cells))
+            for k, cells in enumerate(frame.itertuples(index=False, name=None))]
+
+
 def _read_csv(path: Path, raw: bytes, timezone: str | None,
               named: Mapping[str, str] | None) -> ScheduleFile:
     where = str(path)
@@ -538,8 +587,7 @@ def _read_csv(path: Path, raw: bytes, timezone: str | None,
     try:
         csv.field_size_limit(MAX_CSV_FIELD_CHARS)
         delimiter = _choose_delimiter(text, named)
-        rows = [(k + 1, cells) for k, cells in enumerate(csv.reader(io.StringIO(text),
-                                                                      delimiter=delimiter))]
+        width = _header_width(text, delimiter)
     except csv.Error as exc:
         if "field limit" in str(exc):
             raise InputError(
@@ -550,6 +598,7 @@ def _read_csv(path: Path, raw: bytes, timezone: str | None,
         raise InputError(f"malformed CSV: {exc}", location=where) from exc
     finally:
         csv.field_size_limit(previous_limit)
+    rows = _csv_rows(text, delimiter, width, where)
     head = _find_header(rows, named)
     if head is None:
         raise InputError(expected_message(HEADER_SEARCH_ROWS, named), location=where)

@@ -297,7 +297,9 @@ def parse_date_texts(texts: Iterable[str], month_first: bool) -> dict[str, date]
     if distinct.empty:
         return {}
     heads = distinct.str.split("T", n=1).str[0].str.split(" ", n=1).str[0]
-    parsed = pd.Series(pd.NaT, index=distinct.index, dtype="datetime64[ns]")
+    # Microseconds, not pandas' nanoseconds: every year 1..9999 fits (pandas 3 parses to
+    # microseconds; a nanosecond column would refuse a date after 2262 with an exception).
+    parsed = pd.Series(pd.NaT, index=distinct.index, dtype="datetime64[us]")
     formats = DATE_FORMATS_MONTH_FIRST if month_first else DATE_FORMATS_DAY_FIRST
     for fmt in formats:
         todo = parsed.isna()

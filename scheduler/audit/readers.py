@@ -6,16 +6,24 @@ fixture, the row of the source file it came from (so validity problems can say "
 :class:`~scheduler.errors.InputError` with its location (file, sheet, row, column); the size
 limits of :mod:`scheduler.audit.limits` are checked before anything is parsed.
 
-CSV (RFC 4180, tokenised with the standard ``csv`` module, which keeps ragged title rows and
-counts records, not lines):
+CSV (RFC 4180): the records are tokenised by :func:`pandas.read_csv` (C engine, every cell as
+text, blank lines kept as empty records, so rows are numbered as CSV records), after two steps
+pandas does not offer, which stay the project's own (reasons in ``docs/audit-input.md``):
 
 * encoding: a byte-order mark decides (UTF-8, UTF-16 LE/BE, UTF-32); otherwise UTF-8, then
   Windows-1252 (cp1252), then Latin-1; text that still holds control characters (a binary file)
-  is refused with a message;
+  is refused with a message. pandas reads with a given encoding and detects none;
 * delimiter: comma, semicolon, tab or ``|``, chosen as the one that splits the header row into
-  the most recognised column names (then the most fields). Neither step has a general library
-  equivalent that knows schedule headers: pandas reads with a given encoding and delimiter, and
-  ``csv.Sniffer`` guesses from character frequencies only.
+  the most recognised column names (then the most fields). pandas' ``sep=None`` asks
+  ``csv.Sniffer``, which guesses from character frequencies and knows nothing of headers (it
+  takes the space for the delimiter of a title row such as "Spring Ladder 2031").
+
+The columns read are those of the first :data:`HEADER_SEARCH_ROWS` records (the header is one of
+them): narrower title rows and wider data rows (a trailing delimiter) are padded or cut, as the
+``csv`` module's ragged rows were. Limits: no unquoted run longer than
+:data:`~scheduler.audit.limits.MAX_CSV_FIELD_CHARS` (checked before tokenising), and no quoted
+field longer either (the ``csv`` module's own limit for the header region, a check of the
+frame with row and column for the rest). An unclosed quote is refused with the row it opens.
 
 xlsx: read into one pandas frame per sheet with :func:`pandas.read_excel` and the calamine
 engine (python-calamine; about four times faster than openpyxl here, see

@@ -4,9 +4,10 @@ Rounds and legs are the first whole number in the cell (``"Round 3"`` -> 3). Dat
 ``YYYY-MM-DD``, ``YYYY/MM/DD``, ``DD.MM.YYYY`` or ``DD/MM/YYYY`` (slashes are read day first
 unless some value of the column only makes sense month first), or spreadsheet dates. A column of
 dates is parsed at once with :func:`pandas.to_datetime` (one explicit format at a time, in the
-order of :data:`DATE_FORMATS_DAY_FIRST`, so each text gets the first format that reads it);
-what pandas cannot hold (years outside 1677-2262) or read falls back to :func:`as_date`, which
-also writes the message for a cell that is no date. Times are ``HH:MM[:SS]`` (also ``HH.MM``,
+order of :data:`DATE_FORMATS_DAY_FIRST`, so each text gets the first format that reads it), at
+microsecond resolution so that every year 1-9999 fits; what pandas cannot read falls back to
+:func:`as_date` cell by cell (``datetime.strptime`` with the same formats, then ISO date-times),
+which also writes the message for a cell that is no date. Times are ``HH:MM[:SS]`` (also ``HH.MM``,
 ``19h30``, ``7:30 pm``) or spreadsheet times; a full ISO date-time with a UTC offset gives the
 kick-off directly. A text cell that the project's exporters made inert against formula
 injection (a leading ``'``, :func:`scheduler.export.safety.neutralise_cell`) is restored.
@@ -285,8 +286,13 @@ def parse_date_texts(texts: Iterable[str], month_first: bool) -> dict[str, date]
     Returns
     -------
     dict
-        Text -> date for every text one of the formats reads; the others are left to
-        :func:`as_date` (full date-times, dates outside pandas' range, cells that are no date).
+        Text -> date for every text one of the formats reads (the date part of a date and
+        time included); the others are left to :func:`as_date` (ISO date-times in other
+        forms, cells that are no date).
+
+    References
+    ----------
+    ``docs/audit-input.md``; pandas, :func:`pandas.to_datetime`.
 
     Examples
     --------

@@ -190,7 +190,21 @@ def new(
     ] = None,
 ) -> None:
     """Write a commented starter league file to PATH (TOML or YAML by its ending; never
-    overwrites a file)."""
+    overwrites a file).
+    \f
+    Parameters
+    ----------
+    path
+        The league file to write; its ending (.toml, .yaml, .yml) chooses the format.
+    teams
+        A team list (.xlsx or .csv) to build the file from; it is then written as TOML.
+
+    Raises
+    ------
+    InputError
+        A team list with a file name not ending in .toml, or a file that already exists
+        (exit code 2).
+    """
     from scheduler.config import write_starter_config
 
     if teams is not None:
@@ -227,7 +241,28 @@ def factor(
     as_json: Annotated[bool, typer.Option("--json", help="Print one JSON object.")] = False,
     summary: Annotated[bool, typer.Option(help="Leave the rounds out of the text output.")] = False,
 ) -> None:
-    """Print a one-factorization for N teams: method, source, mixing certificate and rounds."""
+    """Print a one-factorization for N teams: method, source, mixing certificate and rounds.
+    \f
+    Parameters
+    ----------
+    teams
+        The number of teams as typed (2 or more; an odd number adds a bye).
+    seed
+        Seed of the randomised searches.
+    time_limit
+        Seconds the search may use when no formula covers the number of teams (positive).
+    budget
+        Old name of ``time_limit``, still accepted with a note.
+    as_json
+        Print one JSON object instead of text.
+    summary
+        Leave the rounds out of the text output.
+
+    Raises
+    ------
+    InputError
+        A number of teams or a time limit that cannot be used (exit code 2).
+    """
     from scheduler.factorization import factorize
 
     n_teams = _parse_teams(teams)
@@ -332,7 +367,41 @@ def plan(
     ] = "auto",
 ) -> None:
     """Plan a season from a league config and write it to the output folder (a file of several
-    divisions plans every division, see ``plan-divisions``)."""
+    divisions plans every division, see ``plan-divisions``).
+    \f
+    Parameters
+    ----------
+    config
+        The league file (.toml or .yaml), or a federation file of several divisions.
+    out_dir
+        The season folder to write (built beside and swapped in as a whole).
+    seed
+        Overrides the league file's seed.
+    time_limit
+        Seconds the planner may search, overriding ``time_limit_seconds`` of the file.
+    force
+        Plan into a folder holding files this planner did not write (kept) or another
+        league's season (replaced).
+    quiet
+        Print only the output folder.
+    workers
+        For a federation file: worker processes on this machine.
+    cluster
+        For a federation file: address of a running Dask scheduler.
+    progress_mode
+        Progress on stderr: ``auto``, ``bar``, ``plain``, ``json`` or ``none``.
+
+    Raises
+    ------
+    InputError
+        Unusable input or options (exit code 2).
+    InfeasibleError
+        Rules that cannot hold together, explained (exit code 2).
+
+    References
+    ----------
+    ``docs/season-folder.md``.
+    """
     from scheduler.config import load_league
     from scheduler.config.federation import is_federation_file
 
@@ -418,7 +487,29 @@ def plan_divisions(
     ] = False,
     quiet: Annotated[bool, typer.Option(help="Print only the output folder.")] = False,
 ) -> None:
-    """Plan every division of a federation file (units of divisions in parallel, on Dask)."""
+    """Plan every division of a federation file (units of divisions in parallel, on Dask).
+    \f
+    Parameters
+    ----------
+    config
+        The federation file.
+    out_dir
+        The output folder (one season folder per division and an index).
+    workers
+        Worker processes on this machine, when no ``cluster`` is given.
+    cluster
+        Address of a running Dask scheduler (``tcp://host:8786``).
+    time_limit
+        Solver seconds per division, overriding the file.
+    force
+        Replace an output folder that holds something else.
+    quiet
+        Print only the output folder.
+
+    References
+    ----------
+    ``docs/divisions.md``.
+    """
     _plan_federation(config, out_dir, workers=workers, cluster=cluster, time_limit=time_limit,
                      force=force, quiet=quiet)
 
@@ -438,7 +529,28 @@ def replan(
     ] = None,
 ) -> None:
     """Re-plan a season after postponements, closures and withdrawals, changing as few games
-    as possible; history never moves."""
+    as possible; history never moves.
+    \f
+    Parameters
+    ----------
+    config
+        The league file the season was planned from.
+    season_dir
+        The season folder to re-plan (holds ``season.json``); rewritten as a whole.
+    events
+        The season-events file (postponements, closures, withdrawals).
+    time_limit
+        Solver seconds, overriding the league file (positive).
+
+    Raises
+    ------
+    InputError
+        Unusable files or options (exit code 2).
+
+    References
+    ----------
+    ``docs/replanning.md``.
+    """
     from scheduler.replan import load_replan, write_replan
 
     if time_limit is not None and time_limit <= 0:
@@ -494,7 +606,32 @@ def audit(
         typer.Option("--league", help="League config whose hard rules the schedule must keep."),
     ] = None,
 ) -> None:
-    """Check any schedule and print its fairness figures (exit 1 when it is invalid)."""
+    """Check any schedule and print its fairness figures (exit 1 when it is invalid).
+    \f
+    Parameters
+    ----------
+    file
+        The schedule: .csv, .xlsx or season.json.
+    as_json
+        Print one JSON object instead of text.
+    report
+        Also write the HTML fairness report to this file (never over a file of the user's).
+    timezone
+        IANA time zone of kick-off times written without a UTC offset.
+    columns
+        Columns named by hand, ``field=header`` pairs separated by commas.
+    league_file
+        A league file whose hard rules the schedule must also keep.
+
+    Raises
+    ------
+    InputError
+        An unusable schedule or option, with its location (exit code 2).
+
+    References
+    ----------
+    ``docs/audit-input.md``.
+    """
     from scheduler.audit import audit_file, parse_column_names
     from scheduler.config import load_league
 

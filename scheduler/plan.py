@@ -61,10 +61,37 @@ from scheduler.season import Fixture, MixingInfo, PlanOptionFigures, Season
 class PlanOption:
     """One alternative the planner considered.
 
-    ``method`` is the factorization's construction, ``perfect_pairs``/``pairs`` its mixing
-    (verifier), ``breaks`` the fewest breaks found with it under the rules (``None`` when the
-    rules cannot hold with it, then ``feasible`` is False), ``break_bound`` the proven lower
-    bound, ``carry_over`` Russell's carry-over value of leg 1 when computed.
+    Parameters
+    ----------
+    label
+        The option's name in reports (which factorization, from which source).
+    method
+        The factorization's construction (:attr:`scheduler.factorization.Factorization.method`).
+    perfect_pairs
+        Pairs of rounds whose union is a Hamiltonian cycle (the independent verifier).
+    pairs
+        All pairs of rounds, ``R (R - 1) / 2`` for ``R`` rounds of one leg.
+    breaks
+        The fewest breaks found with this factorization under the league's rules; ``None``
+        when the rules cannot hold with it (then ``feasible`` is ``False``).
+    break_bound
+        The proven lower bound on breaks for the league's size and leg scheme
+        (``docs/leg-schemes.md``).
+    carry_over
+        Russell's carry-over value of leg 1 when computed, else ``None``.
+    chosen
+        ``True`` for the option the season was built from.
+    feasible
+        ``False`` when no timetable keeps every rule with this factorization.
+    on_frontier
+        ``True`` when no other option considered is at least as good in perfect pairs,
+        breaks and carry-over and better in one of them.
+
+    Examples
+    --------
+    >>> option = PlanOption("circle", "circle", 3, 3, 4, 4, None, True)
+    >>> option.feasible, option.on_frontier
+    (True, False)
     """
 
     label: str
@@ -84,6 +111,12 @@ class PlanOption:
     def figures(self) -> str:
         """The option's figures in words, named as in every other output
         (:mod:`scheduler.fairness.names`), never a missing value printed as "None".
+
+        Returns
+        -------
+        str
+            Comma-separated figures: perfect pairs, then breaks with their bound (or why there
+            are none), then the carry-over value when known.
 
         Examples
         --------
@@ -106,8 +139,19 @@ class PlanOption:
 
 @dataclass(frozen=True)
 class PlanResult:
-    """The planned season, the alternatives considered, ``status`` ("optimal" when every solver
-    stage proved its optimum, else "feasible") and the planner's notes (also in the season)."""
+    """The outcome of :func:`plan_season`.
+
+    Parameters
+    ----------
+    season
+        The planned season.
+    options
+        The alternatives considered, the chosen one marked.
+    status
+        ``"optimal"`` when every solver stage proved its optimum, else ``"feasible"``.
+    notes
+        The planner's notes in plain sentences (also in ``season.notes``).
+    """
 
     season: Season
     options: tuple[PlanOption, ...]
@@ -116,8 +160,37 @@ class PlanResult:
 
 
 def revision(league: League, seed: int) -> str:
-    """A deterministic 12-hex id of the league configuration and seed (sha256 of its repr; the
-    file path ``source`` is left out so that moving the file keeps the revision)."""
+    """A deterministic 12-hex id of the league configuration and seed.
+
+    Parameters
+    ----------
+    league
+        The league configuration; its file path ``source`` is left out, so that moving the
+        file keeps the revision.
+    seed
+        The planner's random seed.
+
+    Returns
+    -------
+    str
+        The first 12 hexadecimal digits of the SHA-256 of the league's ``repr`` and the seed.
+
+    References
+    ----------
+    FIPS 180-4 (SHA-256); ``docs/season-folder.md``.
+
+    Examples
+    --------
+    >>> from scheduler.config import parse_league
+    >>> league = parse_league({
+    ...     "league": {"name": "Quenby Four", "season": "2031", "timezone": "Europe/London"},
+    ...     "calendar": {"start": "2031-01-07", "end": "2031-04-29", "weekdays": ["tue"]},
+    ...     "venues": [{"name": "Quenby Hall"}],
+    ...     "teams": [{"name": club, "home_venue": "Quenby Hall"}
+    ...               for club in ("Quenby", "Larkholt", "Ebbside", "Morrow")]})
+    >>> len(revision(league, 0)), revision(league, 0) == revision(league, 1)
+    (12, False)
+    """
     text = repr(replace(league, source=None)) + f"|seed={seed}"
     return hashlib.sha256(text.encode("utf-8")).hexdigest()[:12]
 

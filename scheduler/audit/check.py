@@ -25,7 +25,42 @@ from scheduler.season import Season
 
 @dataclass(frozen=True)
 class AuditResult:
-    """The outcome of an audit. ``source`` is ``None`` for a season audited in memory."""
+    """The outcome of an audit.
+
+    Parameters
+    ----------
+    season
+        The schedule as read (or as given), whether valid or not.
+    valid
+        ``True`` when the season is a valid round robin and keeps the league's hard rules
+        (when a league was given).
+    problems
+        What makes the season invalid, each naming its source rows where known; empty when
+        valid.
+    fairness
+        The fairness figures, measured as far as they can be even for an invalid season;
+        ``None`` when the season has no games.
+    source
+        The file the season was read from, with each fixture's source row; ``None`` for a
+        season audited in memory.
+    fairness_note
+        A sentence on how far the figures can be trusted ("" when fully).
+
+    See Also
+    --------
+    audit_file, audit_season
+
+    Examples
+    --------
+    >>> from scheduler.season import Fixture, Season
+    >>> games = [(1, "Ash", "Elm"), (1, "Oak", "Yew"), (2, "Elm", "Oak"),
+    ...          (2, "Yew", "Ash"), (3, "Ash", "Oak"), (3, "Elm", "Yew")]
+    >>> season = Season("Demo", "2031", ("Ash", "Elm", "Oak", "Yew"),
+    ...                 tuple(Fixture(*game) for game in games))
+    >>> result = audit_season(season)
+    >>> result.valid, result.path, result.to_dict()["breaks_total"]
+    (True, None, 2)
+    """
 
     season: Season
     valid: bool
@@ -36,11 +71,25 @@ class AuditResult:
 
     @property
     def path(self) -> str | None:
+        """The audited file as given, or ``None`` for a season audited in memory."""
         return self.source.path if self.source else None
 
     def to_dict(self, *, full: bool = False) -> dict:
-        """JSON-ready outcome: validity, problems (as sentences), headline figures; with
-        ``full`` also every fairness figure and each problem's rows."""
+        """JSON-ready outcome: validity, problems (as sentences), headline figures.
+
+        Parameters
+        ----------
+        full
+            Also include every fairness figure (``"fairness"``) and each problem with its
+            rows and fixtures (``"problem_details"``).
+
+        Returns
+        -------
+        dict
+            Plain values only (str, int, float, bool, None, lists and dicts), ready for
+            :func:`json.dumps`; figures are ``None`` when the season has no games. With a
+            league, ``"rules"`` lists each hard rule's check.
+        """
         f = self.fairness
         out: dict = {
             "file": self.path,
@@ -97,6 +146,19 @@ def audit_season(season: Season, rows: Sequence[int | None] | None = None,
     References
     ----------
     ``docs/audit-input.md``; ``docs/fairness.md``.
+
+    Examples
+    --------
+    Ash playing twice in round 3 (the rows are those of an imagined source file):
+
+    >>> from scheduler.season import Fixture, Season
+    >>> games = [(1, "Ash", "Elm"), (1, "Oak", "Yew"), (2, "Elm", "Oak"),
+    ...          (2, "Yew", "Ash"), (3, "Ash", "Oak"), (3, "Elm", "Ash")]
+    >>> season = Season("Demo", "2031", ("Ash", "Elm", "Oak", "Yew"),
+    ...                 tuple(Fixture(*game) for game in games))
+    >>> result = audit_season(season, rows=[2, 3, 4, 5, 6, 7])
+    >>> result.valid, result.problems[0].message
+    (False, 'round 3: Ash plays twice (rows 6, 7)')
     """
     problems = tuple(validate_season(season, rows))
     fairness = compute_fairness(season, league) if season.fixtures else None

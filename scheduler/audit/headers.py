@@ -183,7 +183,24 @@ HEADER_LOOKUP: dict[str, tuple[str, tuple[str, ...]]] = _lookup()
 
 
 def words_of(field: str) -> tuple[str, ...]:
-    """Every header word of ``field`` in every language, normalised (for messages and tests)."""
+    """Every header word of ``field`` in every language, normalised (for messages and tests).
+
+    Parameters
+    ----------
+    field
+        One of :data:`FIELDS` (``"round"``, ``"home"``, ...).
+
+    Returns
+    -------
+    tuple of str
+        The normalised words (see :func:`normalise_header`), in vocabulary order; empty for
+        an unknown field.
+
+    Examples
+    --------
+    >>> "spieltag" in words_of("round"), "heim" in words_of("home")
+    (True, True)
+    """
     return tuple(word for word, (f, _) in HEADER_LOOKUP.items() if f == field)
 
 
@@ -222,7 +239,25 @@ def match_headers(cells: Sequence[object],
 
 def usable(found: Mapping[str, int], named: Mapping[str, str] | None = None) -> bool:
     """Whether a row's fields name the two sides (home and away, or one match column), and
-    every field named by hand."""
+    every field named by hand.
+
+    Parameters
+    ----------
+    found
+        Field -> column index of a candidate header row (:func:`match_headers`).
+    named
+        Fields named by hand (field -> header text); each must be among ``found``.
+
+    Returns
+    -------
+    bool
+        ``True`` when the row can serve as the header row.
+
+    Examples
+    --------
+    >>> usable({"home": 1, "away": 2}), usable({"match": 0}), usable({"home": 1})
+    (True, True, False)
+    """
     if named and not all(field in found for field in named):
         return False
     return ("home" in found and "away" in found) or "match" in found
@@ -276,7 +311,25 @@ def parse_column_names(text: str | None) -> dict[str, str]:
 
 
 def expected_message(rows_searched: int, named: Mapping[str, str] | None = None) -> str:
-    """The message for a file without a recognisable header row."""
+    """The message for a file without a recognisable header row.
+
+    Parameters
+    ----------
+    rows_searched
+        How many rows from the top were searched (``HEADER_SEARCH_ROWS`` of the readers).
+    named
+        Fields named by hand, repeated in the message when given.
+
+    Returns
+    -------
+    str
+        One sentence saying what was expected and how to name the columns by hand.
+
+    Examples
+    --------
+    >>> expected_message(10, {"home": "Heim"})[:40]
+    'no header row in the first 10 rows holds'
+    """
     if named:
         shown = ", ".join(f"{field}={header}" for field, header in named.items())
         return (
@@ -296,6 +349,19 @@ def languages_of(found: Mapping[str, int], cells: Sequence[object]) -> tuple[str
 
     Greedy cover: the language holding most of the row's words first, then the one holding
     most of the rest, and so on (ties in the order of :data:`LANGUAGES`).
+
+    Parameters
+    ----------
+    found
+        Field -> column index of the header row (:func:`match_headers`).
+    cells
+        The header row's cells.
+
+    Returns
+    -------
+    tuple of str
+        ISO 639-1 codes of :data:`LANGUAGES`, the most used first; empty when no header word
+        came from the vocabulary.
 
     Examples
     --------

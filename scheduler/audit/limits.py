@@ -56,6 +56,16 @@ MAX_CSV_FIELD_CHARS = 10_000
 def size_text(nbytes: int) -> str:
     """``nbytes`` for a message: ``"12.5 MB"`` from 1 MiB upwards, else ``"812 bytes"``.
 
+    Parameters
+    ----------
+    nbytes
+        A size in bytes (not negative).
+
+    Returns
+    -------
+    str
+        The size in MB (units of 1024 * 1024 bytes, one decimal) or in bytes.
+
     Examples
     --------
     >>> size_text(3 * 1024 * 1024)
@@ -161,6 +171,15 @@ def check_csv_fields(text: str, location: str, limit: int | None = None) -> None
     a longer quoted field with separators inside is then refused by the ``csv`` module's own
     field limit, set to the same value.
 
+    Parameters
+    ----------
+    text
+        The decoded CSV text.
+    location
+        The file, for the message.
+    limit
+        Longest field in characters; default :data:`MAX_CSV_FIELD_CHARS`.
+
     Raises
     ------
     InputError
@@ -192,10 +211,30 @@ def check_nesting(text: str, location: str, *, comments: bool = False,
                   limit: int | None = None) -> None:
     """Refuse text nested deeper than ``limit`` (default :data:`MAX_NESTING_DEPTH`) levels.
 
+    Parameters
+    ----------
+    text
+        JSON text (or TOML/YAML text with ``comments``).
+    location
+        The file, for the message.
+    comments
+        Skip ``#`` comments when counting brackets (TOML, YAML).
+    limit
+        Deepest nesting read; default :data:`MAX_NESTING_DEPTH`.
+
     Raises
     ------
     InputError
         The depth over the limit.
+
+    Examples
+    --------
+    >>> check_nesting("[[1]]", "f.json", limit=2)
+    >>> try:
+    ...     check_nesting("[[[1]]]", "f.json", limit=2)
+    ... except InputError as error:
+    ...     print(error.detail)
+    the file nests lists or objects 3 levels deep; at most 2 are read
     """
     limit = MAX_NESTING_DEPTH if limit is None else limit
     depth = nesting_depth(text, comments=comments)

@@ -6,16 +6,24 @@ fixture, the row of the source file it came from (so validity problems can say "
 :class:`~scheduler.errors.InputError` with its location (file, sheet, row, column); the size
 limits of :mod:`scheduler.audit.limits` are checked before anything is parsed.
 
-CSV (RFC 4180, tokenised with the standard ``csv`` module, which keeps ragged title rows and
-counts records, not lines):
+CSV (RFC 4180): the records are tokenised by :func:`pandas.read_csv` (C engine, every cell as
+text, blank lines kept as empty records, so rows are numbered as CSV records), after two steps
+pandas does not offer, which stay the project's own (reasons in ``docs/audit-input.md``):
 
 * encoding: a byte-order mark decides (UTF-8, UTF-16 LE/BE, UTF-32); otherwise UTF-8, then
   Windows-1252 (cp1252), then Latin-1; text that still holds control characters (a binary file)
-  is refused with a message;
+  is refused with a message. pandas reads with a given encoding and detects none;
 * delimiter: comma, semicolon, tab or ``|``, chosen as the one that splits the header row into
-  the most recognised column names (then the most fields). Neither step has a general library
-  equivalent that knows schedule headers: pandas reads with a given encoding and delimiter, and
-  ``csv.Sniffer`` guesses from character frequencies only.
+  the most recognised column names (then the most fields). pandas' ``sep=None`` asks
+  ``csv.Sniffer``, which guesses from character frequencies and knows nothing of headers (it
+  takes the space for the delimiter of a title row such as "Spring Ladder 2031").
+
+The columns read are those of the first :data:`HEADER_SEARCH_ROWS` records (the header is one of
+them): narrower title rows and wider data rows (a trailing delimiter) are padded or cut, as the
+``csv`` module's ragged rows were. Limits: no unquoted run longer than
+:data:`~scheduler.audit.limits.MAX_CSV_FIELD_CHARS` (checked before tokenising), and no quoted
+field longer either (the ``csv`` module's own limit for the header region, a check of the
+frame with row and column for the rest). An unclosed quote is refused with the row it opens.
 
 xlsx: read into one pandas frame per sheet with :func:`pandas.read_excel` and the calamine
 engine (python-calamine; about four times faster than openpyxl here, see
@@ -44,6 +52,7 @@ from __future__ import annotations
 
 import csv
 import io
+import itertools
 import re
 from collections import Counter
 from collections.abc import Mapping, Sequence
@@ -105,11 +114,47 @@ _MATCH_SPLIT = re.compile(r"\s+(?:v|vs\.?|versus|-|–|—|:)\s+", re.IGNORECASE
 
 @dataclass(frozen=True)
 class ScheduleFile:
-    """A schedule read from a file.
+    r"""A schedule read from a file.
 
-    ``rows[i]`` is the source row (1-based, as a spreadsheet shows it) of ``season.fixtures[i]``,
-    or ``None`` when the format has no rows (season.json). ``columns`` maps each field used to
-    the header it was read from. ``notes`` say what was inferred (encoding, legs, rounds).
+    Parameters
+    ----------
+    season
+        The schedule as a season (league name: the file's stem).
+    rows
+        ``rows[i]`` is the source row (1-based, as a spreadsheet or text editor shows it;
+        CSV records, so a quoted field over two lines counts once) of ``season.fixtures[i]``,
+        or ``None`` when the format has no rows (season.json).
+    path
+        The file as given.
+    kind
+        ``"csv"``, ``"xlsx"`` or ``"season.json"``.
+    sheet
+        The worksheet read (xlsx only).
+    encoding
+        The text encoding used (CSV and season.json).
+    delimiter
+        The field delimiter chosen (CSV only).
+    columns
+        (field, header) for each field used, in the order of
+        :data:`scheduler.audit.headers.FIELDS`.
+    notes
+        What was inferred: the encoding when not UTF-8, the legs, the rounds, the header
+        language, columns named by hand.
+
+    See Also
+    --------
+    read_schedule_with_rows
+
+    Examples
+    --------
+    >>> import tempfile, pathlib
+    >>> path = pathlib.Path(tempfile.mkdtemp()) / "cup.csv"
+    >>> _ = path.write_text("round,home,away\n1,Ash,Elm\n2,Elm,Ash\n", encoding="utf-8")
+    >>> read = read_schedule_with_rows(path)
+    >>> read.kind, read.delimiter, read.rows, read.columns
+    ('csv', ',', (2, 3), (('round', 'round'), ('home', 'home'), ('away', 'away')))
+    >>> read.notes
+    ('no leg column: 2 legs of 1 rounds inferred',)
     """
 
     season: Season
@@ -417,6 +462,7 @@ def _header_notes(found: Mapping[str, int], cells: Sequence[object],
 
 _CONTROL = re.compile(r"[\x00-\x08\x0b\x0c\x0e-\x1f\x7f-\x9f]")
 _DELIMITERS = (",", ";", "\t", "|")
+_UNCLOSED_QUOTE = re.compile(r"EOF inside string starting at row (\d+)")
 
 
 def decode_text(raw: bytes, location: str) -> tuple[str, str]:
@@ -491,6 +537,53 @@ def _choose_delimiter(text: str, named: Mapping[str, str] | None) -> str:
     return best
 
 
+def _header_width(text: str, delimiter: str) -> int:
+    """The most fields of the first :data:`HEADER_SEARCH_ROWS` records (the header row is one
+    of them, so no column the reader uses lies beyond)."""
+    records = itertools.islice(csv.reader(io.StringIO(text), delimiter=delimiter),
+                               HEADER_SEARCH_ROWS)
+    return max((len(cells) for cells in records), default=1) or 1
+
+
+def _csv_rows(text: str, delimiter: str, width: int, where: str) -> list[tuple[int, list]]:
+    """The records of CSV text as (record number, cells), tokenised by :func:`pandas.read_csv`.
+
+    pandas' C tokeniser reads RFC 4180 quoting (a quoted field may hold the delimiter, doubled
+    quotes and line breaks) and keeps blank lines as empty records, so record numbers are those
+    a text editor shows for one-line records. Every record is cut or padded to the width of the
+    header region (``usecols``): title rows above the header may be narrower, data rows may
+    carry extra trailing cells (a trailing delimiter), and neither is an error. pandas has no
+    field-size limit, so the longest field is checked here, with its row and column.
+    """
+    columns = list(range(width))
+    try:
+        frame = pd.read_csv(
+            io.StringIO(text), sep=delimiter, header=None, names=columns, usecols=columns,
+            dtype=str, keep_default_na=False, na_filter=False, skip_blank_lines=False,
+            engine="c", quoting=csv.QUOTE_MINIMAL, doublequote=True,
+        )
+    except (pd.errors.ParserError, ValueError) as exc:
+        message = " ".join(str(exc).replace("Error tokenizing data. C error:", "").split())
+        unclosed = _UNCLOSED_QUOTE.search(message)
+        if unclosed:  # pandas counts records from 0
+            raise InputError(
+                "a quoted field is never closed (a closing quote is missing)",
+                location=f"{where}, row {int(unclosed.group(1)) + 1}",
+            ) from exc
+        raise InputError(f"malformed CSV: {message}", location=where) from exc
+    for column in columns:
+        lengths = frame[column].str.len()
+        if len(lengths) and lengths.max() > MAX_CSV_FIELD_CHARS:
+            record = int(lengths.to_numpy().argmax()) + 1
+            raise InputError(
+                f"a quoted field is longer than {MAX_CSV_FIELD_CHARS} characters; is this a "
+                "schedule?",
+                location=f"{where}, row {record}, column {column + 1}",
+            )
+    return [(k + 1, list(cells))
+            for k, cells in enumerate(frame.itertuples(index=False, name=None))]
+
+
 def _read_csv(path: Path, raw: bytes, timezone: str | None,
               named: Mapping[str, str] | None) -> ScheduleFile:
     where = str(path)
@@ -502,8 +595,7 @@ def _read_csv(path: Path, raw: bytes, timezone: str | None,
     try:
         csv.field_size_limit(MAX_CSV_FIELD_CHARS)
         delimiter = _choose_delimiter(text, named)
-        rows = [(k + 1, cells) for k, cells in enumerate(csv.reader(io.StringIO(text),
-                                                                      delimiter=delimiter))]
+        width = _header_width(text, delimiter)
     except csv.Error as exc:
         if "field limit" in str(exc):
             raise InputError(
@@ -514,6 +606,7 @@ def _read_csv(path: Path, raw: bytes, timezone: str | None,
         raise InputError(f"malformed CSV: {exc}", location=where) from exc
     finally:
         csv.field_size_limit(previous_limit)
+    rows = _csv_rows(text, delimiter, width, where)
     head = _find_header(rows, named)
     if head is None:
         raise InputError(expected_message(HEADER_SEARCH_ROWS, named), location=where)
@@ -651,7 +744,7 @@ def read_schedule_with_rows(
 
 def read_schedule(path: str | Path, *, timezone: str | None = None,
                   columns: Mapping[str, str] | None = None) -> Season:
-    """Read a CSV, xlsx or season.json schedule into a :class:`Season`.
+    r"""Read a CSV, xlsx or season.json schedule into a :class:`Season`.
 
     See :func:`read_schedule_with_rows` for the parameters and errors.
 
@@ -677,5 +770,15 @@ def read_schedule(path: str | Path, *, timezone: str | None = None,
     References
     ----------
     RFC 4180 (CSV); ECMA-376 (xlsx); ``docs/audit-input.md``.
+
+    Examples
+    --------
+    >>> import tempfile, pathlib
+    >>> path = pathlib.Path(tempfile.mkdtemp()) / "cup.csv"
+    >>> _ = path.write_text("Date;Time;Home;Away\n07/01/2031;19:30;Ash;Elm\n",
+    ...                     encoding="utf-8")
+    >>> season = read_schedule(path, timezone="Europe/London")
+    >>> season.fixtures[0].round, season.fixtures[0].start.isoformat()
+    (1, '2031-01-07T19:30:00+00:00')
     """
     return read_schedule_with_rows(path, timezone=timezone, columns=columns).season

@@ -119,6 +119,25 @@ def season_name_problem(season: Season) -> tuple[str, str] | None:
 
     Reading a season file back never refuses such names (the writer may hold any season made in
     memory); the audit of a file from elsewhere does, with this place.
+
+    Parameters
+    ----------
+    season
+        The season whose team names are checked (team list first, then each fixture).
+
+    Returns
+    -------
+    tuple of (str, str) or None
+        The place (``"teams[2]"``, ``"fixtures[5].home"``) and the problem as a sentence, or
+        ``None`` when every name is acceptable.
+
+    Examples
+    --------
+    >>> from scheduler.season import Fixture, Season
+    >>> season_name_problem(Season("L", "2031", ("A", "B"), (Fixture(1, "A", "B"),))) is None
+    True
+    >>> season_name_problem(Season("L", "2031", ("A", "B\\x07"), ()))[0]
+    'teams[1]'
     """
     for i, team in enumerate(season.teams):
         problem = character_problem(team)
@@ -314,6 +333,23 @@ def loads_season(text: str, *, source: str = "season.json") -> Season:
     ------
     InputError
         For text that is not JSON, nested too deeply, or not a season file of this tool.
+
+    References
+    ----------
+    RFC 8259 (JSON); ``docs/season-folder.md``.
+
+    Examples
+    --------
+    >>> from scheduler.export.season_json import dumps_season
+    >>> from scheduler.season import Fixture, Season
+    >>> season = Season("Demo", "2031", ("Ash", "Elm"), (Fixture(1, "Ash", "Elm"),))
+    >>> loads_season(dumps_season(season)).fixtures == season.fixtures
+    True
+    >>> try:
+    ...     loads_season("[1, 2", source="demo.json")
+    ... except InputError as error:
+    ...     print(error.location)
+    demo.json: line 1, column 6
     """
     check_nesting(text, source)
     try:
@@ -352,13 +388,42 @@ def load_season_json(path: str | Path) -> Season:
     References
     ----------
     RFC 8259 (JSON); ``docs/season-folder.md``.
+
+    Examples
+    --------
+    >>> import tempfile
+    >>> from scheduler.export.season_json import dumps_season
+    >>> from scheduler.season import Fixture, Season
+    >>> season = Season("Demo", "2031", ("Ash", "Elm"), (Fixture(1, "Ash", "Elm"),))
+    >>> path = Path(tempfile.mkdtemp()) / "season.json"
+    >>> _ = path.write_text(dumps_season(season), encoding="utf-8")
+    >>> load_season_json(path).teams
+    ('Ash', 'Elm')
     """
     path = Path(path)
     return loads_season_bytes(read_bytes_limited(path), source=str(path))
 
 
 def loads_season_bytes(raw: bytes, *, source: str) -> Season:
-    """A season from the bytes of a ``season.json`` (UTF-8 with or without BOM)."""
+    """A season from the bytes of a ``season.json`` (UTF-8 with or without BOM).
+
+    Parameters
+    ----------
+    raw
+        The file's bytes (already size-checked by the caller).
+    source
+        Name of the input in error locations.
+
+    Returns
+    -------
+    Season
+        The season, as :func:`loads_season` reads it.
+
+    Raises
+    ------
+    InputError
+        Bytes that are not UTF-8, or text that :func:`loads_season` refuses.
+    """
     try:
         text = raw.decode("utf-8-sig")
     except UnicodeDecodeError as exc:

@@ -4,9 +4,10 @@ Rounds and legs are the first whole number in the cell (``"Round 3"`` -> 3). Dat
 ``YYYY-MM-DD``, ``YYYY/MM/DD``, ``DD.MM.YYYY`` or ``DD/MM/YYYY`` (slashes are read day first
 unless some value of the column only makes sense month first), or spreadsheet dates. A column of
 dates is parsed at once with :func:`pandas.to_datetime` (one explicit format at a time, in the
-order of :data:`DATE_FORMATS_DAY_FIRST`, so each text gets the first format that reads it);
-what pandas cannot hold (years outside 1677-2262) or read falls back to :func:`as_date`, which
-also writes the message for a cell that is no date. Times are ``HH:MM[:SS]`` (also ``HH.MM``,
+order of :data:`DATE_FORMATS_DAY_FIRST`, so each text gets the first format that reads it), at
+microsecond resolution so that every year 1-9999 fits; what pandas cannot read falls back to
+:func:`as_date` cell by cell (``datetime.strptime`` with the same formats, then ISO date-times),
+which also writes the message for a cell that is no date. Times are ``HH:MM[:SS]`` (also ``HH.MM``,
 ``19h30``, ``7:30 pm``) or spreadsheet times; a full ISO date-time with a UTC offset gives the
 kick-off directly. A text cell that the project's exporters made inert against formula
 injection (a leading ``'``, :func:`scheduler.export.safety.neutralise_cell`) is restored.
@@ -31,7 +32,30 @@ class BadCell(ValueError):
 
 
 def as_int(value: object, what: str) -> int:
-    """The first whole number of a cell (``"Round 3"`` -> 3); :class:`BadCell` otherwise."""
+    """The first whole number of a cell (``"Round 3"`` -> 3).
+
+    Parameters
+    ----------
+    value
+        The cell: text, a whole number, or a float with no fractional part (spreadsheets).
+    what
+        What the cell holds, for the message (``"the round"``).
+
+    Returns
+    -------
+    int
+        The number.
+
+    Raises
+    ------
+    BadCell
+        A boolean, a fractional number, or text without digits; the caller adds the location.
+
+    Examples
+    --------
+    >>> as_int("3. Spieltag", "the round"), as_int(4.0, "the round")
+    (3, 4)
+    """
     if type(value) is str and value.isdigit():
         return int(value)
     if isinstance(value, bool):
@@ -49,7 +73,24 @@ def as_int(value: object, what: str) -> int:
 
 
 def cell_text(value: object) -> str:
-    """The cell as text with runs of white space collapsed ("" for an empty cell)."""
+    """The cell as text with runs of white space collapsed ("" for an empty cell).
+
+    Parameters
+    ----------
+    value
+        The cell: text, ``None`` (empty) or a number; text our exporters made inert against
+        formula injection (a leading ``'``) is restored.
+
+    Returns
+    -------
+    str
+        The text, stripped; a whole float is written without ``.0``.
+
+    Examples
+    --------
+    >>> cell_text("  Harbour   Rovers "), cell_text(None), cell_text(3.0), cell_text("'=Pier")
+    ('Harbour Rovers', '', '3', '=Pier')
+    """
     if type(value) is str:
         stripped = value.strip()
         if stripped.startswith("'"):
@@ -72,7 +113,23 @@ DATE_FORMATS_MONTH_FIRST = ("%Y-%m-%d", "%Y/%m/%d", "%d.%m.%Y", "%m/%d/%Y", "%d-
 
 
 def month_first(values: Iterable[object]) -> bool:
-    """True when some slash date of the column only makes sense month first (second part > 12)."""
+    """True when some slash date of the column only makes sense month first (second part > 12).
+
+    Parameters
+    ----------
+    values
+        The cells of a date column; only text cells are looked at.
+
+    Returns
+    -------
+    bool
+        ``True`` when a date such as ``03/25/2031`` shows the column is written month first.
+
+    Examples
+    --------
+    >>> month_first(["03/04/2031", "03/25/2031"]), month_first(["25/03/2031"])
+    (True, False)
+    """
     for v in values:
         if isinstance(v, str):
             parts = v.strip().split(" ")[0].split("/")
@@ -110,7 +167,36 @@ def parse_datetime_text(text: str) -> datetime | None:
 
 
 def as_date(value: object, month_first: bool) -> tuple[date | None, datetime | None]:
-    """(date, full datetime when the cell holds one); :class:`BadCell` when it is no date."""
+    """A date cell as (date, full aware datetime when the cell is a spreadsheet date-time with one).
+
+    Parameters
+    ----------
+    value
+        The cell: ``None`` or ``""`` (no date), a :class:`datetime.date` or
+        :class:`datetime.datetime` (spreadsheets), or text in one of
+        :data:`DATE_FORMATS_DAY_FIRST` or an ISO 8601 date-time.
+    month_first
+        Read slash dates month first (see the function :func:`month_first`).
+
+    Returns
+    -------
+    tuple
+        (the date or ``None``, the cell itself when it is an aware :class:`datetime.datetime`,
+        else ``None``). Text is read by its date part only; the offset of an ISO date-time
+        written as text is read by :func:`as_time`.
+
+    Raises
+    ------
+    BadCell
+        Text that is no date in any of the formats; the caller adds the location.
+
+    Examples
+    --------
+    >>> as_date("01/03/2031", month_first=False)
+    (datetime.date(2031, 3, 1), None)
+    >>> as_date("2031-03-01T19:30+01:00", month_first=False)
+    (datetime.date(2031, 3, 1), None)
+    """
     if value is None or value == "":
         return None, None
     if isinstance(value, datetime):
@@ -135,7 +221,31 @@ _TIME = re.compile(r"^(\d{1,2})[:.h](\d{2})(?::(\d{2}))?\s*([ap]\.?m\.?)?$", re.
 
 
 def as_time(value: object) -> tuple[time | None, datetime | None]:
-    """(time of day, full aware datetime when the cell holds one with an offset)."""
+    """A time cell as (time of day, full aware datetime when the cell holds one with an offset).
+
+    Parameters
+    ----------
+    value
+        The cell: ``None`` or ``""`` (no time), a :class:`datetime.time` or
+        :class:`datetime.datetime` (spreadsheets), or text such as ``19:30``, ``19.30``,
+        ``19h30``, ``7:30 pm`` or an ISO 8601 date-time.
+
+    Returns
+    -------
+    tuple
+        (the naive time of day or ``None``, the full datetime when it carries a UTC offset,
+        else ``None``).
+
+    Raises
+    ------
+    BadCell
+        Text that is no time of day; the caller adds the location.
+
+    Examples
+    --------
+    >>> as_time("7:30 pm"), as_time("19h30")[0]
+    ((datetime.time(19, 30), None), datetime.time(19, 30))
+    """
     if value is None or value == "":
         return None, None
     if isinstance(value, datetime):
@@ -176,8 +286,13 @@ def parse_date_texts(texts: Iterable[str], month_first: bool) -> dict[str, date]
     Returns
     -------
     dict
-        Text -> date for every text one of the formats reads; the others are left to
-        :func:`as_date` (full date-times, dates outside pandas' range, cells that are no date).
+        Text -> date for every text one of the formats reads (the date part of a date and
+        time included); the others are left to :func:`as_date` (ISO date-times in other
+        forms, cells that are no date).
+
+    References
+    ----------
+    ``docs/audit-input.md``; pandas, :func:`pandas.to_datetime`.
 
     Examples
     --------
@@ -188,7 +303,9 @@ def parse_date_texts(texts: Iterable[str], month_first: bool) -> dict[str, date]
     if distinct.empty:
         return {}
     heads = distinct.str.split("T", n=1).str[0].str.split(" ", n=1).str[0]
-    parsed = pd.Series(pd.NaT, index=distinct.index, dtype="datetime64[ns]")
+    # Microseconds, not pandas' nanoseconds: every year 1..9999 fits (pandas 3 parses to
+    # microseconds; a nanosecond column would refuse a date after 2262 with an exception).
+    parsed = pd.Series(pd.NaT, index=distinct.index, dtype="datetime64[us]")
     formats = DATE_FORMATS_MONTH_FIRST if month_first else DATE_FORMATS_DAY_FIRST
     for fmt in formats:
         todo = parsed.isna()
@@ -206,6 +323,23 @@ def team_name(text: str, seen: dict[str, str]) -> str:
     """A team name of a schedule cell: refused (:class:`BadCell`) when it holds a control,
     text-direction or unassigned character, else in Normalization Form C. ``seen`` caches the
     names already checked.
+
+    Parameters
+    ----------
+    text
+        The cell's text.
+    seen
+        Cache of names already checked (text as written -> name in NFC); updated in place.
+
+    Returns
+    -------
+    str
+        The name in Unicode Normalization Form C.
+
+    Raises
+    ------
+    BadCell
+        A control, text-direction or unassigned character; the caller adds the location.
 
     Examples
     --------

@@ -33,8 +33,44 @@ def anneal(
 ) -> tuple[list[int], dict[tuple[int, int], bool], int]:
     """Return (leg-1 order, a-is-home for every game (a, b), breaks) with few breaks.
 
-    ``maps[l][q]`` is the leg-1 position copied by leg ``l`` at position ``q`` (venues swapped
-    on odd legs), as in :func:`scheduler.leg_schemes.leg_maps`.
+    Parameters
+    ----------
+    rounds
+        The rounds of the factorization, each a list of games ``(a, b)`` over vertices
+        ``0 .. n - 1``.
+    n
+        Number of vertices (teams, plus the bye vertex of an odd league).
+    maps
+        ``maps[l][q]`` is the leg-1 position copied by leg ``l`` at position ``q`` (venues
+        swapped on odd legs), as in :func:`scheduler.leg_schemes.leg_maps`.
+    bye
+        The bye vertex of an odd league (its games are not played), or ``None``.
+    seed
+        Seed of the random moves.
+    moves
+        Number of moves tried (fixed, so the result is deterministic).
+    start
+        A first solution (leg-1 order, a-is-home per game) to improve, or ``None`` for a
+        greedy alternating start.
+
+    Returns
+    -------
+    tuple
+        (leg-1 round order as factorization round indexes, ``{(a, b): a is home in leg 1}``
+        for every game, total breaks over all legs with byes skipped).
+
+    References
+    ----------
+    S. Kirkpatrick, C. D. Gelatt and M. P. Vecchi, "Optimization by simulated annealing",
+    Science 220 (1983) 671-680; ``docs/fairness.md``.
+
+    Examples
+    --------
+    >>> from scheduler.factorization import circle_factorization
+    >>> rounds = circle_factorization(6).rounds
+    >>> order, home, breaks = anneal(rounds, 6, [list(range(5))], None, moves=2000)
+    >>> breaks, breaks == breaks_of(rounds, home, [order], None)
+    (4, True)
     """
     R = len(rounds)
     rng = random.Random(seed)
@@ -145,7 +181,24 @@ def breaks_of(fact_rounds: Sequence[Round], home_first: dict[tuple[int, int], bo
               orders: Sequence[Sequence[int]], bye: int | None) -> int:
     """Total breaks (byes skipped) when leg ``l`` plays the rounds ``orders[l]`` and every game
     ``(a, b)`` has ``a`` at home in leg 1 iff ``home_first[(a, b)]`` (odd legs swap); counted by
-    :func:`scheduler.home_away.total_breaks`."""
+    :func:`scheduler.home_away.total_breaks`.
+
+    Parameters
+    ----------
+    fact_rounds
+        The rounds of the factorization, each a list of games ``(a, b)``.
+    home_first
+        ``{(a, b): a is at home in leg 1}`` for every game as written in ``fact_rounds``.
+    orders
+        For each leg, the factorization rounds it plays, in order.
+    bye
+        The bye vertex of an odd league, or ``None``.
+
+    Returns
+    -------
+    int
+        Total breaks over the season.
+    """
     games = []
     vertices = 0
     for leg, order in enumerate(orders):

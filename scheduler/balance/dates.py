@@ -29,7 +29,25 @@ __all__ = ["DayModel", "candidate_days", "day_groups", "kickoff"]
 
 
 def day_groups(rounds: int, per_day: int) -> list[list[int]]:
-    """Season rounds (0-based) grouped per match day."""
+    """Season rounds (0-based) grouped per match day.
+
+    Parameters
+    ----------
+    rounds
+        Number of rounds of the season.
+    per_day
+        Rounds played on one match day (values below 1 count as 1).
+
+    Returns
+    -------
+    list of list of int
+        Consecutive rounds per day; the last day may hold fewer.
+
+    Examples
+    --------
+    >>> day_groups(5, 2)
+    [[0, 1], [2, 3], [4]]
+    """
     per_day = max(1, per_day)
     return [list(range(i, min(rounds, i + per_day))) for i in range(0, rounds, per_day)]
 
@@ -37,7 +55,25 @@ def day_groups(rounds: int, per_day: int) -> list[list[int]]:
 def candidate_days(league: League, rounds: int) -> tuple[date, ...]:
     """The match days the model may use: all allowed days up to ``calendar.end``; without an end,
     enough days for the season plus one spare per date named in a rule, and at least up to the
-    latest fixed-fixture date. Too few days is the calendar's located ``ConfigError``."""
+    latest fixed-fixture date.
+
+    Parameters
+    ----------
+    league
+        The league (its calendar and the dates its rules name).
+    rounds
+        Number of rounds of the season.
+
+    Returns
+    -------
+    tuple of datetime.date
+        The candidate match days in order.
+
+    Raises
+    ------
+    ConfigError
+        Too few match days in the calendar, located at the calendar's fields.
+    """
     per_day = max(1, league.calendar.rounds_per_day)
     groups = max(days_needed(league), -(-rounds // per_day))
     cal = league.calendar
@@ -63,6 +99,17 @@ class DayModel:
 
     ``on[(g, d)]`` is true when day group ``g`` is played on candidate day ``d`` (an index into
     ``days``); only ``len(days) - groups + 1`` days are possible for each group, in order.
+
+    Parameters
+    ----------
+    model
+        The CP-SAT model the variables are added to.
+    days
+        The candidate match days (:func:`candidate_days`).
+    groups
+        Number of day groups (:func:`day_groups`); at most ``len(days)``.
+    hint
+        Hint each group onto its earliest possible day.
     """
 
     def __init__(self, model: cp_model.CpModel, days: tuple[date, ...], groups: int,
@@ -89,9 +136,26 @@ class DayModel:
             model.add(self.index[g + 1] >= self.index[g] + 1)
 
     def groups_on(self, d: int) -> list[tuple[int, cp_model.IntVar]]:
-        """(group, literal) for every group that may be played on candidate day ``d``."""
+        """(group, literal) for every group that may be played on candidate day ``d``.
+
+        Parameters
+        ----------
+        d
+            Index of a candidate day in ``days``.
+
+        Returns
+        -------
+        list of (int, ortools.sat.python.cp_model.IntVar)
+            The groups possible on that day, with the literal that places them there.
+        """
         return [(g, lit) for (g, dd), lit in self.on.items() if dd == d]
 
     def lateness(self) -> cp_model.LinearExpr | int:
-        """Sum of the chosen day indices (to prefer the earliest days)."""
+        """Sum of the chosen day indices (to prefer the earliest days).
+
+        Returns
+        -------
+        ortools.sat.python.cp_model.LinearExpr or int
+            0 when every group is on its earliest possible day; an objective term.
+        """
         return sum(self.index) - sum(range(self.groups))

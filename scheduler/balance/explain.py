@@ -34,7 +34,28 @@ seconds); the timetable model allows fewer for a short solve limit."""
 
 @dataclass
 class RuleBook:
-    """The assumption literals of one model and the plain-words text of each statement."""
+    """The assumption literals of one model and the plain-words text of each statement.
+
+    Parameters
+    ----------
+    model
+        The CP-SAT model the literals belong to.
+    literals
+        One assumption literal per distinct statement, in the order they were added.
+    texts
+        ``texts[i]``: the statement of ``literals[i]`` in the organizer's words.
+    _by_text
+        Statement -> its literal (filled by :meth:`rule`; not meant to be passed).
+
+    Examples
+    --------
+    >>> book = RuleBook(cp_model.CpModel())
+    >>> book.rule("no team plays 3 home games in a row") is book.rule(
+    ...     "no team plays 3 home games in a row")
+    True
+    >>> book.texts
+    ['no team plays 3 home games in a row']
+    """
 
     model: cp_model.CpModel
     literals: list[cp_model.IntVar] = field(default_factory=list)
@@ -42,7 +63,18 @@ class RuleBook:
     _by_text: dict[str, cp_model.IntVar] = field(default_factory=dict)
 
     def rule(self, text: str) -> cp_model.IntVar:
-        """The literal that switches the rule described by ``text`` on (one per distinct text)."""
+        """The literal that switches the rule described by ``text`` on (one per distinct text).
+
+        Parameters
+        ----------
+        text
+            The statement in the organizer's words; repeating a text gives the same literal.
+
+        Returns
+        -------
+        ortools.sat.python.cp_model.IntVar
+            The assumption literal; constraints of the statement are enforced only if it holds.
+        """
         if text in self._by_text:
             return self._by_text[text]
         lit = self.model.new_bool_var(f"rule{len(self.literals)}")
@@ -52,11 +84,19 @@ class RuleBook:
         return lit
 
     def forbid(self, text: str) -> None:
-        """A rule that cannot hold at all (checked before solving): its literal must be false."""
+        """A rule that cannot hold at all (checked before solving): its literal must be false.
+
+        Parameters
+        ----------
+        text
+            The statement in the organizer's words.
+        """
         lit = self.rule(text)
         self.model.add_bool_or([lit.negated()])
 
     def assume_all(self) -> None:
+        """Make every statement's literal an assumption of the model (replacing earlier
+        assumptions), so that an infeasible solve can name the statements that clash."""
         self.model.clear_assumptions()
         self.model.add_assumptions(self.literals)
 
@@ -68,6 +108,26 @@ def quickxplain(candidates: list[int], clashes: Callable[[list[int]], bool],
     ``clashes(subset)`` must be monotone (a superset of a clashing set clashes) and true for the
     whole of ``candidates``. After ``budget`` calls the remaining tests are answered "no
     clash", which keeps the result clashing but maybe not minimal.
+
+    Parameters
+    ----------
+    candidates
+        Indexes of the statements of a clashing set.
+    clashes
+        The test: does this subset still clash (a re-solve)?
+    budget
+        Most calls of ``clashes``.
+
+    Returns
+    -------
+    list of int
+        A clashing subset of ``candidates``, sorted; minimal when every test was decided
+        within the budget.
+
+    References
+    ----------
+    U. Junker, "QUICKXPLAIN: preferred explanations and relaxations for over-constrained
+    problems", AAAI 2004 (from memory); ``docs/rules.md``.
 
     Examples
     --------
@@ -112,6 +172,30 @@ def explain(
     ``resolve(indices)`` re-solves with only those statements assumed and returns True when that
     is still proven infeasible (used to shrink the clash to a minimal one, at most ``checks``
     times).
+
+    Parameters
+    ----------
+    book
+        The model's statements and their assumption literals.
+    solver
+        The solver after the INFEASIBLE solve (its sufficient assumptions are read).
+    resolve
+        Re-solve with only the statements of these indexes; True when still infeasible.
+    what
+        The start of the message (what cannot hold).
+    league
+        The league, to name the smallest relaxation of each rule; ``None`` names none.
+    checks
+        Most re-solves used to shrink the clash.
+
+    Returns
+    -------
+    InfeasibleError
+        The error to raise, listing the clashing statements in the organizer's words.
+
+    References
+    ----------
+    ``docs/rules.md``.
     """
     index_of = {lit.index: i for i, lit in enumerate(book.literals)}
     core = sorted(index_of[v] for v in solver.sufficient_assumptions_for_infeasibility()

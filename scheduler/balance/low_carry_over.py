@@ -41,8 +41,25 @@ from scheduler.factorization.model import normalise_round
 
 @dataclass(frozen=True)
 class CarryOverResult:
-    """A single round robin (``rounds`` in playing order) and its carry-over effects value,
-    with Russell's lower bound and the circle method's value as the upper bound."""
+    """A single round robin and its carry-over effects value, with its bounds.
+
+    Parameters
+    ----------
+    rounds
+        The rounds in playing order, each a tuple of games ``(a, b)``.
+    value
+        Russell's carry-over effects value of that order (cyclic).
+    lower
+        Russell's lower bound ``n (n - 1)``.
+    upper
+        The circle method's value ``(n - 1)(n^2 - 6n + 12)``, the largest possible.
+    method
+        How the rounds were found, in words.
+
+    References
+    ----------
+    K. G. Russell, Biometrika 67 (1980) 127-131; ``docs/carry-over.md``.
+    """
 
     rounds: tuple[tuple[tuple[int, int], ...], ...]
     value: int
@@ -58,13 +75,53 @@ class CarryOverResult:
 
 def carry_over_bounds(n: int) -> tuple[int, int]:
     """``(n(n-1), (n-1)(n² - 6n + 12))``: Russell's lower bound and the circle method's value,
-    the maximum (Lambrechts et al. 2018)."""
+    the maximum (Lambrechts et al. 2018).
+
+    Parameters
+    ----------
+    n
+        Number of teams, even (an odd league counts its bye).
+
+    Returns
+    -------
+    tuple of (int, int)
+        (lower bound, upper bound).
+
+    References
+    ----------
+    K. G. Russell, Biometrika 67 (1980) 127-131; R. Lambrechts, A. Ficker, D. Goossens and
+    F. Spieksma, Mathematical Programming 172 (2018) 277-302; ``docs/carry-over.md``.
+
+    Examples
+    --------
+    >>> carry_over_bounds(6)
+    (30, 60)
+    """
     return n * (n - 1), (n - 1) * (n * n - 6 * n + 12)
 
 
 def carry_over_value(rounds: Sequence[Sequence[tuple[int, int]]], n: int) -> int:
     """Russell's value of the rounds in the given order (cyclic), by the project's one
-    carry-over count (:func:`scheduler.carry_over.carry_over_of_rounds`)."""
+    carry-over count (:func:`scheduler.carry_over.carry_over_of_rounds`).
+
+    Parameters
+    ----------
+    rounds
+        The rounds in playing order, each a list of games ``(a, b)`` over ``0 .. n - 1``.
+    n
+        Number of vertices (even).
+
+    Returns
+    -------
+    int
+        The carry-over effects value.
+
+    Examples
+    --------
+    >>> from scheduler.factorization import circle_factorization
+    >>> carry_over_value(circle_factorization(6).rounds, 6)
+    60
+    """
     return carry_over_of_rounds(rounds, n)
 
 

@@ -67,8 +67,18 @@ def _kernel():
 
 @dataclass(frozen=True)
 class OrderResult:
-    """A leg-1 round order, the venue of every game (``(a, b) -> a is at home``) and its breaks
-    in the single round robin."""
+    """A leg-1 round order, the venue of every game and its breaks in the single round robin.
+
+    Parameters
+    ----------
+    order
+        Factorization round indexes in playing order.
+    home
+        ``{(a, b): a is at home}`` for every game ``(a, b)`` as the factorization writes it
+        (games with the bye vertex left out).
+    breaks
+        Breaks of the single round robin in that order with that assignment (byes skipped).
+    """
 
     order: tuple[int, ...]
     home: dict[tuple[int, int], bool]
@@ -76,7 +86,28 @@ class OrderResult:
 
 
 class BreakPaths:
-    """The colouring layers of one factorization and the path evaluator for round orders."""
+    """The colouring layers of one factorization and the path evaluator for round orders.
+
+    Parameters
+    ----------
+    rounds
+        The rounds of the factorization, each a list of games ``(a, b)`` over ``0 .. n - 1``.
+    n
+        Number of vertices, even and at most :data:`MAX_N`.
+    bye
+        The bye vertex of an odd league (exact path only, so ``n <= 16``), or ``None``.
+
+    Raises
+    ------
+    ValueError
+        An odd or too large ``n``, or a bye vertex with ``n > 16`` (the caller's mistake; the
+        planner never asks for these).
+
+    References
+    ----------
+    M. Elf, M. Jünger and G. Rinaldi, Operations Research Letters 31 (2003) 343-349 (from
+    memory); ``docs/perfect-breaks.md``.
+    """
 
     def __init__(
         self, rounds: Sequence[Sequence[tuple[int, int]]], n: int, bye: int | None = None
@@ -185,11 +216,33 @@ class BreakPaths:
         )
 
     def beam(self, order: Sequence[int]) -> int:
-        """Value of the beam path for ``order`` (an upper bound)."""
+        """Value of the beam path for ``order`` (an upper bound).
+
+        Parameters
+        ----------
+        order
+            Factorization round indexes in playing order.
+
+        Returns
+        -------
+        int
+            Breaks of the beam path: at least the fewest breaks of this order.
+        """
         return int(self._beam_path(order)[0])
 
     def beam_colourings(self, order: Sequence[int]) -> tuple[int, list[int]]:
-        """(value, colouring at every position) of the beam path for ``order``."""
+        """(value, colouring at every position) of the beam path for ``order``.
+
+        Parameters
+        ----------
+        order
+            Factorization round indexes in playing order.
+
+        Returns
+        -------
+        tuple of (int, list of int)
+            Breaks of the beam path and its colouring mask ``t_q`` at every position.
+        """
         value, j = self._beam_path(order)
         t = [0] * self.round_count
         for q in range(self.round_count - 1, -1, -1):
@@ -201,7 +254,19 @@ class BreakPaths:
         """Bye convention (byes skipped): vertex ``v`` with its bye at position ``p`` has a break
         across it when ``t_{p-1}(v) == t_{p+1}(v)``; flipping ``v``'s colour after ``p`` turns
         that into an ordinary step, the colour at ``p`` being free (its game is with the bye
-        vertex, whose own colour is not counted)."""
+        vertex, whose own colour is not counted).
+
+        Parameters
+        ----------
+        order
+            Factorization round indexes in playing order.
+
+        Returns
+        -------
+        numpy.ndarray
+            At every position, the mask of vertices whose bye came before it (all zero
+            without a bye vertex).
+        """
         out = np.zeros(len(order), dtype=np.int64)
         acc = 0
         for q, k in enumerate(order):
@@ -211,6 +276,19 @@ class BreakPaths:
         return out
 
     def value(self, order: Sequence[int]) -> int:
+        """Breaks of the best path for ``order``: exact for ``n <= 16``, else the candidate
+        path's (an upper bound).
+
+        Parameters
+        ----------
+        order
+            Factorization round indexes in playing order.
+
+        Returns
+        -------
+        int
+            The number of breaks.
+        """
         o = np.asarray(order, dtype=np.int64)
         if self.exact:
             return int(_kernel()._exact_value(self.layers, o, self.flips(order), self.keep))
@@ -227,7 +305,18 @@ class BreakPaths:
         )
 
     def colourings(self, order: Sequence[int]) -> tuple[int, list[int]]:
-        """(value, the colouring mask at every position) of the best path for ``order``."""
+        """(value, the colouring mask at every position) of the best path for ``order``.
+
+        Parameters
+        ----------
+        order
+            Factorization round indexes in playing order.
+
+        Returns
+        -------
+        tuple of (int, list of int)
+            Breaks of the path (as :meth:`value`) and its colouring mask at every position.
+        """
         o = np.asarray(order, dtype=np.int64)
         R = self.round_count
         t = [0] * R
@@ -269,7 +358,18 @@ class BreakPaths:
 
     def assignment(self, order: Sequence[int]) -> OrderResult:
         """The home/away assignment of the best path for ``order`` (for ``n > 16`` the better
-        of the candidate path and the beam path)."""
+        of the candidate path and the beam path).
+
+        Parameters
+        ----------
+        order
+            Factorization round indexes in playing order.
+
+        Returns
+        -------
+        OrderResult
+            The order, the venue of every game and the breaks.
+        """
         value, t = self.colourings(order)
         if not self.exact:
             bv, bt = self.beam_colourings(order)
@@ -330,6 +430,31 @@ def search_order(
     (:meth:`BreakPaths.beam`). ``work`` is the budget in inner-loop steps
     (:attr:`BreakPaths.work`, :attr:`BreakPaths.beam_work`); the number of evaluations follows
     from it (at least 50), independent of the machine.
+
+    Parameters
+    ----------
+    rounds
+        The rounds of the factorization, each a list of games ``(a, b)`` over ``0 .. n - 1``.
+    n
+        Number of vertices, even.
+    seed
+        Seed of the annealing moves.
+    work
+        Budget in inner-loop steps (no clock, so the result is deterministic).
+    start
+        A first order (factorization round indexes), or ``None`` for ``0 .. R - 1``.
+    bye
+        The bye vertex of an odd league, or ``None``.
+
+    Returns
+    -------
+    OrderResult
+        The best order found, with its home/away assignment and breaks.
+
+    References
+    ----------
+    S. Kirkpatrick, C. D. Gelatt and M. P. Vecchi, Science 220 (1983) 671-680;
+    ``docs/perfect-breaks.md``.
     """
     paths = BreakPaths(rounds, n, bye)
     R = paths.round_count

@@ -59,9 +59,22 @@ CAP_INFINITY = 127
 class BreakMinimum:
     """Fewest breaks of a single round robin on one factorization.
 
-    ``breaks`` is the best found (with ``order`` and ``home``, ``(a, b) -> a is at home``, that
-    reach it), ``lower_bound`` a proven lower bound, ``exact`` whether the two meet, ``method``
-    how each was obtained.
+    Parameters
+    ----------
+    breaks
+        The fewest breaks found.
+    lower_bound
+        A proven lower bound on the breaks of any order and home/away on this factorization.
+    order
+        A round order reaching ``breaks`` (factorization round indexes).
+    home
+        ``{(a, b): a is at home}`` for every game, reaching ``breaks`` with ``order``.
+    method
+        How each figure was obtained, in words.
+
+    References
+    ----------
+    ``docs/perfect-breaks.md``.
     """
 
     breaks: int
@@ -72,6 +85,7 @@ class BreakMinimum:
 
     @property
     def exact(self) -> bool:
+        """Whether the fewest breaks found is proven fewest (it meets the lower bound)."""
         return self.breaks == self.lower_bound
 
 
@@ -330,7 +344,18 @@ def translation_orders(fact: Factorization) -> list[tuple[int, ...]]:
     """Structured starting orders for a starter-induced factorization of a cyclic group
     ``Z_m`` (round ``g`` is ``F_g``): ``0, k, 2k, ...`` for every unit step ``k``, and the
     paired orders ``0, j, u, u + j, 2u, 2u + j, ...`` with ``j = (m - 1)/2 * u`` (the shape of
-    the canonical circle schedule). Empty for other factorizations."""
+    the canonical circle schedule). Empty for other factorizations.
+
+    Parameters
+    ----------
+    fact
+        The factorization (its ``details`` name the group and construction).
+
+    Returns
+    -------
+    list of tuple of int
+        Round orders (factorization round indexes), two per unit step.
+    """
     group = str(fact.details.get("group", ""))
     if not group.startswith("Z_") or " x " in group or fact.details.get("construction") not in (
             "starter", None):
@@ -358,7 +383,24 @@ def search_breaks(fact: Factorization, *, seed: int = 0, work: float = 2e8,
                   starts: int = 4) -> OrderResult:
     """Few breaks for a large ``n``: :func:`~scheduler.balance.orders.search_order` from the
     natural order and from up to ``starts`` structured orders (:func:`translation_orders`,
-    those with the fewest breaks at the start first), the best kept. Deterministic."""
+    those with the fewest breaks at the start first), the best kept. Deterministic.
+
+    Parameters
+    ----------
+    fact
+        The factorization (even ``n``, no bye).
+    seed
+        Seed of the first search; later starts use the following seeds.
+    work
+        Total budget in inner-loop steps, shared equally among the starts.
+    starts
+        Most structured starting orders tried beside the natural one.
+
+    Returns
+    -------
+    OrderResult
+        The order and home/away with the fewest breaks found.
+    """
     n = fact.n
     rounds = fact.rounds
     tries: list[Sequence[int] | None] = [None]
@@ -391,6 +433,32 @@ def cpsat_lower_bound(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *,
     ``n - 2``. Returns ``(bound, best schedule found or None)``; the bound is even and at
     least ``n - 2``. One worker, fixed seed, deterministic time limit (the wall-clock limit is
     only a far safety net).
+
+    Parameters
+    ----------
+    rounds
+        The rounds of a perfect one-factorization, each a list of games ``(a, b)``.
+    n
+        Number of vertices, even.
+    seconds
+        Deterministic time limit of the solve.
+    seed
+        CP-SAT's random seed.
+    first
+        Fix this round at the first position (a symmetry cut for round-transitive
+        factorizations), or ``None``.
+    hint
+        A known schedule to start from, or ``None``.
+
+    Returns
+    -------
+    tuple of (int, OrderResult or None)
+        The proven lower bound (at most the breaks of the schedule found) and the best
+        schedule found, or ``None`` when none was found in time.
+
+    References
+    ----------
+    ``docs/perfect-breaks.md``.
     """
     from ortools.sat.python import cp_model
 
@@ -451,10 +519,26 @@ class Candidate:
     """One perfect one-factorization with the fewest breaks found for a single round robin on
     it and a proven lower bound.
 
-    ``order`` and ``home`` (``(a, b) -> a is at home``, vertices as in ``factorization``) give a
-    schedule with ``breaks`` breaks; no schedule on this factorization has fewer than
-    ``lower_bound``. ``origin`` says where the factorization came from, ``method`` how both
-    figures were obtained.
+    Parameters
+    ----------
+    factorization
+        The perfect one-factorization.
+    origin
+        Where it came from (a construction, the catalogue, a search).
+    breaks
+        The fewest breaks found on it.
+    lower_bound
+        No schedule on this factorization has fewer breaks.
+    order
+        A round order reaching ``breaks``.
+    home
+        ``{(a, b): a is at home}`` (vertices as in ``factorization``), reaching ``breaks``.
+    method
+        How both figures were obtained, in words.
+
+    References
+    ----------
+    ``docs/perfect-breaks.md``.
     """
 
     factorization: Factorization
@@ -467,6 +551,7 @@ class Candidate:
 
     @property
     def exact(self) -> bool:
+        """Whether the fewest breaks found is proven fewest (it meets the lower bound)."""
         return self.breaks == self.lower_bound
 
 

@@ -31,6 +31,20 @@ from scheduler.interrupt import solve_interruptibly
 
 @dataclass(frozen=True)
 class Place:
+    """Where and when one game is played.
+
+    Parameters
+    ----------
+    venue
+        The venue's name, or ``None`` for a league without venues.
+    court
+        The court (pitch, table, sheet) at the venue, or ``None``.
+    slot
+        The kick-off time, or ``None`` when the day has one kick-off.
+    label
+        The slot label shown in outputs (``"19:30"``), or ``None``.
+    """
+
     venue: str | None
     court: str | None
     slot: time | None
@@ -39,7 +53,23 @@ class Place:
 
 @dataclass(frozen=True)
 class Placement:
-    """``places[s][i]`` is the place of game ``i`` of season round ``s`` (timetable order)."""
+    """The places chosen for every game of a timetable (:func:`assign_places`).
+
+    Parameters
+    ----------
+    places
+        ``places[s][i]`` is the place of game ``i`` of season round ``s`` (timetable order).
+    court_max
+        The largest number of games any team plays on one court, or ``None`` when not
+        balanced (one court).
+    slot_max
+        The largest number of games any team plays in one time slot, or ``None``.
+    status
+        ``"optimal"`` when the balance is proven best, else ``"feasible"``.
+    wall_cap_hit
+        ``True`` when the solve stopped at the wall-clock safety net rather than its
+        deterministic limit (the result may then depend on the machine).
+    """
 
     places: tuple[tuple[Place, ...], ...]
     court_max: int | None
@@ -68,7 +98,33 @@ def _minutes(t: time | None) -> int:
 
 
 def assign_places(league: League, tt: Timetable, limits: SolveLimits) -> Placement:
-    """Choose a place for every game of the timetable (see module docstring)."""
+    """Choose a place for every game of the timetable (see module docstring).
+
+    Parameters
+    ----------
+    league
+        The league (venues, courts, slots, what "home" means, balance priorities).
+    tt
+        The timetable (rounds, games, match days).
+    limits
+        The solver's limits.
+
+    Returns
+    -------
+    Placement
+        A place for every game, balanced over courts and slots.
+
+    Raises
+    ------
+    InfeasibleError
+        No place for every game (too few courts or slots on some match day), or none found
+        within the time limit.
+
+    References
+    ----------
+    P. J. Schellenberg, G. H. J. van Rees and S. A. Vanstone, Ars Combinatoria 3 (1977)
+    303-318; ``docs/fairness.md``.
+    """
     P = len(tt.games)
     if not league.venues:
         empty = tuple(tuple(Place(None, None, None, None) for _ in g) for g in tt.games)

@@ -13,7 +13,31 @@ from ortools.sat.python import cp_model
 
 @dataclass(frozen=True)
 class SolveLimits:
-    """Deterministic time (CP-SAT's ``max_deterministic_time``) and a wall-clock safety cap."""
+    """Deterministic time (CP-SAT's ``max_deterministic_time``) and a wall-clock safety cap.
+
+    Parameters
+    ----------
+    deterministic
+        CP-SAT's deterministic time limit (its own work units, roughly seconds); the same
+        limit gives the same result on any machine.
+    wall
+        Wall-clock seconds after which the solve stops anyway (a safety net, reported when
+        hit, since the result may then depend on the machine).
+    seed
+        CP-SAT's random seed (taken modulo 2^31).
+
+    See Also
+    --------
+    configure
+
+    Examples
+    --------
+    >>> limits = SolveLimits(deterministic=5.0, wall=60.0, seed=7)
+    >>> solver = cp_model.CpSolver()
+    >>> configure(solver, limits)
+    >>> solver.parameters.num_workers, solver.parameters.random_seed
+    (1, 7)
+    """
 
     deterministic: float
     wall: float
@@ -21,7 +45,27 @@ class SolveLimits:
 
 
 def configure(solver: cp_model.CpSolver, limits: SolveLimits) -> None:
-    """Parameters for reproducible runs: one worker, fixed seed, deterministic limit."""
+    """Parameters for reproducible runs: one worker, fixed seed, deterministic limit.
+
+    Parameters
+    ----------
+    solver
+        The solver, changed in place.
+    limits
+        The limits and seed to set.
+
+    References
+    ----------
+    OR-Tools CP-SAT parameters ``num_workers``, ``random_seed``, ``max_deterministic_time``
+    and ``max_time_in_seconds`` (sat_parameters.proto).
+
+    Examples
+    --------
+    >>> solver = cp_model.CpSolver()
+    >>> configure(solver, SolveLimits(deterministic=2.0, wall=30.0, seed=1))
+    >>> solver.parameters.max_deterministic_time
+    2.0
+    """
     parameters = solver.parameters
     parameters.random_seed = int(limits.seed) % (2**31)
     parameters.num_workers = 1

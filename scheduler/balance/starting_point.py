@@ -32,8 +32,18 @@ Orientation = dict[tuple[int, int], bool]
 
 @dataclass(frozen=True)
 class StartingPoint:
-    """The leg-1 round order and venues to start from; ``searched`` when the order search ran
-    (the solver then gets half the deterministic limit)."""
+    """The leg-1 round order and venues to start from.
+
+    Parameters
+    ----------
+    order
+        Factorization round indexes in leg-1 playing order.
+    home
+        ``{(a, b): a is at home in leg 1}`` for every game.
+    searched
+        ``True`` when the order search ran (the solver then gets half the deterministic
+        limit).
+    """
 
     order: list[int]
     home: Orientation
@@ -43,7 +53,32 @@ class StartingPoint:
 def canonical_hint(n: int) -> tuple[list[int], Orientation]:
     """For GK_n as built by ``circle_rounds``: the canonical round order and de Werra's
     orientation (``docs/leg-schemes.md``): round k = 1..n-1 contains {∞, k}; ∞ is home when k is
-    odd; in {k+i, k-i} the vertex k+i is home when i is odd. Returns (order, home-of-(a, b))."""
+    odd; in {k+i, k-i} the vertex k+i is home when i is odd.
+
+    Parameters
+    ----------
+    n
+        Number of vertices, even (at least 4).
+
+    Returns
+    -------
+    tuple
+        (round order as indexes into ``circle_rounds(n)``, ``{(a, b): a is at home}`` with
+        ``a < b``); ``n - 2`` breaks, the fewest possible.
+
+    References
+    ----------
+    D. de Werra, "Scheduling in sports", Annals of Discrete Mathematics 11 (1981) 381-395;
+    ``docs/leg-schemes.md``.
+
+    Examples
+    --------
+    >>> from scheduler.balance.anneal import breaks_of
+    >>> from scheduler.factorization import circle_factorization
+    >>> order, home = canonical_hint(6)
+    >>> breaks_of(circle_factorization(6).rounds, home, [order], None)
+    4
+    """
     m = n - 1
     rounds = circle_rounds(n)
     index = {r: i for i, r in enumerate(rounds)}
@@ -67,7 +102,20 @@ def _order_search(rounds, n: int, seed: int, work: float, bye: int | None) -> Or
 
 
 def greedy_orientation(rounds: Sequence[Round], order: Sequence[int]) -> Orientation:
-    """A start orientation for other factorizations: alternate each vertex where possible."""
+    """A start orientation for other factorizations: alternate each vertex where possible.
+
+    Parameters
+    ----------
+    rounds
+        The rounds of the factorization.
+    order
+        Round indexes in playing order.
+
+    Returns
+    -------
+    dict
+        ``{(a, b): a is at home}`` for every game as the factorization writes it.
+    """
     last: dict[int, bool] = {}
     home: Orientation = {}
     for k in order:
@@ -83,7 +131,28 @@ def greedy_orientation(rounds: Sequence[Round], order: Sequence[int]) -> Orienta
 def best_rotation(fact: Factorization, order: list[int], home: Orientation, scheme: str,
                   legs: int, bye: int | None) -> list[int]:
     """The rotation of ``order`` with the fewest season breaks under the scheme (for the English
-    scheme the rotation by one reaches 2n-4 [computed for n = 4..20])."""
+    scheme the rotation by one reaches 2n-4 [computed for n = 4..20]).
+
+    Parameters
+    ----------
+    fact
+        The factorization.
+    order
+        Leg-1 round order (factorization round indexes).
+    home
+        ``{(a, b): a is at home in leg 1}`` for every game.
+    scheme
+        The leg scheme (``docs/leg-schemes.md``).
+    legs
+        Number of legs.
+    bye
+        The bye vertex of an odd league, or ``None``.
+
+    Returns
+    -------
+    list of int
+        The best rotation of ``order`` (the first such on ties).
+    """
     rounds_per_leg = len(order)
     maps = leg_schemes.leg_maps(scheme, legs, rounds_per_leg) or tuple(
         tuple(range(rounds_per_leg)) for _ in range(legs))
@@ -101,7 +170,33 @@ def best_rotation(fact: Factorization, order: list[int], home: Orientation, sche
 def starting_point(fact: Factorization, *, scheme: str, legs: int, bye: int | None,
                    seed: int, effort: float, fixed_order: tuple[int, ...] | None,
                    start_home: Orientation | None) -> StartingPoint:
-    """The hint for the timetable model (see the module docstring)."""
+    """The hint for the timetable model (see the module docstring).
+
+    Parameters
+    ----------
+    fact
+        The factorization.
+    scheme
+        The leg scheme.
+    legs
+        Number of legs.
+    bye
+        The bye vertex of an odd league, or ``None``.
+    seed
+        Seed of the searches.
+    effort
+        Scales the search work (1 is the default effort).
+    fixed_order
+        A leg-1 round order the league fixes (then only the venues are chosen), or ``None``.
+    start_home
+        Venues to start from with ``fixed_order``, or ``None``.
+
+    Returns
+    -------
+    StartingPoint
+        De Werra's canonical schedule for the circle factorization; otherwise the result of
+        the order search and annealing (deterministic for a seed).
+    """
     n = fact.n
     rounds_per_leg = n - 1
     if fact.rounds == circle_rounds(n):

@@ -52,6 +52,24 @@ def solve_timetable(league: League, fact: Factorization, limits: SolveLimits, *,
     InfeasibleError
         When the rules cannot all hold with these pairings (naming a minimal set of them), or
         no timetable was found in the time limit.
+
+    References
+    ----------
+    ``docs/rules.md``; ``docs/leg-schemes.md``.
+
+    Examples
+    --------
+    >>> from scheduler.config import parse_league
+    >>> from scheduler.factorization import circle_factorization
+    >>> clubs = ["Quenby", "Larkholt", "Ebbside", "Morrow"]
+    >>> league = parse_league({
+    ...     "league": {"name": "Quenby Four", "season": "2031", "timezone": "Europe/London"},
+    ...     "calendar": {"start": "2031-01-07", "end": "2031-04-29", "weekdays": ["tue"]},
+    ...     "venues": [{"name": f"{club} Hall"} for club in clubs],
+    ...     "teams": [{"name": club, "home_venue": f"{club} Hall"} for club in clubs]})
+    >>> timetable = solve_timetable(league, circle_factorization(4), SolveLimits(5.0, 60.0, 0))
+    >>> [(league.teams[home].name, league.teams[away].name) for home, away in timetable.games[0]]
+    [('Larkholt', 'Ebbside'), ('Morrow', 'Quenby')]
     """
     first = TimetableModel(league, fact, minimise_breaks=minimise_breaks, fixed_order=fixed_order,
                            earliest_days=True, effort=limits.deterministic,

@@ -51,9 +51,56 @@ from scheduler.rules.venue_capacity import capacity_groups
 class Timetable:
     """A solved timetable, by team index (``league.teams`` order).
 
-    ``games[s]`` are the (home, away) team indices of season round ``s`` (0-based), ``byes[s]``
-    the team sitting out; ``day[s]`` indexes ``days``; ``order[l]`` lists the factorization's round
-    index at every position of leg ``l``.
+    Parameters
+    ----------
+    n
+        Number of vertices of the factorization (teams, plus the bye vertex of an odd league).
+    vertex_of_team
+        The factorization vertex each team was placed on.
+    order
+        ``order[l]``: the factorization's round index at every position of leg ``l``.
+    games
+        ``games[s]``: the (home, away) team indexes of season round ``s`` (0-based).
+    byes
+        ``byes[s]``: the teams sitting out season round ``s``.
+    day
+        ``day[s]``: index into ``days`` of the match day of season round ``s``.
+    days
+        The candidate match days.
+    breaks
+        Total breaks (byes skipped).
+    break_bound
+        The proven lower bound on breaks for the league's size and leg scheme.
+    break_bound_reason
+        The argument the bound rests on, in words.
+    status
+        ``"optimal"`` when CP-SAT proved its objective best, else ``"feasible"``.
+    wall_cap_hit
+        ``True`` when the solve stopped at the wall-clock safety net (the result may then
+        depend on the machine).
+    orientation
+        Leg-1 venue of every factorization game ``(a, b, a_is_home)`` (vertices, a < b).
+
+    References
+    ----------
+    ``docs/leg-schemes.md`` (break bounds); ``docs/rules.md``.
+
+    Examples
+    --------
+    >>> from scheduler.balance import SolveLimits, solve_timetable
+    >>> from scheduler.config import parse_league
+    >>> from scheduler.factorization import circle_factorization
+    >>> clubs = ["Quenby", "Larkholt", "Ebbside", "Morrow"]
+    >>> league = parse_league({
+    ...     "league": {"name": "Quenby Four", "season": "2031", "timezone": "Europe/London"},
+    ...     "calendar": {"start": "2031-01-07", "end": "2031-04-29", "weekdays": ["tue"]},
+    ...     "venues": [{"name": f"{club} Hall"} for club in clubs],
+    ...     "teams": [{"name": club, "home_venue": f"{club} Hall"} for club in clubs]})
+    >>> timetable = solve_timetable(league, circle_factorization(4), SolveLimits(5.0, 60.0, 0))
+    >>> len(timetable.games), timetable.breaks, timetable.break_bound, timetable.status
+    (3, 2, 2, 'optimal')
+    >>> timetable.days[timetable.day[0]]
+    datetime.date(2031, 1, 7)
     """
 
     n: int
@@ -73,7 +120,39 @@ class Timetable:
 
 
 class TimetableModel:
-    """Builds and solves the CP-SAT model for one factorization and one league."""
+    """Builds and solves the CP-SAT model for one factorization and one league.
+
+    Every hard rule adds its constraints through the small interface below (``switch``,
+    ``team_home``, ``break_at``, ...; :class:`scheduler.rules.base.TimetableView`), each
+    statement under its own assumption literal, so that a clash can be explained.
+
+    Parameters
+    ----------
+    league
+        The league and its rules.
+    fact
+        The round pairings (K_n, n even; an odd league's bye is vertex n - 1).
+    minimise_breaks
+        Minimise the breaks (else only the lateness of the match days).
+    fixed_order
+        A leg-1 round order to keep (factorization round indexes), or ``None``.
+    earliest_days
+        Play the day groups on the earliest candidate days only (a smaller model, tried
+        first).
+    effort
+        Scales the search for a starting point (the deterministic seconds of the solve).
+    start_home
+        Leg-1 venues to start from (``{(a, b): a is at home}``), or ``None``.
+
+    Raises
+    ------
+    ConfigError
+        Too few match days in the calendar.
+
+    References
+    ----------
+    ``docs/rules.md``; ``docs/leg-schemes.md``.
+    """
 
     def __init__(self, league: League, fact: Factorization, *, minimise_breaks: bool = True,
                  fixed_order: tuple[int, ...] | None = None, earliest_days: bool = False,
@@ -116,29 +195,99 @@ class TimetableModel:
 
     # --- the interface offered to the rules (scheduler.rules.TimetableView) -----------------
     def switch(self, statement: str) -> cp_model.IntVar:
-        """The assumption literal of ``statement`` (one per distinct statement)."""
+        """The assumption literal of ``statement`` (one per distinct statement).
+
+        Parameters
+        ----------
+        statement
+            A hard rule's statement in the organizer's words.
+
+        Returns
+        -------
+        ortools.sat.python.cp_model.IntVar
+            The literal under which the statement's constraints are enforced.
+        """
         return self.book.rule(statement)
 
     def impossible(self, statement: str) -> None:
-        """A statement that cannot hold at all (found before solving): its literal is false."""
+        """A statement that cannot hold at all (found before solving): its literal is false.
+
+        Parameters
+        ----------
+        statement
+            The statement in the organizer's words.
+        """
         self.book.forbid(statement)
 
     def vertex_home(self, s: int, v: int) -> cp_model.IntVar:
-        """Literal: vertex ``v`` plays at home in season round ``s`` (false at its bye)."""
+        """Literal: vertex ``v`` plays at home in season round ``s`` (false at its bye).
+
+        Parameters
+        ----------
+        s
+            Season round, 0-based.
+        v
+            Factorization vertex.
+
+        Returns
+        -------
+        ortools.sat.python.cp_model.IntVar
+            The literal.
+        """
         return self.home_in_round[s][v]
 
     def vertex_plays(self, s: int, v: int) -> cp_model.BoolVarT | None:
-        """Literal 'vertex v plays in season round s' (None = always)."""
+        """Literal 'vertex v plays in season round s' (None = always).
+
+        Parameters
+        ----------
+        s
+            Season round, 0-based.
+        v
+            Factorization vertex.
+
+        Returns
+        -------
+        ortools.sat.python.cp_model.IntVar or None
+            The literal; ``None`` in an even league, where every vertex always plays.
+        """
         if not self.odd:
             return None
         return self.round_holds[s][self.bye_round[v]].negated()
 
     def break_at(self, s: int, v: int) -> cp_model.IntVar:
-        """Literal: vertex ``v`` has a break in season round ``s`` (``s >= 1``)."""
+        """Literal: vertex ``v`` has a break in season round ``s`` (``s >= 1``).
+
+        Parameters
+        ----------
+        s
+            Season round, 0-based, at least 1 (a break is counted in its second round).
+        v
+            Factorization vertex.
+
+        Returns
+        -------
+        ortools.sat.python.cp_model.IntVar
+            The literal.
+        """
         return self.break_in_round[s][v]
 
     def team_home(self, t: int, s: int) -> cp_model.IntVar:
-        """Literal 'team t (named) plays at home in season round s'."""
+        """Literal 'team t (named) plays at home in season round s'.
+
+        Parameters
+        ----------
+        t
+            Team index in ``league.teams`` (a team a rule names, placed on a vertex by the
+            model).
+        s
+            Season round, 0-based.
+
+        Returns
+        -------
+        ortools.sat.python.cp_model.IntVar
+            The literal (made once per team and round).
+        """
         key = (t, s)
         if key not in self._team_home:
             literal = self.cp.new_bool_var(f"team{t}_home_in_round{s}")
@@ -148,7 +297,20 @@ class TimetableModel:
         return self._team_home[key]
 
     def team_bye(self, t: int, s: int) -> cp_model.IntVar:
-        """Literal 'team t (named) has its bye in season round s' (odd leagues)."""
+        """Literal 'team t (named) has its bye in season round s' (odd leagues).
+
+        Parameters
+        ----------
+        t
+            Team index in ``league.teams``.
+        s
+            Season round, 0-based.
+
+        Returns
+        -------
+        ortools.sat.python.cp_model.IntVar
+            The literal (made once per team and round).
+        """
         key = (t, s)
         if key not in self._team_bye:
             literal = self.cp.new_bool_var(f"team{t}_bye_in_round{s}")
@@ -159,7 +321,17 @@ class TimetableModel:
         return self._team_bye[key]
 
     def teams_meet(self, a: int, b: int, s: int, literal: cp_model.IntVar) -> None:
-        """Under ``literal``: teams a and b (named) meet in season round s."""
+        """Under ``literal``: teams a and b (named) meet in season round s.
+
+        Parameters
+        ----------
+        a, b
+            Team indexes in ``league.teams``.
+        s
+            Season round, 0-based.
+        literal
+            The constraint holds only when this literal is true.
+        """
         for v in self.vertices:
             for k in range(self.rounds_per_leg):
                 w = self.partner[k][v]
@@ -170,11 +342,31 @@ class TimetableModel:
                 self.cp.add_bool_or(clause)
 
     def position_in_leg(self, leg: int, k: int) -> cp_model.LinearExpr | int:
-        """Linear expression: the 0-based position of factorization round ``k`` in ``leg``."""
+        """Linear expression: the 0-based position of factorization round ``k`` in ``leg``.
+
+        Parameters
+        ----------
+        leg
+            Leg index, 0-based.
+        k
+            Factorization round index.
+
+        Returns
+        -------
+        ortools.sat.python.cp_model.LinearExpr or int
+            The position, as an expression of the model's variables.
+        """
         return sum(q * self.leg_order[leg][q][k] for q in range(self.rounds_per_leg))
 
     def home_venue_groups(self) -> list[tuple[str, int, list[int]]]:
-        """Venues whose capacity a match day could exceed, with their home teams."""
+        """Venues whose capacity a match day could exceed, with their home teams.
+
+        Returns
+        -------
+        list of (str, int, list of int)
+            (venue, games it can hold on one match day, indexes of its home teams), from
+            :func:`scheduler.rules.venue_capacity.capacity_groups`.
+        """
         return self.capacity_groups
 
     # --- structure -----------------------------------------------------------------------------
@@ -362,8 +554,28 @@ class TimetableModel:
 
     # --- solving -------------------------------------------------------------------------------
     def solve(self, limits: SolveLimits, *, explain_failure: bool = True) -> Timetable:
-        """Solve; the :class:`Timetable`, or ``InfeasibleError`` naming a minimal set of
-        clashing rules."""
+        """Solve the model.
+
+        Parameters
+        ----------
+        limits
+            Deterministic and wall-clock limits, seed (half the deterministic limit when an
+            order search already ran).
+        explain_failure
+            Explain an infeasible model by a minimal set of clashing rules (re-solves); when
+            ``False`` a short error is raised instead.
+
+        Returns
+        -------
+        Timetable
+            The solved timetable.
+
+        Raises
+        ------
+        InfeasibleError
+            When the rules cannot all hold (naming a minimal set of them), or no timetable
+            was found within the time limit.
+        """
         self.book.assume_all()
         solver = cp_model.CpSolver()
         if self.searched:  # the order search took half of the deterministic budget

@@ -77,7 +77,33 @@ STATE_FILE = ".sequence.json"
 
 
 def output_paths(season: Season, out_dir: str | os.PathLike[str]) -> list[Path]:
-    """Every path :func:`write_season_outputs` writes, in writing order."""
+    """Every path :func:`write_season_outputs` writes, in writing order.
+
+    Parameters
+    ----------
+    season
+        The season (its teams name the team calendars and pages).
+    out_dir
+        The season folder.
+
+    Returns
+    -------
+    list of pathlib.Path
+        The files below ``out_dir``: CSV, workbook, calendars, report, site, season file and
+        manifest last.
+
+    References
+    ----------
+    ``docs/season-folder.md``.
+
+    Examples
+    --------
+    >>> from scheduler.season import Fixture, Season
+    >>> season = Season("Demo", "2031", ("Ash", "Elm"), (Fixture(1, "Ash", "Elm"),))
+    >>> paths = output_paths(season, "out")
+    >>> paths[0].as_posix(), paths[-1].name == MANIFEST_FILE
+    ('out/fixtures.csv', True)
+    """
     out = Path(out_dir)
     cal = out / CALENDAR_FOLDER
     return [
@@ -135,7 +161,7 @@ def _temp_sibling(target: Path, kind: str) -> Path:
 class FolderCheck:
     """What :func:`check_output_folder` found in an existing output folder.
 
-    Attributes
+    Parameters
     ----------
     exists
         Whether the folder exists.

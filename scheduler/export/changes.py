@@ -27,14 +27,32 @@ HEADER = (
 
 @dataclass(frozen=True, slots=True)
 class GameChange:
-    """One changed game: ``old`` as previously planned, ``new`` as now planned (``None`` when
-    the game is cancelled)."""
+    """One changed game of a re-plan.
+
+    Parameters
+    ----------
+    old
+        The game as previously planned.
+    new
+        The game as now planned; ``None`` when it is cancelled.
+
+    Examples
+    --------
+    >>> from datetime import date
+    >>> from scheduler.season import Fixture
+    >>> change = GameChange(Fixture(4, "Ash", "Elm", date=date(2031, 3, 4)),
+    ...                     Fixture(4, "Elm", "Ash", date=date(2031, 3, 11)))
+    >>> change.kind, change.teams
+    ('moved and swapped', ('Ash', 'Elm'))
+    """
 
     old: Fixture
     new: Fixture | None
 
     @property
     def kind(self) -> str:
+        """``"cancelled"``, ``"moved"`` (date, kick-off or court), ``"home/away swapped"`` or
+        ``"moved and swapped"``."""
         if self.new is None:
             return "cancelled"
         moved = (self.old.date, self.old.start, self.old.court) != (
@@ -47,11 +65,31 @@ class GameChange:
 
     @property
     def teams(self) -> tuple[str, str]:
+        """The two teams (home first, as previously planned)."""
         return self.old.teams
 
 
 def team_counts(changes: Sequence[GameChange]) -> list[tuple[str, int]]:
-    """Teams with changed games and how many, most first, then by name."""
+    """Teams with changed games and how many, most first, then by name.
+
+    Parameters
+    ----------
+    changes
+        The changed games.
+
+    Returns
+    -------
+    list of (str, int)
+        (team, number of its games that changed).
+
+    Examples
+    --------
+    >>> from scheduler.season import Fixture
+    >>> changes = [GameChange(Fixture(4, "Ash", "Elm"), None),
+    ...            GameChange(Fixture(5, "Oak", "Ash"), None)]
+    >>> team_counts(changes)
+    [('Ash', 2), ('Elm', 1), ('Oak', 1)]
+    """
     counts: Counter[str] = Counter()
     for change in changes:
         for team in change.teams:

@@ -24,7 +24,19 @@ CSV_COLUMNS = ("round", "leg", "date", "time", "home", "away", "venue", "court",
 
 @dataclass(frozen=True, slots=True)
 class FixtureRow:
-    """One fixture with its local date and kick-off time resolved (plain values, not text)."""
+    """One fixture with its local date and kick-off time resolved (plain values, not text).
+
+    Parameters
+    ----------
+    fixture
+        The fixture as planned.
+    date
+        Its match day (from the fixture, else from its kick-off), or ``None``.
+    time
+        Its local kick-off time, naive, or ``None``.
+    start
+        Its kick-off in the league's time zone, or ``None``.
+    """
 
     fixture: Fixture
     date: date | None
@@ -33,7 +45,26 @@ class FixtureRow:
 
 
 def league_zone(season: Season) -> ZoneInfo | None:
-    """The season's IANA time zone, or ``None`` when it has none (or an unknown one)."""
+    """The season's IANA time zone, or ``None`` when it has none (or an unknown one).
+
+    Parameters
+    ----------
+    season
+        The season.
+
+    Returns
+    -------
+    zoneinfo.ZoneInfo or None
+        The zone of ``season.timezone``.
+
+    Examples
+    --------
+    >>> from scheduler.season import Season
+    >>> league_zone(Season("Demo", "2031", (), (), timezone="Europe/Paris"))
+    zoneinfo.ZoneInfo(key='Europe/Paris')
+    >>> league_zone(Season("Demo", "2031", (), ())) is None
+    True
+    """
     if not season.timezone:
         return None
     try:
@@ -43,7 +74,28 @@ def league_zone(season: Season) -> ZoneInfo | None:
 
 
 def local_start(fixture: Fixture, zone: ZoneInfo | None) -> datetime | None:
-    """The kick-off in the league's zone (``start`` itself when the season has no zone)."""
+    """The kick-off in the league's zone (``start`` itself when the season has no zone).
+
+    Parameters
+    ----------
+    fixture
+        The fixture.
+    zone
+        The league's time zone (:func:`league_zone`), or ``None``.
+
+    Returns
+    -------
+    datetime.datetime or None
+        The kick-off, converted to ``zone`` when it is aware; ``None`` without a kick-off.
+
+    Examples
+    --------
+    >>> from datetime import datetime, timezone
+    >>> from zoneinfo import ZoneInfo
+    >>> game = Fixture(1, "Ash", "Elm", start=datetime(2031, 7, 1, 18, 0, tzinfo=timezone.utc))
+    >>> local_start(game, ZoneInfo("Europe/Paris")).isoformat()
+    '2031-07-01T20:00:00+02:00'
+    """
     start = fixture.start
     if start is None:
         return None
@@ -53,7 +105,26 @@ def local_start(fixture: Fixture, zone: ZoneInfo | None) -> datetime | None:
 
 
 def fixture_rows(season: Season) -> list[FixtureRow]:
-    """The season's fixtures in the fixed export order, with local date and time."""
+    """The season's fixtures in the fixed export order, with local date and time.
+
+    Parameters
+    ----------
+    season
+        The season.
+
+    Returns
+    -------
+    list of FixtureRow
+        Ordered by round, date, time, venue, court, slot, home, away and leg, so that every
+        export lists the games in the same order.
+
+    Examples
+    --------
+    >>> season = Season("Demo", "2031", ("Ash", "Elm"),
+    ...                 (Fixture(2, "Elm", "Ash"), Fixture(1, "Ash", "Elm")))
+    >>> [row.fixture.round for row in fixture_rows(season)]
+    [1, 2]
+    """
     zone = league_zone(season)
     rows = []
     for fixture in season.fixtures:
@@ -96,6 +167,16 @@ def fixtures_csv(season: Season) -> str:
     References
     ----------
     RFC 4180 (CSV); ``docs/outputs.md``.
+
+    Examples
+    --------
+    >>> from datetime import date, datetime
+    >>> from zoneinfo import ZoneInfo
+    >>> kick_off = datetime(2031, 3, 4, 19, 30, tzinfo=ZoneInfo("Europe/London"))
+    >>> game = Fixture(1, "Ash", "Elm", venue="Ash Park", date=date(2031, 3, 4), start=kick_off)
+    >>> season = Season("Demo", "2031", ("Ash", "Elm"), (game,), timezone="Europe/London")
+    >>> fixtures_csv(season).splitlines()
+    ['round,leg,date,time,home,away,venue,court,slot', '1,1,2031-03-04,19:30,Ash,Elm,Ash Park,,']
     """
     buffer = io.StringIO(newline="")
     writer = csv.writer(buffer, lineterminator="\r\n", quoting=csv.QUOTE_MINIMAL)

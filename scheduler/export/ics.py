@@ -68,9 +68,21 @@ _STAMP_SPAN = 20 * 365 * 86400  # 2000-2019: never a future time
 
 @dataclass(frozen=True, slots=True)
 class EventState:
-    """What was last published for one UID: its SEQUENCE, DTSTAMP, a digest of its content,
-    its STATUS (``CONFIRMED`` or ``CANCELLED``) and the event data (``record``), kept so that a
-    removed event can be published as cancelled."""
+    """What was last published for one UID.
+
+    Parameters
+    ----------
+    sequence
+        Its SEQUENCE (RFC 5545 §3.8.7.4), 0 at first publication, raised on each change.
+    dtstamp
+        Its DTSTAMP (UTC), derived from the plan revision, never from the clock.
+    digest
+        SHA-256 of its content, to tell a changed event from an unchanged one.
+    status
+        ``"CONFIRMED"`` or ``"CANCELLED"``.
+    record
+        The event data, kept so that a removed event can be published as cancelled.
+    """
 
     sequence: int
     dtstamp: datetime
@@ -81,14 +93,46 @@ class EventState:
 
 @dataclass(frozen=True)
 class CalendarState:
-    """Per-UID publication state of one season's feeds."""
+    """Per-UID publication state of one season's feeds.
+
+    Parameters
+    ----------
+    league
+        The league's name.
+    season_id
+        The season's id.
+    events
+        UID -> what was last published for it.
+
+    See Also
+    --------
+    plan_calendar
+
+    Examples
+    --------
+    >>> from datetime import date
+    >>> from scheduler.season import Fixture, Season
+    >>> season = Season("Demo", "2031", ("Ash", "Elm"),
+    ...                 (Fixture(1, "Ash", "Elm", date=date(2031, 3, 4)),))
+    >>> state = plan_calendar(season)
+    >>> [event.sequence for event in state.events.values()]
+    [0]
+    >>> CalendarState.from_json(state.to_json()) == state
+    True
+    """
 
     league: str
     season_id: str
     events: Mapping[str, EventState] = field(default_factory=dict)
 
     def to_json(self) -> str:
-        """Stable JSON text (sorted keys, UTF-8 safe, newline at the end)."""
+        """Stable JSON text (sorted keys, UTF-8 safe, newline at the end).
+
+        Returns
+        -------
+        str
+            The state file's text, read back by :meth:`from_json`.
+        """
         data = {
             "format": STATE_FORMAT,
             "version": STATE_VERSION,
@@ -109,7 +153,25 @@ class CalendarState:
 
     @classmethod
     def from_json(cls, text: str, *, location: str | None = None) -> CalendarState:
-        """Read :meth:`to_json` text back; a clear :class:`InputError` when it is not one."""
+        """Read :meth:`to_json` text back.
+
+        Parameters
+        ----------
+        text
+            The state file's text.
+        location
+            The file, for the message.
+
+        Returns
+        -------
+        CalendarState
+            The state it holds.
+
+        Raises
+        ------
+        InputError
+            Text that is not a calendar state file of this program.
+        """
         try:
             data = json.loads(text)
             if data.get("format") != STATE_FORMAT or data.get("version") != STATE_VERSION:
@@ -138,7 +200,29 @@ def _hash(*parts: object) -> str:
 
 def plan_stamp(season: Season) -> datetime:
     """The fixed DTSTAMP of a first publication of ``season``: a UTC second derived from the
-    league, season id and plan revision (never the clock)."""
+    league, season id and plan revision (never the clock).
+
+    Parameters
+    ----------
+    season
+        The season.
+
+    Returns
+    -------
+    datetime.datetime
+        An aware UTC datetime; the same for the same league, season id and revision.
+
+    References
+    ----------
+    RFC 5545 §3.8.7.2 (DTSTAMP); ``docs/outputs.md``.
+
+    Examples
+    --------
+    >>> from scheduler.season import Season
+    >>> stamp = plan_stamp(Season("Demo", "2031", (), (), revision="abc"))
+    >>> stamp == plan_stamp(Season("Demo", "2031", (), (), revision="abc")), stamp.tzname()
+    (True, 'UTC')
+    """
     offset = int(_hash(season.league, season.season_id, season.revision)[:12], 16) % _STAMP_SPAN
     return _STAMP_EPOCH + timedelta(seconds=offset)
 
@@ -290,6 +374,23 @@ def plan_calendar(
     References
     ----------
     RFC 5545 §3.8.4.7 (UID), §3.8.7.4 (SEQUENCE).
+
+    Examples
+    --------
+    A kick-off moved by an hour raises that game's SEQUENCE only:
+
+    >>> from datetime import date, datetime
+    >>> from zoneinfo import ZoneInfo
+    >>> from scheduler.season import Fixture, Season
+    >>> def demo(minute):
+    ...     start = datetime(2031, 3, 4, 19, minute, tzinfo=ZoneInfo("Europe/London"))
+    ...     games = (Fixture(1, "Ash", "Elm", date=date(2031, 3, 4)),
+    ...              Fixture(2, "Elm", "Ash", date=date(2031, 3, 4), start=start))
+    ...     return Season("Demo", "2031", ("Ash", "Elm"), games, revision=str(minute))
+    >>> first = plan_calendar(demo(0))
+    >>> second = plan_calendar(demo(30), previous_meta=first)
+    >>> sorted(event.sequence for event in second.events.values())
+    [0, 1]
     """
     base = plan_stamp(season)
     before: dict[str, EventState] = {}
@@ -347,6 +448,16 @@ def team_file_stems(names: Iterable[str]) -> dict[str, str]:
     "Marlwick and District Saturday League Girls A" and "... Girls B" give
     ``marlwick-and-district-sa--league-girls-a-<hash>`` and ``...-girls-b-<hash>``.
 
+    Parameters
+    ----------
+    names
+        The team names (distinct).
+
+    Returns
+    -------
+    dict
+        Name -> file-name stem (without ``.ics``).
+
     Examples
     --------
     >>> stems = team_file_stems(["Marlwick and District Saturday League Girls A"])
@@ -374,7 +485,27 @@ _CONTROLS = re.compile(r"[\x00-\x08\x0b-\x1f\x7f]")
 
 def ical_text(value: object) -> str:
     """A TEXT value RFC 5545 §3.3.11 allows: line breaks become LF (escaped as ``\\n`` by
-    icalendar) and other control characters, which TEXT may not hold, become U+FFFD."""
+    icalendar) and other control characters, which TEXT may not hold, become U+FFFD.
+
+    Parameters
+    ----------
+    value
+        Any value; written with :class:`str`.
+
+    Returns
+    -------
+    str
+        The text, safe for a TEXT property.
+
+    References
+    ----------
+    RFC 5545 §3.3.11 (TEXT).
+
+    Examples
+    --------
+    >>> ical_text("Hall\\r\\nCourt 2\\x07")
+    'Hall\\nCourt 2\\ufffd'
+    """
     text = str(value).replace("\r\n", "\n").replace("\r", "\n")
     return _CONTROLS.sub("\ufffd", text)
 
@@ -399,7 +530,26 @@ def _sides(season: Season) -> tuple[str, str] | None:
 def game_summary(record: Mapping[str, object], season: Season) -> str:
     """SUMMARY of a game: ``"Home v Away"`` (the home team first, the trade's convention), or
     with the sides named when "home" is a side: ``"Upper Foxley (White) v Sorrel Street
-    (Black)"``."""
+    (Black)"``.
+
+    Parameters
+    ----------
+    record
+        The event data of a game (``home`` and ``away`` at least).
+    season
+        The season (what "home" means, its side labels).
+
+    Returns
+    -------
+    str
+        The SUMMARY text (RFC 5545 §3.8.1.12).
+
+    Examples
+    --------
+    >>> from scheduler.season import Season
+    >>> game_summary({"home": "Ash", "away": "Elm"}, Season("Demo", "2031", (), ()))
+    'Ash v Elm'
+    """
     sides = _sides(season)
     if sides is None:
         return f"{record['home']} v {record['away']}"
@@ -529,6 +679,17 @@ def league_calendar(
     References
     ----------
     RFC 5545 (iCalendar).
+
+    Examples
+    --------
+    >>> from datetime import date
+    >>> from scheduler.season import Fixture, Season
+    >>> season = Season("Demo", "2031", ("Ash", "Elm"),
+    ...                 (Fixture(1, "Ash", "Elm", date=date(2031, 3, 4)),
+    ...                  Fixture(2, "Elm", "Ash", date=date(2031, 3, 11))))
+    >>> feed = league_calendar(season)
+    >>> feed.startswith(b"BEGIN:VCALENDAR\\r\\n"), feed.count(b"BEGIN:VEVENT")
+    (True, 2)
     """
     st = _resolve_state(season, previous, previous_meta, game_minutes, state)
     items = [(u, e) for u, e in st.events.items() if e.record.get("kind") == "game"]
@@ -578,6 +739,18 @@ def team_calendar(
     References
     ----------
     RFC 5545 (iCalendar).
+
+    Examples
+    --------
+    >>> from datetime import date
+    >>> from scheduler.season import Fixture, Season
+    >>> season = Season("Demo", "2031", ("Ash", "Elm", "Oak"),
+    ...                 (Fixture(1, "Ash", "Elm", date=date(2031, 3, 4)),
+    ...                  Fixture(2, "Elm", "Oak", date=date(2031, 3, 11))),
+    ...                 byes={1: ("Oak",), 2: ("Ash",)})
+    >>> feed = team_calendar(season, "Ash")
+    >>> feed.count(b"BEGIN:VEVENT"), b"Ash v Elm" in feed
+    (2, True)
     """
     if team not in season.teams:
         raise InputError(f"no team called {team!r} in {season.league} {season.season_id}")
@@ -597,7 +770,25 @@ _RESERVED_STEMS = {"league"}
 
 
 def team_feed_names(season: Season) -> dict[str, str]:
-    """Team -> file name of its feed inside ``calendars/`` (unique, never ``league.ics``)."""
+    """Team -> file name of its feed inside ``calendars/`` (unique, never ``league.ics``).
+
+    Parameters
+    ----------
+    season
+        The season (its teams).
+
+    Returns
+    -------
+    dict
+        Team -> file name ending in ``.ics``.
+
+    Examples
+    --------
+    >>> from scheduler.season import Season
+    >>> names = team_feed_names(Season("Demo", "2031", ("Ash", "League"), ()))
+    >>> names["Ash"].startswith("ash-"), names["League"] != "league.ics"
+    (True, True)
+    """
     stems = team_file_stems(season.teams)
     names = {}
     for team, stem in stems.items():

@@ -36,6 +36,20 @@ MANIFEST_VERSION = 1
 def sha256_hex(data: bytes) -> str:
     """The SHA-256 of ``data`` as 64 lower-case hex digits.
 
+    Parameters
+    ----------
+    data
+        The bytes to digest.
+
+    Returns
+    -------
+    str
+        The digest in hexadecimal.
+
+    References
+    ----------
+    FIPS 180-4 (SHA-256; the digest of ``b"abc"`` is its first example).
+
     Examples
     --------
     >>> sha256_hex(b"abc")[:16]
@@ -48,13 +62,23 @@ def sha256_hex(data: bytes) -> str:
 class Manifest:
     """What the planner wrote into a season folder.
 
-    Attributes
+    Parameters
     ----------
     league, season, revision
         The plan the files belong to (``Season.league``, ``Season.season_id``,
         ``Season.revision``).
     files
         Relative path (``/`` separated) -> SHA-256 hex digest of the file's bytes.
+
+    References
+    ----------
+    ``docs/season-folder.md``.
+
+    Examples
+    --------
+    >>> manifest = Manifest.of_files("Demo", "2031", "abc", {"fixtures.csv": b"round\\r\\n"})
+    >>> Manifest.from_bytes(manifest.to_bytes()) == manifest
+    True
     """
 
     league: str
@@ -66,12 +90,31 @@ class Manifest:
     def of_files(
         cls, league: str, season: str, revision: str, contents: Mapping[str, bytes]
     ) -> Manifest:
-        """The manifest of files given as relative path -> bytes."""
+        """The manifest of files given as relative path -> bytes.
+
+        Parameters
+        ----------
+        league, season, revision
+            The plan the files belong to.
+        contents
+            Relative path (``/`` separated) -> the file's bytes.
+
+        Returns
+        -------
+        Manifest
+            With the SHA-256 of each file.
+        """
         digests = {name: sha256_hex(data) for name, data in contents.items()}
         return cls(league, season, revision, digests)
 
     def to_bytes(self) -> bytes:
-        """The manifest as UTF-8 JSON (sorted keys, so the same plan gives the same bytes)."""
+        """The manifest as UTF-8 JSON (sorted keys, so the same plan gives the same bytes).
+
+        Returns
+        -------
+        bytes
+            The file's content, ending in a newline.
+        """
         payload = {
             "format": MANIFEST_FORMAT,
             "version": MANIFEST_VERSION,
@@ -86,7 +129,24 @@ class Manifest:
 
     @classmethod
     def from_bytes(cls, data: bytes) -> Manifest:
-        """Read a manifest; raises ``ValueError`` when ``data`` is not one."""
+        """Read a manifest written by :meth:`to_bytes`.
+
+        Parameters
+        ----------
+        data
+            The file's bytes.
+
+        Returns
+        -------
+        Manifest
+            The manifest.
+
+        Raises
+        ------
+        ValueError
+            When ``data`` is not a manifest of this format and version (the caller treats
+            the folder as holding no manifest).
+        """
         try:
             payload = json.loads(data.decode("utf-8"))
         except (UnicodeDecodeError, json.JSONDecodeError) as exc:
@@ -106,7 +166,20 @@ class Manifest:
         return cls(league, season, revision, dict(files))
 
     def matches(self, folder: Path, relative: str) -> bool:
-        """True when ``folder/relative`` is listed and still holds the bytes that were written."""
+        """True when ``folder/relative`` is listed and still holds the bytes that were written.
+
+        Parameters
+        ----------
+        folder
+            The season folder.
+        relative
+            A path below it, ``/`` separated.
+
+        Returns
+        -------
+        bool
+            ``False`` also for a symbolic link, a folder or a file that cannot be read.
+        """
         digest = self.files.get(relative)
         if digest is None:
             return False

@@ -178,7 +178,25 @@ def _rgb(colour: str) -> tuple[int, int, int]:
 
 def ramp(value: float, top: float) -> str:
     """A single-hue sequential ramp from near white to a dark slate blue (light = few, dark =
-    many), interpolated linearly in sRGB between :data:`RAMP_LIGHT` and :data:`RAMP_DARK`."""
+    many), interpolated linearly in sRGB between :data:`RAMP_LIGHT` and :data:`RAMP_DARK`.
+
+    Parameters
+    ----------
+    value
+        The count to colour (clipped to 0 .. ``top``).
+    top
+        The largest count of the picture; 0 or less gives the light end.
+
+    Returns
+    -------
+    str
+        A colour ``#RRGGBB``.
+
+    Examples
+    --------
+    >>> ramp(0, 10) == RAMP_LIGHT, ramp(10, 10) == RAMP_DARK, ramp(5, 0) == RAMP_LIGHT
+    (True, True, True)
+    """
     if top <= 0:
         return RAMP_LIGHT
     t = max(0.0, min(1.0, value / top))
@@ -212,7 +230,20 @@ _HA_STYLE = {
 def home_away_grid(fairness: FairnessReport, letters: dict[str, str] | None = None) -> Markup:
     """Team-by-round grid of the home-away patterns (H, A, B = bye, X = more than one game,
     or the ``letters`` given for them, see :func:`side_letters`); a black bar under a cell
-    marks a break (the second of two home or two away games)."""
+    marks a break (the second of two home or two away games).
+
+    Parameters
+    ----------
+    fairness
+        The figures (each team's pattern and break rounds).
+    letters
+        The letters shown for ``H``, ``A``, ``B`` and ``X``; ``None`` for those letters.
+
+    Returns
+    -------
+    markupsafe.Markup
+        An inline SVG picture with a title; letters in the cells only for small leagues.
+    """
     teams = fairness.team_figures
     rounds = fairness.rounds
     small = len(teams) <= TEXT_LIMIT and rounds <= 2 * TEXT_LIMIT
@@ -264,7 +295,32 @@ def heat_map(
     diagonal: bool = True,
 ) -> Markup:
     """A count matrix as a heat map on the sequential ramp; numbers in the cells when small;
-    the diagonal (when ``diagonal``) hatched, as it is not a count."""
+    the diagonal (when ``diagonal``) hatched, as it is not a count.
+
+    Parameters
+    ----------
+    matrix
+        Rows of counts (not negative), one row per label.
+    labels
+        Row labels.
+    title
+        The picture's title (for screen readers and as a tooltip).
+    column_labels
+        Column labels; ``None`` when they are the row labels.
+    diagonal
+        Hatch the diagonal (a square matrix whose diagonal means nothing).
+
+    Returns
+    -------
+    markupsafe.Markup
+        An inline SVG picture.
+
+    Examples
+    --------
+    >>> picture = heat_map([[0, 2], [1, 0]], ["Ash", "Elm"], "Carry-over")
+    >>> picture.startswith("<svg"), "Carry-over" in picture
+    (True, True)
+    """
     rows = len(matrix)
     cols = len(matrix[0]) if rows else 0
     columns = list(column_labels) if column_labels is not None else list(labels)
@@ -309,7 +365,18 @@ def heat_map(
 
 def mixing_map(fairness: FairnessReport) -> Markup | None:
     """Round-pair mixing matrix: 1 cycle = perfect (green, ✓); more cycles = imperfect
-    (vermillion with a cross-hatch, the number of cycles written in the cell)."""
+    (vermillion with a cross-hatch, the number of cycles written in the cell).
+
+    Parameters
+    ----------
+    fairness
+        The figures (``mixing_matrix`` and ``mixing_rounds``).
+
+    Returns
+    -------
+    markupsafe.Markup or None
+        An inline SVG picture, or ``None`` when the matrix was not computed.
+    """
     matrix = fairness.mixing_matrix
     if not matrix:
         return None
@@ -367,7 +434,29 @@ def stacked_bars(
     title: str,
 ) -> Markup:
     """Per-team stacked bars of how often each category (slot, court, venue) is used; each
-    category has an Okabe–Ito colour and, from the eighth on, a hatch; counts written inside."""
+    category has an Okabe–Ito colour and, from the eighth on, a hatch; counts written inside.
+
+    Parameters
+    ----------
+    names
+        The teams, one bar each.
+    counts
+        Per team, (category, count) pairs.
+    categories
+        Every category, in the order of the stack and the legend.
+    title
+        The picture's title.
+
+    Returns
+    -------
+    markupsafe.Markup
+        An inline SVG picture with a legend.
+
+    References
+    ----------
+    M. Okabe and K. Ito, "Color Universal Design" (2002; colour-blind safe palette, from
+    memory).
+    """
     index = {c: k for k, c in enumerate(categories)}
     total_max = max((sum(v for _, v in row) for row in counts), default=0) or 1
     small = len(names) <= TEXT_LIMIT
@@ -481,7 +570,28 @@ def options_chart(options: Sequence[PlanOptionFigures]) -> Markup | None:
 
 
 def bound_gauge(value: int, low: int, high: int) -> Markup:
-    """Where a value lies between its lower and upper bound (a marker on a line)."""
+    """Where a value lies between its lower and upper bound (a marker on a line).
+
+    Parameters
+    ----------
+    value
+        The measured value.
+    low
+        Its lower bound (left end).
+    high
+        The worst possible value (right end); the marker sits at the left end when
+        ``high <= low``.
+
+    Returns
+    -------
+    markupsafe.Markup
+        An inline SVG picture.
+
+    Examples
+    --------
+    >>> "value 40: lower bound 30, worst possible 60" in bound_gauge(40, 30, 60)
+    True
+    """
     width, pad = 320, 14
     frac = 0.0 if high <= low else (value - low) / (high - low)
     frac = max(0.0, min(1.0, frac))
@@ -506,8 +616,29 @@ def bound_gauge(value: int, low: int, high: int) -> Markup:
 
 @dataclass(frozen=True)
 class Card:
-    """One measured figure on the first screen: its one name (``scheduler.fairness.names``),
-    the value, where it stands, what it is measured over, a verdict and why."""
+    """One measured figure on the first screen of the report.
+
+    Parameters
+    ----------
+    title
+        The figure's one name (:mod:`scheduler.fairness.names`).
+    figure
+        The value as shown.
+    bound
+        Where it stands (its bound or best possible value), in words.
+    verdict
+        A short verdict.
+    tone
+        ``"good"``, ``"fair"`` or ``"note"``.
+    text
+        Why: what the figure means for this season.
+    sources
+        The published sources of the bound.
+    picture
+        An inline SVG picture, or ``None``.
+    over
+        What it is measured over.
+    """
 
     title: str
     figure: str
@@ -522,7 +653,17 @@ class Card:
 
 @dataclass(frozen=True)
 class RuleLine:
-    """One rule the schedule keeps (or not), with the measured evidence."""
+    """One rule the schedule keeps (or not), with the measured evidence.
+
+    Parameters
+    ----------
+    rule
+        The rule in the organizer's words.
+    evidence
+        The measured figures that show it kept or broken.
+    kept
+        ``True`` when the schedule keeps it.
+    """
 
     rule: str
     evidence: str
@@ -539,6 +680,23 @@ def side_letters(season: Season) -> dict[str, str]:
     The home and away letters are the first letters of the league's side labels (two letters
     when they start alike); the bye and the extra-game marks give way when a side letter takes
     theirs (``"B"`` for Black, say).
+
+    Parameters
+    ----------
+    season
+        The season (what "home" means, its side labels).
+
+    Returns
+    -------
+    dict
+        ``"H"``, ``"A"``, ``"B"`` and ``"X"`` -> the letters shown.
+
+    Examples
+    --------
+    >>> from scheduler.season import Season
+    >>> side_letters(Season("Demo", "2031", (), (), home_meaning="side",
+    ...                     side_labels=("White", "Black")))
+    {'H': 'W', 'A': 'B', 'B': '–', 'X': 'X'}
     """
     home, away = _sides(season)
     if home[:1].upper() != away[:1].upper():
@@ -818,8 +976,21 @@ def report_context(
 ) -> dict:
     """Everything the template shows (plain values, and SVG already made safe as Markup).
 
-    ``changes`` are a re-plan's changed games (:class:`scheduler.export.changes.GameChange`);
-    ``None`` for a first plan or a schedule read from elsewhere.
+    Parameters
+    ----------
+    season
+        The season.
+    fairness
+        Its fairness figures.
+    changes
+        A re-plan's changed games (:class:`scheduler.export.changes.GameChange`); ``None``
+        for a first plan or a schedule read from elsewhere.
+
+    Returns
+    -------
+    dict
+        The template's variables: the season, title, rule lines, cards, pictures, rounds,
+        notes, changes, options and colours.
     """
 
     fr = fairness
@@ -899,7 +1070,23 @@ def report_context(
 
 
 def carry_over_words(fr: FairnessReport) -> str:
-    """How the carry-over matrix is counted, in words and symbols (a footnote)."""
+    """How the carry-over matrix is counted, in words and symbols (a footnote).
+
+    Parameters
+    ----------
+    fr
+        The figures (what the matrix was counted over, whether it has a bye row).
+
+    Returns
+    -------
+    str
+        The footnote.
+
+    References
+    ----------
+    K. G. Russell, Biometrika 67 (1980) 127-131; R. Lambrechts et al., Mathematical
+    Programming 172 (2018) 277-302; ``docs/carry-over.md``.
+    """
     over = carry_over_over(fr)
     bye = (
         " An odd league adds a row and a column “bye”: the team that sits out a round meets "
@@ -940,6 +1127,18 @@ def render_report(
     References
     ----------
     ``docs/outputs.md``; ``docs/figures.md``.
+
+    Examples
+    --------
+    >>> from scheduler.fairness import compute_fairness
+    >>> from scheduler.season import Fixture, Season
+    >>> games = [(1, "Ash", "Elm"), (1, "Oak", "Yew"), (2, "Elm", "Oak"),
+    ...          (2, "Yew", "Ash"), (3, "Ash", "Oak"), (3, "Elm", "Yew")]
+    >>> season = Season("Demo", "2031", ("Ash", "Elm", "Oak", "Yew"),
+    ...                 tuple(Fixture(*game) for game in games))
+    >>> page = render_report(season, compute_fairness(season))
+    >>> page.startswith("<!DOCTYPE html>"), "Demo" in page
+    (True, True)
     """
     template = _environment().get_template("report.html.j2")
     return template.render(**report_context(season, fairness, changes))

@@ -101,7 +101,25 @@ _MAX_SLUG = 40
 
 
 def name_digest(name: str, length: int = 8) -> str:
-    """The first ``length`` hex digits of the SHA-256 of ``name`` (UTF-8)."""
+    """The first ``length`` hex digits of the SHA-256 of ``name`` (UTF-8).
+
+    Parameters
+    ----------
+    name
+        Any text.
+    length
+        Number of hex digits kept (1 to 64).
+
+    Returns
+    -------
+    str
+        Lower-case hex digits.
+
+    Examples
+    --------
+    >>> name_digest("abc", 6)
+    'ba7816'
+    """
     return hashlib.sha256(name.encode("utf-8")).hexdigest()[:length]
 
 
@@ -146,7 +164,23 @@ def safe_filename(name: str) -> str:
 
 
 def safe_filenames(names: Iterable[str]) -> dict[str, str]:
-    """:func:`safe_filename` of each name, checked to be unique (case-insensitive)."""
+    """:func:`safe_filename` of each name, checked to be unique (case-insensitive).
+
+    Parameters
+    ----------
+    names
+        The names (repeats give the same stem).
+
+    Returns
+    -------
+    dict
+        Name -> stem; where two names would share a stem, the later one gets a 16-digit hash.
+
+    Examples
+    --------
+    >>> safe_filenames(["ash", "Elm"])
+    {'ash': 'ash', 'Elm': 'elm-bff0aac9'}
+    """
     result: dict[str, str] = {}
     seen: dict[str, str] = {}
     for name in names:
@@ -169,6 +203,29 @@ def safe_sheet_title(name: str, taken: set[str]) -> str:
 
     The chosen title is added to ``taken`` (as lower case). Titles may not be empty, may not
     start or end with an apostrophe, and "History" is reserved by Excel.
+
+    Parameters
+    ----------
+    name
+        A team's name.
+    taken
+        Lower-case titles already used in the workbook; updated in place.
+
+    Returns
+    -------
+    str
+        At most 31 characters, none of ``[ ] : * ? / \\``; a short hash of the name is added
+        when the cut title is taken.
+
+    References
+    ----------
+    ECMA-376 Part 1, §18.2.20 (sheet names; from memory).
+
+    Examples
+    --------
+    >>> taken = set()
+    >>> safe_sheet_title("Ash: 1st XI", taken), safe_sheet_title("history", taken)
+    ('Ash_ 1st XI', 'History team')
     """
     title = _SHEET_BAD.sub("_", name).strip().strip("'").strip() or "Team"
     if title.lower() == "history":

@@ -79,7 +79,32 @@ def _fixture_dict(f: Fixture) -> dict:
 
 
 def season_to_dict(season: Season, fairness: FairnessReport | None = None) -> dict:
-    """The JSON-ready form of ``season`` (and its fairness figures when given)."""
+    """The JSON-ready form of ``season`` (and its fairness figures when given).
+
+    Parameters
+    ----------
+    season
+        The season.
+    fairness
+        Its fairness figures, or ``None`` (then ``"fairness"`` is ``null``).
+
+    Returns
+    -------
+    dict
+        Plain values in a fixed key order: format, league, season, teams, fixtures, byes,
+        fairness, revisions and the presentation fields.
+
+    References
+    ----------
+    RFC 8259 (JSON); ``docs/season-folder.md``.
+
+    Examples
+    --------
+    >>> from scheduler.season import Fixture, Season
+    >>> data = season_to_dict(Season("Demo", "2031", ("Ash", "Elm"), (Fixture(1, "Ash", "Elm"),)))
+    >>> data["teams"], data["fixtures"][0]["home"], data["fairness"]
+    (['Ash', 'Elm'], 'Ash', None)
+    """
     mixing = None
     if season.mixing is not None:
         m = season.mixing
@@ -148,6 +173,30 @@ def _revision_dict(r: Revision) -> dict:
 
 
 def dumps_season(season: Season, fairness: FairnessReport | None = None) -> str:
-    """``season.json`` text: deterministic, UTF-8 (no ASCII escapes), indent 2, final newline."""
+    """``season.json`` text: deterministic, UTF-8 (no ASCII escapes), indent 2, final newline.
+
+    Parameters
+    ----------
+    season
+        The season.
+    fairness
+        Its fairness figures, or ``None``.
+
+    Returns
+    -------
+    str
+        The file's text; read back by :func:`scheduler.audit.season_file.loads_season`.
+
+    References
+    ----------
+    RFC 8259 (JSON); ``docs/season-folder.md``.
+
+    Examples
+    --------
+    >>> from scheduler.season import Fixture, Season
+    >>> text = dumps_season(Season("Démo", "2031", ("Ash", "Elm"), (Fixture(1, "Ash", "Elm"),)))
+    >>> '"league": "Démo"' in text, text.endswith("}\\n")
+    (True, True)
+    """
     data = season_to_dict(season, fairness)
     return json.dumps(data, ensure_ascii=False, indent=2, allow_nan=False) + "\n"

@@ -42,7 +42,21 @@ TEAM_FOLDER = "teams"
 
 @dataclass(frozen=True, slots=True)
 class TeamLine:
-    """One row of a team's page: a game (``row`` set) or a bye (``row`` ``None``)."""
+    """One row of a team's page: a game or a bye.
+
+    Parameters
+    ----------
+    round
+        The round number.
+    row
+        The game with its local date and time, or ``None`` for a bye.
+    side
+        ``"home"``, ``"away"``, the league's side label, or ``"bye"``.
+    opponent
+        The other team ("" for a bye).
+    address
+        The venue's postal address when the league gives one, else "".
+    """
 
     round: int
     row: FixtureRow | None
@@ -88,7 +102,28 @@ def _team_lines(season: Season, team: str, rows: list[FixtureRow]) -> list[TeamL
 
 
 def site_paths(season: Season, feed_names: Mapping[str, str] | None = None) -> list[str]:
-    """The paths :func:`site_files` returns, in the same order, without rendering anything."""
+    """The paths :func:`site_files` returns, in the same order, without rendering anything.
+
+    Parameters
+    ----------
+    season
+        The season (its teams).
+    feed_names
+        Team -> calendar file name (:func:`scheduler.export.ics.team_feed_names` when
+        ``None``); a team's page takes its feed's stem.
+
+    Returns
+    -------
+    list of str
+        ``/``-separated paths relative to the season folder: the index page, then one page
+        per team.
+
+    Examples
+    --------
+    >>> from scheduler.season import Season
+    >>> site_paths(Season("Demo", "2031", ("ash",), ()), {"ash": "ash.ics"})
+    ['site/index.html', 'site/teams/ash.html']
+    """
     feeds = _feed_names(season, feed_names)
     return [f"{SITE_FOLDER}/{INDEX_PAGE}"] + [
         f"{SITE_FOLDER}/{TEAM_FOLDER}/{feeds[team].rsplit('.', 1)[0]}.html"

@@ -78,6 +78,21 @@ def user_text(value: str | None) -> str | None:
     Only text that already looks neutralised (an apostrophe, then a formula character) is
     quoted once more, so that ``restore_cell`` gives it back unchanged.
 
+    Parameters
+    ----------
+    value
+        The text as the user typed it, or ``None``.
+
+    Returns
+    -------
+    str or None
+        The cell's text (``None`` for ``None``); characters XML 1.0 cannot hold become
+        U+FFFD.
+
+    References
+    ----------
+    XML 1.0 (Fifth Edition) §2.2 (characters) and §2.11 (line ends).
+
     Examples
     --------
     >>> user_text("=Hill United")
@@ -100,6 +115,11 @@ def plain_text_cells(wb: Workbook) -> int:
     workbook holds no formulas of its own, so such cells, and cells of text starting with
     another formula character, get data type ``"s"`` (string, written as ``inlineStr``) and the
     ``quotePrefix`` style, which a spreadsheet program shows as the text itself.
+
+    Parameters
+    ----------
+    wb
+        The workbook, changed in place.
 
     Returns
     -------
@@ -192,6 +212,18 @@ def short_title(name: str, limit: int = SHEET_TITLE_MAX) -> str:
     end is kept whole (up to 12 characters, from a word start where possible) and the middle
     gives way to an ellipsis.
 
+    Parameters
+    ----------
+    name
+        A team's name (runs of white space count as one space).
+    limit
+        Longest title in characters.
+
+    Returns
+    -------
+    str
+        The name itself when short enough, else head, ``…`` and tail.
+
     Examples
     --------
     >>> short_title("Marlwick and District Sunday League Girls A")
@@ -259,7 +291,28 @@ def _fixtures_sheet(ws: Worksheet, season: Season) -> None:
 
 def side_words(season: Season, side_labels: tuple[str, str] = ("H", "A")) -> tuple[str, str] | None:
     """The names of the two sides when "home" is a side or colour (the season's labels, or the
-    ``side_labels`` a caller passes other than the default), else ``None``."""
+    ``side_labels`` a caller passes other than the default), else ``None``.
+
+    Parameters
+    ----------
+    season
+        The season (what "home" means, its side labels).
+    side_labels
+        Side labels a caller asks for; the default ``("H", "A")`` means none.
+
+    Returns
+    -------
+    tuple of (str, str) or None
+        The two side names, or ``None`` when home means a venue.
+
+    Examples
+    --------
+    >>> from scheduler.season import Season
+    >>> side_words(Season("Demo", "2031", (), ())) is None
+    True
+    >>> side_words(Season("Demo", "2031", (), ()), ("White", "Black"))
+    ('White', 'Black')
+    """
     if season.home_meaning == "side":
         return season.side_labels
     if tuple(side_labels) != ("H", "A"):
@@ -269,7 +322,29 @@ def side_words(season: Season, side_labels: tuple[str, str] = ("H", "A")) -> tup
 
 def grid_cell_text(home_side: bool, opponent: str, sides: tuple[str, str] | None) -> str:
     """What a Grid cell says about the row's team: ``"home v Westermoor"`` (the row's team is
-    at home), ``"away at Westermoor"``, or with sides, ``"White v Westermoor"``."""
+    at home), ``"away at Westermoor"``, or with sides, ``"White v Westermoor"``.
+
+    Parameters
+    ----------
+    home_side
+        ``True`` when the row's team is at home (or plays the first side).
+    opponent
+        The other team.
+    sides
+        The side names (:func:`side_words`), or ``None``.
+
+    Returns
+    -------
+    str
+        The cell's text.
+
+    Examples
+    --------
+    >>> grid_cell_text(False, "Westermoor", None)
+    'away at Westermoor'
+    >>> grid_cell_text(True, "Westermoor", ("White", "Black"))
+    'White v Westermoor'
+    """
     if sides is not None:
         return f"{sides[0] if home_side else sides[1]} v {opponent}"
     return f"home v {opponent}" if home_side else f"away at {opponent}"
@@ -319,13 +394,50 @@ def _grid_sheet(ws: Worksheet, season: Season, side_labels: tuple[str, str]) -> 
 def column_pixels(width: float) -> float:
     """Screen pixels of a column ``width`` characters wide (ECMA-376 §18.3.1.13: the width is
     counted in widths of the digit "0" of the default font, 7 pixels for 11-point Calibri, plus
-    5 pixels of padding; from memory)."""
+    5 pixels of padding; from memory).
+
+    Parameters
+    ----------
+    width
+        Column width in characters, as openpyxl stores it.
+
+    Returns
+    -------
+    float
+        Width in screen pixels.
+
+    References
+    ----------
+    ECMA-376 Part 1, §18.3.1.13 (from memory).
+
+    Examples
+    --------
+    >>> column_pixels(10)
+    75
+    """
     return width * 7 + 5
 
 
 def grid_print_scale(ws: Worksheet, rounds: int) -> int:
     """The print scale (percent, 10 to 100) at which the team column and any
-    :data:`GRID_ROUNDS_PER_PAGE` rounds fit the printable width of a landscape A4 page."""
+    :data:`GRID_ROUNDS_PER_PAGE` rounds fit the printable width of a landscape A4 page.
+
+    Parameters
+    ----------
+    ws
+        The Grid sheet (its column widths and page margins, in inches).
+    rounds
+        Number of round columns after the team column.
+
+    Returns
+    -------
+    int
+        The scale in percent.
+
+    References
+    ----------
+    ISO 216 (A4: 210 mm x 297 mm).
+    """
     margins = (ws.page_margins.left or 0.7) + (ws.page_margins.right or 0.7)
     printable = (297 / 25.4 - margins) * 96  # landscape A4 (ISO 216), in 96-dpi pixels
 
@@ -500,7 +612,30 @@ def build_workbook(
     *,
     side_labels: tuple[str, str] = ("H", "A"),
 ) -> Workbook:
-    """The workbook object (``fairness`` optional: without it there is no Fairness sheet)."""
+    """The workbook object (``fairness`` optional: without it there is no Fairness sheet).
+
+    Parameters
+    ----------
+    season
+        The season.
+    fairness
+        Its fairness figures, or ``None``.
+    side_labels
+        Labels of the two sides in the grid.
+
+    Returns
+    -------
+    openpyxl.Workbook
+        Sheets Fixtures, Grid, Fairness (with figures) and one per team; document dates
+        derived from the plan revision.
+
+    Examples
+    --------
+    >>> from scheduler.season import Fixture, Season
+    >>> wb = build_workbook(Season("Demo", "2031", ("Ash", "Elm"), (Fixture(1, "Ash", "Elm"),)))
+    >>> wb.sheetnames
+    ['Fixtures', 'Grid', 'Ash', 'Elm']
+    """
     wb = Workbook()
     ws = wb.active
     ws.title = "Fixtures"
@@ -536,13 +671,45 @@ def workbook_bytes(
     *,
     side_labels: tuple[str, str] = ("H", "A"),
 ) -> bytes:
-    """The .xlsx file as bytes; the same season and figures always give the same bytes."""
+    """The .xlsx file as bytes; the same season and figures always give the same bytes.
+
+    Parameters
+    ----------
+    season
+        The season.
+    fairness
+        Its fairness figures, or ``None``.
+    side_labels
+        Labels of the two sides in the grid.
+
+    Returns
+    -------
+    bytes
+        The workbook (a zip archive, ECMA-376).
+
+    Examples
+    --------
+    >>> from scheduler.season import Fixture, Season
+    >>> season = Season("Demo", "2031", ("Ash", "Elm"), (Fixture(1, "Ash", "Elm"),))
+    >>> workbook_bytes(season) == workbook_bytes(season)
+    True
+    """
     return stable_workbook_bytes(build_workbook(season, fairness, side_labels=side_labels))
 
 
 def stable_workbook_bytes(wb: Workbook) -> bytes:
     """Any openpyxl workbook as .xlsx bytes with every zip member stamped with one fixed time,
     so that equal workbooks give equal bytes (the document properties' dates are the caller's).
+
+    Parameters
+    ----------
+    wb
+        The workbook.
+
+    Returns
+    -------
+    bytes
+        The .xlsx file.
     """
     buffer = io.BytesIO()
     archive = _FixedTimeZip(buffer, "w", zipfile.ZIP_DEFLATED, allowZip64=True)
@@ -583,5 +750,15 @@ def write_workbook(
     References
     ----------
     ECMA-376 (Office Open XML); ``docs/outputs.md``.
+
+    Examples
+    --------
+    >>> import tempfile
+    >>> from openpyxl import load_workbook
+    >>> from scheduler.season import Fixture, Season
+    >>> season = Season("Demo", "2031", ("Ash", "Elm"), (Fixture(1, "Ash", "Elm"),))
+    >>> path = write_workbook(season, None, Path(tempfile.mkdtemp()) / "season.xlsx")
+    >>> [cell.value for cell in load_workbook(path)["Fixtures"][2]][:6]
+    [1, 1, None, None, 'Ash', 'Elm']
     """
     return atomic_write_bytes(path, workbook_bytes(season, fairness, side_labels=side_labels))

@@ -32,6 +32,29 @@ __all__ = ["BreakFigures", "break_figures", "breaks_lower_bound", "count_breaks"
 
 @dataclass(frozen=True)
 class BreakFigures:
+    """Break and home/away figures of a season (see :func:`break_figures`).
+
+    Parameters
+    ----------
+    per_team
+        Breaks of each team (int array, one entry per team in table order).
+    break_mask
+        ``break_mask[r, t]`` is true when team ``t`` has a break in round ``r`` (0-based; a
+        break is counted in the second of its two games).
+    home
+        Home games of each team.
+    away
+        Away games of each team.
+    gap_max
+        Largest difference between two teams' home counts after any round.
+    gap_round
+        The first round (1-based) after which ``gap_max`` is reached (0 without rounds).
+    home_run
+        Longest run of consecutive home games of each team (byes skipped).
+    away_run
+        Longest run of consecutive away games of each team (byes skipped).
+    """
+
     per_team: np.ndarray
     break_mask: np.ndarray
     home: np.ndarray
@@ -44,7 +67,29 @@ class BreakFigures:
 
 def home_gap(venue_sign: np.ndarray) -> tuple[int, int]:
     """Largest difference between two teams' home counts after any round, and the first round
-    (1-based) after which it is reached (0 when there are no rounds)."""
+    (1-based) after which it is reached.
+
+    Parameters
+    ----------
+    venue_sign
+        ``venue_sign[r, t]``: +1 home, -1 away, 0 no game.
+
+    Returns
+    -------
+    tuple of (int, int)
+        The largest gap and its first round; ``(0, 0)`` when there are no rounds.
+
+    References
+    ----------
+    D. Goossens and F. Spieksma, "The carryover effect does not influence football results",
+    J. Scheduling 15 (2012) 641-651 (ranking-balancedness, from memory); ``docs/fairness.md``.
+
+    Examples
+    --------
+    >>> import numpy as np
+    >>> home_gap(np.array([[1, -1], [1, -1], [-1, 1]]))
+    (2, 2)
+    """
     if venue_sign.size == 0:
         return 0, 0
     cum = np.cumsum(venue_sign == 1, axis=0, dtype=np.int64)
@@ -56,7 +101,25 @@ def home_gap(venue_sign: np.ndarray) -> tuple[int, int]:
 def longest_runs(venue_sign: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
     """Longest run of consecutive home games and of away games per team (byes skipped, as for
     breaks). Limits on such runs are a classic constraint, e.g. at most 3 in the traveling
-    tournament problem (Easton, Nemhauser & Trick, CP 2001, LNCS 2239)."""
+    tournament problem (Easton, Nemhauser & Trick, CP 2001, LNCS 2239).
+
+    Parameters
+    ----------
+    venue_sign
+        ``venue_sign[r, t]``: +1 home, -1 away, 0 no game.
+
+    Returns
+    -------
+    tuple of numpy.ndarray
+        (longest home run, longest away run) per team; 0 for a team without such games.
+
+    Examples
+    --------
+    >>> import numpy as np
+    >>> home, away = longest_runs(np.array([[1, -1], [0, 1], [1, -1]]))
+    >>> home.tolist(), away.tolist()
+    ([2, 1], [0, 1])
+    """
     n = venue_sign.shape[1]
     home = np.zeros(n, dtype=np.int64)
     away = np.zeros(n, dtype=np.int64)
@@ -113,6 +176,32 @@ def break_figures(venue_sign: np.ndarray) -> BreakFigures:
 def breaks_lower_bound(n: int, legs: int, scheme: str) -> tuple[int, str]:
     """Least total number of breaks of a season of ``n`` teams in ``legs`` single round robins
     under ``scheme`` (byes skipped), with the argument it rests on
-    (:func:`scheduler.leg_schemes.break_lower_bound`, derived in ``docs/leg-schemes.md``)."""
+    (:func:`scheduler.leg_schemes.break_lower_bound`, derived in ``docs/leg-schemes.md``).
+
+    Parameters
+    ----------
+    n
+        Number of teams (2 or more).
+    legs
+        Number of single round robins (1 or more).
+    scheme
+        The leg scheme: ``"single"``, ``"mirrored"``, ``"french"``, ``"english"``,
+        ``"inverted"`` or ``"free"``.
+
+    Returns
+    -------
+    tuple of (int, str)
+        The bound and the argument it rests on, in words.
+
+    References
+    ----------
+    D. de Werra, "Scheduling in sports", Annals of Discrete Mathematics 11 (1981) 381-395;
+    ``docs/leg-schemes.md``.
+
+    Examples
+    --------
+    >>> breaks_lower_bound(6, 1, "single")[0], breaks_lower_bound(6, 2, "mirrored")[0]
+    (4, 12)
+    """
     bound = break_lower_bound(n, legs, scheme)
     return bound.value, bound.reason

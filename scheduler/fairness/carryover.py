@@ -43,6 +43,31 @@ CONVENTION = (
 
 @dataclass(frozen=True)
 class CarryOverFigures:
+    """Carry-over figures of a season (see :func:`carry_over_figures`).
+
+    Parameters
+    ----------
+    labels
+        Row and column labels of ``matrix``: the teams in table order, then ``"bye"`` for an
+        odd league.
+    matrix
+        Russell's carry-over matrix of leg 1 (``c[i, j]``: how often a team meets ``j`` right
+        after ``i``, the last round wrapping to the first).
+    value
+        The carry-over effects value of leg 1, the sum of the squared entries; ``None`` when
+        it cannot be computed (no complete leg).
+    lower
+        Russell's lower bound ``n (n - 1)`` (``n`` counts the bye), or ``None``.
+    upper
+        The circle method's value ``(n - 1)(n^2 - 6n + 12)``, the largest possible, or ``None``.
+    per_leg
+        The value of each leg computed on its own (``None`` where not computable).
+
+    References
+    ----------
+    K. G. Russell, Biometrika 67 (1980) 127-131; ``docs/carry-over.md``.
+    """
+
     labels: tuple[str, ...]
     matrix: np.ndarray
     value: int | None
@@ -52,7 +77,28 @@ class CarryOverFigures:
 
 
 def coe_bounds(n: int) -> tuple[int, int]:
-    """Russell's lower bound n(n-1) and the circle method's maximum (n-1)(n^2-6n+12)."""
+    """Russell's lower bound n(n-1) and the circle method's maximum (n-1)(n^2-6n+12).
+
+    Parameters
+    ----------
+    n
+        Number of teams of the single round robin, even (an odd league counts its bye).
+
+    Returns
+    -------
+    tuple of (int, int)
+        (lower bound, upper bound) of the carry-over effects value.
+
+    References
+    ----------
+    K. G. Russell, Biometrika 67 (1980) 127-131; R. Lambrechts, A. Ficker, D. Goossens and
+    F. Spieksma, Mathematical Programming 172 (2018) 277-302; ``docs/carry-over.md``.
+
+    Examples
+    --------
+    >>> coe_bounds(4), coe_bounds(6)
+    ((12, 12), (30, 60))
+    """
     return n * (n - 1), (n - 1) * (n * n - 6 * n + 12)
 
 

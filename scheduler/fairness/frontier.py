@@ -18,8 +18,26 @@ from dataclasses import dataclass, field
 
 @dataclass(frozen=True)
 class ScheduleOption:
-    """One schedule option's figures (``label`` names it; ``payload`` carries anything the
-    caller needs to rebuild it and takes no part in comparisons)."""
+    """One schedule option's figures.
+
+    Parameters
+    ----------
+    label
+        The option's name in reports.
+    perfect_pairs
+        Pairs of rounds that mix perfectly (more is better).
+    breaks
+        Total breaks (fewer is better).
+    carry_over
+        Russell's carry-over effects value (lower is better).
+    payload
+        Anything the caller needs to rebuild the option; takes no part in comparisons.
+
+    Examples
+    --------
+    >>> ScheduleOption("a", 3, 4, 60) == ScheduleOption("a", 3, 4, 60, payload=[1])
+    True
+    """
 
     label: str
     perfect_pairs: int
@@ -28,12 +46,37 @@ class ScheduleOption:
     payload: object = field(default=None, compare=False, hash=False, repr=False)
 
     def figures(self) -> tuple[int, int, int]:
-        """``(perfect pairs, breaks, carry-over)``."""
+        """The three figures compared on the frontier.
+
+        Returns
+        -------
+        tuple of (int, int, int)
+            ``(perfect pairs, breaks, carry-over)``.
+        """
         return (self.perfect_pairs, self.breaks, self.carry_over)
 
 
 def dominates(first: ScheduleOption, second: ScheduleOption) -> bool:
-    """Is ``first`` at least as good as ``second`` in every figure and better in one?"""
+    """Is ``first`` at least as good as ``second`` in every figure and better in one?
+
+    Parameters
+    ----------
+    first, second
+        The options compared: more perfect pairs, fewer breaks and a lower carry-over value
+        are better.
+
+    Returns
+    -------
+    bool
+        ``True`` when ``first`` dominates ``second`` (Pareto dominance); an option never
+        dominates itself.
+
+    Examples
+    --------
+    >>> better, worse = ScheduleOption("a", 3, 4, 60), ScheduleOption("b", 3, 5, 60)
+    >>> dominates(better, worse), dominates(worse, better), dominates(better, better)
+    (True, False, False)
+    """
     at_least = (first.perfect_pairs >= second.perfect_pairs and first.breaks <= second.breaks
                 and first.carry_over <= second.carry_over)
     better = (first.perfect_pairs > second.perfect_pairs or first.breaks < second.breaks

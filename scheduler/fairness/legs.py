@@ -25,6 +25,21 @@ from scheduler.leg_schemes import flipped, scheme_of_maps
 
 @dataclass(frozen=True)
 class LegStructure:
+    """The legs of a season as read from its fixtures (:func:`detect_legs`).
+
+    Parameters
+    ----------
+    legs
+        Number of legs: the most common number of meetings of a pair.
+    round_leg
+        Leg (1-based) of each round (0 for a round with no fixtures).
+    scheme
+        ``"single"``, ``"mirrored"``, ``"french"``, ``"english"``, ``"inverted"`` or
+        ``"free"`` (``docs/leg-schemes.md``).
+    meetings_mode
+        The most common number of meetings of a pair of teams.
+    """
+
     legs: int
     round_leg: np.ndarray
     """Leg (1-based) of each round (0 for a round with no fixtures)."""
@@ -37,6 +52,26 @@ def partner_rows(table: SeasonTable) -> tuple[np.ndarray, int]:
 
     For an odd league a team that does not play is paired with the bye vertex, and the bye
     vertex with the (first) team that sits out. Entries stay -1 where no partner exists.
+
+    Parameters
+    ----------
+    table
+        The indexed season.
+
+    Returns
+    -------
+    tuple of (numpy.ndarray, int)
+        The partner table ``rows[r, v]`` and ``N``, the number of vertices (``n``, or
+        ``n + 1`` for an odd league).
+
+    Examples
+    --------
+    >>> from scheduler.fairness.table import build_table
+    >>> from scheduler.season import Fixture, Season
+    >>> season = Season("Demo", "2031", ("Ash", "Elm", "Oak"), (Fixture(1, "Ash", "Elm"),))
+    >>> rows, vertices = partner_rows(build_table(season))
+    >>> rows.tolist(), vertices
+    ([[1, 0, 3, 2]], 4)
     """
     n = table.n
     if n % 2 == 0:
@@ -52,7 +87,27 @@ def partner_rows(table: SeasonTable) -> tuple[np.ndarray, int]:
 
 
 def pair_meetings(table: SeasonTable) -> tuple[np.ndarray, np.ndarray]:
-    """Unique pair keys ``a * n + b`` (a < b) and how often each pair meets."""
+    """Unique pair keys ``a * n + b`` (a < b) and how often each pair meets.
+
+    Parameters
+    ----------
+    table
+        The indexed season; games of a team against itself are left out.
+
+    Returns
+    -------
+    tuple of numpy.ndarray
+        (sorted unique keys, meetings of each key).
+
+    Examples
+    --------
+    >>> from scheduler.fairness.table import build_table
+    >>> from scheduler.season import Fixture, Season
+    >>> season = Season("Demo", "2031", ("Ash", "Elm"),
+    ...                 (Fixture(1, "Ash", "Elm"), Fixture(2, "Elm", "Ash")))
+    >>> [values.tolist() for values in pair_meetings(build_table(season))]
+    [[1], [2]]
+    """
     n = max(table.n, 1)
     lo = np.minimum(table.home, table.away)
     hi = np.maximum(table.home, table.away)
@@ -134,7 +189,31 @@ def _detect_scheme(table: SeasonTable, round_leg: np.ndarray, legs: int) -> str:
 
 def separation(table: SeasonTable) -> tuple[int | None, int | None]:
     """Least and largest number of rounds strictly between two consecutive meetings of the
-    same pair (over all pairs that meet more than once); ``(None, None)`` when none does."""
+    same pair (over all pairs that meet more than once).
+
+    Parameters
+    ----------
+    table
+        The indexed season.
+
+    Returns
+    -------
+    tuple of (int or None, int or None)
+        (least, largest) separation; ``(None, None)`` when no pair meets twice.
+
+    References
+    ----------
+    ``docs/leg-schemes.md`` (separation of each leg scheme).
+
+    Examples
+    --------
+    >>> from scheduler.fairness.table import build_table
+    >>> from scheduler.season import Fixture, Season
+    >>> season = Season("Demo", "2031", ("Ash", "Elm"),
+    ...                 (Fixture(1, "Ash", "Elm"), Fixture(4, "Elm", "Ash")))
+    >>> separation(build_table(season))
+    (2, 2)
+    """
     n = max(table.n, 1)
     lo = np.minimum(table.home, table.away)
     hi = np.maximum(table.home, table.away)

@@ -36,6 +36,37 @@ MAX_LISTED = 50
 
 @dataclass(frozen=True)
 class MixingFigures:
+    """How well the rounds of a season mix (:func:`mixing_figures`).
+
+    Parameters
+    ----------
+    valid
+        ``True`` when the distinct pairings measured form one single round robin.
+    rounds
+        The season rounds (1-based) whose pairings were measured, one per distinct pairing.
+    perfect_pairs
+        Pairs of those rounds whose union is one Hamiltonian cycle.
+    pairs
+        All pairs of those rounds examined (0 when the rounds are not complete pairings).
+    perfect
+        ``True`` when every pair is perfect (a perfect one-factorization).
+    imperfect
+        The first :data:`MAX_LISTED` imperfect pairs, by season round.
+    imperfect_total
+        How many pairs are imperfect.
+    matrix
+        Number of cycles of the union of each two measured rounds (0 on the diagonal); empty
+        when not computed.
+    note
+        What was measured and what was left out, in words.
+    problems
+        Why the pairings are not one single round robin, from the verifier.
+
+    References
+    ----------
+    ``docs/one-factorizations.md``.
+    """
+
     valid: bool
     rounds: tuple[int, ...]
     perfect_pairs: int
@@ -53,7 +84,27 @@ def distinct_pairings(
 ) -> tuple[list[int], np.ndarray, int]:
     """Rounds (0-based) whose pairing appears for the first time, the partner table and N.
 
-    ``among`` (a boolean mask over the rounds) restricts the rounds looked at.
+    Parameters
+    ----------
+    table
+        The indexed season.
+    among
+        A boolean mask over the rounds restricting the rounds looked at; ``None`` for all.
+
+    Returns
+    -------
+    tuple
+        (first rounds of each distinct pairing, partner table of :func:`partner_rows`,
+        number of vertices ``N``).
+
+    Examples
+    --------
+    >>> from scheduler.fairness.table import build_table
+    >>> from scheduler.season import Fixture, Season
+    >>> season = Season("Demo", "2031", ("Ash", "Elm"),
+    ...                 (Fixture(1, "Ash", "Elm"), Fixture(2, "Elm", "Ash")))
+    >>> distinct_pairings(build_table(season))[0]
+    [0]
     """
     rows, big_n = partner_rows(table)
     played = np.zeros(table.rounds, dtype=bool)
@@ -90,8 +141,36 @@ def _round_games(table: SeasonTable, chosen: list[int], big_n: int) -> list[np.n
 
 
 def union_cycle_counts(partners: np.ndarray, block: int = 1 << 22) -> np.ndarray:
-    """``(R, R)`` matrix of the number of cycles of the union of rounds ``i`` and ``j``
-    (``partners[r]`` a fixed-point-free involution per round); 0 on the diagonal."""
+    """``(R, R)`` matrix of the number of cycles of the union of rounds ``i`` and ``j``.
+
+    The union of two perfect matchings is a set of disjoint even cycles; one cycle means the
+    pair of rounds is perfect. Cycles are counted by pointer jumping on the permutation
+    ``p_j o p_i`` (each cycle of the union is two of its cycles), vectorised over pairs.
+
+    Parameters
+    ----------
+    partners
+        ``partners[r, v]``: the partner of vertex ``v`` in round ``r``, a fixed-point-free
+        involution per round (``(R, N)`` integer array).
+    block
+        Number of array entries handled at once (memory bound).
+
+    Returns
+    -------
+    numpy.ndarray
+        Symmetric ``(R, R)`` integer matrix of cycle counts, 0 on the diagonal.
+
+    References
+    ----------
+    ``docs/one-factorizations.md`` (perfect pairs of rounds).
+
+    Examples
+    --------
+    >>> import numpy as np
+    >>> rounds = np.array([[1, 0, 3, 2], [2, 3, 0, 1], [3, 2, 1, 0]])
+    >>> union_cycle_counts(rounds).tolist()
+    [[0, 1, 1], [1, 0, 1], [1, 1, 0]]
+    """
     r_count, n = partners.shape
     first, second = np.triu_indices(r_count, k=1)
     counts = np.zeros(len(first), dtype=np.int64)
@@ -117,7 +196,38 @@ def union_cycle_counts(partners: np.ndarray, block: int = 1 << 22) -> np.ndarray
 
 def mixing_figures(table: SeasonTable, round_leg: np.ndarray | None = None) -> MixingFigures:
     """Mixing of the distinct pairings. When a multi-leg season has more distinct pairings than
-    one single round robin (a later leg does not repeat leg 1), only leg 1 is measured."""
+    one single round robin (a later leg does not repeat leg 1), only leg 1 is measured.
+
+    Parameters
+    ----------
+    table
+        The indexed season.
+    round_leg
+        The leg of each round (:func:`scheduler.fairness.legs.detect_legs`); ``None`` when
+        unknown (all distinct pairings are measured).
+
+    Returns
+    -------
+    MixingFigures
+        Measured by the independent verifier
+        (:func:`scheduler.factorization.verify.verify_rounds`).
+
+    References
+    ----------
+    ``docs/one-factorizations.md``.
+
+    Examples
+    --------
+    >>> from scheduler.fairness.table import build_table
+    >>> from scheduler.season import Fixture, Season
+    >>> games = [(1, "Ash", "Elm"), (1, "Oak", "Yew"), (2, "Elm", "Oak"),
+    ...          (2, "Yew", "Ash"), (3, "Ash", "Oak"), (3, "Elm", "Yew")]
+    >>> season = Season("Demo", "2031", ("Ash", "Elm", "Oak", "Yew"),
+    ...                 tuple(Fixture(*game) for game in games))
+    >>> figures = mixing_figures(build_table(season))
+    >>> figures.valid, figures.perfect_pairs, figures.pairs, figures.perfect
+    (True, 3, 3, True)
+    """
     chosen, rows, big_n = distinct_pairings(table)
     extra = ""
     if round_leg is not None and len(chosen) > big_n - 1 and round_leg.max(initial=0) > 1:

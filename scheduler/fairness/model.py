@@ -51,14 +51,33 @@ def _as_dict(obj) -> dict:
 
 @dataclass(frozen=True, slots=True)
 class ImperfectRoundPair:
-    """Two distinct pairings (season round numbers, 1-based) whose union is not one
-    Hamiltonian cycle; ``label`` lists the cycle lengths, e.g. ``"4+6"``."""
+    """Two distinct pairings whose union is not one Hamiltonian cycle.
+
+    Parameters
+    ----------
+    first, second
+        Their season round numbers (1-based).
+    label
+        The lengths of the cycles of their union, e.g. ``"4+6"``.
+
+    Examples
+    --------
+    >>> ImperfectRoundPair(1, 4, "4+6").to_dict()
+    {'first': 1, 'second': 4, 'label': '4+6'}
+    """
 
     first: int
     second: int
     label: str
 
     def to_dict(self) -> dict:
+        """JSON-ready form.
+
+        Returns
+        -------
+        dict
+            ``first``, ``second`` and ``label``.
+        """
         return _as_dict(self)
 
 
@@ -66,13 +85,44 @@ class ImperfectRoundPair:
 class TeamFigures:
     """One team's figures. Counts are ``(label, count)`` pairs in a stable (sorted) order.
 
-    ``pattern`` is the home-away pattern over the season's rounds (``H``, ``A``, ``B`` for a
-    bye or a round the team does not play, ``X`` for a round in which it plays more than once).
-    ``break_rounds`` are the rounds in which a break happens (the second of the two games).
-    ``rest_days`` are the days without a game between consecutive games (a game on the next
-    day is 0 rest days); empty when the fixtures carry no dates. ``home_run_max`` /
-    ``away_run_max`` are the longest runs of consecutive home / away games (byes skipped);
-    ``less_rest_games`` counts the team's games with fewer rest days than its opponent.
+    Parameters
+    ----------
+    name
+        The team.
+    games, home, away, byes
+        Its games, home games, away games and byes (rounds without a game).
+    breaks
+        Its breaks.
+    break_rounds
+        The rounds in which a break happens (the second of the two games).
+    pattern
+        The home-away pattern over the season's rounds: ``H``, ``A``, ``B`` for a bye or a
+        round the team does not play, ``X`` for a round in which it plays more than once.
+    venues, courts, slots
+        How often it plays at each venue, on each court and in each slot.
+    court_spread, slot_spread
+        Most minus fewest uses of one court / slot (``None`` without courts / slots).
+    rest_days
+        The days without a game between consecutive games (a game on the next day is 0 rest
+        days); empty when the fixtures carry no dates.
+    rest_days_min, rest_days_mean
+        Least and mean of ``rest_days`` (``None`` without dates).
+    home_run_max, away_run_max
+        The longest runs of consecutive home / away games (byes skipped).
+    less_rest_games
+        The team's games with fewer rest days than its opponent.
+
+    Examples
+    --------
+    >>> from scheduler.fairness import compute_fairness
+    >>> from scheduler.season import Fixture, Season
+    >>> games = [(1, "Ash", "Elm"), (1, "Oak", "Yew"), (2, "Elm", "Oak"),
+    ...          (2, "Yew", "Ash"), (3, "Ash", "Oak"), (3, "Elm", "Yew")]
+    >>> season = Season("Demo", "2031", ("Ash", "Elm", "Oak", "Yew"),
+    ...                 tuple(Fixture(*game) for game in games))
+    >>> ash = compute_fairness(season).team("Ash")
+    >>> ash.pattern, ash.breaks, ash.break_rounds, ash.to_dict()["home"]
+    ('HAH', 0, (), 2)
     """
 
     name: str
@@ -96,6 +146,13 @@ class TeamFigures:
     less_rest_games: int = 0
 
     def to_dict(self) -> dict:
+        """JSON-ready figures, keys in field order.
+
+        Returns
+        -------
+        dict
+            Plain values; ``venues``, ``courts`` and ``slots`` as label -> count dicts.
+        """
         d = _as_dict(self)
         for key in ("venues", "courts", "slots"):
             d[key] = {label: count for label, count in getattr(self, key)}
@@ -104,50 +161,126 @@ class TeamFigures:
 
 @dataclass(frozen=True)
 class FairnessReport:
-    """Every fairness figure of a season. Lists indexed by team follow ``team_names`` (the
-    season's teams, then any name found only in fixtures; ``teams`` counts them all). ``legs``
-    and ``scheme`` (``single``, ``mirrored``, ``french``, ``english``, ``inverted`` or
-    ``free``) are read from the fixtures, not from the season's labels.
+    """Every fairness figure of a season, computed from its fixtures alone.
 
-    Breaks (``bye_convention`` says how byes count): ``breaks_total`` and
-    ``breaks_per_team``; ``breaks_lower_bound`` is the least total any season of this shape
-    can have, ``breaks_lower_bound_source`` where that bound comes from.
+    Lists indexed by team follow ``team_names``. ``to_dict`` gives the figures as JSON-ready
+    data, keys in field order.
 
-    Home/away: ``home_counts``, ``away_counts``; ``home_gap_max`` is the largest difference
-    between two teams' home-game counts after any round (ranking-balancedness, Goossens &
-    Spieksma 2012), first reached after round ``home_gap_round``.
+    Parameters
+    ----------
+    teams
+        Number of teams measured: the season's teams, then any name found only in fixtures.
+    team_names
+        Their names, in that order.
+    rounds
+        Number of rounds.
+    legs
+        Number of legs, read from the fixtures (the most common number of meetings of a pair).
+    scheme
+        The leg scheme read from the fixtures: ``single``, ``mirrored``, ``french``,
+        ``english``, ``inverted`` or ``free`` (``docs/leg-schemes.md``).
+    games
+        Number of games (fixtures with a round of 1 or more).
+    bye_convention
+        How byes count for breaks (:data:`BYE_CONVENTION`).
+    breaks_total
+        Total breaks (two home or two away games in a row, counted in the second).
+    breaks_per_team
+        Breaks of each team.
+    breaks_lower_bound
+        The least total any season of this shape can have.
+    breaks_lower_bound_source
+        Where that bound comes from, in words.
+    home_counts, away_counts
+        Home and away games of each team.
+    home_gap_max
+        Largest difference between two teams' home-game counts after any round
+        (ranking-balancedness, Goossens & Spieksma 2012).
+    home_gap_round
+        The first round after which ``home_gap_max`` is reached.
+    perfect_pairs
+        Pairs of distinct pairings whose union is one Hamiltonian cycle.
+    pairs
+        All pairs of distinct pairings examined.
+    perfect
+        ``True`` when every pair is perfect.
+    mixing_valid
+        ``True`` when the distinct pairings form a one-factorization.
+    mixing_rounds
+        The season round in which each distinct pairing first appears (normally the rounds
+        of leg 1; an odd league adds a bye vertex).
+    imperfect_pairs
+        Some of the imperfect pairs, with their cycle lengths.
+    imperfect_total
+        How many pairs are imperfect.
+    mixing_matrix
+        ``mixing_matrix[a][b]``: cycles of the union of pairings ``a`` and ``b`` (1 =
+        perfect, 0 on the diagonal); empty above ``MIXING_MATRIX_MAX`` pairings.
+    mixing_note
+        What the mixing figures measured, in words.
+    mixing_problems
+        Why the distinct pairings are not a one-factorization.
+    venue_names, court_names, slot_names
+        The venues, courts and slots used (sorted).
+    court_spread_max, slot_spread_max
+        The largest per-team spread (most minus fewest uses of one court or slot); ``None``
+        without courts or slots.
+    btd_applicable
+        ``True`` when every round of a leg uses each court exactly once with one game per
+        court.
+    btd_ok
+        Then whether every team uses every court at most twice per leg (a balanced
+        tournament design); ``None`` when not applicable.
+    btd_violations
+        The teams and courts that break the design, in words.
+    rest_days_min, rest_days_mean
+        Rest days between consecutive games over the league; ``None`` without dates.
+    carry_over_labels
+        Row and column labels of the carry-over matrix (``"bye"`` for an odd league).
+    carry_over_matrix
+        Russell's carry-over matrix of leg 1.
+    carry_over_value
+        Its carry-over effects value, the sum of squares; ``None`` when not computable.
+    carry_over_lower_bound, carry_over_upper_bound
+        ``n (n - 1)`` and ``(n - 1)(n^2 - 6n + 12)``, ``n`` counting the bye vertex.
+    carry_over_per_leg
+        The value of each complete leg computed the same way.
+    carry_over_convention
+        Exactly what is computed, in words.
+    separation_min, separation_max
+        Rounds strictly between two consecutive meetings of the same pair, least and largest
+        over all pairs; ``None`` for a single round robin.
+    team_figures
+        Each team's figures.
+    notes
+        What could not be measured and why.
+    home_run_max, away_run_max
+        The longest run of consecutive home / away games of any team (byes skipped).
+    rest_mismatches
+        Games in which the two teams had different numbers of rest days (``None`` without
+        dates).
+    rule_checks
+        The checklist of the league's own hard rules (:func:`scheduler.rules.check_rules`);
+        ``None`` when the league's rules are not known.
 
-    Mixing over the distinct pairings (``mixing_rounds``: the season round in which each first
-    appears; normally the n-1 rounds of leg 1; when later legs bring new pairings, leg 1
-    alone; an odd league adds a bye vertex):
-    ``perfect_pairs`` of ``pairs`` pairs of them form one Hamiltonian cycle; ``perfect`` when
-    all do. ``imperfect_pairs`` lists (some of, ``imperfect_total`` counts all) the others with
-    their cycle lengths. ``mixing_matrix[a][b]`` is the number of cycles of the union of
-    pairings ``a`` and ``b`` (1 = perfect, 0 on the diagonal); it is left empty above
-    ``MIXING_MATRIX_MAX`` pairings (see ``mixing_note``). ``mixing_valid`` says whether the
-    distinct pairings form a one-factorization at all; ``mixing_problems`` says why not.
+    References
+    ----------
+    D. de Werra, Annals of Discrete Mathematics 11 (1981) 381-395; K. G. Russell, Biometrika
+    67 (1980) 127-131; ``docs/fairness.md``; ``docs/figures.md``.
 
-    Places: ``venue_names``, ``court_names``, ``slot_names`` (sorted); per team counts in
-    ``team_figures``; ``court_spread_max`` / ``slot_spread_max`` are the largest per-team
-    spreads (max - min uses of one court / slot). ``btd_applicable`` is true when every round
-    of a leg uses each court exactly once with one game per court; then ``btd_ok`` says
-    whether every team uses every court at most twice per leg (a balanced tournament design).
-
-    Rest: ``rest_days_min`` / ``rest_days_mean`` over the league (``None`` without dates).
-
-    Carry-over (``carry_over_convention`` says exactly what is computed):
-    ``carry_over_matrix[i][j]`` over ``carry_over_labels``; ``carry_over_value`` = sum of
-    squares, between ``carry_over_lower_bound`` = n(n-1) and ``carry_over_upper_bound`` =
-    (n-1)(n^2-6n+12) (n here counts the bye vertex of an odd league). ``carry_over_per_leg``
-    gives the value of each complete leg computed the same way.
-
-    Separation (multi-leg seasons): rounds strictly between two consecutive meetings of the same
-    pair, least and largest over all pairs (``None`` for a single round robin).
-
-    ``notes`` say what could not be measured and why. ``home_run_max`` / ``away_run_max``:
-    the longest run of consecutive home / away games of any team (byes skipped).
-    ``rest_mismatches``: games in which the two teams had different numbers of rest days
-    (``None`` without dates).
+    Examples
+    --------
+    >>> from scheduler.fairness import compute_fairness
+    >>> from scheduler.season import Fixture, Season
+    >>> games = [(1, "Ash", "Elm"), (1, "Oak", "Yew"), (2, "Elm", "Oak"),
+    ...          (2, "Yew", "Ash"), (3, "Ash", "Oak"), (3, "Elm", "Yew")]
+    >>> season = Season("Demo", "2031", ("Ash", "Elm", "Oak", "Yew"),
+    ...                 tuple(Fixture(*game) for game in games))
+    >>> report = compute_fairness(season)
+    >>> report.breaks_total, report.breaks_lower_bound, report.perfect, report.scheme
+    (2, 2, True, 'single')
+    >>> report.carry_over_value, report.carry_over_lower_bound
+    (12, 12)
     """
 
     teams: int
@@ -205,17 +338,47 @@ class FairnessReport:
     audit without the league file)."""
 
     def team(self, name: str) -> TeamFigures:
+        """The figures of one team.
+
+        Parameters
+        ----------
+        name
+            The team's name as in ``team_names``.
+
+        Returns
+        -------
+        TeamFigures
+            Its figures.
+
+        Raises
+        ------
+        KeyError
+            No team of that name.
+        """
         for t in self.team_figures:
             if t.name == name:
                 return t
         raise KeyError(name)
 
     def to_dict(self) -> dict:
-        """JSON-ready figures, keys in field order (stable), values plain."""
+        """JSON-ready figures, keys in field order (stable), values plain.
+
+        Returns
+        -------
+        dict
+            Every field; tuples as lists, nested values by their own ``to_dict``.
+        """
         return _as_dict(self)
 
     def summary(self) -> dict:
-        """The headline figures only (what the audit prints)."""
+        """The headline figures only (what the audit prints).
+
+        Returns
+        -------
+        dict
+            Teams, rounds, games, breaks and their bound, home gap, mixing, carry-over and
+            its bounds, least rest and least separation.
+        """
         return {
             "teams": self.teams,
             "rounds": self.rounds,

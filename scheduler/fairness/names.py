@@ -26,8 +26,26 @@ if TYPE_CHECKING:
 
 @dataclass(frozen=True, slots=True)
 class FigureName:
-    """A figure's one display name, and which way is better (``"lower"``, ``"higher"`` or
-    ``""`` when neither is)."""
+    """A figure's one display name, and which way is better.
+
+    Parameters
+    ----------
+    key
+        The figure's key, as in ``season.json``'s ``fairness``.
+    name
+        Its display name in every output.
+    better
+        ``"lower"``, ``"higher"`` or ``""`` when neither is better.
+
+    References
+    ----------
+    ``docs/figures.md``.
+
+    Examples
+    --------
+    >>> FIGURES["breaks_total"]
+    FigureName(key='breaks_total', name='breaks', better='lower')
+    """
 
     key: str
     name: str
@@ -59,7 +77,28 @@ FIGURES: dict[str, FigureName] = {
 
 
 def figure_name(key: str) -> str:
-    """The display name of the figure ``key`` (see :data:`FIGURES`)."""
+    """The display name of the figure ``key`` (see :data:`FIGURES`).
+
+    Parameters
+    ----------
+    key
+        A key of :data:`FIGURES`.
+
+    Returns
+    -------
+    str
+        The name shown in every output.
+
+    Raises
+    ------
+    KeyError
+        An unknown key.
+
+    Examples
+    --------
+    >>> figure_name("carry_over_value")
+    'carry-over value'
+    """
     return FIGURES[key].name
 
 
@@ -123,6 +162,16 @@ def plain_method(method: str) -> str:
 def method_phrase(method: str) -> str:
     """:func:`plain_method` with its article, to follow "built with".
 
+    Parameters
+    ----------
+    method
+        A factorization's method as the engine names it (``"circle GK_8"``).
+
+    Returns
+    -------
+    str
+        The method in words with an article (or a possessive).
+
     Examples
     --------
     >>> method_phrase("circle GK_8")
@@ -140,6 +189,16 @@ def method_phrase(method: str) -> str:
 def plain_text(text: str) -> str:
     """Free text (a planner's note, an option label) with every method named in words.
 
+    Parameters
+    ----------
+    text
+        The text, as the engine wrote it.
+
+    Returns
+    -------
+    str
+        The text with methods and figure names as every output names them.
+
     Examples
     --------
     >>> plain_text("compared circle GK_10: 27/36 perfect round pairs")
@@ -156,11 +215,26 @@ def plain_text(text: str) -> str:
 
 @dataclass(frozen=True, slots=True)
 class FigureLine:
-    """One measured figure in words: ``name`` (from :data:`FIGURES`), ``value`` as shown,
-    ``over`` (what it is measured over), ``standing`` (where it stands between the best and the
-    worst possible, or which way is better) and ``tone``: ``"good"`` when it is at the best
-    possible, ``"fair"`` when a better value exists, ``"note"`` when neither applies.
-    ``brief`` and ``over_brief`` say the same in a few words (for the terminal)."""
+    """One measured figure in words (see :func:`figure_lines`).
+
+    Parameters
+    ----------
+    key
+        The figure's key in :data:`FIGURES`.
+    name
+        Its display name.
+    value
+        The value as shown.
+    over
+        What it is measured over.
+    standing
+        Where it stands between the best and the worst possible, or which way is better.
+    tone
+        ``"good"`` when it is at the best possible, ``"fair"`` when a better value exists,
+        ``"note"`` when neither applies.
+    brief, over_brief
+        ``standing`` and ``over`` in a few words (for the terminal).
+    """
 
     key: str
     name: str
@@ -437,6 +511,16 @@ def figure_lines(fr: FairnessReport) -> list[FigureLine]:
 
 def plain_source(source: str) -> str:
     """A method's source for readers: without the project's internal file names.
+
+    Parameters
+    ----------
+    source
+        The source as the factorization records it.
+
+    Returns
+    -------
+    str
+        The source without file names, group names in parentheses and search seeds.
 
     Examples
     --------

@@ -45,8 +45,17 @@ _MAX_DAYS = 20_000
 
 @dataclass(frozen=True, slots=True)
 class SilentEffect:
-    """One note: ``kind`` is ``"empty-day"``, ``"no-effect"``, ``"early-end"`` or
-    ``"clock-change"``; ``day`` the date it is about; ``text`` the sentence shown."""
+    """One note on an effect of the calendar that the organizer might not see.
+
+    Parameters
+    ----------
+    kind
+        ``"empty-day"``, ``"no-effect"``, ``"early-end"`` or ``"clock-change"``.
+    day
+        The date it is about.
+    text
+        The sentence shown.
+    """
 
     kind: str
     day: date
@@ -97,6 +106,25 @@ def clock_change(day: date, clock: time, zone: ZoneInfo) -> tuple[str, datetime]
 
     ``actual`` is the valid wall time of the same instant as PEP 495's ``fold=0`` reading;
     ``first`` the first of the two occurrences.
+
+    Parameters
+    ----------
+    day
+        The match day.
+    clock
+        The kick-off's wall time (any ``tzinfo`` or ``fold`` is ignored).
+    zone
+        The league's time zone.
+
+    Returns
+    -------
+    tuple of (str, datetime.datetime) or None
+        ``("skipped", actual)``, ``("repeated", first)`` or ``None`` when the wall time
+        exists exactly once.
+
+    References
+    ----------
+    PEP 495 (local time disambiguation); the IANA time zone database.
 
     Examples
     --------
@@ -263,5 +291,18 @@ def silent_effects(league: League, season: Season) -> tuple[SilentEffect, ...]:
 
 
 def silent_effect_notes(league: League, season: Season) -> tuple[str, ...]:
-    """The sentences of :func:`silent_effects`, in order (what the season's notes carry)."""
+    """The sentences of :func:`silent_effects`, in order (what the season's notes carry).
+
+    Parameters
+    ----------
+    league
+        The league the season was planned for (its calendar and time zone).
+    season
+        The planned season.
+
+    Returns
+    -------
+    tuple of str
+        One sentence per effect, by date.
+    """
     return tuple(effect.text for effect in silent_effects(league, season))

@@ -24,6 +24,22 @@ from scheduler.season import Season
 
 @dataclass(frozen=True)
 class RestFigures:
+    """Rest days of a season (see :func:`rest_figures`).
+
+    Parameters
+    ----------
+    per_team
+        For each team, the days without a game between its consecutive games (a game on the
+        next day is 0 rest days).
+    league_min, league_mean
+        Least and mean over the league; ``None`` when the fixtures carry no dates.
+    mismatches
+        Games in which both teams played before and their rest days differ (``None``
+        without dates).
+    less_rest
+        Per team: games in which it had fewer rest days than its opponent.
+    """
+
     per_team: tuple[tuple[int, ...], ...]
     league_min: int | None
     league_mean: float | None

@@ -24,10 +24,34 @@ MAX_ROUNDS = 100_000
 class SeasonTable:
     """Per-fixture index arrays and per-round tables of one season.
 
-    ``home``/``away``/``round``/``leg`` have one entry per used fixture (``fixture`` holds its
-    index in ``Season.fixtures``). ``venue_sign[r, t]`` is +1 when team ``t`` is at home in
-    round ``r + 1``, -1 away, 0 when it does not play; ``plays[r, t]`` counts its games in that
-    round; ``opponent[r, t]`` is its (first) opponent or -1.
+    Parameters
+    ----------
+    names
+        The teams in index order: ``Season.teams`` first, then names found only in fixtures.
+    known
+        How many of ``names`` come from ``Season.teams``.
+    rounds
+        Number of rounds (the largest round number, or of a round with byes).
+    fixture
+        For each used fixture, its index in ``Season.fixtures`` (fixtures with a round below
+        1 are left out).
+    home, away
+        Team index of each used fixture's home and away side.
+    round
+        0-based round of each used fixture (round number minus 1).
+    leg
+        The leg written on each used fixture.
+    venue_sign
+        ``venue_sign[r, t]``: +1 when team ``t`` is at home in round ``r + 1``, -1 away, 0
+        when it does not play (nor when it plays itself).
+    plays
+        ``plays[r, t]``: the games of team ``t`` in round ``r + 1``.
+    opponent
+        ``opponent[r, t]``: the (first) opponent of team ``t`` in round ``r + 1``, or -1.
+
+    See Also
+    --------
+    build_table
     """
 
     names: tuple[str, ...]
@@ -44,11 +68,37 @@ class SeasonTable:
 
     @property
     def n(self) -> int:
+        """Number of teams indexed, unknown names included."""
         return len(self.names)
 
 
 def build_table(season: Season) -> SeasonTable:
-    """Index the fixtures of ``season`` (one pass in Python, the rest vectorised)."""
+    """Index the fixtures of ``season`` (one pass in Python, the rest vectorised).
+
+    Parameters
+    ----------
+    season
+        Any season, valid or not.
+
+    Returns
+    -------
+    SeasonTable
+        The index arrays and round tables.
+
+    Raises
+    ------
+    InputError
+        A round number above :data:`MAX_ROUNDS` (a mistyped round), located at its fixture.
+
+    Examples
+    --------
+    >>> from scheduler.season import Fixture, Season
+    >>> season = Season("Demo", "2031", ("Ash", "Elm", "Oak"),
+    ...                 (Fixture(1, "Ash", "Elm"), Fixture(2, "Oak", "Ash")))
+    >>> table = build_table(season)
+    >>> table.n, table.rounds, table.venue_sign.tolist()
+    (3, 2, [[1, -1, 0], [-1, 0, 1]])
+    """
     index: dict[str, int] = {}
     for name in season.teams:
         index.setdefault(name, len(index))

@@ -38,9 +38,22 @@ MAX_PER_KIND = 100
 class Problem:
     """One reason a season is not a valid round robin.
 
-    ``kind`` is a short stable code (``"plays-twice"``, ``"missing-game"``, ...); ``rows`` the
-    source rows involved (empty when unknown), ``fixtures`` the 0-based positions in
-    ``Season.fixtures``.
+    Parameters
+    ----------
+    kind
+        A short stable code (``"plays-twice"``, ``"missing-game"``, ...).
+    message
+        The reason in one sentence, naming rounds, teams and source rows.
+    rows
+        The source rows involved (empty when unknown).
+    fixtures
+        The 0-based positions of the fixtures involved in ``Season.fixtures``.
+
+    Examples
+    --------
+    >>> problem = Problem("plays-twice", "round 3: Ash plays twice (rows 6, 7)", (6, 7), (4, 5))
+    >>> str(problem), problem.to_dict()["rows"]
+    ('round 3: Ash plays twice (rows 6, 7)', [6, 7])
     """
 
     kind: str
@@ -52,6 +65,13 @@ class Problem:
         return self.message
 
     def to_dict(self) -> dict:
+        """JSON-ready form.
+
+        Returns
+        -------
+        dict
+            ``kind``, ``message``, ``rows`` and ``fixtures`` (lists).
+        """
         return {
             "kind": self.kind,
             "message": self.message,
@@ -136,6 +156,18 @@ def validate_season(season: Season, rows: Sequence[int | None] | None = None) ->
     References
     ----------
     ``docs/audit-input.md``.
+
+    Examples
+    --------
+    >>> from scheduler.season import Fixture, Season
+    >>> games = [(1, "Ash", "Elm"), (1, "Oak", "Yew"), (2, "Elm", "Oak"),
+    ...          (2, "Ash", "Yew"), (3, "Ash", "Oak")]
+    >>> season = Season("Demo", "2031", ("Ash", "Elm", "Oak", "Yew"),
+    ...                 tuple(Fixture(*game) for game in games))
+    >>> for problem in validate_season(season):
+    ...     print(problem)
+    missing game: Elm and Yew never meet
+    round 3: Elm, Yew have no game
     """
     if rows is not None and len(rows) != len(season.fixtures):
         raise ValueError("rows must give one source row per fixture")

@@ -33,6 +33,21 @@ from scheduler.season import Season
 
 @dataclass(frozen=True)
 class Usage:
+    """How often each team uses each venue, court or slot (see :func:`usages`).
+
+    Parameters
+    ----------
+    names
+        The labels used (sorted).
+    counts
+        ``(teams, labels)`` games of each team with each label.
+    spread
+        Per team, most minus fewest uses of one label (for courts: within each venue of two
+        or more courts); ``None`` when no label is used.
+    codes
+        Label index of each used fixture (-1 = none).
+    """
+
     names: tuple[str, ...]
     counts: np.ndarray
     """``(teams, labels)`` games of each team with each label."""
@@ -43,6 +58,19 @@ class Usage:
 
 @dataclass(frozen=True)
 class BtdCheck:
+    """The balanced-tournament-design check of the courts (see :func:`btd_check`).
+
+    Parameters
+    ----------
+    applicable
+        ``True`` when some leg plays, in every round, one game on each court.
+    ok
+        Then whether every team uses every court at most twice per leg; ``None`` when not
+        applicable.
+    violations
+        Each team, court and leg used more than twice, in words.
+    """
+
     applicable: bool
     ok: bool | None
     violations: tuple[str, ...]
@@ -82,7 +110,31 @@ def _slot_label(f) -> str | None:
 
 
 def usages(season: Season, table: SeasonTable) -> tuple[Usage, Usage, Usage]:
-    """Venue, court and slot usage of every team."""
+    """Venue, court and slot usage of every team.
+
+    Parameters
+    ----------
+    season
+        The season (its fixtures' venue, court and slot labels).
+    table
+        Its index (:func:`scheduler.fairness.table.build_table`).
+
+    Returns
+    -------
+    tuple of Usage
+        (venues, courts, slots). Courts are named ``"venue: court"`` when courts of several
+        venues are used; slots are the slot label, else the kick-off time.
+
+    Examples
+    --------
+    >>> from scheduler.fairness.table import build_table
+    >>> from scheduler.season import Fixture, Season
+    >>> season = Season("Demo", "2031", ("Ash", "Elm"),
+    ...                 (Fixture(1, "Ash", "Elm", court="1"), Fixture(2, "Elm", "Ash", court="2")))
+    >>> venues, courts, slots = usages(season, build_table(season))
+    >>> courts.names, courts.counts.tolist(), courts.spread.tolist()
+    (('1', '2'), [[1, 1], [1, 1]], [0, 0])
+    """
     fixtures = season.fixtures
     used = [fixtures[i] for i in table.fixture.tolist()]
     venues = [f.venue for f in used]
@@ -120,7 +172,30 @@ def _within_venue_spread(courts: Usage, used: list) -> Usage:
 
 def btd_check(table: SeasonTable, courts: Usage, round_leg: np.ndarray, legs: int) -> BtdCheck:
     """Each team uses each court at most twice per leg, when every round of a leg plays one game
-    on each court (Schellenberg, van Rees & Vanstone 1977)."""
+    on each court (Schellenberg, van Rees & Vanstone 1977).
+
+    Parameters
+    ----------
+    table
+        The indexed season.
+    courts
+        The court usage (:func:`usages`).
+    round_leg
+        The leg (1-based) of each round.
+    legs
+        Number of legs.
+
+    Returns
+    -------
+    BtdCheck
+        Not applicable with fewer than two courts or when no leg plays one game per court in
+        every round.
+
+    References
+    ----------
+    P. J. Schellenberg, G. H. J. van Rees and S. A. Vanstone, "The existence of balanced
+    tournament designs", Ars Combinatoria 3 (1977) 303-318; ``docs/fairness.md``.
+    """
     k = len(courts.names)
     if k < 2 or not len(table.round):
         return BtdCheck(False, None, ())

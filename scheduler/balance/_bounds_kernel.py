@@ -1,0 +1,307 @@
+"""Numba kernels of the break lower bounds (:mod:`scheduler.balance.break_bounds`).
+
+Kept in their own module so that importing the balancer never imports numba: only the bound
+computation imports this module, when it runs. Notation of the module docstring of
+:mod:`scheduler.balance.break_bounds`: a *class* ``x`` of round ``r`` is a 2-colouring in which
+every game of ``r`` joins two colours (bit ``i`` of ``x``: the first team of game ``i`` has
+colour 1), ``mono[b, a, x]`` the number of games of round ``a`` with both teams in one colour
+under class ``x`` of round ``b``.
+"""
+
+from __future__ import annotations
+
+import numba as nb
+import numpy as np
+
+BIG = 1 << 20
+"""Stands for 'no such window' in the integer tables."""
+
+
+@nb.njit(cache=True)
+def class_masks(first, second, classes):
+    """``masks[r, x]``: vertex bit mask of colour 1 under class ``x`` of round ``r``."""
+    rounds, half = first.shape
+    masks = np.zeros((rounds, classes), np.int64)
+    for r in range(rounds):
+        for x in range(classes):
+            m = 0
+            for i in range(half):
+                if (x >> i) & 1:
+                    m |= np.int64(1) << first[r, i]
+                else:
+                    m |= np.int64(1) << second[r, i]
+            masks[r, x] = m
+    return masks
+
+
+@nb.njit(cache=True)
+def mono_table(first, second, masks):
+    """``mono[b, a, x]``: games of round ``a`` inside one colour of class ``x`` of round ``b``."""
+    rounds, half = first.shape
+    classes = masks.shape[1]
+    mono = np.zeros((rounds, rounds, classes), np.int16)
+    for b in range(rounds):
+        for a in range(rounds):
+            if a == b:
+                continue
+            for x in range(classes):
+                t = masks[b, x]
+                k = 0
+                for i in range(half):
+                    if ((t >> first[a, i]) & 1) == ((t >> second[a, i]) & 1):
+                        k += 1
+                mono[b, a, x] = k
+    return mono
+
+
+@nb.njit(cache=True)
+def pair_windows(mono):
+    """``w2[a, b, c] = min_x mono[b, a, x] + mono[b, c, x]`` for distinct ``a, b, c``."""
+    rounds = mono.shape[0]
+    classes = mono.shape[2]
+    w2 = np.full((rounds, rounds, rounds), BIG, np.int64)
+    for b in range(rounds):
+        for a in range(rounds):
+            if a == b:
+                continue
+            for c in range(a + 1, rounds):
+                if c == b:
+                    continue
+                best = BIG
+                for x in range(classes):
+                    v = mono[b, a, x] + mono[b, c, x]
+                    if v < best:
+                        best = v
+                w2[a, b, c] = best
+                w2[c, b, a] = best
+    return w2
+
+
+@nb.njit(cache=True)
+def _cycle_walk(first, second, game_of, side_of, a, b, games, edge_parity, starts):
+    """The cycles of rounds ``a`` and ``b`` together, as a walk over the games of ``b``:
+    ``games[k]`` the ``k``-th game, ``edge_parity[k]`` the parity of the game of ``a`` from it
+    to the next game of its cycle (its two teams share a colour exactly when the orientation
+    bits of the two games differ by ... equal this parity), ``starts[k]`` whether a cycle
+    starts at ``k``."""
+    half = first.shape[1]
+    partner = np.zeros(2 * half, np.int64)
+    for i in range(half):
+        partner[first[a, i]] = second[a, i]
+        partner[second[a, i]] = first[a, i]
+    seen = np.zeros(half, np.bool_)
+    k = 0
+    for g0 in range(half):
+        if seen[g0]:
+            continue
+        g = g0
+        entry = first[b, g]
+        starts[k] = True
+        while True:
+            seen[g] = True
+            out = second[b, g] if entry == first[b, g] else first[b, g]
+            nxt = partner[out]
+            h = game_of[b, nxt]
+            games[k] = g
+            edge_parity[k] = side_of[b, out] ^ side_of[b, nxt]
+            k += 1
+            if h == g0 and nxt == first[b, g0]:
+                break
+            if k < half:
+                starts[k] = False
+            g = h
+            entry = nxt
+    return k
+
+
+@nb.njit(cache=True)
+def triple_windows(first, second, game_of, side_of, masks, mono):
+    """``w3[a, b, c, d]``: the fewest breaks of three consecutive steps between rounds ``a, b,
+    c, d`` in this order, every colouring free: ``min over t_c of G_ab(t_c) + mono[c, d, t_c]``
+    with ``G_ab(t_c) = min over every colouring t_b of b of mono(a under t_b) + |t_b xor t_c|``,
+    the latter by a dynamic programme round each cycle of ``a`` and ``b`` together."""
+    rounds, half = first.shape
+    classes = masks.shape[1]
+    w3 = np.full((rounds, rounds, rounds, rounds), BIG, np.int64)
+    cyc_games = np.zeros((rounds, rounds, half), np.int64)
+    cyc_parity = np.zeros((rounds, rounds, half), np.int64)
+    cyc_start = np.zeros((rounds, rounds, half), np.bool_)
+    for a in range(rounds):
+        for b in range(rounds):
+            if a != b:
+                _cycle_walk(first, second, game_of, side_of, a, b, cyc_games[a, b],
+                            cyc_parity[a, b], cyc_start[a, b])
+    unary0 = np.zeros(half, np.int64)
+    unary1 = np.zeros(half, np.int64)
+    g_ab = np.zeros((rounds, classes), np.int64)
+    for b in range(rounds):
+        for c in range(rounds):
+            if c == b:
+                continue
+            for x in range(classes):
+                t = masks[c, x]
+                for i in range(half):
+                    cf = (t >> first[b, i]) & 1
+                    cs = (t >> second[b, i]) & 1
+                    # orientation 1: first team colour 1, second colour 0
+                    unary1[i] = (1 - cf) + cs
+                    unary0[i] = cf + (1 - cs)
+                for a in range(rounds):
+                    if a == b or a == c:
+                        continue
+                    total = 0
+                    gs = cyc_games[a, b]
+                    ps = cyc_parity[a, b]
+                    st = cyc_start[a, b]
+                    k = 0
+                    while k < half:
+                        # one cycle from k: fix the orientation of its first game
+                        end = k + 1
+                        while end < half and not st[end]:
+                            end += 1
+                        best_cycle = BIG
+                        for y0 in range(2):
+                            v0 = BIG
+                            v1 = BIG
+                            if y0 == 0:
+                                v0 = unary0[gs[k]]
+                            else:
+                                v1 = unary1[gs[k]]
+                            for j in range(k + 1, end):
+                                p = ps[j - 1]
+                                u0 = unary0[gs[j]]
+                                u1 = unary1[gs[j]]
+                                # a game of a joins the two games; same colour when y ^ y' == p
+                                n0 = min(v0 + (1 if p == 0 else 0), v1 + (1 if p == 1 else 0))
+                                n1 = min(v0 + (1 if p == 1 else 0), v1 + (1 if p == 0 else 0))
+                                v0 = n0 + u0
+                                v1 = n1 + u1
+                            p = ps[end - 1]
+                            if y0 == 0:
+                                close = min(v0 + (1 if p == 0 else 0), v1 + (1 if p == 1 else 0))
+                            else:
+                                close = min(v0 + (1 if p == 1 else 0), v1 + (1 if p == 0 else 0))
+                            if close < best_cycle:
+                                best_cycle = close
+                        total += best_cycle
+                        k = end
+                    g_ab[a, x] = total
+            for a in range(rounds):
+                if a == b or a == c:
+                    continue
+                for d in range(rounds):
+                    if d == a or d == b or d == c:
+                        continue
+                    best = BIG
+                    for x in range(classes):
+                        v = g_ab[a, x] + mono[c, d, x]
+                        if v < best:
+                            best = v
+                    w3[a, b, c, d] = best
+    return w3
+
+
+@nb.njit(cache=True)
+def pair_walk(w2, penalty):
+    """Least ``sum w2(p_{q-1}, p_q, p_{q+1}) + sum penalty[p_q]`` over walks of ``rounds``
+    positions whose three consecutive rounds are distinct; returns the value and the visits of
+    every round by one least walk."""
+    rounds = w2.shape[0]
+    inf = 1e300
+    value = np.full((rounds, rounds), inf)
+    back = np.zeros((rounds, rounds, rounds), np.int64)
+    for x in range(rounds):
+        for y in range(rounds):
+            if x != y:
+                value[x, y] = penalty[x] + penalty[y]
+    for q in range(2, rounds):
+        nxt = np.full((rounds, rounds), inf)
+        for x in range(rounds):
+            for y in range(rounds):
+                v = value[x, y]
+                if v >= inf:
+                    continue
+                for z in range(rounds):
+                    if z == x or z == y:
+                        continue
+                    c = v + w2[x, y, z] + penalty[z]
+                    if c < nxt[y, z]:
+                        nxt[y, z] = c
+                        back[q, y, z] = x
+        value = nxt
+    best = inf
+    by = 0
+    bz = 0
+    for y in range(rounds):
+        for z in range(rounds):
+            if value[y, z] < best:
+                best = value[y, z]
+                by = y
+                bz = z
+    visits = np.zeros(rounds, np.int64)
+    visits[bz] += 1
+    visits[by] += 1
+    for q in range(rounds - 1, 1, -1):
+        x = back[q, by, bz]
+        visits[x] += 1
+        bz = by
+        by = x
+    return best, visits
+
+
+@nb.njit(cache=True)
+def triple_walk(w3, w2, penalty):
+    """Least ``sum w3(four consecutive) + w2(first three) + w2(last three) + sum penalty``
+    over walks of ``rounds`` positions whose four consecutive rounds are distinct; returns the
+    value and the visits of every round by one least walk."""
+    rounds = w3.shape[0]
+    inf = 1e300
+    value = np.full((rounds, rounds, rounds), inf)
+    back = np.zeros((rounds, rounds, rounds, rounds), np.int8)
+    for x in range(rounds):
+        for y in range(rounds):
+            for z in range(rounds):
+                if x != y and y != z and x != z:
+                    value[x, y, z] = w2[x, y, z] + penalty[x] + penalty[y] + penalty[z]
+    for q in range(3, rounds):
+        nxt = np.full((rounds, rounds, rounds), inf)
+        for x in range(rounds):
+            for y in range(rounds):
+                for z in range(rounds):
+                    v = value[x, y, z]
+                    if v >= inf:
+                        continue
+                    for w in range(rounds):
+                        if w == x or w == y or w == z:
+                            continue
+                        c = v + w3[x, y, z, w] + penalty[w]
+                        if c < nxt[y, z, w]:
+                            nxt[y, z, w] = c
+                            back[q, y, z, w] = x
+        value = nxt
+    best = inf
+    bx = 0
+    by = 0
+    bz = 0
+    for x in range(rounds):
+        for y in range(rounds):
+            for z in range(rounds):
+                v = value[x, y, z]
+                if v < inf:
+                    v += w2[x, y, z]
+                    if v < best:
+                        best = v
+                        bx = x
+                        by = y
+                        bz = z
+    visits = np.zeros(rounds, np.int64)
+    visits[bx] += 1
+    visits[by] += 1
+    visits[bz] += 1
+    for q in range(rounds - 1, 2, -1):
+        w = back[q, bx, by, bz]
+        visits[w] += 1
+        bz = by
+        by = bx
+        bx = w
+    return best, visits

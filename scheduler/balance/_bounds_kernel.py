@@ -81,9 +81,9 @@ def pair_windows(mono):
 def _cycle_walk(first, second, game_of, side_of, a, b, games, edge_parity, starts):
     """The cycles of rounds ``a`` and ``b`` together, as a walk over the games of ``b``:
     ``games[k]`` the ``k``-th game, ``edge_parity[k]`` the parity of the game of ``a`` from it
-    to the next game of its cycle (its two teams share a colour exactly when the orientation
-    bits of the two games differ by ... equal this parity), ``starts[k]`` whether a cycle
-    starts at ``k``."""
+    to the next game of its cycle (its two teams share a colour exactly when the xor of the
+    orientation bits of the two games equals this parity), ``starts[k]`` whether a cycle starts
+    at ``k``."""
     half = first.shape[1]
     partner = np.zeros(2 * half, np.int64)
     for i in range(half):
@@ -147,7 +147,7 @@ def triple_windows(first, second, game_of, side_of, masks, mono):
                     unary1[i] = (1 - cf) + cs
                     unary0[i] = cf + (1 - cs)
                 for a in range(rounds):
-                    if a == b or a == c:
+                    if a in (b, c):
                         continue
                     total = 0
                     gs = cyc_games[a, b]
@@ -187,10 +187,10 @@ def triple_windows(first, second, game_of, side_of, masks, mono):
                         k = end
                     g_ab[a, x] = total
             for a in range(rounds):
-                if a == b or a == c:
+                if a in (b, c):
                     continue
                 for d in range(rounds):
-                    if d == a or d == b or d == c:
+                    if d in (a, b, c):
                         continue
                     best = BIG
                     for x in range(classes):
@@ -222,7 +222,7 @@ def pair_walk(w2, penalty):
                 if v >= inf:
                     continue
                 for z in range(rounds):
-                    if z == x or z == y:
+                    if z in (x, y):
                         continue
                     c = v + w2[x, y, z] + penalty[z]
                     if c < nxt[y, z]:
@@ -272,7 +272,7 @@ def triple_walk(w3, w2, penalty):
                     if v >= inf:
                         continue
                     for w in range(rounds):
-                        if w == x or w == y or w == z:
+                        if w in (x, y, z):
                             continue
                         c = v + w3[x, y, z, w] + penalty[w]
                         if c < nxt[y, z, w]:

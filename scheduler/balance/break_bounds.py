@@ -222,6 +222,52 @@ def window_tables(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *,
     return WindowTables(n, pairs, table, is_perfect(rounds, n))
 
 
+def window_sum(tables: WindowTables, order: Sequence[int]) -> int:
+    """The sum of the three-step window values along a round order (clipped windows included).
+
+    Three times the breaks of any schedule playing the rounds in ``order`` are at least this
+    sum (module docstring): a check of the tables against any schedule found.
+
+    Parameters
+    ----------
+    tables
+        Window values with ``triples`` (:func:`window_tables`).
+    order
+        A round order (every round once, at least three rounds).
+
+    Returns
+    -------
+    int
+        ``W_2(first three) + sum of W_3(four consecutive) + W_2(last three)``.
+
+    Raises
+    ------
+    InputError
+        When the tables have no three-step windows or the order is not a permutation.
+
+    Examples
+    --------
+    >>> from scheduler.factorization.circle import circle_rounds
+    >>> tables = window_tables(circle_rounds(8), 8)
+    >>> window_sum(tables, range(7)) >= 0
+    True
+
+    References
+    ----------
+    Module docstring.
+    """
+    order = [int(r) for r in order]
+    if tables.triples is None:
+        raise InputError("the tables have no three-step windows", location="tables")
+    if sorted(order) != list(range(tables.pairs.shape[0])) or len(order) < 3:
+        raise InputError("the order must play every round once", location="order")
+    total = int(tables.pairs[order[0], order[1], order[2]])
+    total += int(tables.pairs[order[-3], order[-2], order[-1]])
+    for j in range(len(order) - 3):
+        total += int(tables.triples[order[j], order[j + 1], order[j + 2], order[j + 3]])
+    return total
+
+
 def _round_up(value: Fraction, n: int, perfect: bool) -> int:
     bound = max(-((-value.numerator) // value.denominator), n - 2)
     if perfect:

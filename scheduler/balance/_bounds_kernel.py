@@ -305,3 +305,97 @@ def triple_walk(w3, w2, penalty):
         by = bx
         bx = w
     return best, visits
+
+
+@nb.njit(cache=True)
+def _popcount(x):
+    x = x - ((x >> 1) & 0x5555555555555555)
+    x = (x & 0x3333333333333333) + ((x >> 2) & 0x3333333333333333)
+    x = (x + (x >> 4)) & 0x0F0F0F0F0F0F0F0F
+    return (x * 0x0101010101010101) >> 56
+
+
+@nb.njit(cache=True)
+def order_path(masks, order, n):
+    """Fewest breaks of the fixed round order ``order``: a shortest path through the classes
+    of its rounds, a step costing ``min(d, n - d)``; returns the value and the class of every
+    position on one shortest path."""
+    positions = order.shape[0]
+    classes = masks.shape[1]
+    value = np.zeros(classes, np.int64)
+    nxt = np.zeros(classes, np.int64)
+    back = np.zeros((positions, classes), np.int64)
+    for q in range(1, positions):
+        prev = masks[order[q - 1]]
+        cur = masks[order[q]]
+        for y in range(classes):
+            best = np.int64(1) << 40
+            arg = 0
+            my = cur[y]
+            for x in range(classes):
+                d = _popcount(prev[x] ^ my)
+                if n - d < d:
+                    d = n - d
+                v = value[x] + d
+                if v < best:
+                    best = v
+                    arg = x
+            nxt[y] = best
+            back[q, y] = arg
+        value[:] = nxt
+    last = 0
+    for y in range(classes):
+        if value[y] < value[last]:
+            last = y
+    path = np.zeros(positions, np.int64)
+    path[positions - 1] = last
+    for q in range(positions - 1, 0, -1):
+        path[q - 1] = back[q, path[q]]
+    return value[last], path
+
+
+@nb.njit(cache=True)
+def window_anneal(w3, w2, order, evaluations, seed, t_start, t_end):
+    """Simulated annealing over round orders (segment reversal, insertion, swap) minimising the
+    sum of three-step window values along the order; returns the best order met."""
+    np.random.seed(seed)
+    rounds = order.shape[0]
+
+    def score(o):
+        s = w2[o[0], o[1], o[2]] + w2[o[rounds - 3], o[rounds - 2], o[rounds - 1]]
+        for j in range(rounds - 3):
+            s += w3[o[j], o[j + 1], o[j + 2], o[j + 3]]
+        return s
+
+    cur = order.copy()
+    cur_score = score(cur)
+    best = cur.copy()
+    best_score = cur_score
+    cand = cur.copy()
+    for it in range(evaluations):
+        temp = t_start * (t_end / t_start) ** (it / max(1, evaluations - 1))
+        cand[:] = cur
+        kind = np.random.randint(3)
+        i = np.random.randint(rounds)
+        j = np.random.randint(rounds)
+        if i > j:
+            i, j = j, i
+        if i == j:
+            continue
+        if kind == 0:
+            cand[i:j + 1] = cur[i:j + 1][::-1]
+        elif kind == 1:
+            moved = cur[i]
+            cand[i:j] = cur[i + 1:j + 1]
+            cand[j] = moved
+        else:
+            cand[i] = cur[j]
+            cand[j] = cur[i]
+        s = score(cand)
+        if s <= cur_score or np.random.random() < np.exp((cur_score - s) / temp):
+            cur[:] = cand
+            cur_score = s
+            if s < best_score:
+                best_score = s
+                best[:] = cand
+    return best_score, best

@@ -24,6 +24,7 @@ import numpy as np
 import pytest
 
 from scheduler.balance.break_bounds import (
+    best_home_away,
     break_lower_bound,
     degree_lower_bound,
     is_perfect,
@@ -158,3 +159,20 @@ def test_perfect_check_and_errors():
         window_lower_bound(circle_rounds(8), 8, window=4)
     with pytest.raises(InputError):
         window_tables(circle_rounds(8), 9)
+
+
+@pytest.mark.parametrize("n,seed", [(8, 9), (10, 10), (12, 11)])
+def test_best_home_away_for_a_fixed_order(n, seed):
+    # against the balancer's exact layer programme over full colourings (no min(d, n - d)
+    # shortcut) and the plain break counter of the balancer
+    from scheduler.balance.anneal import breaks_of
+    from scheduler.balance.orders import BreakPaths
+
+    rounds = _random_factorization(n, seed)
+    order = random.Random(seed).sample(range(n - 1), n - 1)
+    got = best_home_away(rounds, n, order)
+    assert got.breaks == BreakPaths(rounds, n).value(order)
+    assert breaks_of(rounds, got.home, [list(got.order)], None) == got.breaks
+    assert got.breaks >= window_lower_bound(rounds, n, iterations=30).relaxation
+    with pytest.raises(InputError):
+        best_home_away(rounds, n, order[:-1])

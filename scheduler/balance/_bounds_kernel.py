@@ -115,14 +115,9 @@ def _cycle_walk(first, second, game_of, side_of, a, b, games, edge_parity, start
 
 
 @nb.njit(cache=True)
-def triple_windows(first, second, game_of, side_of, masks, mono):
-    """``w3[a, b, c, d]``: the fewest breaks of three consecutive steps between rounds ``a, b,
-    c, d`` in this order, every colouring free: ``min over t_c of G_ab(t_c) + mono[c, d, t_c]``
-    with ``G_ab(t_c) = min over every colouring t_b of b of mono(a under t_b) + |t_b xor t_c|``,
-    the latter by a dynamic programme round each cycle of ``a`` and ``b`` together."""
+def cycle_tables(first, second, game_of, side_of):
+    """:func:`_cycle_walk` for every ordered pair of distinct rounds."""
     rounds, half = first.shape
-    classes = masks.shape[1]
-    w3 = np.full((rounds, rounds, rounds, rounds), BIG, np.int64)
     cyc_games = np.zeros((rounds, rounds, half), np.int64)
     cyc_parity = np.zeros((rounds, rounds, half), np.int64)
     cyc_start = np.zeros((rounds, rounds, half), np.bool_)
@@ -131,61 +126,85 @@ def triple_windows(first, second, game_of, side_of, masks, mono):
             if a != b:
                 _cycle_walk(first, second, game_of, side_of, a, b, cyc_games[a, b],
                             cyc_parity[a, b], cyc_start[a, b])
+    return cyc_games, cyc_parity, cyc_start
+
+
+@nb.njit(cache=True)
+def bridge_table(first, second, masks, cyc_games, cyc_parity, cyc_start, c):
+    """``g[a, b, x] = min over every colouring t_b of b of mono_a(t_b) + |t_b xor t_c|`` for
+    class ``x`` of round ``c`` (the fewest breaks of the two steps ``a -> b -> c`` ending in
+    that class, the first colouring free), by a dynamic programme round each cycle of ``a``
+    and ``b`` together (two states per game of ``b``)."""
+    rounds, half = first.shape
+    classes = masks.shape[1]
+    g = np.full((rounds, rounds, classes), BIG, np.int64)
     unary0 = np.zeros(half, np.int64)
     unary1 = np.zeros(half, np.int64)
-    g_ab = np.zeros((rounds, classes), np.int64)
     for b in range(rounds):
-        for c in range(rounds):
-            if c == b:
+        if b == c:
+            continue
+        for x in range(classes):
+            t = masks[c, x]
+            for i in range(half):
+                cf = (t >> first[b, i]) & 1
+                cs = (t >> second[b, i]) & 1
+                # orientation 1: first team colour 1, second colour 0
+                unary1[i] = (1 - cf) + cs
+                unary0[i] = cf + (1 - cs)
+            for a in range(rounds):
+                if a in (b, c):
+                    continue
+                total = 0
+                gs = cyc_games[a, b]
+                ps = cyc_parity[a, b]
+                st = cyc_start[a, b]
+                k = 0
+                while k < half:
+                    # one cycle from k: fix the orientation of its first game
+                    end = k + 1
+                    while end < half and not st[end]:
+                        end += 1
+                    best_cycle = BIG
+                    for y0 in range(2):
+                        v0 = BIG
+                        v1 = BIG
+                        if y0 == 0:
+                            v0 = unary0[gs[k]]
+                        else:
+                            v1 = unary1[gs[k]]
+                        for j in range(k + 1, end):
+                            p = ps[j - 1]
+                            # a game of a joins the two games; one colour when y ^ y' == p
+                            n0 = min(v0 + (1 if p == 0 else 0), v1 + (1 if p == 1 else 0))
+                            n1 = min(v0 + (1 if p == 1 else 0), v1 + (1 if p == 0 else 0))
+                            v0 = n0 + unary0[gs[j]]
+                            v1 = n1 + unary1[gs[j]]
+                        p = ps[end - 1]
+                        if y0 == 0:
+                            close = min(v0 + (1 if p == 0 else 0), v1 + (1 if p == 1 else 0))
+                        else:
+                            close = min(v0 + (1 if p == 1 else 0), v1 + (1 if p == 0 else 0))
+                        best_cycle = min(best_cycle, close)
+                    total += best_cycle
+                    k = end
+                g[a, b, x] = total
+    return g
+
+
+@nb.njit(cache=True)
+def triple_windows(first, second, game_of, side_of, masks, mono):
+    """``w3[a, b, c, d]``: the fewest breaks of three consecutive steps between rounds ``a, b,
+    c, d`` in this order, every colouring free: ``min over t_c of G_ab(t_c) + mono[c, d, t_c]``
+    (:func:`bridge_table`)."""
+    rounds = first.shape[0]
+    classes = masks.shape[1]
+    cyc_games, cyc_parity, cyc_start = cycle_tables(first, second, game_of, side_of)
+    w3 = np.full((rounds, rounds, rounds, rounds), BIG, np.int64)
+    for c in range(rounds):
+        g = bridge_table(first, second, masks, cyc_games, cyc_parity, cyc_start, c)
+        for b in range(rounds):
+            if b == c:
                 continue
-            for x in range(classes):
-                t = masks[c, x]
-                for i in range(half):
-                    cf = (t >> first[b, i]) & 1
-                    cs = (t >> second[b, i]) & 1
-                    # orientation 1: first team colour 1, second colour 0
-                    unary1[i] = (1 - cf) + cs
-                    unary0[i] = cf + (1 - cs)
-                for a in range(rounds):
-                    if a in (b, c):
-                        continue
-                    total = 0
-                    gs = cyc_games[a, b]
-                    ps = cyc_parity[a, b]
-                    st = cyc_start[a, b]
-                    k = 0
-                    while k < half:
-                        # one cycle from k: fix the orientation of its first game
-                        end = k + 1
-                        while end < half and not st[end]:
-                            end += 1
-                        best_cycle = BIG
-                        for y0 in range(2):
-                            v0 = BIG
-                            v1 = BIG
-                            if y0 == 0:
-                                v0 = unary0[gs[k]]
-                            else:
-                                v1 = unary1[gs[k]]
-                            for j in range(k + 1, end):
-                                p = ps[j - 1]
-                                u0 = unary0[gs[j]]
-                                u1 = unary1[gs[j]]
-                                # a game of a joins the two games; same colour when y ^ y' == p
-                                n0 = min(v0 + (1 if p == 0 else 0), v1 + (1 if p == 1 else 0))
-                                n1 = min(v0 + (1 if p == 1 else 0), v1 + (1 if p == 0 else 0))
-                                v0 = n0 + u0
-                                v1 = n1 + u1
-                            p = ps[end - 1]
-                            if y0 == 0:
-                                close = min(v0 + (1 if p == 0 else 0), v1 + (1 if p == 1 else 0))
-                            else:
-                                close = min(v0 + (1 if p == 1 else 0), v1 + (1 if p == 0 else 0))
-                            if close < best_cycle:
-                                best_cycle = close
-                        total += best_cycle
-                        k = end
-                    g_ab[a, x] = total
             for a in range(rounds):
                 if a in (b, c):
                     continue
@@ -194,11 +213,46 @@ def triple_windows(first, second, game_of, side_of, masks, mono):
                         continue
                     best = BIG
                     for x in range(classes):
-                        v = g_ab[a, x] + mono[c, d, x]
+                        v = g[a, b, x] + mono[c, d, x]
                         if v < best:
                             best = v
                     w3[a, b, c, d] = best
     return w3
+
+
+@nb.njit(cache=True)
+def quad_windows(first, second, game_of, side_of, masks):
+    """``w4[a, b, c, d, e] = min over t_c of G_ab(t_c) + G_ed(t_c)``: the fewest breaks of four
+    consecutive steps, every colouring free (:func:`bridge_table` on both sides)."""
+    rounds = first.shape[0]
+    classes = masks.shape[1]
+    cyc_games, cyc_parity, cyc_start = cycle_tables(first, second, game_of, side_of)
+    w4 = np.full((rounds, rounds, rounds, rounds, rounds), BIG, np.int32)
+    for c in range(rounds):
+        g = bridge_table(first, second, masks, cyc_games, cyc_parity, cyc_start, c)
+        g16 = g.astype(np.int16)
+        for a in range(rounds):
+            for b in range(rounds):
+                if a in (b, c) or b == c:
+                    continue
+                left = g16[a, b]
+                for e in range(rounds):
+                    if e in (a, b, c):
+                        continue
+                    for d in range(rounds):
+                        if d in (a, b, c, e):
+                            continue
+                        if w4[e, d, c, b, a] < BIG:
+                            w4[a, b, c, d, e] = w4[e, d, c, b, a]
+                            continue
+                        right = g16[e, d]
+                        best = np.int16(32000)
+                        for x in range(classes):
+                            v = left[x] + right[x]
+                            if v < best:
+                                best = v
+                        w4[a, b, c, d, e] = best
+    return w4
 
 
 @nb.njit(cache=True)
@@ -399,3 +453,70 @@ def window_anneal(w3, w2, order, evaluations, seed, t_start, t_end):
                 best_score = s
                 best[:] = cand
     return best_score, best
+
+
+@nb.njit(cache=True)
+def quad_walk(w4, w3, w2, penalty):
+    """Least ``w2 + w3 (clipped windows at both ends) + sum w4(five consecutive) + sum
+    penalty`` over walks of ``rounds`` positions whose five consecutive rounds are distinct;
+    returns the value and the visits of every round by one least walk."""
+    rounds = w4.shape[0]
+    inf = 1e300
+    value = np.full((rounds, rounds, rounds, rounds), inf)
+    back = np.zeros((rounds, rounds, rounds, rounds, rounds), np.int8)
+    for a in range(rounds):
+        for b in range(rounds):
+            for c in range(rounds):
+                for d in range(rounds):
+                    if a in (b, c, d) or b in (c, d) or c == d:
+                        continue
+                    value[a, b, c, d] = (w2[a, b, c] + w3[a, b, c, d] + penalty[a] + penalty[b]
+                                         + penalty[c] + penalty[d])
+    for q in range(4, rounds):
+        nxt = np.full((rounds, rounds, rounds, rounds), inf)
+        for a in range(rounds):
+            for b in range(rounds):
+                for c in range(rounds):
+                    for d in range(rounds):
+                        v = value[a, b, c, d]
+                        if v >= inf:
+                            continue
+                        for e in range(rounds):
+                            if e in (a, b, c, d):
+                                continue
+                            cost = v + w4[a, b, c, d, e] + penalty[e]
+                            if cost < nxt[b, c, d, e]:
+                                nxt[b, c, d, e] = cost
+                                back[q, b, c, d, e] = a
+        value = nxt
+    best = inf
+    ba = 0
+    bb = 0
+    bc = 0
+    bd = 0
+    for a in range(rounds):
+        for b in range(rounds):
+            for c in range(rounds):
+                for d in range(rounds):
+                    v = value[a, b, c, d]
+                    if v < inf:
+                        v += w3[a, b, c, d] + w2[b, c, d]
+                        if v < best:
+                            best = v
+                            ba = a
+                            bb = b
+                            bc = c
+                            bd = d
+    visits = np.zeros(rounds, np.int64)
+    visits[ba] += 1
+    visits[bb] += 1
+    visits[bc] += 1
+    visits[bd] += 1
+    for q in range(rounds - 1, 3, -1):
+        a = back[q, ba, bb, bc, bd]
+        visits[a] += 1
+        bd = bc
+        bc = bb
+        bb = ba
+        ba = a
+    return best, visits

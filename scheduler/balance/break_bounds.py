@@ -91,12 +91,14 @@ class BreakLowerBound:
 @dataclass(frozen=True)
 class WindowTables:
     """The window values of one factorization: ``pairs[a, b, c] = W_2`` and, when computed,
-    ``triples[a, b, c, d] = W_3`` (large values where rounds repeat)."""
+    ``triples[a, b, c, d] = W_3`` and ``quads[a, b, c, d, e] = W_4`` (large values where rounds
+    repeat)."""
 
     n: int
     pairs: np.ndarray
     triples: np.ndarray | None
     perfect: bool
+    quads: np.ndarray | None = None
 
 
 def _kernel():
@@ -177,7 +179,7 @@ def is_perfect(rounds: Sequence[Sequence[tuple[int, int]]], n: int) -> bool:
 
 
 def window_tables(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *,
-                  triples: bool = True) -> WindowTables:
+                  triples: bool = True, quads: bool = False) -> WindowTables:
     """The window values ``W_2`` (and ``W_3``) of a one-factorization (module docstring).
 
     Parameters
@@ -189,12 +191,15 @@ def window_tables(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *,
         ``R^3 2^(n/2) n`` operations: seconds for 28 teams).
     triples
         Also compute ``W_3``.
+    quads
+        Also compute ``W_4`` (``R^5 2^(n/2 - 1)`` more operations: minutes for 28 teams).
 
     Returns
     -------
     WindowTables
         ``pairs[a, b, c]``: the fewest breaks of the two steps ``a -> b -> c``;
-        ``triples[a, b, c, d]``: of the three steps ``a -> b -> c -> d``.
+        ``triples[a, b, c, d]``: of the three steps ``a -> b -> c -> d``; ``quads`` likewise
+        for four steps.
 
     Raises
     ------
@@ -219,8 +224,9 @@ def window_tables(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *,
     mono = kern.mono_table(first, second, masks)
     pairs = kern.pair_windows(mono)
     table = (kern.triple_windows(first, second, game_of, side_of, masks, mono)
-             if triples and n >= 6 else None)
-    return WindowTables(n, pairs, table, is_perfect(rounds, n))
+             if (triples or quads) and n >= 6 else None)
+    four = kern.quad_windows(first, second, game_of, side_of, masks) if quads and n >= 6 else None
+    return WindowTables(n, pairs, table, is_perfect(rounds, n), four)
 
 
 def window_sum(tables: WindowTables, order: Sequence[int]) -> int:
@@ -326,12 +332,16 @@ def _walk(tables: WindowTables, window: int, penalty: np.ndarray) -> tuple[float
     if window == 2:
         return kern.pair_walk(tables.pairs, penalty)
     assert tables.triples is not None
-    return kern.triple_walk(tables.triples, tables.pairs, penalty)
+    if window == 3:
+        return kern.triple_walk(tables.triples, tables.pairs, penalty)
+    assert tables.quads is not None
+    return kern.quad_walk(tables.quads, tables.triples, tables.pairs, penalty)
 
 
 def window_lower_bound(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *,
                        window: int = 3, iterations: int = 300, target: float | None = None,
-                       tables: WindowTables | None = None) -> BreakLowerBound:
+                       tables: WindowTables | None = None,
+                       start: Sequence[Fraction] | None = None) -> BreakLowerBound:
     """A lower bound from the windows of ``window`` steps and Lagrangian penalties on rounds.
 
     Parameters
@@ -339,9 +349,10 @@ def window_lower_bound(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *,
     rounds
         The ``n - 1`` rounds of a one-factorization of ``K_n``.
     n
-        The even order (``window = 3`` needs ``n >= 6``).
+        The even order (``window >= 3`` needs ``n >= 6``).
     window
-        Steps per window: 2 or 3.
+        Steps per window: 2, 3 or 4 (four: a walk over ``R^4`` states, minutes for 28
+        teams).
     iterations
         Subgradient steps on the penalties (a fixed count: the answer is deterministic).
     target
@@ -349,6 +360,9 @@ def window_lower_bound(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *,
         twice the relaxation without penalties plus ``n``.
     tables
         Window values already computed by :func:`window_tables`.
+    start
+        Penalties per break to start from (e.g. the ``penalties`` of a bound with smaller
+        windows); zero when omitted.
 
     Returns
     -------
@@ -359,7 +373,7 @@ def window_lower_bound(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *,
     Raises
     ------
     InputError
-        For a window other than 2 or 3, or rounds that are not a one-factorization.
+        For a window other than 2, 3 or 4, or rounds that are not a one-factorization.
 
     Examples
     --------
@@ -372,23 +386,27 @@ def window_lower_bound(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *,
     Module docstring (Held & Karp 1970; B. T. Polyak, USSR Comput. Math. Math. Phys. 9 (1969)
     14-29, from memory, for the step length).
     """
-    if window not in (2, 3):
-        raise InputError(f"windows of 2 or 3 steps, got {window}", location="window")
-    if tables is None or (window == 3 and tables.triples is None):
-        tables = window_tables(rounds, n, triples=window == 3)
-    if window == 3 and tables.triples is None:
-        raise InputError("three-step windows need n >= 6", location="window")
+    if window not in (2, 3, 4):
+        raise InputError(f"windows of 2, 3 or 4 steps, got {window}", location="window")
+    if (tables is None or (window >= 3 and tables.triples is None)
+            or (window == 4 and tables.quads is None)):
+        tables = window_tables(rounds, n, triples=window >= 3, quads=window == 4)
+    if (window >= 3 and tables.triples is None) or (window == 4 and tables.quads is None):
+        raise InputError("windows of three or four steps need n >= 6", location="window")
     rounds_count = tables.pairs.shape[0]
     penalty = np.zeros(rounds_count)
+    if start is not None:
+        penalty = np.array([float(p) * window for p in start])
     best_value = -np.inf
     best_penalty = penalty.copy()
-    value, visits = _walk(tables, window, penalty)
-    goal = (target * window) if target is not None else 2 * value + n * window
+    goal: float | None = None if target is None else target * window
     theta = 1.0
     stall = 0
     for _ in range(iterations):
         value, visits = _walk(tables, window, penalty)
         bound = value - penalty.sum()
+        if goal is None:
+            goal = float(2 * bound + n * window)
         if bound > best_value + 1e-9:
             best_value, best_penalty, stall = bound, penalty.copy(), 0
         else:

@@ -96,15 +96,27 @@ def test_window_values_match_brute_force(n, seed):
         assert tables.triples[four] == _chain_min(dist, four)
 
 
+@pytest.mark.parametrize("n,seed", [(6, 0), (8, 3)])
+def test_four_step_windows_match_brute_force(n, seed):
+    rounds = _random_factorization(n, seed) if seed else circle_rounds(n)
+    tables = window_tables(rounds, n, quads=True)
+    dist = _distances(rounds, n)
+    assert tables.quads is not None
+    five = list(itertools.permutations(range(n - 1), 5))
+    for window in five[::3] if n == 8 else five:
+        assert tables.quads[window] == _chain_min(dist, window)
+
+
 @pytest.mark.parametrize("n,seed", [(6, 0), (6, 3), (8, 0), (8, 4)])
 def test_bounds_below_brute_force(n, seed):
     rounds = _random_factorization(n, seed) if seed else circle_rounds(n)
     least = _brute_force_min_breaks(rounds, n)
     assert least == exact_min_breaks(rounds, n).breaks
-    tables = window_tables(rounds, n)
+    tables = window_tables(rounds, n, quads=True)
     for got in (degree_lower_bound(rounds, n, tables=tables),
                 window_lower_bound(rounds, n, window=2, tables=tables, iterations=60),
-                window_lower_bound(rounds, n, window=3, tables=tables, iterations=60)):
+                window_lower_bound(rounds, n, window=3, tables=tables, iterations=60),
+                window_lower_bound(rounds, n, window=4, tables=tables, iterations=60)):
         assert n - 2 <= got.bound <= least
         assert got.relaxation <= least
 
@@ -117,6 +129,9 @@ def test_every_penalty_gives_a_valid_bound(n, seed):
     tables = window_tables(rounds, n)
     got = window_lower_bound(rounds, n, tables=tables, iterations=80, target=exact.breaks)
     assert got.relaxation <= exact.breaks and got.bound <= exact.breaks
+    if n <= 10:
+        four = window_lower_bound(rounds, n, window=4, iterations=40, start=got.penalties)
+        assert four.relaxation <= exact.breaks
     # the three-step windows along the optimal schedule itself: L * breaks >= sum of windows
     assert window_sum(tables, exact.order) <= 3 * exact.breaks
 
@@ -156,7 +171,7 @@ def test_perfect_check_and_errors():
     with pytest.raises(InputError):
         window_tables(circle_rounds(8)[:-1], 8)
     with pytest.raises(InputError):
-        window_lower_bound(circle_rounds(8), 8, window=4)
+        window_lower_bound(circle_rounds(8), 8, window=5)
     with pytest.raises(InputError):
         window_tables(circle_rounds(8), 9)
 

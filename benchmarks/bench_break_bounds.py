@@ -3,7 +3,8 @@
 For every perfect one-factorization of the family
 (:func:`scheduler.factorization.perfect_family.perfect_family`) the bounds of
 :mod:`scheduler.balance.break_bounds` (degree bound, two- and three-step windows with Lagrangian
-penalties) are printed with their timings, beside
+penalties; for 28 teams also four-step windows, started from the three-step penalties) are
+printed with their timings, beside
 
 * the reference measured in the same run: OR-Tools CP-SAT's proven bound on the order-and-
   colouring model (:func:`scheduler.balance.perfect_breaks.cpsat_lower_bound`, one worker,
@@ -48,7 +49,7 @@ TARGETS = {16: 16, 28: 32}
 
 
 def run(n: int, tries: int, budget: float, cpsat_seconds: float, limit: int | None,
-        seeds: int) -> None:
+        seeds: int, four: bool = False) -> None:
     t0 = time.perf_counter()
     family = perfect_family(n, seed=0, search_tries=tries)[:limit]
     print(f"{n} teams: family of {len(family)} perfect factorizations "
@@ -62,7 +63,8 @@ def run(n: int, tries: int, budget: float, cpsat_seconds: float, limit: int | No
             proven[c.origin] = c.lower_bound
         print(f"  exact programme over the family [{time.perf_counter() - t1:.1f} s]")
     print(f"  {'factorization':<50} {'upper':>5} {'(how)':<12} {'CP-SAT':>6} {'deg':>4} "
-          f"{'win2':>4} {'win3':>4} (relax.) {'ratio':>5}  times: CP-SAT / tables / windows")
+          f"{'win2':>4} {'win3':>4} (relax.) " + ("win4 (relax.) " if four else "")
+          + f"{'ratio':>5}  times: CP-SAT / tables / windows")
     least_bound = None
     best_upper = None
     for k, member in enumerate(family):
@@ -86,17 +88,21 @@ def run(n: int, tries: int, budget: float, cpsat_seconds: float, limit: int | No
         reference, _ = cpsat_lower_bound(rounds, n, seconds=cpsat_seconds, seed=0)
         t_ref = time.perf_counter() - t1
         t1 = time.perf_counter()
-        tables = window_tables(rounds, n)
+        tables = window_tables(rounds, n, quads=four)
         t_tables = time.perf_counter() - t1
         t1 = time.perf_counter()
         target = upper[member.origin][0]
         degree = degree_lower_bound(rounds, n, tables=tables)
         two = window_lower_bound(rounds, n, window=2, tables=tables, target=target)
         three = window_lower_bound(rounds, n, window=3, tables=tables, target=target)
+        best_windows = three
+        if four:
+            best_windows = window_lower_bound(rounds, n, window=4, tables=tables, target=target,
+                                              iterations=100, start=three.penalties)
         t_windows = time.perf_counter() - t1
         if found is not None:
             assert window_sum(tables, found.order) <= 3 * found.breaks, "window inequality"
-        bound = max(degree.bound, two.bound, three.bound)
+        bound = max(degree.bound, two.bound, three.bound, best_windows.bound)
         assert bound <= target, "lower bound above a schedule found"
         strongest = max(bound, proven.get(member.origin, bound))
         least_bound = strongest if least_bound is None else min(least_bound, strongest)
@@ -104,7 +110,9 @@ def run(n: int, tries: int, budget: float, cpsat_seconds: float, limit: int | No
         up, how = upper[member.origin]
         print(f"  {member.origin[:50]:<50} {up:>5} {how[:12]:<12} {reference:>6} "
               f"{degree.bound:>4} {two.bound:>4} {three.bound:>4} "
-              f"({float(three.relaxation):5.1f}) {bound / reference:5.2f}  "
+              f"({float(three.relaxation):5.1f}) "
+              + (f"{best_windows.bound:>4} ({float(best_windows.relaxation):5.1f}) " if four
+                 else "") + f"{bound / reference:5.2f}  "
               f"{t_ref:.1f} / {t_tables:.1f} / {t_windows:.1f} s "
               f"(time ratio {(t_tables + t_windows) / t_ref:.2f})")
     target = TARGETS[n]
@@ -124,6 +132,8 @@ if __name__ == "__main__":
     parser.add_argument("--quick", action="store_true")
     parser.add_argument("--budget", type=float, default=10.0,
                         help="nominal seconds of order search per 28-team factorization")
+    parser.add_argument("--no-four", action="store_true",
+                        help="skip the four-step windows for 28 teams (minutes each)")
     parser.add_argument("--seeds", type=int, default=3,
                         help="order searches per 28-team factorization, each polished by the "
                         "exact home/away of its order")
@@ -132,4 +142,5 @@ if __name__ == "__main__":
         run(28, tries=2, budget=2.0, cpsat_seconds=2.0, limit=2, seeds=1)
     else:
         run(16, tries=24, budget=args.budget, cpsat_seconds=5.0, limit=None, seeds=1)
-        run(28, tries=6, budget=args.budget, cpsat_seconds=5.0, limit=None, seeds=args.seeds)
+        run(28, tries=6, budget=args.budget, cpsat_seconds=5.0, limit=None, seeds=args.seeds,
+            four=not args.no_four)

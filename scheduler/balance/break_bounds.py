@@ -428,8 +428,9 @@ def window_lower_bound(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *,
 
 
 def break_lower_bound(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *,
-                      iterations: int = 300, target: float | None = None) -> BreakLowerBound:
-    """The strongest bound of this module: the three-step windows (two-step ones for ``n = 4``).
+                      iterations: int = 300, target: float | None = None,
+                      largest_window: int = 3) -> BreakLowerBound:
+    """The strongest bound of this module up to windows of ``largest_window`` steps.
 
     Parameters
     ----------
@@ -438,19 +439,23 @@ def break_lower_bound(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *,
     n
         The even order.
     iterations
-        Subgradient steps (see :func:`window_lower_bound`).
+        Subgradient steps (see :func:`window_lower_bound`); half as many for the four-step
+        windows, which start from the penalties of the three-step ones.
     target
         A known number of breaks, for the step length.
+    largest_window
+        2, 3 (default: seconds for 28 teams) or 4 (a few minutes for 28 teams).
 
     Returns
     -------
     BreakLowerBound
-        The larger of the degree bound and the window bound.
+        The strongest of the degree bound and the window bounds computed.
 
     Raises
     ------
     InputError
-        When the rounds are not a one-factorization of ``K_n``.
+        When the rounds are not a one-factorization of ``K_n`` or ``largest_window`` is not 2,
+        3 or 4.
 
     Examples
     --------
@@ -462,13 +467,21 @@ def break_lower_bound(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *,
     ----------
     Module docstring.
     """
-    tables = window_tables(rounds, n, triples=n >= 6)
+    if largest_window not in (2, 3, 4):
+        raise InputError(f"windows of 2, 3 or 4 steps, got {largest_window}",
+                         location="largest_window")
+    tables = window_tables(rounds, n, triples=n >= 6 and largest_window >= 3,
+                           quads=n >= 6 and largest_window == 4)
     candidates = [degree_lower_bound(rounds, n, tables=tables)]
     candidates.append(window_lower_bound(rounds, n, window=2, iterations=iterations,
                                          target=target, tables=tables))
     if tables.triples is not None:
         candidates.append(window_lower_bound(rounds, n, window=3, iterations=iterations,
                                              target=target, tables=tables))
+    if tables.quads is not None:
+        candidates.append(window_lower_bound(rounds, n, window=4, iterations=iterations // 2,
+                                             target=target, tables=tables,
+                                             start=candidates[-1].penalties))
     return max(candidates, key=lambda b: (b.relaxation, b.window))
 
 

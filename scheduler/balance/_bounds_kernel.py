@@ -520,3 +520,66 @@ def quad_walk(w4, w3, w2, penalty):
         bb = ba
         ba = a
     return best, visits
+
+
+@nb.njit(cache=True)
+def _step(masks, prev_round, cur_round, value, out, n):
+    """``out[y] = min over x of value[x] + min(d, n - d)`` between class ``x`` of
+    ``prev_round`` and class ``y`` of ``cur_round``."""
+    classes = masks.shape[1]
+    prev = masks[prev_round]
+    cur = masks[cur_round]
+    for y in range(classes):
+        best = np.int64(1) << 40
+        my = cur[y]
+        for x in range(classes):
+            d = _popcount(prev[x] ^ my)
+            if n - d < d:
+                d = n - d
+            v = value[x] + d
+            if v < best:
+                best = v
+        out[y] = best
+
+
+@nb.njit(cache=True)
+def path_tables(masks, order, n):
+    """``forward[q, y]``: fewest breaks of positions ``0..q`` ending in class ``y``;
+    ``backward[q, y]``: of positions ``q..end`` starting in class ``y``."""
+    positions = order.shape[0]
+    classes = masks.shape[1]
+    forward = np.zeros((positions, classes), np.int64)
+    backward = np.zeros((positions, classes), np.int64)
+    for q in range(1, positions):
+        _step(masks, order[q - 1], order[q], forward[q - 1], forward[q], n)
+    for q in range(positions - 2, -1, -1):
+        _step(masks, order[q + 1], order[q], backward[q + 1], backward[q], n)
+    return forward, backward
+
+
+@nb.njit(cache=True)
+def reversed_value(masks, order, i, j, forward, backward, n):
+    """Fewest breaks of ``order`` with the positions ``i..j`` reversed, from the tables of
+    :func:`path_tables` (only the steps into and through the segment are recomputed)."""
+    positions = order.shape[0]
+    classes = masks.shape[1]
+    value = np.zeros(classes, np.int64)
+    out = np.zeros(classes, np.int64)
+    prev = -1
+    if i > 0:
+        value[:] = forward[i - 1]
+        prev = order[i - 1]
+    for k in range(j, i - 1, -1):
+        if prev >= 0:
+            _step(masks, prev, order[k], value, out, n)
+            value[:] = out
+        prev = order[k]
+    if j + 1 < positions:
+        _step(masks, prev, order[j + 1], value, out, n)
+        best = np.int64(1) << 40
+        for y in range(classes):
+            v = out[y] + backward[j + 1, y]
+            if v < best:
+                best = v
+        return best
+    return value.min()

@@ -28,6 +28,7 @@ from scheduler.balance.break_bounds import (
     break_lower_bound,
     degree_lower_bound,
     is_perfect,
+    polish_order,
     window_lower_bound,
     window_sum,
     window_tables,
@@ -191,3 +192,21 @@ def test_best_home_away_for_a_fixed_order(n, seed):
     assert got.breaks >= window_lower_bound(rounds, n, iterations=30).relaxation
     with pytest.raises(InputError):
         best_home_away(rounds, n, order[:-1])
+
+
+@pytest.mark.parametrize("n,seed", [(8, 12), (10, 13)])
+def test_polish_order_never_worse_and_exact(n, seed):
+    # the polished schedule is re-counted by the balancer's plain counter and lies between the
+    # exact optimum over every order (Held-Karp) and the exact value of the starting order
+    from scheduler.balance.anneal import breaks_of
+    from scheduler.balance.orders import BreakPaths
+
+    rounds = _random_factorization(n, seed)
+    start = random.Random(seed).sample(range(n - 1), n - 1)
+    got = polish_order(rounds, n, start, longest_segment=4, max_passes=3)
+    assert breaks_of(rounds, got.home, [list(got.order)], None) == got.breaks
+    assert got.breaks == BreakPaths(rounds, n).value(list(got.order))
+    assert exact_min_breaks(rounds, n).breaks <= got.breaks <= best_home_away(rounds, n,
+                                                                                start).breaks
+    with pytest.raises(InputError):
+        polish_order(rounds, n, start, longest_segment=1)

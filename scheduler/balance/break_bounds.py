@@ -73,11 +73,30 @@ PENALTY_GRID = 1024
 class BreakLowerBound:
     """A proven lower bound on the breaks of a single round robin on one factorization.
 
-    ``bound`` is the bound after rounding (integer; even when ``perfect``; at least ``n - 2``),
-    ``relaxation`` the exact value of the relaxation before rounding, ``window`` the number of
-    steps per window (0 for the degree bound), ``penalties`` the Lagrangian penalties of the
-    rounds that give it, ``perfect`` whether every two rounds form one Hamiltonian cycle (the
-    parity argument), ``method`` a short description.
+    Parameters
+    ----------
+    bound
+        The bound after rounding: an integer, at least ``n - 2``, even when ``perfect``.
+    relaxation
+        The exact value of the relaxation before rounding.
+    window
+        Steps per window (0 for the degree bound).
+    penalties
+        The Lagrangian penalty of every round (per break) that gives the bound.
+    perfect
+        Whether every two rounds form one Hamiltonian cycle (the parity argument applies).
+    method
+        A short description.
+
+    Examples
+    --------
+    >>> from scheduler.factorization.circle import circle_rounds
+    >>> degree_lower_bound(circle_rounds(8), 8).window
+    0
+
+    References
+    ----------
+    Module docstring.
     """
 
     bound: int
@@ -90,9 +109,31 @@ class BreakLowerBound:
 
 @dataclass(frozen=True)
 class WindowTables:
-    """The window values of one factorization: ``pairs[a, b, c] = W_2`` and, when computed,
-    ``triples[a, b, c, d] = W_3`` and ``quads[a, b, c, d, e] = W_4`` (large values where rounds
-    repeat)."""
+    """The window values of one factorization (large values where rounds repeat).
+
+    Parameters
+    ----------
+    n
+        The even order.
+    pairs
+        ``pairs[a, b, c] = W_2(a, b, c)``.
+    triples
+        ``triples[a, b, c, d] = W_3(a, b, c, d)``, or ``None`` when not computed.
+    perfect
+        Whether every two rounds form one Hamiltonian cycle.
+    quads
+        ``quads[a, b, c, d, e] = W_4(a, b, c, d, e)``, or ``None`` when not computed.
+
+    Examples
+    --------
+    >>> from scheduler.factorization.circle import circle_rounds
+    >>> window_tables(circle_rounds(8), 8).pairs.shape
+    (7, 7, 7)
+
+    References
+    ----------
+    Module docstring.
+    """
 
     n: int
     pairs: np.ndarray

@@ -445,6 +445,10 @@ def replan(
         raise InputError(f"--time-limit must be a positive number of seconds, got {time_limit}")
     result = load_replan(config, season_dir, events, time_limit=time_limit)
     assert result.league is not None
+    if result.nothing_to_change:
+        out.print(f"nothing to change: the season in {season_dir} already agrees with "
+                  f"{events} (revision {result.season.revision}); nothing written")
+        return
     written = write_replan(result, season_dir, league=result.league, config_path=config)
     repair = result.repair
     proof = ("the fewest possible (proven)" if repair.proven

@@ -89,7 +89,25 @@ class ReplanResult:
 
     @property
     def team_counts(self) -> list[tuple[str, int]]:
+        """Changed games per team, most first (as in ``changes.csv``).
+
+        Returns
+        -------
+        list of (str, int)
+            Team name and its number of changed games.
+        """
         return team_counts(self.changes)
+
+    @property
+    def nothing_to_change(self) -> bool:
+        """Whether the events change no game: the season stands and nothing is written.
+
+        Returns
+        -------
+        bool
+            ``True`` when :attr:`changes` is empty (``season`` is then ``previous``).
+        """
+        return not self.changes
 
 
 def played_order(season: Season) -> Season:
@@ -142,10 +160,49 @@ def _game(f: Fixture) -> str:
     return f"{f.home} v {f.away}" + (f" on {f.date.isoformat()}" if f.date else "")
 
 
+def last_played_through(previous: Season) -> date | None:
+    """The latest ``played_through`` of the season's earlier re-plans (``None`` for a season
+    never re-planned): history up to it was published as played."""
+    days = [r.played_through for r in previous.revisions if r.played_through is not None]
+    return max(days) if days else None
+
+
+def _applied_postponements(previous: Season, events: Events) -> set[int]:
+    """Indices into ``events.postponed`` of entries an earlier re-plan already applied.
+
+    Each re-plan records the games it re-placed (:attr:`Revision.postponed`). An entry with a
+    date matches the record of that game on that planned date; an entry without a date then
+    matches the earliest unused record of the same home and away team. Each record is used once.
+    """
+    records = [game for r in previous.revisions for game in r.postponed]
+    used: set[int] = set()
+    applied: set[int] = set()
+    for dated in (True, False):
+        for i, p in enumerate(events.postponed):
+            if (p.date is not None) != dated:
+                continue
+            for k, (home, away, planned) in enumerate(records):
+                if k not in used and (home, away) == (p.home, p.away) and (
+                        p.date is None or p.date == planned):
+                    used.add(k)
+                    applied.add(i)
+                    break
+    return applied
+
+
 def _find_postponed(old: Season, events: Events) -> set[int]:
+    """Indices into ``old.fixtures`` of the games newly postponed by ``events``.
+
+    Entries already applied by an earlier re-plan are skipped. A new postponement must name a
+    game planned after the last re-plan's ``played_through`` and on or before this one.
+    """
     pt = events.played_through
+    before = last_played_through(old)
+    applied = _applied_postponements(old, events)
     chosen: set[int] = set()
-    for p in events.postponed:
+    for index, p in enumerate(events.postponed):
+        if index in applied:
+            continue
         same = [i for i, f in enumerate(old.fixtures) if (f.home, f.away) == (p.home, p.away)]
         if p.date is not None:
             same = [i for i in same if old.fixtures[i].date == p.date]
@@ -164,6 +221,15 @@ def _find_postponed(old: Season, events: Events) -> set[int]:
                            f"{p.home} v {p.away} is planned after played_through "
                            f"{pt.isoformat()} ({dates}); only a game that should already have "
                            "been played can be postponed")
+        if before is not None:
+            played = [i for i in past if old.fixtures[i].date <= before]  # type: ignore[operator]
+            past = [i for i in past if i not in played]
+            if not past:
+                raise _located(events, p.where,
+                               f"{_game(old.fixtures[played[0]])} is history: the season "
+                               f"folder was re-planned with played_through "
+                               f"{before.isoformat()}, so this game was published as played "
+                               "and cannot be postponed now")
         if len(past) > 1:
             dates = ", ".join(old.fixtures[i].date.isoformat() for i in past)  # type: ignore[union-attr]
             raise _located(events, p.where,
@@ -175,11 +241,37 @@ def _find_postponed(old: Season, events: Events) -> set[int]:
     return chosen
 
 
+def _check_moved_history(old: Season, events: Events) -> None:
+    """A hand-moved game dated on or before ``played_through`` is history: it must be in the
+    season as given (a move applied by an earlier re-plan), or lie before the last re-plan's
+    ``played_through`` (published as history then; it may have been postponed since)."""
+    pt, before = events.played_through, last_played_through(old)
+    for m in events.moved:
+        if m.date > pt:
+            continue
+        if any(f.pair == frozenset((m.home, m.away)) and f.date == m.date
+               and f.start is not None and f.start.time() == m.start
+               and (m.court is None or f.court == m.court) for f in old.fixtures):
+            continue
+        if before is not None and m.date <= before:
+            continue
+        raise _located(events, f"{m.where}.date",
+                       f"{m.date.isoformat()} is on or before played_through {pt.isoformat()}, "
+                       f"but the season has no game {m.home} v {m.away} there at "
+                       f"{m.start.strftime('%H:%M')}; history cannot be changed")
+
+
 def _find_moved(future: list[Fixture], events: Events) -> dict[int, ForcedGame]:
     forced: dict[int, ForcedGame] = {}
     for m in events.moved:
+        if m.date <= events.played_through:
+            continue  # history (checked by _check_moved_history)
         same = [i for i, f in enumerate(future) if f.pair == frozenset((m.home, m.away))]
-        if m.planned_date is not None:
+        there = [i for i in same if future[i].date == m.date and future[i].start is not None
+                 and future[i].start.time() == m.start]  # type: ignore[union-attr]
+        if len(there) == 1:
+            same = there  # moved there by an earlier re-plan of the same events file
+        elif m.planned_date is not None:
             same = [i for i in same if future[i].date == m.planned_date]
         if not same:
             names = [_game(f) for f in future]
@@ -352,7 +444,15 @@ def replan_season(league: League, previous: Season, events: Events, *,
             f"of the season ({max(dates).isoformat()}); nothing is left to re-plan",
             location=f"{where}: played_through")
     pt = events.played_through
+    before = last_played_through(previous)
+    if before is not None and pt < before:
+        raise InputError(
+            f"played_through {pt.isoformat()} is before {before.isoformat()}, the "
+            "played_through of the season folder's last re-plan; games published as played "
+            "cannot become unplayed (keep played_through or move it forward)",
+            location=f"{where}: played_through")
     postponed_at = _find_postponed(previous, events)
+    _check_moved_history(previous, events)
     void = {w.team for w in events.withdrawn if w.policy == "void_all"}
     out = {w.team for w in events.withdrawn}
     history: list[Fixture] = []
@@ -393,6 +493,14 @@ def replan_season(league: League, previous: Season, events: Events, *,
                if old != new]
     changes += [GameChange(f, None) for f in cancelled]
     changes.sort(key=lambda c: ((c.new or c.old).date or date.min, c.old.round, c.old.home))
+    before_fairness = compute_fairness(previous)
+    if not changes:
+        # nothing new in the events (or nothing that needs a change): the published season
+        # stands as it is, and nothing is written (docs/replanning.md, "A season lived week
+        # by week")
+        played_now = compute_fairness(played_order(previous))
+        return ReplanResult(previous, previous, (), result, before_fairness, before_fairness,
+                            (), events, played_now, league)
     revision = new_revision(previous, events)
     earlier = previous.revisions or (Revision(previous.revision, None, 0, "first plan"),)
     summary = (f"re-planned after {pt.isoformat()}: {len(changes)} game(s) changed"
@@ -404,18 +512,20 @@ def replan_season(league: League, previous: Season, events: Events, *,
         previous,
         fixtures=_sort(league, history + list(result.fixtures)),
         revision=revision,
-        revisions=(*earlier, Revision(revision, pt, len(changes), summary)),
+        revisions=(*earlier, Revision(revision, pt, len(changes), summary, tuple(
+            (previous.fixtures[i].home, previous.fixtures[i].away, previous.fixtures[i].date)
+            for i in sorted(postponed_at) if previous.fixtures[i].date is not None))),
         notes=(*previous.notes, summary, *result.notes),
     )
     fairness = compute_fairness(season)
-    before = compute_fairness(previous)
+    before_figures = before_fairness
     played, played_before = (compute_fairness(played_order(s)) for s in (season, previous))
     worse = worsened_figures(played_before, played,
                              skip=("carry_over_value", "separation_min"))
-    worse += worsened_figures(before, fairness, skip=tuple(
+    worse += worsened_figures(before_figures, fairness, skip=tuple(
         name for name, *_ in WATCHED if name not in ("carry_over_value", "separation_min")),
         teams=False)
-    return ReplanResult(season, previous, tuple(changes), result, fairness, before,
+    return ReplanResult(season, previous, tuple(changes), result, fairness, before_figures,
                         worse, events, played, league)
 
 
@@ -476,7 +586,9 @@ def write_replan(result: ReplanResult, season_dir: str | Path, *, league: League
                  config_path: str | Path | None = None) -> list[Path]:
     """Write the re-planned season into ``season_dir`` (the folder it came from), its
     ``changes.csv`` and the report's list of changes included, as one unit (the previous
-    season stays whole until the new one is swapped in). Returns the paths written.
+    season stays whole until the new one is swapped in). Returns the paths written; when the
+    events change nothing (:attr:`ReplanResult.nothing_to_change`) nothing is written and the
+    folder stays byte-identical.
 
     Parameters
     ----------
@@ -492,7 +604,8 @@ def write_replan(result: ReplanResult, season_dir: str | Path, *, league: League
     Returns
     -------
     list of Path
-        The paths written (:func:`scheduler.export.write_season_outputs`).
+        The paths written (:func:`scheduler.export.write_season_outputs`); empty when there
+        was nothing to change.
 
     Raises
     ------
@@ -511,6 +624,8 @@ def write_replan(result: ReplanResult, season_dir: str | Path, *, league: League
     """
     from scheduler.export import write_season_outputs
 
+    if result.nothing_to_change:
+        return []
     return write_season_outputs(
         result.season, result.fairness, season_dir, config_path=config_path,
         game_minutes=league.calendar.game_minutes, side_labels=league.format.grid_labels,

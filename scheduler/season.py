@@ -64,12 +64,16 @@ class Revision:
     ``played_through`` is the last day of history when the version was made (``None`` for the
     first plan), ``changed`` the number of future games whose date, start, court or home side
     changed against the version before, ``note`` a one-line summary for people.
+    ``postponed`` lists the games this version re-placed after a postponement as
+    ``(home, away, planned date)``, so that a later re-plan with the same events file knows
+    them as already applied.
     """
 
     revision: str
     played_through: date | None = None
     changed: int = 0
     note: str = ""
+    postponed: tuple[tuple[str, str, date], ...] = ()
 
 
 @dataclass(frozen=True, slots=True)

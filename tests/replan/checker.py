@@ -5,6 +5,9 @@ file (plain TOML, :mod:`tomllib`) and lists every broken promise:
 
 - history unchanged: every game dated on or before ``played_through`` that was not postponed
   (and not removed with a ``void_all`` withdrawal) is in the new file with the same JSON object;
+  the events file may have grown since an earlier re-plan: a game dated on or before that
+  re-plan's ``played_through`` (the old file's ``revisions``) counts as played, even when an
+  old ``[[postponed]]`` entry still names its pair;
 - every other game is dated after ``played_through``;
 - the same games as before (each pair meets as often as planned, minus withdrawn teams);
 - one game per team and day; ``min_rest_days`` between a team's consecutive games; runs of home
@@ -55,12 +58,37 @@ def check(old_path: Path, new_path: Path, league_path: Path, events_path: Path) 
     events = tomllib.loads(Path(events_path).read_text(encoding="utf-8"))
     pt = events["played_through"]
     problems: list[str] = []
+    # the events file grows over the season: history published by an earlier re-plan (the
+    # latest played_through in the old file's revisions) is never postponed again, so only
+    # games planned after it can be the ones postponed now
+    earlier = [dt.date.fromisoformat(r["played_through"]) for r in old.get("revisions", [])
+               if r.get("played_through")]
+    if earlier and pt < max(earlier):
+        problems.append(f"played_through {pt} is before the last re-plan's {max(earlier)}")
+    since = max(earlier) if earlier else dt.date.min
     void = {w["team"] for w in events.get("withdrawn", []) if w["policy"] == "void_all"}
     gone = {w["team"] for w in events.get("withdrawn", [])}
+    # entries an earlier re-plan already applied: season.json records each re-placed game
+    # as {"home", "away", "date"} in its revision; an entry with a date matches that record,
+    # an entry without one the earliest unused record of the same home and away team
+    records = [g for r in old.get("revisions", []) for g in r.get("postponed", [])]
+    entries = events.get("postponed", [])
+    done: set[int] = set()
+    used: set[int] = set()
+    for dated in (True, False):
+        for i, p in enumerate(entries):
+            if ("date" in p) != dated:
+                continue
+            for k, g in enumerate(records):
+                if k not in used and (g["home"], g["away"]) == (p["home"], p["away"]) and (
+                        "date" not in p or p["date"] == dt.date.fromisoformat(g["date"])):
+                    used.add(k)
+                    done.add(i)
+                    break
     postponed = []
-    for p in events.get("postponed", []):
+    for p in (p for i, p in enumerate(entries) if i not in done):
         for f in old["fixtures"]:
-            if (f["home"], f["away"]) == (p["home"], p["away"]) and _day(f) <= pt and (
+            if (f["home"], f["away"]) == (p["home"], p["away"]) and since < _day(f) <= pt and (
                 "date" not in p or _day(f) == p["date"]
             ):
                 postponed.append(f)
@@ -166,6 +194,8 @@ def check(old_path: Path, new_path: Path, league_path: Path, events_path: Path) 
                 problems.append(f"{f['home']} v {f['away']} at closed {c['venue']} on "
                                 f"{f['date']}")
     for m in events.get("moved", []):
+        if m["date"] <= pt:
+            continue  # history: kept by the history check above
         hits = [f for f in new_fixtures if (f["home"], f["away"]) == (m["home"], m["away"])
                 and _day(f) == m["date"]]
         clock = m["start"] if isinstance(m["start"], str) else m["start"].strftime("%H:%M")

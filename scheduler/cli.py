@@ -455,6 +455,9 @@ def replan(
              else f"not proven fewest: at least {repair.bound} are needed")
     out.print(f"[bold]{len(result.changes)}[/bold] game(s) changed; {repair.changed} re-planned "
               f"game(s) differ from the old plan, {proof}")
+    if repair.goals:
+        out.print("then, with that many changes: " + "; ".join(
+            _plain(str(goal)) for goal in repair.goals))
     for change in result.changes:
         old, new = change.old, change.new
         before = f"{old.date} {old.start.strftime('%H:%M') if old.start else ''} {old.court or ''}"

@@ -93,6 +93,40 @@ class RepairProblem:
     closed: tuple[tuple[str, str | None, date], ...] = ()
 
 
+GOAL_LABELS: dict[str, str] = {
+    "reserve": "moved games off the reserve dates",
+    "home_side": "games with the other team at home",
+    "rest": "least rest of the re-planned games (days)",
+    "breaks": "breaks",
+    "venue_balance": "most games of a team on one court",
+    "slot_balance": "most games of a team at one kick-off time",
+    "earliest": "lateness of the moved games",
+}
+"""Plain labels of the second stage's goals (:meth:`RepairModel.goals`)."""
+
+
+@dataclass(frozen=True, slots=True)
+class GoalFigure:
+    """The value a goal of the second stage reached, and whether CP-SAT proved it best.
+
+    Parameters
+    ----------
+    name
+        A key of :data:`GOAL_LABELS`.
+    value
+        The figure (rest in days; the others are counts).
+    proven
+        Whether no re-plan with the same values of the goals before it does better.
+    """
+
+    name: str
+    value: int
+    proven: bool
+
+    def __str__(self) -> str:
+        return f"{GOAL_LABELS[self.name]} {self.value}" + ("" if self.proven else " (not proven)")
+
+
 @dataclass(frozen=True)
 class RepairResult:
     """The re-planned future games (same order as ``problem.future``) and how good they are.
@@ -114,6 +148,7 @@ class RepairResult:
     seconds: float
     notes: tuple[str, ...] = ()
     proof_seconds: float = 0.0
+    goals: tuple[GoalFigure, ...] = ()
 
 
 def _places(league: League) -> tuple[list[Place], dict[str, list[int]]]:
@@ -502,10 +537,170 @@ class RepairModel:
                     continue  # both in history
                 m.add(late - early - 1 >= value).only_enforce_if(lit)
 
+    # --- soft goals (second stage) --------------------------------------------------------
+    def _off_reserve(self) -> cp_model.LinearExprT:
+        """Moved games not on a reserve date (hand-moved games do not count)."""
+        lits = [lit for g, opts in enumerate(self.options) if g not in self.problem.forced
+                for d, _, _, lit in opts
+                if self.days[d] not in self.reserve and lit is not self.same[g]]
+        return sum(lits)
+
+    def _least_rest(self) -> tuple[cp_model.LinearExprT, list[tuple[int, cp_model.IntVar]]]:
+        """Maximise the least rest (days without a game between two games of a team) over the
+        games of the re-planned part, the boundary with history included.
+
+        ``at_least[v]`` (one per rest value ``v`` that can occur below two weeks, and one for
+        two weeks) forbids every pair of games of one team closer than ``v`` rest days; the
+        flags are chained (``at_least[v]`` implies the one below), so the largest true flag is
+        the least rest (14 meaning 14 or more). Returns the expression to minimise (minus the
+        number of true flags) and the flags.
+        """
+        m = self.model
+        cap = 14
+        floor = self.league.rules.min_rest_days or 0
+        pairs: list[tuple[int, int, int]] = []  # (rest, day i, day j), i = -1: last game played
+        for i, d1 in enumerate(self.days):
+            for j in range(i + 1, len(self.days)):
+                gap = (self.days[j] - d1).days - 1
+                if gap >= cap:
+                    break
+                if gap >= floor:
+                    pairs.append((gap, i, j))
+        boundary: list[tuple[int, str, int]] = []
+        for team in self.teams:
+            last = self.last_played.get(team)
+            if last is None:
+                continue
+            for j, day in enumerate(self.days):
+                gap = (day - last).days - 1
+                if gap >= cap:
+                    break
+                if gap >= floor:
+                    boundary.append((gap, team, j))
+        if not pairs and not boundary:
+            return 0, []
+        values = sorted({gap for gap, *_ in pairs} | {gap for gap, *_ in boundary} | {cap})
+        flags: list[tuple[int, cp_model.IntVar]] = []
+        for v in values:
+            flag = m.new_bool_var(f"least_rest_at_least_{v}_days")
+            if flags:
+                m.add_implication(flag, flags[-1][1])
+            flags.append((v, flag))
+        flag_of = dict(flags)
+
+        def guard(gap: int) -> cp_model.IntVar:
+            return flag_of[min(v for v in values if v > gap)]
+
+        for gap, i, j in pairs:
+            for team in self.teams:
+                m.add(self.plays(team, i) + self.plays(team, j) <= 1).only_enforce_if(guard(gap))
+        for gap, team, j in boundary:
+            m.add(self.plays(team, j) == 0).only_enforce_if(guard(gap))
+        return -sum(flag for _, flag in flags), flags
+
+    def _spread(self, label: str, key_of) -> cp_model.IntVar | None:
+        """The largest number of games any team plays on one court of a venue with several
+        courts (``label`` "court") or at one kick-off time of the venues with time slots
+        ("slot") over the season, history included; ``None`` when there are fewer than two
+        such courts or times (nothing to balance). ``key_of`` gives a place's court or time,
+        ``None`` for a place outside the balance."""
+        m = self.model
+        keys = sorted({key_of(p) for p in self.places if key_of(p) is not None}, key=str)
+        if len(keys) < 2:
+            return None
+        counts: dict[tuple[str, object], list] = {}
+        where = {(p.venue, p.court, p.slot_label): p for p in self.places}
+        for f in self.problem.history:
+            place = where.get((f.venue, f.court, f.slot))
+            key = key_of(place) if place is not None else None
+            for team in f.teams:
+                counts.setdefault((team, key), []).append(1)
+        for g, opts in enumerate(self.options):
+            old = self.problem.future[g]
+            for _, _, p, lit in opts:
+                place = self.places[p] if p >= 0 else self.forced_place[g]
+                key = key_of(place)
+                for team in old.teams:
+                    counts.setdefault((team, key), []).append(lit)
+        top = m.new_int_var(0, len(self.problem.history) + len(self.options),
+                            f"most_games_of_a_team_on_one_{label}")
+        for team_key in sorted(counts, key=str):
+            if team_key[1] is not None:
+                m.add(top >= sum(counts[team_key]))
+        return top
+
+    def goals(self) -> list[tuple[str, cp_model.LinearExprT]]:
+        """The second stage's goals, most important first, each to be minimised.
+
+        Reserve dates for the games that must move (the league keeps them for that), then
+        the fewest games with the other team at home (a moved game keeps its host where it
+        can: who hosts whom is part of the agreement), then the least rest (player welfare; the league file has no weight for it, ``min_rest_days`` is
+        its hard floor), then the league's own priorities that a date placement can change,
+        in the order of their weights (``priorities.breaks``, ``venue_balance``,
+        ``slot_balance``; weight 0 leaves a goal out, equal weights keep this order), and last
+        the earliest dates for the moved games. ``mixing`` and ``carry_over`` are about the
+        order of rounds, which a re-plan does not choose.
+
+        Returns
+        -------
+        list of (str, LinearExpr)
+            Goal name and the expression to minimise.
+        """
+        swapped = [lit for g, opts in enumerate(self.options) if g not in self.problem.forced
+                   for _, side_swapped, _, lit in opts if side_swapped]
+        out: list[tuple[str, cp_model.LinearExprT]] = [("reserve", self._off_reserve()),
+                                                       ("home_side", sum(swapped))]
+        rest, self.rest_flags = self._least_rest()
+        if self.rest_flags:
+            out.append(("rest", rest))
+        weights = self.league.priorities
+        weighted: list[tuple[int, int, str, cp_model.LinearExprT]] = []
+        if weights.breaks > 0:
+            weighted.append((weights.breaks, 0, "breaks", self.total_breaks))
+        shared = {v.name for v in self.league.venues if len(v.courts) > 1}
+        court = self._spread("court", lambda p: (p.venue, p.court) if p.venue in shared
+                             else None)
+        if court is not None and weights.venue_balance > 0:
+            weighted.append((weights.venue_balance, 1, "venue_balance", court))
+        slot = self._spread("slot", lambda p: p.slot_time)
+        if slot is not None and weights.slot_balance > 0:
+            weighted.append((weights.slot_balance, 2, "slot_balance", slot))
+        out += [(name, expr) for _, _, name, expr in sorted(weighted, key=lambda w: (-w[0], w[1]))]
+        late = [d * lit for g, opts in enumerate(self.options) if g not in self.problem.forced
+                for d, _, _, lit in opts if lit is not self.same[g] and d]
+        out.append(("earliest", sum(late)))
+        return out
+
+    def _figure(self, name: str, solver: cp_model.CpSolver, expr) -> int:
+        """A goal's value in the league's terms (rest in days, the others as counted)."""
+        if name == "rest":
+            held = [v for v, flag in self.rest_flags if solver.value(flag)]
+            return held[-1] if held else (self.league.rules.min_rest_days or 0)
+        return int(solver.value(expr))
+
     # --- solving --------------------------------------------------------------------------
     def solve(self, limits: SolveLimits) -> RepairResult:
+        """Fewest changed games (proven when CP-SAT says OPTIMAL), then the second stage.
+
+        Parameters
+        ----------
+        limits
+            CP-SAT limits of the first stage; each goal of the second stage gets a quarter of
+            its deterministic time, between 1 and 5 seconds.
+
+        Returns
+        -------
+        RepairResult
+            The re-planned games and their figures.
+
+        Raises
+        ------
+        InfeasibleError
+            When no re-plan keeps every rule, or none was found in the time.
+        """
         self.precheck()
         m = self.model
+        goals = self.goals()
         changed = sum(self.changed)
         m.minimize(changed)
         solver = cp_model.CpSolver()
@@ -520,42 +715,37 @@ class RepairModel:
         best = round(solver.objective_value)
         bound = round(solver.best_objective_bound)
         proven = status == cp_model.OPTIMAL
-        values = {lit.index: solver.value(lit) for opts in self.options for *_, lit in opts}
-        # second stage: keep the change count, prefer reserve dates, then fewest breaks
+        # second stage, lexicographic: keep the change count, then each goal in turn at its
+        # best value (or the value reached when its time ran out)
         m.add(changed <= best)
-        off_reserve = []
-        for g, opts in enumerate(self.options):
-            for d, _, _, lit in opts:
-                if self.days[d] not in self.reserve and lit is not self.same[g] and (
-                    g not in self.problem.forced
-                ):
-                    off_reserve.append(lit)
-        late = []
-        for g, opts in enumerate(self.options):
-            if g in self.problem.forced:
-                continue
-            late += [d * lit for d, _, _, lit in opts if lit is not self.same[g] and d]
-        breaks_weight = (len(self.days) + 1) * len(self.options) + 1
-        reserve_weight = breaks_weight * (len(self.days) * len(self.teams) + 1)
-        m.minimize(reserve_weight * sum(off_reserve) + breaks_weight * self.total_breaks
-                   + sum(late))
-        m.clear_hints()
-        for opts in self.options:
-            for *_, lit in opts:
-                m.add_hint(lit, values[lit.index])
-        second = cp_model.CpSolver()
-        configure(second, SolveLimits(max(1.0, min(5.0, limits.deterministic / 4)), limits.wall,
-                                      limits.seed))
-        status2 = solve_interruptibly(second, m)
-        notes = []
-        use = second if status2 in (cp_model.OPTIMAL, cp_model.FEASIBLE) else solver
-        seconds += second.wall_time
-        if use is solver:
-            notes.append("the reserve-date and breaks stage found nothing better in its time")
+        use = solver
+        figures: list[GoalFigure] = []
+        notes: list[str] = []
+        stage_limits = SolveLimits(max(1.0, min(5.0, limits.deterministic / 4)), limits.wall,
+                                   limits.seed)
+        for name, expr in goals:
+            values = {lit.index: use.value(lit) for opts in self.options for *_, lit in opts}
+            m.clear_hints()
+            for opts in self.options:
+                for *_, lit in opts:
+                    m.add_hint(lit, values[lit.index])
+            m.minimize(expr)
+            stage = cp_model.CpSolver()
+            configure(stage, stage_limits)
+            stage_status = solve_interruptibly(stage, m)
+            seconds += stage.wall_time
+            if stage_status in (cp_model.OPTIMAL, cp_model.FEASIBLE):
+                use = stage
+            else:
+                notes.append(f"the {GOAL_LABELS[name]} stage found nothing in its time")
+            m.add(expr <= int(use.value(expr)))
+            if name != "earliest":
+                figures.append(GoalFigure(name, self._figure(name, use, expr),
+                                          use is stage and stage_status == cp_model.OPTIMAL))
         fixtures, on_reserve = self._extract(use)
         breaks = int(sum(use.value(b) for row in self.brk.values() for b in row))
         return RepairResult(tuple(fixtures), best, proven, bound, on_reserve, breaks, seconds,
-                            tuple(notes), proof_seconds)
+                            tuple(notes), proof_seconds, tuple(figures))
 
     def _extract(self, solver: cp_model.CpSolver) -> tuple[list[Fixture], int]:
         out = []

@@ -635,10 +635,11 @@ class RepairModel:
         Reserve dates for the games that must move (the league keeps them for that), then
         the fewest games with the other team at home (a moved game keeps its host where it
         can: who hosts whom is part of the agreement), then the least rest (player welfare;
-        the league file has no weight for it, ``min_rest_days`` is its hard floor), then the league's own priorities that a date placement can change,
-        in the order of their weights (``priorities.breaks``, ``venue_balance``,
-        ``slot_balance``; weight 0 leaves a goal out, equal weights keep this order), and last
-        the earliest dates for the moved games. ``mixing`` and ``carry_over`` are about the
+        the league file has no weight for it, ``min_rest_days`` is its hard floor), then the
+        league's own priorities that a date placement can change, in the order of their
+        weights (``priorities.breaks``, ``venue_balance``, ``slot_balance``; weight 0 leaves a
+        goal out, equal weights keep this order), and last the earliest dates for the moved
+        games. ``mixing`` and ``carry_over`` are about the
         order of rounds, which a re-plan does not choose.
 
         Returns

@@ -13,8 +13,9 @@ the previous plan's figures. See docs/replanning.md.
 from __future__ import annotations
 
 import hashlib
+from collections import Counter
 from dataclasses import dataclass, replace
-from datetime import date
+from datetime import date, time
 from pathlib import Path
 
 from scheduler.balance.repair import (
@@ -111,16 +112,22 @@ class ReplanResult:
 
 
 def played_order(season: Season) -> Season:
-    """The season as it will be played: one round per match date, in date order.
+    """The season as it will be played: one round per match date, in date order (one round
+    per kick-off when a team plays more than once on a day).
 
     A postponed game keeps its round number in the season (its identity in calendars and
     exports), but breaks, runs and rest are felt in date order; this view numbers the rounds
     by date so that :func:`scheduler.fairness.compute_fairness` measures them that way.
     """
-    dates = sorted({f.date for f in season.fixtures if f.date is not None})
-    rank = {d: i + 1 for i, d in enumerate(dates)}
-    fixtures = tuple(replace(f, round=rank[f.date]) for f in season.fixtures
-                     if f.date is not None)
+    dated = [f for f in season.fixtures if f.date is not None]
+    per_day = Counter((team, f.date) for f in dated for team in f.teams)
+    if per_day and max(per_day.values()) > 1:
+        # several rounds on one match day: one round per kick-off
+        keys = [(f.date, f.start.timestamp() if f.start else 0.0) for f in dated]
+    else:
+        keys = [(f.date, 0.0) for f in dated]
+    rank = {key: i + 1 for i, key in enumerate(sorted(set(keys)))}
+    fixtures = tuple(replace(f, round=rank[key]) for f, key in zip(dated, keys, strict=True))
     return replace(season, fixtures=fixtures, byes={})
 
 
@@ -302,7 +309,7 @@ def _check_moved(league: League, events: Events, history: list[Fixture],
             if f.date is not None and (team not in last or f.date > last[team]):
                 last[team] = f.date
     by_where = {m.home + "\x1f" + m.away: m.where for m in events.moved}
-    seen: dict[tuple[str, date], str] = {}
+    seen: dict[tuple[str, date, time | None], str] = {}
     hosting: dict[tuple[object, ...], str] = {}
     groups = league.shared_ground_groups
     for _i, game in sorted(forced.items()):
@@ -326,10 +333,13 @@ def _check_moved(league: League, events: Events, history: list[Fixture],
             if (team, game.date) in unavailable:
                 raise _located(events, where, f"{team} is unavailable on "
                                f"{game.date.isoformat()}; the hand-moved game breaks that rule")
-            if (team, game.date) in seen:
-                raise _located(events, where, f"{team} would play twice on "
-                               f"{game.date.isoformat()} (also in {seen[(team, game.date)]})")
-            seen[(team, game.date)] = where
+            key = (team, game.date, game.start if league.calendar.rounds_per_day > 1 else None)
+            if key in seen:
+                when = game.date.isoformat() + (
+                    f" at {game.start.strftime('%H:%M')}" if key[2] is not None else "")
+                raise _located(events, where, f"{team} would play twice on {when} (also in "
+                               f"{seen[key]})")
+            seen[key] = where
             rest = rules.min_rest_days
             if rest is not None and team in last and (game.date - last[team]).days - 1 < rest:
                 raise _located(events, where, f"{team} last played on {last[team].isoformat()}; "

@@ -28,7 +28,11 @@ weekday, one rule lowered by one) are tested by re-solving; the ones that work a
 Determinism: one worker, a fixed seed, a deterministic time limit (wall clock only as a safety
 net), options and variables built in sorted order.
 
-Only one round per match day is supported (``calendar.rounds_per_day = 1``).
+With several rounds on one match day (``calendar.rounds_per_day > 1``) games are placed on
+*sittings*: a match day and a kick-off time (the venues' time slots, or ``kickoff + j *
+game_minutes`` for a venue without slots, as the first plan does). A team plays at most once a
+sitting, at most ``rounds_per_day`` times a day and never in two games that overlap; runs and
+breaks follow the sittings in time order, and two games on one day count 0 rest days.
 """
 
 from __future__ import annotations
@@ -36,7 +40,7 @@ from __future__ import annotations
 import itertools
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, field, replace
-from datetime import date, time, timedelta
+from datetime import date, datetime, time, timedelta
 from typing import Any
 
 from ortools.sat.python import cp_model
@@ -151,18 +155,33 @@ class RepairResult:
     goals: tuple[GoalFigure, ...] = ()
 
 
-def _places(league: League) -> tuple[list[Place], dict[str, list[int]]]:
+def _places(league: League, per_day: int = 1) -> tuple[list[Place], dict[str, list[int]]]:
+    """Every (venue, court, time) of the league. With several rounds on one match day a venue
+    without time slots gets one time per round, ``kickoff + j * game_minutes``, labelled like
+    the planner's places (:mod:`scheduler.balance.places`); a league without venues has one
+    place without a venue."""
     places: list[Place] = []
     by_venue: dict[str, list[int]] = {}
+    cal = league.calendar
+    virtual: list[time | None] = [None]
+    if per_day > 1:
+        base = datetime.combine(date(2000, 1, 1), cal.kickoff)
+        virtual = [(base + timedelta(minutes=j * cal.game_minutes)).time()
+                   for j in range(per_day)]
     for venue in league.venues:
-        times: list[time | None] = list(venue.slots) or [None]
+        times: list[time | None] = list(venue.slots) or virtual
+        labelled = bool(venue.slots) or per_day > 1
         ids = []
         for court in venue.courts:
             for clock in times:
-                label = clock.strftime("%H:%M") if (venue.slots and clock is not None) else None
+                label = clock.strftime("%H:%M") if (labelled and clock is not None) else None
                 ids.append(len(places))
                 places.append(Place(venue.name, court, clock, label))
         by_venue[venue.name] = ids
+    if not league.venues:
+        for clock in virtual:
+            label = clock.strftime("%H:%M") if clock is not None else None
+            places.append(Place(None, None, clock, label))
     return places, by_venue
 
 
@@ -189,22 +208,27 @@ class RepairModel:
         self.problem = problem
         league = problem.league
         self.league = league
-        if league.calendar.rounds_per_day != 1:
-            raise InputError(
-                "re-planning supports one round per match day only "
-                f"(calendar.rounds_per_day = {league.calendar.rounds_per_day})",
-                location="calendar.rounds_per_day",
-            )
+        self.per_day = max(1, league.calendar.rounds_per_day)
         self.model = cp_model.CpModel()
         self.book = RuleBook(self.model)
         self.explainable = explainable
         pt = problem.played_through
         old_dates = [f.date for f in problem.future if f.date is not None and f.date > pt]
         forced_dates = [g.date for g in problem.forced.values()]
-        self.days = candidate_days(league, pt, old_dates + forced_dates)
-        self.day_index = {d: i for i, d in enumerate(self.days)}
+        days = candidate_days(league, pt, old_dates + forced_dates)
         self.reserve = frozenset(league.calendar.reserve_dates)
-        self.places, self.by_venue = _places(league)
+        self.places, self.by_venue = _places(league, self.per_day)
+        # a sitting is a match day (one round a day) or a match day and a kick-off time
+        # (several rounds a day); the model's "days" are the sittings in time order, and
+        # self.days[s] is the date of sitting s
+        if self.per_day == 1:
+            self.sittings: list[tuple[date, time | None]] = [(d, None) for d in days]
+        else:
+            times = {p.slot_time for p in self.places if p.slot_time is not None}
+            self.sittings = sorted({(d, t) for d in days for t in times}
+                                   | {(g.date, g.start) for g in problem.forced.values()})
+        self.days = [d for d, _ in self.sittings]
+        self.sitting_index = {sitting: i for i, sitting in enumerate(self.sittings)}
         self.teams = list(league.team_names)
         self._history_state()
         self._build_options()
@@ -213,14 +237,15 @@ class RepairModel:
 
     # --- history --------------------------------------------------------------------------
     def _history_state(self) -> None:
-        games: dict[str, list[tuple[date, bool]]] = {t: [] for t in self.teams}
+        games: dict[str, list[tuple[date, float, bool]]] = {t: [] for t in self.teams}
         for f in self.problem.history:
             if f.date is None:
                 continue
+            clock = f.start.timestamp() if f.start is not None else 0.0  # several a day
             if f.home in games:
-                games[f.home].append((f.date, True))
+                games[f.home].append((f.date, clock, True))
             if f.away in games:
-                games[f.away].append((f.date, False))
+                games[f.away].append((f.date, clock, False))
         self.last_played: dict[str, date | None] = {}
         self.history_count: dict[str, int] = {}
         self.trailing: dict[str, tuple[int, int]] = {}
@@ -229,13 +254,13 @@ class RepairModel:
             items.sort()
             self.history_count[team] = len(items)
             self.last_played[team] = items[-1][0] if items else None
-            self.last_home[team] = items[-1][1] if items else None
+            self.last_home[team] = items[-1][2] if items else None
             run = 0
-            for _, home in reversed(items):
-                if home != items[-1][1]:
+            for *_, home in reversed(items):
+                if home != items[-1][2]:
                     break
                 run += 1
-            self.trailing[team] = (run, 0) if items and items[-1][1] else (0, run)
+            self.trailing[team] = (run, 0) if items and items[-1][2] else (0, run)
 
     # --- options --------------------------------------------------------------------------
     def _blocked(self) -> tuple[set[tuple[str, date]], set[tuple[str, date]], set]:
@@ -278,7 +303,8 @@ class RepairModel:
                 self.forced_place[g] = place
                 lit = m.new_bool_var(f"game{g}_moved_by_hand")
                 m.add(lit == 1)
-                opts.append((self.day_index[forced.date], swapped, -1 - g, lit))
+                sitting = (forced.date, forced.start if self.per_day > 1 else None)
+                opts.append((self.sitting_index[sitting], swapped, -1 - g, lit))
                 self.options.append(opts)
                 self.same.append(None)
                 continue
@@ -294,6 +320,8 @@ class RepairModel:
                     for p in self._home_places(home):
                         place = self.places[p]
                         if self._place_closed(place, day, closed):
+                            continue
+                        if self.per_day > 1 and place.slot_time != self.sittings[d][1]:
                             continue
                         is_same = (
                             not swapped
@@ -323,7 +351,7 @@ class RepairModel:
                 key = (d, p) if p >= 0 else (d, self._place_key(self.forced_place[g]))
                 use.setdefault(key, []).append(lit)
         for key in sorted(use):
-            if len(use[key]) > 1:
+            if len(use[key]) > 1 and self.league.venues:
                 m.add_at_most_one(use[key])
         self.changed = []
         for g, same_lit in enumerate(self.same):
@@ -395,6 +423,30 @@ class RepairModel:
                 aws.append(a)
             self.home_on[team] = hs
             self.away_on[team] = aws
+        if self.per_day > 1:
+            self._same_day_limits()
+
+    def _same_day_limits(self) -> None:
+        """Several rounds on one match day: a team plays at most ``rounds_per_day`` games a
+        day, and never two whose kick-offs are less than ``game_minutes`` apart."""
+        m = self.model
+        length = self.league.calendar.game_minutes
+        by_day: dict[date, list[int]] = {}
+        for s, (day, _) in enumerate(self.sittings):
+            by_day.setdefault(day, []).append(s)
+        for day in sorted(by_day):
+            sittings = by_day[day]
+            for team in self.teams:
+                if len(sittings) > self.per_day:
+                    m.add(sum(self.plays(team, s) for s in sittings) <= self.per_day)
+                for s1, s2 in itertools.combinations(sittings, 2):
+                    t1, t2 = self.sittings[s1][1], self.sittings[s2][1]
+                    if t1 is None or t2 is None:
+                        continue
+                    apart = abs((datetime.combine(day, t2) - datetime.combine(day, t1))
+                                .total_seconds()) / 60
+                    if apart < length:
+                        m.add(self.plays(team, s1) + self.plays(team, s2) <= 1)
 
     def plays(self, team: str, d: int) -> cp_model.LinearExpr:
         return self.home_on[team][d] + self.away_on[team][d]
@@ -561,7 +613,7 @@ class RepairModel:
         pairs: list[tuple[int, int, int]] = []  # (rest, day i, day j), i = -1: last game played
         for i, d1 in enumerate(self.days):
             for j in range(i + 1, len(self.days)):
-                gap = (self.days[j] - d1).days - 1
+                gap = max(0, (self.days[j] - d1).days - 1)  # two games on one day: 0 rest
                 if gap >= cap:
                     break
                 if gap >= floor:
@@ -907,8 +959,6 @@ def repair_season(problem: RepairProblem, limits: SolveLimits) -> RepairResult:
     InfeasibleError
         When no re-plan keeps every rule: the clash in the league's words and, as further
         conflict lines, the relaxations that would make a re-plan possible.
-    InputError
-        For a league with several rounds on one match day.
 
     References
     ----------

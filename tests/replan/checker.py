@@ -3,6 +3,8 @@
 It reads the previous and the new ``season.json`` (plain JSON), the league file and the events
 file (plain TOML, :mod:`tomllib`) and lists every broken promise:
 
+- with several rounds on one match day (``calendar.rounds_per_day``) a team plays at most that
+  many games a day and never two that overlap (kick-offs less than ``game_minutes`` apart);
 - history unchanged: every game dated on or before ``played_through`` that was not postponed
   (and not removed with a ``void_all`` withdrawal) is in the new file with the same JSON object;
   the events file may have grown since an earlier re-plan: a game dated on or before that
@@ -122,26 +124,35 @@ def check(old_path: Path, new_path: Path, league_path: Path, events_path: Path) 
         if hosts_old != hosts_new:
             problems.append("a team hosts an opponent a different number of times")
     rules = league.get("rules", {})
-    # per team, date order
-    games: dict[str, list[tuple[dt.date, bool, bool]]] = defaultdict(list)
+    calendar = league.get("calendar", {})
+    per_day = calendar.get("rounds_per_day", 1)
+    length = dt.timedelta(minutes=calendar.get("game_minutes", 90))
+    # per team, in time order (the local kick-off "time" orders games of one day)
+    games: dict[str, list[tuple[dt.date, str, bool, bool]]] = defaultdict(list)
     for f in new_fixtures:
         is_future = f in future
-        games[f["home"]].append((_day(f), True, is_future))
-        games[f["away"]].append((_day(f), False, is_future))
+        games[f["home"]].append((_day(f), f["time"] or "", True, is_future))
+        games[f["away"]].append((_day(f), f["time"] or "", False, is_future))
     rest = rules.get("min_rest_days")
     for team, items in games.items():
         items.sort()
-        for (d1, _, f1), (d2, _, f2) in itertools.pairwise(items):
-            if d1 == d2:
+        for (d1, t1, _, f1), (d2, t2, _, f2) in itertools.pairwise(items):
+            if d1 == d2 and per_day == 1:
                 problems.append(f"{team} plays twice on {d1}")
+            elif d1 == d2 and (dt.datetime.combine(d2, dt.time.fromisoformat(t2))
+                               - dt.datetime.combine(d1, dt.time.fromisoformat(t1))) < length:
+                problems.append(f"{team} plays two overlapping games on {d1} ({t1}, {t2})")
             elif rest is not None and (f1 or f2) and (d2 - d1).days - 1 < rest:
                 problems.append(f"{team}: only {(d2 - d1).days - 1} rest days before {d2}")
+        for day, count in Counter(d for d, *_ in items).items():
+            if count > per_day:
+                problems.append(f"{team} plays {count} games on {day}")
         for key, side in (("max_home_run", True), ("max_away_run", False)):
             limit = rules.get(key)
             if limit is None:
                 continue
             run, touches_future = 0, False
-            for _, home, is_future in items:
+            for _, _, home, is_future in items:
                 if home == side:
                     run += 1
                     touches_future = touches_future or is_future
@@ -165,7 +176,10 @@ def check(old_path: Path, new_path: Path, league_path: Path, events_path: Path) 
                 1, len(spec.get("slots", []))) == 1:
             groups.append(tuple(members))
     for group in groups:
-        at_home = Counter(_day(f) for f in future if f["home"] in group)
+        # one ground: one home game of the group a match day (a kick-off, with several
+        # rounds a day)
+        at_home = Counter((_day(f), f["time"] if per_day > 1 else None) for f in future
+                          if f["home"] in group)
         for day, count in at_home.items():
             if count > 1:
                 problems.append(f"shared ground {group}: {count} at home on {day}")

@@ -138,7 +138,7 @@ def test_postponed_game_on_the_second_day(planned, tmp_path):
 def test_same_file_twice_changes_nothing(planned, tmp_path):
     folder = tmp_path / "season"
     shutil.copytree(planned, folder)
-    game = [f for f in fixtures(folder) if f["date"] == "2027-05-15"][0]
+    game = next(f for f in fixtures(folder) if f["date"] == "2027-05-15")
     events = events_file(tmp_path, game)
     args = ["replan", str(LEAGUE), "--season", str(folder), "--events", str(events)]
     assert runner.invoke(app, args, catch_exceptions=False).exit_code == 0

@@ -54,7 +54,17 @@ WATCHED = (
 
 @dataclass(frozen=True, slots=True)
 class Worsened:
-    """A fairness figure the change made worse (``team`` ``None`` for a league figure)."""
+    """A fairness figure the change made worse.
+
+    Parameters
+    ----------
+    label
+        The figure in plain words (``"fewest rest days"``).
+    before, after
+        Its value in the previous plan and in the re-plan.
+    team
+        The team, or ``None`` for a league figure.
+    """
 
     label: str
     before: float | int
@@ -70,10 +80,29 @@ class Worsened:
 class ReplanResult:
     """A re-planned season with what changed and how fair it is now.
 
-    ``fairness`` is measured over the new season (written to season.json and the report),
-    ``previous_fairness`` over the previous plan, ``played`` in date order; ``worsened`` lists
-    the figures that got worse: breaks, runs, rest and balance in date order, carry-over and
-    separation by round.
+    Parameters
+    ----------
+    season
+        The new season (``previous`` itself when there was nothing to change).
+    previous
+        The season as last published.
+    changes
+        Each changed or cancelled game, in date order.
+    repair
+        The repair model's result (fewest changes, proof, second-stage goals).
+    fairness
+        Figures over the new season (written to season.json and the report).
+    previous_fairness
+        Figures over the previous plan.
+    worsened
+        Figures that got worse: breaks, runs, rest and balance in date order, carry-over and
+        separation by round.
+    events
+        The events applied.
+    played
+        The figures in date order (:func:`played_order`): what the teams will live through.
+    league
+        The league re-planned.
     """
 
     season: Season
@@ -85,7 +114,6 @@ class ReplanResult:
     worsened: tuple[Worsened, ...]
     events: Events
     played: FairnessReport | None = None
-    """The figures in date order (:func:`played_order`): what the teams will live through."""
     league: League | None = None
 
     @property
@@ -118,6 +146,16 @@ def played_order(season: Season) -> Season:
     A postponed game keeps its round number in the season (its identity in calendars and
     exports), but breaks, runs and rest are felt in date order; this view numbers the rounds
     by date so that :func:`scheduler.fairness.compute_fairness` measures them that way.
+
+    Parameters
+    ----------
+    season
+        Any dated season.
+
+    Returns
+    -------
+    Season
+        The same games (undated ones left out) with rounds numbered in date order, no byes.
     """
     dated = [f for f in season.fixtures if f.date is not None]
     per_day = Counter((team, f.date) for f in dated for team in f.teams)
@@ -133,8 +171,22 @@ def played_order(season: Season) -> Season:
 
 def worsened_figures(before: FairnessReport, after: FairnessReport, *,
                      skip: tuple[str, ...] = (), teams: bool = True) -> tuple[Worsened, ...]:
-    """League figures and (with ``teams``) per-team least rest and breaks that got worse from
-    ``before`` (figures named in ``skip`` are not compared)."""
+    """The figures that got worse from ``before`` to ``after``.
+
+    Parameters
+    ----------
+    before, after
+        Fairness figures of the previous plan and of the re-plan.
+    skip
+        Names of league figures not to compare.
+    teams
+        Also compare each team's least rest and breaks.
+
+    Returns
+    -------
+    tuple of Worsened
+        League figures first, then per-team figures.
+    """
     out: list[Worsened] = []
     for name, label, larger_is_worse in WATCHED:
         if name in skip:
@@ -168,8 +220,18 @@ def _game(f: Fixture) -> str:
 
 
 def last_played_through(previous: Season) -> date | None:
-    """The latest ``played_through`` of the season's earlier re-plans (``None`` for a season
-    never re-planned): history up to it was published as played."""
+    """The latest ``played_through`` of the season's earlier re-plans.
+
+    Parameters
+    ----------
+    previous
+        The season as last published.
+
+    Returns
+    -------
+    date or None
+        History up to it was published as played; ``None`` for a season never re-planned.
+    """
     days = [r.played_through for r in previous.revisions if r.played_through is not None]
     return max(days) if days else None
 
@@ -333,13 +395,14 @@ def _check_moved(league: League, events: Events, history: list[Fixture],
             if (team, game.date) in unavailable:
                 raise _located(events, where, f"{team} is unavailable on "
                                f"{game.date.isoformat()}; the hand-moved game breaks that rule")
-            key = (team, game.date, game.start if league.calendar.rounds_per_day > 1 else None)
-            if key in seen:
+            sitting = (team, game.date,
+                       game.start if league.calendar.rounds_per_day > 1 else None)
+            if sitting in seen:
                 when = game.date.isoformat() + (
-                    f" at {game.start.strftime('%H:%M')}" if key[2] is not None else "")
+                    f" at {game.start.strftime('%H:%M')}" if sitting[2] is not None else "")
                 raise _located(events, where, f"{team} would play twice on {when} (also in "
-                               f"{seen[key]})")
-            seen[key] = where
+                               f"{seen[sitting]})")
+            seen[sitting] = where
             rest = rules.min_rest_days
             if rest is not None and team in last and (game.date - last[team]).days - 1 < rest:
                 raise _located(events, where, f"{team} last played on {last[team].isoformat()}; "
@@ -379,7 +442,20 @@ def _blame_moved(problem: RepairProblem, events: Events, limits: SolveLimits) ->
 
 
 def new_revision(previous: Season, events: Events) -> str:
-    """A 12-hex id of the previous revision and the events (sha256 of their repr)."""
+    """The id of the revision made from ``previous`` and ``events``.
+
+    Parameters
+    ----------
+    previous
+        The season as last published.
+    events
+        The events applied.
+
+    Returns
+    -------
+    str
+        12 hex digits of the sha256 of the previous revision and the events' repr.
+    """
     text = previous.revision + "|" + repr(replace(events, source=None))
     return hashlib.sha256(text.encode("utf-8")).hexdigest()[:12]
 
@@ -512,6 +588,9 @@ def replan_season(league: League, previous: Season, events: Events, *,
         return ReplanResult(previous, previous, (), result, before_fairness, before_fairness,
                             (), events, played_now, league)
     revision = new_revision(previous, events)
+    re_placed: tuple[tuple[str, str, date], ...] = tuple(
+        (f.home, f.away, f.date) for i in sorted(postponed_at)
+        if (f := previous.fixtures[i]).date is not None)
     earlier = previous.revisions or (Revision(previous.revision, None, 0, "first plan"),)
     summary = (f"re-planned after {pt.isoformat()}: {len(changes)} game(s) changed"
                + (" (fewest possible, proven)" if result.proven
@@ -522,9 +601,7 @@ def replan_season(league: League, previous: Season, events: Events, *,
         previous,
         fixtures=_sort(league, history + list(result.fixtures)),
         revision=revision,
-        revisions=(*earlier, Revision(revision, pt, len(changes), summary, tuple(
-            (previous.fixtures[i].home, previous.fixtures[i].away, previous.fixtures[i].date)
-            for i in sorted(postponed_at) if previous.fixtures[i].date is not None))),
+        revisions=(*earlier, Revision(revision, pt, len(changes), summary, re_placed)),
         notes=(*previous.notes, summary, *result.notes),
     )
     fairness = compute_fairness(season)

@@ -58,7 +58,19 @@ WEEKDAY_NAMES = ("Monday", "Tuesday", "Wednesday", "Thursday", "Friday", "Saturd
 
 @dataclass(frozen=True, slots=True)
 class Place:
-    """A venue, court and time slot (``slot_time`` ``None``: the league's kick-off time)."""
+    """A venue, court and time slot where a game can be played.
+
+    Parameters
+    ----------
+    venue
+        The venue's name (``None`` in a league without venues).
+    court
+        The court, pitch or table of the venue.
+    slot_time
+        The kick-off time (``None``: the league's kick-off time).
+    slot_label
+        The slot's label as the season writes it (``"19:30"``), ``None`` without slots.
+    """
 
     venue: str | None
     court: str | None
@@ -68,7 +80,19 @@ class Place:
 
 @dataclass(frozen=True, slots=True)
 class ForcedGame:
-    """A game the organizer already moved by hand: kept exactly as given."""
+    """A game the organizer already moved by hand: kept exactly as given.
+
+    Parameters
+    ----------
+    date
+        Its new match day.
+    home, away
+        The teams, home side first.
+    start
+        The local kick-off time.
+    court
+        The court, when the organizer named one.
+    """
 
     date: date
     home: str
@@ -81,10 +105,25 @@ class ForcedGame:
 class RepairProblem:
     """What the repair model needs.
 
-    ``future`` holds the previous plan's entry of every game still to be placed (a postponed
-    game keeps its planned, past date here); ``forced`` maps an index into ``future`` to its
-    hand-moved placement; ``unavailable`` and ``closed`` add to the league's rules from now on
-    (``closed`` court ``None`` = every court); ``postponed`` are indices into ``future``.
+    Parameters
+    ----------
+    league
+        The league; its rules and calendar hold for the re-plan.
+    played_through
+        The last day of history.
+    history
+        The games played (fixed; the starting state of every rule).
+    future
+        The previous plan's entry of every game still to be placed (a postponed game keeps its
+        planned, past date here).
+    postponed
+        Indices into ``future`` of the postponed games.
+    forced
+        Index into ``future`` -> its hand-moved placement.
+    unavailable
+        ``(team, date)`` pairs added to the league's rules from now on.
+    closed
+        ``(venue, court, date)`` closures (court ``None``: every court).
     """
 
     league: League
@@ -133,14 +172,30 @@ class GoalFigure:
 
 @dataclass(frozen=True)
 class RepairResult:
-    """The re-planned future games (same order as ``problem.future``) and how good they are.
+    """The re-planned future games and how good they are.
 
-    ``changed`` counts the games whose date, start, court or home side differ from the old
-    plan; ``proven`` says whether CP-SAT proved that no valid re-plan changes fewer
-    (``bound`` is its proven lower bound either way). ``on_reserve`` counts moved games placed
-    on reserve dates, ``breaks`` the breaks of the future part (date order, history included as
-    the starting state). ``seconds`` is the solvers' wall time, ``proof_seconds`` that of
-    the first stage, which proves the fewest changes (both for benchmarks only).
+    Parameters
+    ----------
+    fixtures
+        The future games, in the order of ``problem.future``.
+    changed
+        Games whose date, start, court or home side differ from the old plan.
+    proven
+        Whether CP-SAT proved that no valid re-plan changes fewer.
+    bound
+        CP-SAT's proven lower bound on ``changed``.
+    on_reserve
+        Moved games placed on reserve dates.
+    breaks
+        Breaks of the future part (date order, history as the starting state).
+    seconds
+        The solvers' wall time (for benchmarks only).
+    notes
+        Remarks for people (a second-stage goal that ran out of time).
+    proof_seconds
+        Wall time of the first stage, which proves the fewest changes (benchmarks only).
+    goals
+        The second stage's goals in order and the values reached (:class:`GoalFigure`).
     """
 
     fixtures: tuple[Fixture, ...]
@@ -186,8 +241,23 @@ def _places(league: League, per_day: int = 1) -> tuple[list[Place], dict[str, li
 
 
 def candidate_days(league: League, played_through: date, extra: Sequence[date] = ()) -> list[date]:
-    """Match days after ``played_through``: the calendar's match days, the reserve dates and
-    ``extra`` (dates of games already planned or moved there)."""
+    """Match days after ``played_through`` on which a re-plan may put games.
+
+    Parameters
+    ----------
+    league
+        The league (its calendar and reserve dates).
+    played_through
+        The last day of history.
+    extra
+        Dates of games already planned or moved there.
+
+    Returns
+    -------
+    list of date
+        The calendar's match days, the reserve dates and ``extra``, after ``played_through``,
+        in order.
+    """
     cal = league.calendar
     needed = 0
     if cal.end is None and not cal.dates:
@@ -202,7 +272,16 @@ def candidate_days(league: League, played_through: date, extra: Sequence[date] =
 
 
 class RepairModel:
-    """The CP-SAT model of one re-plan (see the module docstring)."""
+    """The CP-SAT model of one re-plan (see the module docstring).
+
+    Parameters
+    ----------
+    problem
+        What to re-plan.
+    explainable
+        Put every rule under an assumption literal (to name the clash when no re-plan
+        exists) instead of enforcing it.
+    """
 
     def __init__(self, problem: RepairProblem, *, explainable: bool = False) -> None:
         self.problem = problem
@@ -449,6 +528,20 @@ class RepairModel:
                         m.add(self.plays(team, s1) + self.plays(team, s2) <= 1)
 
     def plays(self, team: str, d: int) -> cp_model.LinearExpr:
+        """Whether ``team`` plays in sitting ``d``.
+
+        Parameters
+        ----------
+        team
+            A team of the league.
+        d
+            Index of a sitting (a match day, or a match day and kick-off time).
+
+        Returns
+        -------
+        LinearExpr
+            Its home plus away indicator (0 or 1).
+        """
         return self.home_on[team][d] + self.away_on[team][d]
 
     # --- rules ----------------------------------------------------------------------------
@@ -851,7 +944,18 @@ class RepairModel:
             raise InfeasibleError("the remaining games cannot all be placed", conflicts)
 
     def explain_infeasible(self, limits: SolveLimits) -> InfeasibleError:
-        """Name the rules that cannot hold together (an explainable model must be built)."""
+        """Name the rules that cannot hold together (an explainable model must be built).
+
+        Parameters
+        ----------
+        limits
+            CP-SAT limits of the solve under assumptions.
+
+        Returns
+        -------
+        InfeasibleError
+            The error to raise, listing the rules of the shrunk core.
+        """
         self.book.assume_all()
         solver = cp_model.CpSolver()
         configure(solver, limits)
@@ -882,7 +986,20 @@ class RepairModel:
 
 
 def is_feasible(problem: RepairProblem, limits: SolveLimits) -> bool:
-    """Whether some re-plan keeps every rule (a feasibility solve, no objective)."""
+    """Whether some re-plan keeps every rule (a feasibility solve, no objective).
+
+    Parameters
+    ----------
+    problem
+        What to re-plan.
+    limits
+        CP-SAT limits.
+
+    Returns
+    -------
+    bool
+        ``True`` when CP-SAT found a re-plan within the limits.
+    """
     try:
         model = RepairModel(problem)
         model.precheck()
@@ -894,8 +1011,21 @@ def is_feasible(problem: RepairProblem, limits: SolveLimits) -> bool:
 
 
 def relaxations(problem: RepairProblem, limits: SolveLimits) -> list[str]:
-    """The single relaxations, smallest first, under which a re-plan exists (tested by
-    re-solving): a later end by 1-4 weeks, one more weekday, or one rule lowered by one."""
+    """The single relaxations, smallest first, under which a re-plan exists.
+
+    Parameters
+    ----------
+    problem
+        A re-plan that has no solution.
+    limits
+        CP-SAT limits (each trial gets at most 5 deterministic seconds).
+
+    Returns
+    -------
+    list of str
+        Each relaxation that works, tested by re-solving: a later end by 1-4 weeks (the
+        smallest), one more weekday, or one rule lowered by one.
+    """
     league = problem.league
     cal, rules = league.calendar, league.rules
     found: list[str] = []

@@ -201,3 +201,32 @@ def test_hand_moved_game_in_history_that_did_not_happen(season_dir, tmp_path):
     refused_after_first_replan(season_dir, tmp_path, "2031-04-12", extra, (
         "moved[0].date: 2031-04-05 is on or before played_through 2031-04-12, but the season "
         "has no game",))
+
+
+def test_withdrawal_and_hand_move_repeated_in_a_grown_file(season_dir, tmp_path):
+    """A ``void_all`` withdrawal and a game moved by hand (with its planned date as ``from``)
+    stay in the file; the next re-plan neither cancels nor moves anything twice."""
+    first = fixtures(season_dir)
+    c = game_of(first, 9, avoid=("Old Sluice",))
+    events = tmp_path / "events.toml"
+    body = ('[[withdrawn]]\nteam = "Old Sluice"\npolicy = "void_all"\n\n'
+            f'[[moved]]\nhome = "{c["home"]}"\naway = "{c["away"]}"\nfrom = {c["date"]}\n'
+            'date = 2031-06-07\nstart = "18:30"\n\n')
+    write(events, "2031-03-22", body)
+    step(season_dir, tmp_path, events, "plan0")
+    after1 = fixtures(season_dir)
+    assert not [f for f in after1 if "Old Sluice" in (f["home"], f["away"])]
+    d = game_of(after1, 6)
+    body += (f'[[postponed]]\nhome = "{d["home"]}"\naway = "{d["away"]}"\n'
+             f'date = {d["date"]}\n')
+    write(events, "2031-04-05", body)
+    result = step(season_dir, tmp_path, events, "plan1")
+    after2 = fixtures(season_dir)
+    moved = [f for f in after2 if (f["home"], f["away"]) == (c["home"], c["away"])]
+    assert [(f["date"], f["time"]) for f in moved] == [("2031-06-07", "18:30")]
+    assert not [f for f in after2 if "Old Sluice" in (f["home"], f["away"])]
+    # only the new postponement (and what it forces) changed: nothing was cancelled again
+    assert "cancelled" not in result.output
+    assert [f for f in after1 if f["date"] <= "2031-04-05" and f is not d
+            and (f["home"], f["away"], f["date"]) != (d["home"], d["away"], d["date"])] == [
+        f for f in after2 if f["date"] <= "2031-04-05"]

@@ -51,6 +51,7 @@ from scheduler.calendar import days_needed, kickoff, match_days
 from scheduler.config.model import League
 from scheduler.errors import InfeasibleError, InputError
 from scheduler.interrupt import solve_interruptibly
+from scheduler.rules import RULES
 from scheduler.season import Fixture
 
 WEEKDAY_NAMES = ("Monday", "Tuesday", "Wednesday", "Thursday", "Friday", "Saturday", "Sunday")
@@ -289,6 +290,7 @@ class RepairModel:
         self.league = league
         self.per_day = max(1, league.calendar.rounds_per_day)
         self.model = cp_model.CpModel()
+        self.cp = self.model  # the name rules use (scheduler.rules.base.DateModelView)
         self.book = RuleBook(self.model)
         self.explainable = explainable
         pt = problem.played_through
@@ -342,13 +344,10 @@ class RepairModel:
             self.trailing[team] = (run, 0) if items and items[-1][2] else (0, run)
 
     # --- options --------------------------------------------------------------------------
-    def _blocked(self) -> tuple[set[tuple[str, date]], set[tuple[str, date]], set]:
-        rules = self.league.rules
-        away = {(td.team, d) for td in rules.unavailable for d in td.dates}
-        away |= set(self.problem.unavailable)
-        no_home = {(td.team, d) for td in rules.no_home_games for d in td.dates}
-        closed = set(self.problem.closed)
-        return away, no_home, closed
+    def _blocked(self) -> tuple[set[tuple[str, date]], set]:
+        """The events' unavailable days and closures (the league's own unavailable and
+        no-home days are constraints of their rule modules)."""
+        return set(self.problem.unavailable), set(self.problem.closed)
 
     def _place_closed(self, place: Place, day: date, closed: set) -> bool:
         return (place.venue, None, day) in closed or (place.venue, place.court, day) in closed
@@ -359,15 +358,10 @@ class RepairModel:
             return self.by_venue[venue]
         return list(range(len(self.places)))
 
-    def _too_soon(self, team: str, day: date) -> bool:
-        rest = self.league.rules.min_rest_days
-        last = self.last_played.get(team)
-        return rest is not None and last is not None and (day - last).days - 1 < rest
-
     def _build_options(self) -> None:
         """x[(g, d, swapped, p)] for every allowed day, side and place of every future game."""
         m = self.model
-        away_blocked, no_home, closed = self._blocked()
+        away_blocked, closed = self._blocked()
         self.options: list[list[tuple[int, bool, int, cp_model.IntVar]]] = []
         self.same: list[cp_model.IntVar | None] = []
         self.forced_place: dict[int, Place] = {}
@@ -391,10 +385,6 @@ class RepairModel:
                 for swapped in (False, True):
                     home, away = (old.away, old.home) if swapped else (old.home, old.away)
                     if (home, day) in away_blocked or (away, day) in away_blocked:
-                        continue
-                    if (home, day) in no_home:
-                        continue
-                    if self._too_soon(home, day) or self._too_soon(away, day):
                         continue
                     for p in self._home_places(home):
                         place = self.places[p]
@@ -551,18 +541,61 @@ class RepairModel:
             self.model.add(lit == 1)
         return lit
 
+    # the interface rules use (scheduler.rules.base.DateModelView)
+    def switch(self, statement: str) -> cp_model.IntVar:
+        """The literal that enforces ``statement``.
+
+        Parameters
+        ----------
+        statement
+            The rule in the organizer's words (it names the rule in a clash).
+
+        Returns
+        -------
+        IntVar
+            A Boolean, fixed true unless the model is built to explain a clash.
+        """
+        return self._rule(statement)
+
+    def home(self, team: str, d: int) -> cp_model.IntVar:
+        """Whether ``team`` plays at home in sitting ``d``.
+
+        Parameters
+        ----------
+        team
+            A team of the league.
+        d
+            Index of a sitting.
+
+        Returns
+        -------
+        IntVar
+            The Boolean.
+        """
+        return self.home_on[team][d]
+
+    def sittings_on(self, day: date) -> list[int]:
+        """The sittings on ``day``.
+
+        Parameters
+        ----------
+        day
+            A date.
+
+        Returns
+        -------
+        list of int
+            Their indices (empty when no game can be placed on ``day``).
+        """
+        return [s for s, (when, _) in enumerate(self.sittings) if when == day]
+
     def _build_rules(self) -> None:
         lg, rules, m = self.league, self.league.rules, self.model
         days = self.days
-        if rules.min_rest_days is not None:
-            lit = self._rule(f"at least {rules.min_rest_days} days of rest between two games "
-                             "of a team (min_rest_days)")
-            for i, d1 in enumerate(days):
-                for j in range(i + 1, len(days)):
-                    if (days[j] - d1).days - 1 >= rules.min_rest_days:
-                        break
-                    for team in self.teams:
-                        m.add(self.plays(team, i) + self.plays(team, j) <= 1).only_enforce_if(lit)
+        # rules that state their own date-model constraints (docs/rules.md)
+        for rule in RULES:
+            if rule.date_constraints and rule.is_on(lg):
+                rule.add_date_constraints(self)
         for value, home, word in ((rules.max_home_run, True, "home"),
                                   (rules.max_away_run, False, "away")):
             if value is None:
@@ -587,11 +620,6 @@ class RepairModel:
                         self.plays(team, e) for e in range(d))
                     m.add(before >= rules.no_breaks_first + 1).only_enforce_if(
                         [lit, self.brk[team][d]])
-        for group in lg.shared_ground_groups:
-            lit = self._rule("shared ground: at most one of " + ", ".join(group)
-                             + " at home on a match day")
-            for d in range(len(days)):
-                m.add(sum(self.home_on[t][d] for t in group) <= 1).only_enforce_if(lit)
         if lg.format.legs > 1:
             self._pair_home_counts()
             if rules.min_separation is not None:

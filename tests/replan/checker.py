@@ -16,8 +16,8 @@ file (plain TOML, :mod:`tomllib`) and lists every broken promise:
   and away games in date order no longer than ``max_home_run``/``max_away_run`` (a run lying
   wholly in history is not the re-plan's doing); teams sharing a one-pitch ground never both at
   home on one day; each venue court and kick-off used once a day; unavailable teams and closed
-  venues not used; hand-moved games exactly as given; in a home-and-away season each team hosts
-  each opponent as often as before.
+  venues not used; no home game on a team's ``no_home_games`` day; hand-moved games exactly
+  as given; in a home-and-away season each team hosts each opponent as often as before.
 
 The rules are read from the league file as its documentation (``templates/league.toml``)
 describes them; the date arithmetic is Python's :mod:`datetime` (proleptic Gregorian).
@@ -200,6 +200,11 @@ def check(old_path: Path, new_path: Path, league_path: Path, events_path: Path) 
         for f in future:
             if team in (f["home"], f["away"]) and _day(f) == day:
                 problems.append(f"{team} plays on {day} although unavailable")
+    for entry in rules.get("no_home_games", []):
+        days = _dates(entry["dates"])
+        for f in future:
+            if f["home"] == entry["team"] and _day(f) in days:
+                problems.append(f"{entry['team']} at home on {f['date']}, a day it cannot be")
     for c in events.get("closed", []):
         days = _dates(c["dates"])
         for f in future:

@@ -142,8 +142,8 @@ GOAL_LABELS: dict[str, str] = {
     "home_side": "games with the other team at home",
     "rest": "least rest of the re-planned games (days)",
     "breaks": "breaks",
-    "venue_balance": "most games of a team on one court",
-    "slot_balance": "most games of a team at one kick-off time",
+    "venue_balance": "largest court spread of a team",
+    "slot_balance": "largest kick-off time spread of a team",
     "earliest": "lateness of the moved games",
 }
 """Plain labels of the second stage's goals (:meth:`RepairModel.goals`)."""
@@ -771,12 +771,17 @@ class RepairModel:
             m.add(self.plays(team, j) == 0).only_enforce_if(guard(gap))
         return -sum(flag for _, flag in flags), flags
 
-    def _spread(self, label: str, key_of) -> cp_model.IntVar | None:
-        """The largest number of games any team plays on one court of a venue with several
-        courts (``label`` "court") or at one kick-off time of the venues with time slots
-        ("slot") over the season, history included; ``None`` when there are fewer than two
-        such courts or times (nothing to balance). ``key_of`` gives a place's court or time,
-        ``None`` for a place outside the balance."""
+    def _spread(self, label: str, key_of) -> tuple[cp_model.LinearExprT, cp_model.IntVar] | None:
+        """The spread of a team's games over the courts of the venues with several courts
+        (``label`` "court") or over the kick-off times of the venues with time slots ("slot"):
+        its most-used minus its least-used court or time, over the season, history included
+        (the fairness figures' court and kick-off time spread). ``key_of`` gives a place's
+        court or time, ``None`` for a place outside the balance.
+
+        Returns the expression to minimise (the largest spread of a team first, then the sum
+        of the teams' spreads) and the largest spread; ``None`` when there are fewer than two
+        such courts or times (nothing to balance).
+        """
         m = self.model
         keys = sorted({key_of(p) for p in self.places if key_of(p) is not None}, key=str)
         if len(keys) < 2:
@@ -795,12 +800,21 @@ class RepairModel:
                 key = key_of(place)
                 for team in old.teams:
                     counts.setdefault((team, key), []).append(lit)
-        top = m.new_int_var(0, len(self.problem.history) + len(self.options),
-                            f"most_games_of_a_team_on_one_{label}")
-        for team_key in sorted(counts, key=str):
-            if team_key[1] is not None:
-                m.add(top >= sum(counts[team_key]))
-        return top
+        games = len(self.problem.history) + len(self.options)
+        top = m.new_int_var(0, games, f"largest_{label}_spread_of_a_team")
+        spreads = []
+        for team in self.teams:
+            most = m.new_int_var(0, games, f"{team}_most_games_on_one_{label}")
+            least = m.new_int_var(0, games, f"{team}_fewest_games_on_one_{label}")
+            for key in keys:
+                used = sum(counts.get((team, key), []))
+                m.add(most >= used)
+                m.add(least <= used)
+            spread = m.new_int_var(0, games, f"{team}_{label}_spread")
+            m.add(spread == most - least)
+            m.add(top >= spread)
+            spreads.append(spread)
+        return (len(self.teams) * games + 1) * top + sum(spreads), top
 
     def goals(self) -> list[tuple[str, cp_model.LinearExprT]]:
         """The second stage's goals, most important first, each to be minimised.
@@ -832,13 +846,16 @@ class RepairModel:
         if weights.breaks > 0:
             weighted.append((weights.breaks, 0, "breaks", self.total_breaks))
         shared = {v.name for v in self.league.venues if len(v.courts) > 1}
+        self.spread_top: dict[str, cp_model.IntVar] = {}
         court = self._spread("court", lambda p: (p.venue, p.court) if p.venue in shared
                              else None)
         if court is not None and weights.venue_balance > 0:
-            weighted.append((weights.venue_balance, 1, "venue_balance", court))
+            weighted.append((weights.venue_balance, 1, "venue_balance", court[0]))
+            self.spread_top["venue_balance"] = court[1]
         slot = self._spread("slot", lambda p: p.slot_time)
         if slot is not None and weights.slot_balance > 0:
-            weighted.append((weights.slot_balance, 2, "slot_balance", slot))
+            weighted.append((weights.slot_balance, 2, "slot_balance", slot[0]))
+            self.spread_top["slot_balance"] = slot[1]
         out += [(name, expr) for _, _, name, expr in sorted(weighted, key=lambda w: (-w[0], w[1]))]
         late = [d * lit for g, opts in enumerate(self.options) if g not in self.problem.forced
                 for d, _, _, lit in opts if lit is not self.same[g] and d]
@@ -850,6 +867,8 @@ class RepairModel:
         if name == "rest":
             held = [v for v, flag in self.rest_flags if solver.value(flag)]
             return held[-1] if held else (self.league.rules.min_rest_days or 0)
+        if name in self.spread_top:
+            return int(solver.value(self.spread_top[name]))
         return int(solver.value(expr))
 
     # --- solving --------------------------------------------------------------------------

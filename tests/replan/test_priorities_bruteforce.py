@@ -159,3 +159,51 @@ def test_breaks_left_out_when_the_league_gives_them_no_weight():
     best = min(keys)
     assert (result.repair.changed, found[0], found[1], -found[2]) == best[:4]
     assert "breaks" not in {goal.name for goal in result.repair.goals}
+
+
+def test_kick_off_time_balance_decides_the_slot():
+    """One court, three kick-off times, every Tuesday full: a postponed game can only go to the
+    reserve Tuesday, at one of three times. Each team's kick-off time spread (its most-used
+    minus its least-used time over the season; the fairness figures' definition) is counted here
+    for every choice; the re-plan must take the choice with the smallest largest spread, and
+    the choices must differ in it."""
+    names = TEAMS
+    lg = parse_league({
+        "league": {"name": "Evening Test League", "season": "2031",
+                   "timezone": "Europe/London", "seed": 1, "solve_seconds": 2},
+        "format": {"legs": 1, "home_meaning": "side"},
+        "calendar": {"start": date(2031, 3, 4), "end": date(2031, 4, 8), "weekdays": ["tue"],
+                     "kickoff": "18:00", "game_minutes": 70,
+                     "reserve_dates": [date(2031, 4, 8)]},
+        "venues": [{"name": "Fen Hall", "courts": ["Court"],
+                    "slots": ["18:00", "19:15", "20:30"]}],
+        "teams": [{"name": t} for t in names],
+        "priorities": {"slot_balance": 2, "breaks": 3},
+    })
+    previous = plan_season(lg).season
+    first = date(2031, 3, 4)
+    postponed = next(f for f in previous.fixtures if f.date == first)
+    events = parse_events({"league": lg.name, "season": lg.season, "played_through": first,
+                           "postponed": [{"home": postponed.home, "away": postponed.away}]},
+                          lg)
+    result = replan_season(lg, previous, events, time_limit=5)
+
+    def largest_spread(games):
+        counts = {t: {clock: 0 for clock in ("18:00", "19:15", "20:30")} for t in names}
+        for _, clock, home, away in games:
+            counts[home][clock] += 1
+            counts[away][clock] += 1
+        return max(max(c.values()) - min(c.values()) for c in counts.values())
+
+    others = [(f.date, f.start.strftime("%H:%M"), f.home, f.away) for f in previous.fixtures
+              if f is not postponed]
+    spreads = {clock: largest_spread([*others, (date(2031, 4, 8), clock, postponed.home,
+                                                postponed.away)])
+               for clock in ("18:00", "19:15", "20:30")}
+    moved = next(f for f in result.season.fixtures if f.pair == postponed.pair)
+    assert moved.date == date(2031, 4, 8) and moved.home == postponed.home
+    assert result.repair.changed == 1
+    assert spreads[moved.start.strftime("%H:%M")] == min(spreads.values())
+    assert len(set(spreads.values())) > 1  # the kick-off time mattered
+    shown = {goal.name: goal.value for goal in result.repair.goals}
+    assert shown["slot_balance"] == min(spreads.values())

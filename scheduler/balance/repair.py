@@ -10,15 +10,20 @@ continued from history), ``no_breaks_first``/``no_breaks_last``, shared grounds,
 once per day (venue capacity), unavailability and closures, and ``min_separation`` counted in
 the season's match days between two meetings of a pair. In a home-and-away season each pair
 keeps its number of home games per team (a swap of home and away is possible only as a swap of
-both meetings).
+both meetings). Rest days, the league's unavailable and no-home days and shared grounds come
+from their rule modules (``add_date_constraints`` through the interface
+:class:`scheduler.rules.base.DateModelView`, which this model provides); the others are stated
+here.
 
 This is the *minimal perturbation problem* of timetabling (Barták, Müller & Rudová, "A new
 approach to modeling and solving minimal perturbation problems", CSCLP 2003, LNCS 3010, 2004;
 from memory): among the valid re-plans, find one that differs least from the previous plan. A
 Boolean "differs from the old plan" per future game (date, start, court or home side) is
-minimised first and CP-SAT proves the minimum (status OPTIMAL) or reports its bound. A second
-solve keeps that minimum and prefers reserve dates for the games that must move, then the
-fewest breaks, then the earliest dates for the moved games. The previous plan is the search hint.
+minimised first and CP-SAT proves the minimum (status OPTIMAL) or reports its bound. The second
+stage keeps that minimum and improves, one goal after another (lexicographically), the reserve
+dates for the games that must move, the home sides kept, the least rest, the league's own
+priorities in the order of their weights (breaks, court balance, kick-off time balance) and last
+the earliest dates (:meth:`RepairModel.goals`). The previous plan is the search hint.
 
 When the rules cannot hold, the clash is named (a game with no possible day left, a team with
 more games than free days, or the rules found by the assumption core of

@@ -777,15 +777,16 @@ class RepairModel:
         return -sum(flag for _, flag in flags), flags
 
     def _spread(self, label: str, key_of) -> tuple[cp_model.LinearExprT, cp_model.IntVar] | None:
-        """The spread of a team's games over the courts of the venues with several courts
-        (``label`` "court") or over the kick-off times of the venues with time slots ("slot"):
-        its most-used minus its least-used court or time, over the season, history included
-        (the fairness figures' court and kick-off time spread). ``key_of`` gives a place's
-        court or time, ``None`` for a place outside the balance.
+        """The spread of a team's games over the courts of each venue with several courts
+        (``label`` "court", ``key_of`` giving ``(venue, court)``) or over the kick-off times of
+        the venues with time slots ("slot"): its most-used minus its least-used court of one
+        venue, or kick-off time, over the season, history included (the fairness figures'
+        court and kick-off time spread). ``key_of`` gives ``None`` for a place outside the
+        balance.
 
         Returns the expression to minimise (the largest spread of a team first, then the sum
-        of the teams' spreads) and the largest spread; ``None`` when there are fewer than two
-        such courts or times (nothing to balance).
+        of the spreads) and the largest spread; ``None`` when there are fewer than two such
+        courts or times (nothing to balance).
         """
         m = self.model
         keys = sorted({key_of(p) for p in self.places if key_of(p) is not None}, key=str)
@@ -807,19 +808,27 @@ class RepairModel:
                     counts.setdefault((team, key), []).append(lit)
         games = len(self.problem.history) + len(self.options)
         top = m.new_int_var(0, games, f"largest_{label}_spread_of_a_team")
+        # courts are compared within their venue (as the fairness figures do), kick-off
+        # times across the league
+        groups: dict[object, list[object]] = {}
+        for key in keys:
+            groups.setdefault(key[0] if label == "court" else None, []).append(key)
         spreads = []
         for team in self.teams:
-            most = m.new_int_var(0, games, f"{team}_most_games_on_one_{label}")
-            least = m.new_int_var(0, games, f"{team}_fewest_games_on_one_{label}")
-            for key in keys:
-                used = sum(counts.get((team, key), []))
-                m.add(most >= used)
-                m.add(least <= used)
-            spread = m.new_int_var(0, games, f"{team}_{label}_spread")
-            m.add(spread == most - least)
-            m.add(top >= spread)
-            spreads.append(spread)
-        return (len(self.teams) * games + 1) * top + sum(spreads), top
+            for g, members in enumerate(groups.values()):
+                if len(members) < 2:
+                    continue
+                most = m.new_int_var(0, games, f"{team}_most_games_on_one_{label}_group{g}")
+                least = m.new_int_var(0, games, f"{team}_fewest_games_on_one_{label}_group{g}")
+                for key in members:
+                    used = sum(counts.get((team, key), []))
+                    m.add(most >= used)
+                    m.add(least <= used)
+                spread = m.new_int_var(0, games, f"{team}_{label}_spread_group{g}")
+                m.add(spread == most - least)
+                m.add(top >= spread)
+                spreads.append(spread)
+        return (len(spreads) * games + 1) * top + sum(spreads), top
 
     def goals(self) -> list[tuple[str, cp_model.LinearExprT]]:
         """The second stage's goals, most important first, each to be minimised.

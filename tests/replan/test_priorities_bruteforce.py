@@ -207,3 +207,5 @@ def test_kick_off_time_balance_decides_the_slot():
     assert len(set(spreads.values())) > 1  # the kick-off time mattered
     shown = {goal.name: goal.value for goal in result.repair.goals}
     assert shown["slot_balance"] == min(spreads.values())
+    # the same figure as the fairness module's kick-off time spread of the new season
+    assert result.fairness.slot_spread_max == shown["slot_balance"]

@@ -93,3 +93,6 @@ def test_rest_is_checked_in_date_order_after_a_replan():
     assert moved.date > date(2031, 3, 29)
     rest = next(c for c in check_rules(league, result.season) if c.rule == "rest_days")
     assert rest.kept, rest.violations
+    # the court balance goal (Gull Lane has two courts) reports the fairness figure's value
+    shown = {goal.name: goal.value for goal in result.repair.goals}
+    assert shown["venue_balance"] == result.fairness.court_spread_max

@@ -557,12 +557,19 @@ def replan(
         raise InputError(f"--time-limit must be a positive number of seconds, got {time_limit}")
     result = load_replan(config, season_dir, events, time_limit=time_limit)
     assert result.league is not None
+    if result.nothing_to_change:
+        out.print(f"nothing to change: the season in {season_dir} already agrees with "
+                  f"{events} (revision {result.season.revision}); nothing written")
+        return
     written = write_replan(result, season_dir, league=result.league, config_path=config)
     repair = result.repair
     proof = ("the fewest possible (proven)" if repair.proven
              else f"not proven fewest: at least {repair.bound} are needed")
     out.print(f"[bold]{len(result.changes)}[/bold] game(s) changed; {repair.changed} re-planned "
               f"game(s) differ from the old plan, {proof}")
+    if repair.goals:
+        out.print("then, with that many changes: " + "; ".join(
+            _plain(str(goal)) for goal in repair.goals))
     for change in result.changes:
         old, new = change.old, change.new
         before = f"{old.date} {old.start.strftime('%H:%M') if old.start else ''} {old.court or ''}"

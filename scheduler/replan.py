@@ -13,8 +13,9 @@ the previous plan's figures. See docs/replanning.md.
 from __future__ import annotations
 
 import hashlib
+from collections import Counter
 from dataclasses import dataclass, replace
-from datetime import date
+from datetime import date, time
 from pathlib import Path
 
 from scheduler.balance.repair import (
@@ -53,7 +54,17 @@ WATCHED = (
 
 @dataclass(frozen=True, slots=True)
 class Worsened:
-    """A fairness figure the change made worse (``team`` ``None`` for a league figure)."""
+    """A fairness figure the change made worse.
+
+    Parameters
+    ----------
+    label
+        The figure in plain words (``"fewest rest days"``).
+    before, after
+        Its value in the previous plan and in the re-plan.
+    team
+        The team, or ``None`` for a league figure.
+    """
 
     label: str
     before: float | int
@@ -69,10 +80,29 @@ class Worsened:
 class ReplanResult:
     """A re-planned season with what changed and how fair it is now.
 
-    ``fairness`` is measured over the new season (written to season.json and the report),
-    ``previous_fairness`` over the previous plan, ``played`` in date order; ``worsened`` lists
-    the figures that got worse: breaks, runs, rest and balance in date order, carry-over and
-    separation by round.
+    Parameters
+    ----------
+    season
+        The new season (``previous`` itself when there was nothing to change).
+    previous
+        The season as last published.
+    changes
+        Each changed or cancelled game, in date order.
+    repair
+        The repair model's result (fewest changes, proof, second-stage goals).
+    fairness
+        Figures over the new season (written to season.json and the report).
+    previous_fairness
+        Figures over the previous plan.
+    worsened
+        Figures that got worse: breaks, runs, rest and balance in date order, carry-over and
+        separation by round.
+    events
+        The events applied.
+    played
+        The figures in date order (:func:`played_order`): what the teams will live through.
+    league
+        The league re-planned.
     """
 
     season: Season
@@ -84,32 +114,79 @@ class ReplanResult:
     worsened: tuple[Worsened, ...]
     events: Events
     played: FairnessReport | None = None
-    """The figures in date order (:func:`played_order`): what the teams will live through."""
     league: League | None = None
 
     @property
     def team_counts(self) -> list[tuple[str, int]]:
+        """Changed games per team, most first (as in ``changes.csv``).
+
+        Returns
+        -------
+        list of (str, int)
+            Team name and its number of changed games.
+        """
         return team_counts(self.changes)
+
+    @property
+    def nothing_to_change(self) -> bool:
+        """Whether the events change no game: the season stands and nothing is written.
+
+        Returns
+        -------
+        bool
+            ``True`` when :attr:`changes` is empty (``season`` is then ``previous``).
+        """
+        return not self.changes
 
 
 def played_order(season: Season) -> Season:
-    """The season as it will be played: one round per match date, in date order.
+    """The season as it will be played: one round per match date, in date order (one round
+    per kick-off when a team plays more than once on a day).
 
     A postponed game keeps its round number in the season (its identity in calendars and
     exports), but breaks, runs and rest are felt in date order; this view numbers the rounds
     by date so that :func:`scheduler.fairness.compute_fairness` measures them that way.
+
+    Parameters
+    ----------
+    season
+        Any dated season.
+
+    Returns
+    -------
+    Season
+        The same games (undated ones left out) with rounds numbered in date order, no byes.
     """
-    dates = sorted({f.date for f in season.fixtures if f.date is not None})
-    rank = {d: i + 1 for i, d in enumerate(dates)}
-    fixtures = tuple(replace(f, round=rank[f.date]) for f in season.fixtures
-                     if f.date is not None)
+    dated = [f for f in season.fixtures if f.date is not None]
+    per_day = Counter((team, f.date) for f in dated for team in f.teams)
+    if per_day and max(per_day.values()) > 1:
+        # several rounds on one match day: one round per kick-off
+        keys = [(f.date, f.start.timestamp() if f.start else 0.0) for f in dated]
+    else:
+        keys = [(f.date, 0.0) for f in dated]
+    rank = {key: i + 1 for i, key in enumerate(sorted(set(keys)))}
+    fixtures = tuple(replace(f, round=rank[key]) for f, key in zip(dated, keys, strict=True))
     return replace(season, fixtures=fixtures, byes={})
 
 
 def worsened_figures(before: FairnessReport, after: FairnessReport, *,
                      skip: tuple[str, ...] = (), teams: bool = True) -> tuple[Worsened, ...]:
-    """League figures and (with ``teams``) per-team least rest and breaks that got worse from
-    ``before`` (figures named in ``skip`` are not compared)."""
+    """The figures that got worse from ``before`` to ``after``.
+
+    Parameters
+    ----------
+    before, after
+        Fairness figures of the previous plan and of the re-plan.
+    skip
+        Names of league figures not to compare.
+    teams
+        Also compare each team's least rest and breaks.
+
+    Returns
+    -------
+    tuple of Worsened
+        League figures first, then per-team figures.
+    """
     out: list[Worsened] = []
     for name, label, larger_is_worse in WATCHED:
         if name in skip:
@@ -142,10 +219,59 @@ def _game(f: Fixture) -> str:
     return f"{f.home} v {f.away}" + (f" on {f.date.isoformat()}" if f.date else "")
 
 
+def last_played_through(previous: Season) -> date | None:
+    """The latest ``played_through`` of the season's earlier re-plans.
+
+    Parameters
+    ----------
+    previous
+        The season as last published.
+
+    Returns
+    -------
+    date or None
+        History up to it was published as played; ``None`` for a season never re-planned.
+    """
+    days = [r.played_through for r in previous.revisions if r.played_through is not None]
+    return max(days) if days else None
+
+
+def _applied_postponements(previous: Season, events: Events) -> set[int]:
+    """Indices into ``events.postponed`` of entries an earlier re-plan already applied.
+
+    Each re-plan records the games it re-placed (:attr:`Revision.postponed`). An entry with a
+    date matches the record of that game on that planned date; an entry without a date then
+    matches the earliest unused record of the same home and away team. Each record is used once.
+    """
+    records = [game for r in previous.revisions for game in r.postponed]
+    used: set[int] = set()
+    applied: set[int] = set()
+    for dated in (True, False):
+        for i, p in enumerate(events.postponed):
+            if (p.date is not None) != dated:
+                continue
+            for k, (home, away, planned) in enumerate(records):
+                if k not in used and (home, away) == (p.home, p.away) and (
+                        p.date is None or p.date == planned):
+                    used.add(k)
+                    applied.add(i)
+                    break
+    return applied
+
+
 def _find_postponed(old: Season, events: Events) -> set[int]:
+    """Indices into ``old.fixtures`` of the games newly postponed by ``events``.
+
+    Entries already applied by an earlier re-plan are skipped. A new postponement must name a
+    game planned after the last re-plan's ``played_through`` and on or before this one.
+    """
     pt = events.played_through
+    before = last_played_through(old)
+    applied = _applied_postponements(old, events)
     chosen: set[int] = set()
-    for p in events.postponed:
+    for index, p in enumerate(events.postponed):
+        if index in applied:
+            continue
         same = [i for i, f in enumerate(old.fixtures) if (f.home, f.away) == (p.home, p.away)]
         if p.date is not None:
             same = [i for i in same if old.fixtures[i].date == p.date]
@@ -164,6 +290,15 @@ def _find_postponed(old: Season, events: Events) -> set[int]:
                            f"{p.home} v {p.away} is planned after played_through "
                            f"{pt.isoformat()} ({dates}); only a game that should already have "
                            "been played can be postponed")
+        if before is not None:
+            played = [i for i in past if old.fixtures[i].date <= before]  # type: ignore[operator]
+            past = [i for i in past if i not in played]
+            if not past:
+                raise _located(events, p.where,
+                               f"{_game(old.fixtures[played[0]])} is history: the season "
+                               f"folder was re-planned with played_through "
+                               f"{before.isoformat()}, so this game was published as played "
+                               "and cannot be postponed now")
         if len(past) > 1:
             dates = ", ".join(old.fixtures[i].date.isoformat() for i in past)  # type: ignore[union-attr]
             raise _located(events, p.where,
@@ -175,11 +310,37 @@ def _find_postponed(old: Season, events: Events) -> set[int]:
     return chosen
 
 
+def _check_moved_history(old: Season, events: Events) -> None:
+    """A hand-moved game dated on or before ``played_through`` is history: it must be in the
+    season as given (a move applied by an earlier re-plan), or lie before the last re-plan's
+    ``played_through`` (published as history then; it may have been postponed since)."""
+    pt, before = events.played_through, last_played_through(old)
+    for m in events.moved:
+        if m.date > pt:
+            continue
+        if any(f.pair == frozenset((m.home, m.away)) and f.date == m.date
+               and f.start is not None and f.start.time() == m.start
+               and (m.court is None or f.court == m.court) for f in old.fixtures):
+            continue
+        if before is not None and m.date <= before:
+            continue
+        raise _located(events, f"{m.where}.date",
+                       f"{m.date.isoformat()} is on or before played_through {pt.isoformat()}, "
+                       f"but the season has no game {m.home} v {m.away} there at "
+                       f"{m.start.strftime('%H:%M')}; history cannot be changed")
+
+
 def _find_moved(future: list[Fixture], events: Events) -> dict[int, ForcedGame]:
     forced: dict[int, ForcedGame] = {}
     for m in events.moved:
+        if m.date <= events.played_through:
+            continue  # history (checked by _check_moved_history)
         same = [i for i, f in enumerate(future) if f.pair == frozenset((m.home, m.away))]
-        if m.planned_date is not None:
+        there = [i for i in same if future[i].date == m.date and future[i].start is not None
+                 and future[i].start.time() == m.start]  # type: ignore[union-attr]
+        if len(there) == 1:
+            same = there  # moved there by an earlier re-plan of the same events file
+        elif m.planned_date is not None:
             same = [i for i in same if future[i].date == m.planned_date]
         if not same:
             names = [_game(f) for f in future]
@@ -210,7 +371,7 @@ def _check_moved(league: League, events: Events, history: list[Fixture],
             if f.date is not None and (team not in last or f.date > last[team]):
                 last[team] = f.date
     by_where = {m.home + "\x1f" + m.away: m.where for m in events.moved}
-    seen: dict[tuple[str, date], str] = {}
+    seen: dict[tuple[str, date, time | None], str] = {}
     hosting: dict[tuple[object, ...], str] = {}
     groups = league.shared_ground_groups
     for _i, game in sorted(forced.items()):
@@ -234,10 +395,14 @@ def _check_moved(league: League, events: Events, history: list[Fixture],
             if (team, game.date) in unavailable:
                 raise _located(events, where, f"{team} is unavailable on "
                                f"{game.date.isoformat()}; the hand-moved game breaks that rule")
-            if (team, game.date) in seen:
-                raise _located(events, where, f"{team} would play twice on "
-                               f"{game.date.isoformat()} (also in {seen[(team, game.date)]})")
-            seen[(team, game.date)] = where
+            sitting = (team, game.date,
+                       game.start if league.calendar.rounds_per_day > 1 else None)
+            if sitting in seen:
+                when = game.date.isoformat() + (
+                    f" at {game.start.strftime('%H:%M')}" if sitting[2] is not None else "")
+                raise _located(events, where, f"{team} would play twice on {when} (also in "
+                               f"{seen[sitting]})")
+            seen[sitting] = where
             rest = rules.min_rest_days
             if rest is not None and team in last and (game.date - last[team]).days - 1 < rest:
                 raise _located(events, where, f"{team} last played on {last[team].isoformat()}; "
@@ -277,7 +442,20 @@ def _blame_moved(problem: RepairProblem, events: Events, limits: SolveLimits) ->
 
 
 def new_revision(previous: Season, events: Events) -> str:
-    """A 12-hex id of the previous revision and the events (sha256 of their repr)."""
+    """The id of the revision made from ``previous`` and ``events``.
+
+    Parameters
+    ----------
+    previous
+        The season as last published.
+    events
+        The events applied.
+
+    Returns
+    -------
+    str
+        12 hex digits of the sha256 of the previous revision and the events' repr.
+    """
     text = previous.revision + "|" + repr(replace(events, source=None))
     return hashlib.sha256(text.encode("utf-8")).hexdigest()[:12]
 
@@ -352,7 +530,15 @@ def replan_season(league: League, previous: Season, events: Events, *,
             f"of the season ({max(dates).isoformat()}); nothing is left to re-plan",
             location=f"{where}: played_through")
     pt = events.played_through
+    before = last_played_through(previous)
+    if before is not None and pt < before:
+        raise InputError(
+            f"played_through {pt.isoformat()} is before {before.isoformat()}, the "
+            "played_through of the season folder's last re-plan; games published as played "
+            "cannot become unplayed (keep played_through or move it forward)",
+            location=f"{where}: played_through")
     postponed_at = _find_postponed(previous, events)
+    _check_moved_history(previous, events)
     void = {w.team for w in events.withdrawn if w.policy == "void_all"}
     out = {w.team for w in events.withdrawn}
     history: list[Fixture] = []
@@ -393,7 +579,18 @@ def replan_season(league: League, previous: Season, events: Events, *,
                if old != new]
     changes += [GameChange(f, None) for f in cancelled]
     changes.sort(key=lambda c: ((c.new or c.old).date or date.min, c.old.round, c.old.home))
+    before_fairness = compute_fairness(previous)
+    if not changes:
+        # nothing new in the events (or nothing that needs a change): the published season
+        # stands as it is, and nothing is written (docs/replanning.md, "A season lived week
+        # by week")
+        played_now = compute_fairness(played_order(previous))
+        return ReplanResult(previous, previous, (), result, before_fairness, before_fairness,
+                            (), events, played_now, league)
     revision = new_revision(previous, events)
+    re_placed: tuple[tuple[str, str, date], ...] = tuple(
+        (f.home, f.away, f.date) for i in sorted(postponed_at)
+        if (f := previous.fixtures[i]).date is not None)
     earlier = previous.revisions or (Revision(previous.revision, None, 0, "first plan"),)
     summary = (f"re-planned after {pt.isoformat()}: {len(changes)} game(s) changed"
                + (" (fewest possible, proven)" if result.proven
@@ -404,18 +601,18 @@ def replan_season(league: League, previous: Season, events: Events, *,
         previous,
         fixtures=_sort(league, history + list(result.fixtures)),
         revision=revision,
-        revisions=(*earlier, Revision(revision, pt, len(changes), summary)),
+        revisions=(*earlier, Revision(revision, pt, len(changes), summary, re_placed)),
         notes=(*previous.notes, summary, *result.notes),
     )
     fairness = compute_fairness(season)
-    before = compute_fairness(previous)
+    before_figures = before_fairness
     played, played_before = (compute_fairness(played_order(s)) for s in (season, previous))
     worse = worsened_figures(played_before, played,
                              skip=("carry_over_value", "separation_min"))
-    worse += worsened_figures(before, fairness, skip=tuple(
+    worse += worsened_figures(before_figures, fairness, skip=tuple(
         name for name, *_ in WATCHED if name not in ("carry_over_value", "separation_min")),
         teams=False)
-    return ReplanResult(season, previous, tuple(changes), result, fairness, before,
+    return ReplanResult(season, previous, tuple(changes), result, fairness, before_figures,
                         worse, events, played, league)
 
 
@@ -476,7 +673,9 @@ def write_replan(result: ReplanResult, season_dir: str | Path, *, league: League
                  config_path: str | Path | None = None) -> list[Path]:
     """Write the re-planned season into ``season_dir`` (the folder it came from), its
     ``changes.csv`` and the report's list of changes included, as one unit (the previous
-    season stays whole until the new one is swapped in). Returns the paths written.
+    season stays whole until the new one is swapped in). Returns the paths written; when the
+    events change nothing (:attr:`ReplanResult.nothing_to_change`) nothing is written and the
+    folder stays byte-identical.
 
     Parameters
     ----------
@@ -492,7 +691,8 @@ def write_replan(result: ReplanResult, season_dir: str | Path, *, league: League
     Returns
     -------
     list of Path
-        The paths written (:func:`scheduler.export.write_season_outputs`).
+        The paths written (:func:`scheduler.export.write_season_outputs`); empty when there
+        was nothing to change.
 
     Raises
     ------
@@ -511,6 +711,8 @@ def write_replan(result: ReplanResult, season_dir: str | Path, *, league: League
     """
     from scheduler.export import write_season_outputs
 
+    if result.nothing_to_change:
+        return []
     return write_season_outputs(
         result.season, result.fairness, season_dir, config_path=config_path,
         game_minutes=league.calendar.game_minutes, side_labels=league.format.grid_labels,

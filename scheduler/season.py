@@ -125,12 +125,17 @@ class Revision:
         version before.
     note : str, optional
         A one-line summary for people.
+    postponed : tuple of tuple of (str, str, datetime.date), optional
+        The games this version re-placed after a postponement, as ``(home, away, planned
+        date)``, so that a later re-plan with the same events file knows them as already
+        applied.
     """
 
     revision: str
     played_through: date | None = None
     changed: int = 0
     note: str = ""
+    postponed: tuple[tuple[str, str, date], ...] = ()
 
 
 @dataclass(frozen=True, slots=True)

@@ -166,11 +166,26 @@ def _revisions(data: dict) -> tuple[Revision, ...]:
         except ValueError as exc:
             raise InputError(f"not an ISO date: {day!r}", location=f"{where}.played_through"
                              ) from exc
+        postponed = []
+        for j, game in enumerate(_need(item, "postponed", list, where, optional=True,
+                                       default=[])):
+            spot = f"{where}.postponed[{j}]"
+            if not isinstance(game, dict):
+                raise InputError("a postponed game must be an object", location=spot)
+            text = _need(game, "date", str, spot)
+            try:
+                planned = date.fromisoformat(text)
+            except ValueError as exc:
+                raise InputError(f"not an ISO date: {text!r}", location=f"{spot}.date"
+                                 ) from exc
+            postponed.append((_need(game, "home", str, spot), _need(game, "away", str, spot),
+                              planned))
         out.append(Revision(
             revision=_need(item, "revision", str, where),
             played_through=through,
             changed=_need(item, "changed", int, where, optional=True, default=0),
             note=_need(item, "note", str, where, optional=True, default=""),
+            postponed=tuple(postponed),
         ))
     return tuple(out)
 

@@ -10,15 +10,20 @@ continued from history), ``no_breaks_first``/``no_breaks_last``, shared grounds,
 once per day (venue capacity), unavailability and closures, and ``min_separation`` counted in
 the season's match days between two meetings of a pair. In a home-and-away season each pair
 keeps its number of home games per team (a swap of home and away is possible only as a swap of
-both meetings).
+both meetings). Rest days, the league's unavailable and no-home days and shared grounds come
+from their rule modules (``add_date_constraints`` through the interface
+:class:`scheduler.rules.base.DateModelView`, which this model provides); the others are stated
+here.
 
 This is the *minimal perturbation problem* of timetabling (Barták, Müller & Rudová, "A new
 approach to modeling and solving minimal perturbation problems", CSCLP 2003, LNCS 3010, 2004;
 from memory): among the valid re-plans, find one that differs least from the previous plan. A
 Boolean "differs from the old plan" per future game (date, start, court or home side) is
-minimised first and CP-SAT proves the minimum (status OPTIMAL) or reports its bound. A second
-solve keeps that minimum and prefers reserve dates for the games that must move, then the
-fewest breaks, then the earliest dates for the moved games. The previous plan is the search hint.
+minimised first and CP-SAT proves the minimum (status OPTIMAL) or reports its bound. The second
+stage keeps that minimum and improves, one goal after another (lexicographically), the reserve
+dates for the games that must move, the home sides kept, the least rest, the league's own
+priorities in the order of their weights (breaks, court balance, kick-off time balance) and last
+the earliest dates (:meth:`RepairModel.goals`). The previous plan is the search hint.
 
 When the rules cannot hold, the clash is named (a game with no possible day left, a team with
 more games than free days, or the rules found by the assumption core of
@@ -28,7 +33,11 @@ weekday, one rule lowered by one) are tested by re-solving; the ones that work a
 Determinism: one worker, a fixed seed, a deterministic time limit (wall clock only as a safety
 net), options and variables built in sorted order.
 
-Only one round per match day is supported (``calendar.rounds_per_day = 1``).
+With several rounds on one match day (``calendar.rounds_per_day > 1``) games are placed on
+*sittings*: a match day and a kick-off time (the venues' time slots, or ``kickoff + j *
+game_minutes`` for a venue without slots, as the first plan does). A team plays at most once a
+sitting, at most ``rounds_per_day`` times a day and never in two games that overlap; runs and
+breaks follow the sittings in time order, and two games on one day count 0 rest days.
 """
 
 from __future__ import annotations
@@ -36,7 +45,7 @@ from __future__ import annotations
 import itertools
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, field, replace
-from datetime import date, time, timedelta
+from datetime import date, datetime, time, timedelta
 from typing import Any
 
 from ortools.sat.python import cp_model
@@ -47,6 +56,7 @@ from scheduler.calendar import days_needed, kickoff, match_days
 from scheduler.config.model import League
 from scheduler.errors import InfeasibleError, InputError
 from scheduler.interrupt import solve_interruptibly
+from scheduler.rules import RULES
 from scheduler.season import Fixture
 
 WEEKDAY_NAMES = ("Monday", "Tuesday", "Wednesday", "Thursday", "Friday", "Saturday", "Sunday")
@@ -54,7 +64,19 @@ WEEKDAY_NAMES = ("Monday", "Tuesday", "Wednesday", "Thursday", "Friday", "Saturd
 
 @dataclass(frozen=True, slots=True)
 class Place:
-    """A venue, court and time slot (``slot_time`` ``None``: the league's kick-off time)."""
+    """A venue, court and time slot where a game can be played.
+
+    Parameters
+    ----------
+    venue
+        The venue's name (``None`` in a league without venues).
+    court
+        The court, pitch or table of the venue.
+    slot_time
+        The kick-off time (``None``: the league's kick-off time).
+    slot_label
+        The slot's label as the season writes it (``"19:30"``), ``None`` without slots.
+    """
 
     venue: str | None
     court: str | None
@@ -64,7 +86,19 @@ class Place:
 
 @dataclass(frozen=True, slots=True)
 class ForcedGame:
-    """A game the organizer already moved by hand: kept exactly as given."""
+    """A game the organizer already moved by hand: kept exactly as given.
+
+    Parameters
+    ----------
+    date
+        Its new match day.
+    home, away
+        The teams, home side first.
+    start
+        The local kick-off time.
+    court
+        The court, when the organizer named one.
+    """
 
     date: date
     home: str
@@ -77,10 +111,25 @@ class ForcedGame:
 class RepairProblem:
     """What the repair model needs.
 
-    ``future`` holds the previous plan's entry of every game still to be placed (a postponed
-    game keeps its planned, past date here); ``forced`` maps an index into ``future`` to its
-    hand-moved placement; ``unavailable`` and ``closed`` add to the league's rules from now on
-    (``closed`` court ``None`` = every court); ``postponed`` are indices into ``future``.
+    Parameters
+    ----------
+    league
+        The league; its rules and calendar hold for the re-plan.
+    played_through
+        The last day of history.
+    history
+        The games played (fixed; the starting state of every rule).
+    future
+        The previous plan's entry of every game still to be placed (a postponed game keeps its
+        planned, past date here).
+    postponed
+        Indices into ``future`` of the postponed games.
+    forced
+        Index into ``future`` -> its hand-moved placement.
+    unavailable
+        ``(team, date)`` pairs added to the league's rules from now on.
+    closed
+        ``(venue, court, date)`` closures (court ``None``: every court).
     """
 
     league: League
@@ -93,16 +142,66 @@ class RepairProblem:
     closed: tuple[tuple[str, str | None, date], ...] = ()
 
 
+GOAL_LABELS: dict[str, str] = {
+    "reserve": "moved games off the reserve dates",
+    "home_side": "games with the other team at home",
+    "rest": "least rest of the re-planned games (days)",
+    "breaks": "breaks",
+    "venue_balance": "largest court spread of a team",
+    "slot_balance": "largest kick-off time spread of a team",
+    "earliest": "lateness of the moved games",
+}
+"""Plain labels of the second stage's goals (:meth:`RepairModel.goals`)."""
+
+
+@dataclass(frozen=True, slots=True)
+class GoalFigure:
+    """The value a goal of the second stage reached, and whether CP-SAT proved it best.
+
+    Parameters
+    ----------
+    name
+        A key of :data:`GOAL_LABELS`.
+    value
+        The figure (rest in days; the others are counts).
+    proven
+        Whether no re-plan with the same values of the goals before it does better.
+    """
+
+    name: str
+    value: int
+    proven: bool
+
+    def __str__(self) -> str:
+        return f"{GOAL_LABELS[self.name]} {self.value}" + ("" if self.proven else " (not proven)")
+
+
 @dataclass(frozen=True)
 class RepairResult:
-    """The re-planned future games (same order as ``problem.future``) and how good they are.
+    """The re-planned future games and how good they are.
 
-    ``changed`` counts the games whose date, start, court or home side differ from the old
-    plan; ``proven`` says whether CP-SAT proved that no valid re-plan changes fewer
-    (``bound`` is its proven lower bound either way). ``on_reserve`` counts moved games placed
-    on reserve dates, ``breaks`` the breaks of the future part (date order, history included as
-    the starting state). ``seconds`` is the solvers' wall time, ``proof_seconds`` that of
-    the first stage, which proves the fewest changes (both for benchmarks only).
+    Parameters
+    ----------
+    fixtures
+        The future games, in the order of ``problem.future``.
+    changed
+        Games whose date, start, court or home side differ from the old plan.
+    proven
+        Whether CP-SAT proved that no valid re-plan changes fewer.
+    bound
+        CP-SAT's proven lower bound on ``changed``.
+    on_reserve
+        Moved games placed on reserve dates.
+    breaks
+        Breaks of the future part (date order, history as the starting state).
+    seconds
+        The solvers' wall time (for benchmarks only).
+    notes
+        Remarks for people (a second-stage goal that ran out of time).
+    proof_seconds
+        Wall time of the first stage, which proves the fewest changes (benchmarks only).
+    goals
+        The second stage's goals in order and the values reached (:class:`GoalFigure`).
     """
 
     fixtures: tuple[Fixture, ...]
@@ -114,26 +213,57 @@ class RepairResult:
     seconds: float
     notes: tuple[str, ...] = ()
     proof_seconds: float = 0.0
+    goals: tuple[GoalFigure, ...] = ()
 
 
-def _places(league: League) -> tuple[list[Place], dict[str, list[int]]]:
+def _places(league: League, per_day: int = 1) -> tuple[list[Place], dict[str, list[int]]]:
+    """Every (venue, court, time) of the league. With several rounds on one match day a venue
+    without time slots gets one time per round, ``kickoff + j * game_minutes``, labelled like
+    the planner's places (:mod:`scheduler.balance.places`); a league without venues has one
+    place without a venue."""
     places: list[Place] = []
     by_venue: dict[str, list[int]] = {}
+    cal = league.calendar
+    virtual: list[time | None] = [None]
+    if per_day > 1:
+        base = datetime.combine(date(2000, 1, 1), cal.kickoff)
+        virtual = [(base + timedelta(minutes=j * cal.game_minutes)).time()
+                   for j in range(per_day)]
     for venue in league.venues:
-        times: list[time | None] = list(venue.slots) or [None]
+        times: list[time | None] = list(venue.slots) or virtual
+        labelled = bool(venue.slots) or per_day > 1
         ids = []
         for court in venue.courts:
             for clock in times:
-                label = clock.strftime("%H:%M") if (venue.slots and clock is not None) else None
+                label = clock.strftime("%H:%M") if (labelled and clock is not None) else None
                 ids.append(len(places))
                 places.append(Place(venue.name, court, clock, label))
         by_venue[venue.name] = ids
+    if not league.venues:
+        for clock in virtual:
+            label = clock.strftime("%H:%M") if clock is not None else None
+            places.append(Place(None, None, clock, label))
     return places, by_venue
 
 
 def candidate_days(league: League, played_through: date, extra: Sequence[date] = ()) -> list[date]:
-    """Match days after ``played_through``: the calendar's match days, the reserve dates and
-    ``extra`` (dates of games already planned or moved there)."""
+    """Match days after ``played_through`` on which a re-plan may put games.
+
+    Parameters
+    ----------
+    league
+        The league (its calendar and reserve dates).
+    played_through
+        The last day of history.
+    extra
+        Dates of games already planned or moved there.
+
+    Returns
+    -------
+    list of date
+        The calendar's match days, the reserve dates and ``extra``, after ``played_through``,
+        in order.
+    """
     cal = league.calendar
     needed = 0
     if cal.end is None and not cal.dates:
@@ -148,28 +278,43 @@ def candidate_days(league: League, played_through: date, extra: Sequence[date] =
 
 
 class RepairModel:
-    """The CP-SAT model of one re-plan (see the module docstring)."""
+    """The CP-SAT model of one re-plan (see the module docstring).
+
+    Parameters
+    ----------
+    problem
+        What to re-plan.
+    explainable
+        Put every rule under an assumption literal (to name the clash when no re-plan
+        exists) instead of enforcing it.
+    """
 
     def __init__(self, problem: RepairProblem, *, explainable: bool = False) -> None:
         self.problem = problem
         league = problem.league
         self.league = league
-        if league.calendar.rounds_per_day != 1:
-            raise InputError(
-                "re-planning supports one round per match day only "
-                f"(calendar.rounds_per_day = {league.calendar.rounds_per_day})",
-                location="calendar.rounds_per_day",
-            )
+        self.per_day = max(1, league.calendar.rounds_per_day)
         self.model = cp_model.CpModel()
+        self.cp = self.model  # the name rules use (scheduler.rules.base.DateModelView)
         self.book = RuleBook(self.model)
         self.explainable = explainable
         pt = problem.played_through
         old_dates = [f.date for f in problem.future if f.date is not None and f.date > pt]
         forced_dates = [g.date for g in problem.forced.values()]
-        self.days = candidate_days(league, pt, old_dates + forced_dates)
-        self.day_index = {d: i for i, d in enumerate(self.days)}
+        days = candidate_days(league, pt, old_dates + forced_dates)
         self.reserve = frozenset(league.calendar.reserve_dates)
-        self.places, self.by_venue = _places(league)
+        self.places, self.by_venue = _places(league, self.per_day)
+        # a sitting is a match day (one round a day) or a match day and a kick-off time
+        # (several rounds a day); the model's "days" are the sittings in time order, and
+        # self.days[s] is the date of sitting s
+        if self.per_day == 1:
+            self.sittings: list[tuple[date, time | None]] = [(d, None) for d in days]
+        else:
+            times = {p.slot_time for p in self.places if p.slot_time is not None}
+            self.sittings = sorted({(d, t) for d in days for t in times}
+                                   | {(g.date, g.start) for g in problem.forced.values()})
+        self.days = [d for d, _ in self.sittings]
+        self.sitting_index = {sitting: i for i, sitting in enumerate(self.sittings)}
         self.teams = list(league.team_names)
         self._history_state()
         self._build_options()
@@ -178,14 +323,15 @@ class RepairModel:
 
     # --- history --------------------------------------------------------------------------
     def _history_state(self) -> None:
-        games: dict[str, list[tuple[date, bool]]] = {t: [] for t in self.teams}
+        games: dict[str, list[tuple[date, float, bool]]] = {t: [] for t in self.teams}
         for f in self.problem.history:
             if f.date is None:
                 continue
+            clock = f.start.timestamp() if f.start is not None else 0.0  # several a day
             if f.home in games:
-                games[f.home].append((f.date, True))
+                games[f.home].append((f.date, clock, True))
             if f.away in games:
-                games[f.away].append((f.date, False))
+                games[f.away].append((f.date, clock, False))
         self.last_played: dict[str, date | None] = {}
         self.history_count: dict[str, int] = {}
         self.trailing: dict[str, tuple[int, int]] = {}
@@ -194,22 +340,19 @@ class RepairModel:
             items.sort()
             self.history_count[team] = len(items)
             self.last_played[team] = items[-1][0] if items else None
-            self.last_home[team] = items[-1][1] if items else None
+            self.last_home[team] = items[-1][2] if items else None
             run = 0
-            for _, home in reversed(items):
-                if home != items[-1][1]:
+            for *_, home in reversed(items):
+                if home != items[-1][2]:
                     break
                 run += 1
-            self.trailing[team] = (run, 0) if items and items[-1][1] else (0, run)
+            self.trailing[team] = (run, 0) if items and items[-1][2] else (0, run)
 
     # --- options --------------------------------------------------------------------------
-    def _blocked(self) -> tuple[set[tuple[str, date]], set[tuple[str, date]], set]:
-        rules = self.league.rules
-        away = {(td.team, d) for td in rules.unavailable for d in td.dates}
-        away |= set(self.problem.unavailable)
-        no_home = {(td.team, d) for td in rules.no_home_games for d in td.dates}
-        closed = set(self.problem.closed)
-        return away, no_home, closed
+    def _blocked(self) -> tuple[set[tuple[str, date]], set]:
+        """The events' unavailable days and closures (the league's own unavailable and
+        no-home days are constraints of their rule modules)."""
+        return set(self.problem.unavailable), set(self.problem.closed)
 
     def _place_closed(self, place: Place, day: date, closed: set) -> bool:
         return (place.venue, None, day) in closed or (place.venue, place.court, day) in closed
@@ -220,15 +363,10 @@ class RepairModel:
             return self.by_venue[venue]
         return list(range(len(self.places)))
 
-    def _too_soon(self, team: str, day: date) -> bool:
-        rest = self.league.rules.min_rest_days
-        last = self.last_played.get(team)
-        return rest is not None and last is not None and (day - last).days - 1 < rest
-
     def _build_options(self) -> None:
         """x[(g, d, swapped, p)] for every allowed day, side and place of every future game."""
         m = self.model
-        away_blocked, no_home, closed = self._blocked()
+        away_blocked, closed = self._blocked()
         self.options: list[list[tuple[int, bool, int, cp_model.IntVar]]] = []
         self.same: list[cp_model.IntVar | None] = []
         self.forced_place: dict[int, Place] = {}
@@ -243,7 +381,8 @@ class RepairModel:
                 self.forced_place[g] = place
                 lit = m.new_bool_var(f"game{g}_moved_by_hand")
                 m.add(lit == 1)
-                opts.append((self.day_index[forced.date], swapped, -1 - g, lit))
+                sitting = (forced.date, forced.start if self.per_day > 1 else None)
+                opts.append((self.sitting_index[sitting], swapped, -1 - g, lit))
                 self.options.append(opts)
                 self.same.append(None)
                 continue
@@ -252,13 +391,11 @@ class RepairModel:
                     home, away = (old.away, old.home) if swapped else (old.home, old.away)
                     if (home, day) in away_blocked or (away, day) in away_blocked:
                         continue
-                    if (home, day) in no_home:
-                        continue
-                    if self._too_soon(home, day) or self._too_soon(away, day):
-                        continue
                     for p in self._home_places(home):
                         place = self.places[p]
                         if self._place_closed(place, day, closed):
+                            continue
+                        if self.per_day > 1 and place.slot_time != self.sittings[d][1]:
                             continue
                         is_same = (
                             not swapped
@@ -288,7 +425,7 @@ class RepairModel:
                 key = (d, p) if p >= 0 else (d, self._place_key(self.forced_place[g]))
                 use.setdefault(key, []).append(lit)
         for key in sorted(use):
-            if len(use[key]) > 1:
+            if len(use[key]) > 1 and self.league.venues:
                 m.add_at_most_one(use[key])
         self.changed = []
         for g, same_lit in enumerate(self.same):
@@ -360,8 +497,46 @@ class RepairModel:
                 aws.append(a)
             self.home_on[team] = hs
             self.away_on[team] = aws
+        if self.per_day > 1:
+            self._same_day_limits()
+
+    def _same_day_limits(self) -> None:
+        """Several rounds on one match day: a team plays at most ``rounds_per_day`` games a
+        day, and never two whose kick-offs are less than ``game_minutes`` apart."""
+        m = self.model
+        length = self.league.calendar.game_minutes
+        by_day: dict[date, list[int]] = {}
+        for s, (day, _) in enumerate(self.sittings):
+            by_day.setdefault(day, []).append(s)
+        for day in sorted(by_day):
+            sittings = by_day[day]
+            for team in self.teams:
+                if len(sittings) > self.per_day:
+                    m.add(sum(self.plays(team, s) for s in sittings) <= self.per_day)
+                for s1, s2 in itertools.combinations(sittings, 2):
+                    t1, t2 = self.sittings[s1][1], self.sittings[s2][1]
+                    if t1 is None or t2 is None:
+                        continue
+                    apart = abs((datetime.combine(day, t2) - datetime.combine(day, t1))
+                                .total_seconds()) / 60
+                    if apart < length:
+                        m.add(self.plays(team, s1) + self.plays(team, s2) <= 1)
 
     def plays(self, team: str, d: int) -> cp_model.LinearExpr:
+        """Whether ``team`` plays in sitting ``d``.
+
+        Parameters
+        ----------
+        team
+            A team of the league.
+        d
+            Index of a sitting (a match day, or a match day and kick-off time).
+
+        Returns
+        -------
+        LinearExpr
+            Its home plus away indicator (0 or 1).
+        """
         return self.home_on[team][d] + self.away_on[team][d]
 
     # --- rules ----------------------------------------------------------------------------
@@ -371,18 +546,61 @@ class RepairModel:
             self.model.add(lit == 1)
         return lit
 
+    # the interface rules use (scheduler.rules.base.DateModelView)
+    def switch(self, statement: str) -> cp_model.IntVar:
+        """The literal that enforces ``statement``.
+
+        Parameters
+        ----------
+        statement
+            The rule in the organizer's words (it names the rule in a clash).
+
+        Returns
+        -------
+        IntVar
+            A Boolean, fixed true unless the model is built to explain a clash.
+        """
+        return self._rule(statement)
+
+    def home(self, team: str, d: int) -> cp_model.IntVar:
+        """Whether ``team`` plays at home in sitting ``d``.
+
+        Parameters
+        ----------
+        team
+            A team of the league.
+        d
+            Index of a sitting.
+
+        Returns
+        -------
+        IntVar
+            The Boolean.
+        """
+        return self.home_on[team][d]
+
+    def sittings_on(self, day: date) -> list[int]:
+        """The sittings on ``day``.
+
+        Parameters
+        ----------
+        day
+            A date.
+
+        Returns
+        -------
+        list of int
+            Their indices (empty when no game can be placed on ``day``).
+        """
+        return [s for s, (when, _) in enumerate(self.sittings) if when == day]
+
     def _build_rules(self) -> None:
         lg, rules, m = self.league, self.league.rules, self.model
         days = self.days
-        if rules.min_rest_days is not None:
-            lit = self._rule(f"at least {rules.min_rest_days} days of rest between two games "
-                             "of a team (min_rest_days)")
-            for i, d1 in enumerate(days):
-                for j in range(i + 1, len(days)):
-                    if (days[j] - d1).days - 1 >= rules.min_rest_days:
-                        break
-                    for team in self.teams:
-                        m.add(self.plays(team, i) + self.plays(team, j) <= 1).only_enforce_if(lit)
+        # rules that state their own date-model constraints (docs/rules.md)
+        for rule in RULES:
+            if rule.date_constraints and rule.is_on(lg):
+                rule.add_date_constraints(self)
         for value, home, word in ((rules.max_home_run, True, "home"),
                                   (rules.max_away_run, False, "away")):
             if value is None:
@@ -407,11 +625,6 @@ class RepairModel:
                         self.plays(team, e) for e in range(d))
                     m.add(before >= rules.no_breaks_first + 1).only_enforce_if(
                         [lit, self.brk[team][d]])
-        for group in lg.shared_ground_groups:
-            lit = self._rule("shared ground: at most one of " + ", ".join(group)
-                             + " at home on a match day")
-            for d in range(len(days)):
-                m.add(sum(self.home_on[t][d] for t in group) <= 1).only_enforce_if(lit)
         if lg.format.legs > 1:
             self._pair_home_counts()
             if rules.min_separation is not None:
@@ -502,10 +715,199 @@ class RepairModel:
                     continue  # both in history
                 m.add(late - early - 1 >= value).only_enforce_if(lit)
 
+    # --- soft goals (second stage) --------------------------------------------------------
+    def _off_reserve(self) -> cp_model.LinearExprT:
+        """Moved games not on a reserve date (hand-moved games do not count)."""
+        lits = [lit for g, opts in enumerate(self.options) if g not in self.problem.forced
+                for d, _, _, lit in opts
+                if self.days[d] not in self.reserve and lit is not self.same[g]]
+        return sum(lits)
+
+    def _least_rest(self) -> tuple[cp_model.LinearExprT, list[tuple[int, cp_model.IntVar]]]:
+        """Maximise the least rest (days without a game between two games of a team) over the
+        games of the re-planned part, the boundary with history included.
+
+        ``at_least[v]`` (one per rest value ``v`` that can occur below two weeks, and one for
+        two weeks) forbids every pair of games of one team closer than ``v`` rest days; the
+        flags are chained (``at_least[v]`` implies the one below), so the largest true flag is
+        the least rest (14 meaning 14 or more). Returns the expression to minimise (minus the
+        number of true flags) and the flags.
+        """
+        m = self.model
+        cap = 14
+        floor = self.league.rules.min_rest_days or 0
+        pairs: list[tuple[int, int, int]] = []  # (rest, day i, day j), i = -1: last game played
+        for i, d1 in enumerate(self.days):
+            for j in range(i + 1, len(self.days)):
+                gap = max(0, (self.days[j] - d1).days - 1)  # two games on one day: 0 rest
+                if gap >= cap:
+                    break
+                if gap >= floor:
+                    pairs.append((gap, i, j))
+        boundary: list[tuple[int, str, int]] = []
+        for team in self.teams:
+            last = self.last_played.get(team)
+            if last is None:
+                continue
+            for j, day in enumerate(self.days):
+                gap = (day - last).days - 1
+                if gap >= cap:
+                    break
+                if gap >= floor:
+                    boundary.append((gap, team, j))
+        if not pairs and not boundary:
+            return 0, []
+        values = sorted({gap for gap, *_ in pairs} | {gap for gap, *_ in boundary} | {cap})
+        flags: list[tuple[int, cp_model.IntVar]] = []
+        for v in values:
+            flag = m.new_bool_var(f"least_rest_at_least_{v}_days")
+            if flags:
+                m.add_implication(flag, flags[-1][1])
+            flags.append((v, flag))
+        flag_of = dict(flags)
+
+        def guard(gap: int) -> cp_model.IntVar:
+            return flag_of[min(v for v in values if v > gap)]
+
+        for gap, i, j in pairs:
+            for team in self.teams:
+                m.add(self.plays(team, i) + self.plays(team, j) <= 1).only_enforce_if(guard(gap))
+        for gap, team, j in boundary:
+            m.add(self.plays(team, j) == 0).only_enforce_if(guard(gap))
+        return -sum(flag for _, flag in flags), flags
+
+    def _spread(self, label: str, key_of) -> tuple[cp_model.LinearExprT, cp_model.IntVar] | None:
+        """The spread of a team's games over the courts of each venue with several courts
+        (``label`` "court", ``key_of`` giving ``(venue, court)``) or over the kick-off times of
+        the venues with time slots ("slot"): its most-used minus its least-used court of one
+        venue, or kick-off time, over the season, history included (the fairness figures'
+        court and kick-off time spread). ``key_of`` gives ``None`` for a place outside the
+        balance.
+
+        Returns the expression to minimise (the largest spread of a team first, then the sum
+        of the spreads) and the largest spread; ``None`` when there are fewer than two such
+        courts or times (nothing to balance).
+        """
+        m = self.model
+        keys = sorted({key_of(p) for p in self.places if key_of(p) is not None}, key=str)
+        if len(keys) < 2:
+            return None
+        counts: dict[tuple[str, object], list] = {}
+        where = {(p.venue, p.court, p.slot_label): p for p in self.places}
+        for f in self.problem.history:
+            place = where.get((f.venue, f.court, f.slot))
+            key = key_of(place) if place is not None else None
+            for team in f.teams:
+                counts.setdefault((team, key), []).append(1)
+        for g, opts in enumerate(self.options):
+            old = self.problem.future[g]
+            for _, _, p, lit in opts:
+                place = self.places[p] if p >= 0 else self.forced_place[g]
+                key = key_of(place)
+                for team in old.teams:
+                    counts.setdefault((team, key), []).append(lit)
+        games = len(self.problem.history) + len(self.options)
+        top = m.new_int_var(0, games, f"largest_{label}_spread_of_a_team")
+        # courts are compared within their venue (as the fairness figures do), kick-off
+        # times across the league
+        groups: dict[object, list[object]] = {}
+        for key in keys:
+            groups.setdefault(key[0] if label == "court" else None, []).append(key)
+        spreads = []
+        for team in self.teams:
+            for g, members in enumerate(groups.values()):
+                if len(members) < 2:
+                    continue
+                most = m.new_int_var(0, games, f"{team}_most_games_on_one_{label}_group{g}")
+                least = m.new_int_var(0, games, f"{team}_fewest_games_on_one_{label}_group{g}")
+                for key in members:
+                    used = sum(counts.get((team, key), []))
+                    m.add(most >= used)
+                    m.add(least <= used)
+                spread = m.new_int_var(0, games, f"{team}_{label}_spread_group{g}")
+                m.add(spread == most - least)
+                m.add(top >= spread)
+                spreads.append(spread)
+        return (len(spreads) * games + 1) * top + sum(spreads), top
+
+    def goals(self) -> list[tuple[str, cp_model.LinearExprT]]:
+        """The second stage's goals, most important first, each to be minimised.
+
+        Reserve dates for the games that must move (the league keeps them for that), then
+        the fewest games with the other team at home (a moved game keeps its host where it
+        can: who hosts whom is part of the agreement), then the least rest (player welfare;
+        the league file has no weight for it, ``min_rest_days`` is its hard floor), then the
+        league's own priorities that a date placement can change, in the order of their
+        weights (``priorities.breaks``, ``venue_balance``, ``slot_balance``; weight 0 leaves a
+        goal out, equal weights keep this order), and last the earliest dates for the moved
+        games. ``mixing`` and ``carry_over`` are about the
+        order of rounds, which a re-plan does not choose.
+
+        Returns
+        -------
+        list of (str, LinearExpr)
+            Goal name and the expression to minimise.
+        """
+        swapped = [lit for g, opts in enumerate(self.options) if g not in self.problem.forced
+                   for _, side_swapped, _, lit in opts if side_swapped]
+        out: list[tuple[str, cp_model.LinearExprT]] = [("reserve", self._off_reserve()),
+                                                       ("home_side", sum(swapped))]
+        rest, self.rest_flags = self._least_rest()
+        if self.rest_flags:
+            out.append(("rest", rest))
+        weights = self.league.priorities
+        weighted: list[tuple[int, int, str, cp_model.LinearExprT]] = []
+        if weights.breaks > 0:
+            weighted.append((weights.breaks, 0, "breaks", self.total_breaks))
+        shared = {v.name for v in self.league.venues if len(v.courts) > 1}
+        self.spread_top: dict[str, cp_model.IntVar] = {}
+        court = self._spread("court", lambda p: (p.venue, p.court) if p.venue in shared
+                             else None)
+        if court is not None and weights.venue_balance > 0:
+            weighted.append((weights.venue_balance, 1, "venue_balance", court[0]))
+            self.spread_top["venue_balance"] = court[1]
+        slot = self._spread("slot", lambda p: p.slot_time)
+        if slot is not None and weights.slot_balance > 0:
+            weighted.append((weights.slot_balance, 2, "slot_balance", slot[0]))
+            self.spread_top["slot_balance"] = slot[1]
+        out += [(name, expr) for _, _, name, expr in sorted(weighted, key=lambda w: (-w[0], w[1]))]
+        late = [d * lit for g, opts in enumerate(self.options) if g not in self.problem.forced
+                for d, _, _, lit in opts if lit is not self.same[g] and d]
+        out.append(("earliest", sum(late)))
+        return out
+
+    def _figure(self, name: str, solver: cp_model.CpSolver, expr) -> int:
+        """A goal's value in the league's terms (rest in days, the others as counted)."""
+        if name == "rest":
+            held = [v for v, flag in self.rest_flags if solver.value(flag)]
+            return held[-1] if held else (self.league.rules.min_rest_days or 0)
+        if name in self.spread_top:
+            return int(solver.value(self.spread_top[name]))
+        return int(solver.value(expr))
+
     # --- solving --------------------------------------------------------------------------
     def solve(self, limits: SolveLimits) -> RepairResult:
+        """Fewest changed games (proven when CP-SAT says OPTIMAL), then the second stage.
+
+        Parameters
+        ----------
+        limits
+            CP-SAT limits of the first stage; each goal of the second stage gets a quarter of
+            its deterministic time, between 1 and 5 seconds.
+
+        Returns
+        -------
+        RepairResult
+            The re-planned games and their figures.
+
+        Raises
+        ------
+        InfeasibleError
+            When no re-plan keeps every rule, or none was found in the time.
+        """
         self.precheck()
         m = self.model
+        goals = self.goals()
         changed = sum(self.changed)
         m.minimize(changed)
         solver = cp_model.CpSolver()
@@ -520,42 +922,37 @@ class RepairModel:
         best = round(solver.objective_value)
         bound = round(solver.best_objective_bound)
         proven = status == cp_model.OPTIMAL
-        values = {lit.index: solver.value(lit) for opts in self.options for *_, lit in opts}
-        # second stage: keep the change count, prefer reserve dates, then fewest breaks
+        # second stage, lexicographic: keep the change count, then each goal in turn at its
+        # best value (or the value reached when its time ran out)
         m.add(changed <= best)
-        off_reserve = []
-        for g, opts in enumerate(self.options):
-            for d, _, _, lit in opts:
-                if self.days[d] not in self.reserve and lit is not self.same[g] and (
-                    g not in self.problem.forced
-                ):
-                    off_reserve.append(lit)
-        late = []
-        for g, opts in enumerate(self.options):
-            if g in self.problem.forced:
-                continue
-            late += [d * lit for d, _, _, lit in opts if lit is not self.same[g] and d]
-        breaks_weight = (len(self.days) + 1) * len(self.options) + 1
-        reserve_weight = breaks_weight * (len(self.days) * len(self.teams) + 1)
-        m.minimize(reserve_weight * sum(off_reserve) + breaks_weight * self.total_breaks
-                   + sum(late))
-        m.clear_hints()
-        for opts in self.options:
-            for *_, lit in opts:
-                m.add_hint(lit, values[lit.index])
-        second = cp_model.CpSolver()
-        configure(second, SolveLimits(max(1.0, min(5.0, limits.deterministic / 4)), limits.wall,
-                                      limits.seed))
-        status2 = solve_interruptibly(second, m)
-        notes = []
-        use = second if status2 in (cp_model.OPTIMAL, cp_model.FEASIBLE) else solver
-        seconds += second.wall_time
-        if use is solver:
-            notes.append("the reserve-date and breaks stage found nothing better in its time")
+        use = solver
+        figures: list[GoalFigure] = []
+        notes: list[str] = []
+        stage_limits = SolveLimits(max(1.0, min(5.0, limits.deterministic / 4)), limits.wall,
+                                   limits.seed)
+        for name, expr in goals:
+            values = {lit.index: use.value(lit) for opts in self.options for *_, lit in opts}
+            m.clear_hints()
+            for opts in self.options:
+                for *_, lit in opts:
+                    m.add_hint(lit, values[lit.index])
+            m.minimize(expr)
+            stage = cp_model.CpSolver()
+            configure(stage, stage_limits)
+            stage_status = solve_interruptibly(stage, m)
+            seconds += stage.wall_time
+            if stage_status in (cp_model.OPTIMAL, cp_model.FEASIBLE):
+                use = stage
+            else:
+                notes.append(f"the {GOAL_LABELS[name]} stage found nothing in its time")
+            m.add(expr <= int(use.value(expr)))
+            if name != "earliest":
+                figures.append(GoalFigure(name, self._figure(name, use, expr),
+                                          use is stage and stage_status == cp_model.OPTIMAL))
         fixtures, on_reserve = self._extract(use)
         breaks = int(sum(use.value(b) for row in self.brk.values() for b in row))
         return RepairResult(tuple(fixtures), best, proven, bound, on_reserve, breaks, seconds,
-                            tuple(notes), proof_seconds)
+                            tuple(notes), proof_seconds, tuple(figures))
 
     def _extract(self, solver: cp_model.CpSolver) -> tuple[list[Fixture], int]:
         out = []
@@ -608,7 +1005,18 @@ class RepairModel:
             raise InfeasibleError("the remaining games cannot all be placed", conflicts)
 
     def explain_infeasible(self, limits: SolveLimits) -> InfeasibleError:
-        """Name the rules that cannot hold together (an explainable model must be built)."""
+        """Name the rules that cannot hold together (an explainable model must be built).
+
+        Parameters
+        ----------
+        limits
+            CP-SAT limits of the solve under assumptions.
+
+        Returns
+        -------
+        InfeasibleError
+            The error to raise, listing the rules of the shrunk core.
+        """
         self.book.assume_all()
         solver = cp_model.CpSolver()
         configure(solver, limits)
@@ -639,7 +1047,20 @@ class RepairModel:
 
 
 def is_feasible(problem: RepairProblem, limits: SolveLimits) -> bool:
-    """Whether some re-plan keeps every rule (a feasibility solve, no objective)."""
+    """Whether some re-plan keeps every rule (a feasibility solve, no objective).
+
+    Parameters
+    ----------
+    problem
+        What to re-plan.
+    limits
+        CP-SAT limits.
+
+    Returns
+    -------
+    bool
+        ``True`` when CP-SAT found a re-plan within the limits.
+    """
     try:
         model = RepairModel(problem)
         model.precheck()
@@ -651,8 +1072,21 @@ def is_feasible(problem: RepairProblem, limits: SolveLimits) -> bool:
 
 
 def relaxations(problem: RepairProblem, limits: SolveLimits) -> list[str]:
-    """The single relaxations, smallest first, under which a re-plan exists (tested by
-    re-solving): a later end by 1-4 weeks, one more weekday, or one rule lowered by one."""
+    """The single relaxations, smallest first, under which a re-plan exists.
+
+    Parameters
+    ----------
+    problem
+        A re-plan that has no solution.
+    limits
+        CP-SAT limits (each trial gets at most 5 deterministic seconds).
+
+    Returns
+    -------
+    list of str
+        Each relaxation that works, tested by re-solving: a later end by 1-4 weeks (the
+        smallest), one more weekday, or one rule lowered by one.
+    """
     league = problem.league
     cal, rules = league.calendar, league.rules
     found: list[str] = []
@@ -716,8 +1150,6 @@ def repair_season(problem: RepairProblem, limits: SolveLimits) -> RepairResult:
     InfeasibleError
         When no re-plan keeps every rule: the clash in the league's words and, as further
         conflict lines, the relaxations that would make a re-plan possible.
-    InputError
-        For a league with several rounds on one match day.
 
     References
     ----------

@@ -37,6 +37,11 @@ Withdrawal policies (both common practice in league rules): ``void_all`` removes
 the team from the table, played ones included; ``keep_played`` lets its played games stand and
 cancels the rest.
 
+The file grows over the season: ``played_through`` moves forward and new entries are appended
+while the old ones stay. What an earlier re-plan already applied is recognised by
+:mod:`scheduler.replan` from the season folder's revision history (docs/replanning.md, section
+8), so a ``[[moved]]`` entry may also lie on or before ``played_through`` (it is then history).
+
 This module checks the file's shape and its names against the league (unknown team, venue or
 court with a did-you-mean suggestion, dates outside the season). Whether a postponed or moved
 game is in the plan, and whether the file belongs to the season folder, needs the planned season
@@ -510,11 +515,6 @@ def _reference_problems(doc: EventsFile, league: League) -> list[str]:
     for i, m in enumerate(doc.moved):
         team(f"moved[{i}].home", m.home)
         team(f"moved[{i}].away", m.away)
-        if m.date <= pt:
-            problems.append(
-                f"moved[{i}].date: {m.date.isoformat()} is on or before played_through "
-                f"{pt.isoformat()}; history cannot be changed"
-            )
         dates_inside(f"moved[{i}].date", (m.date,))
         if m.court is not None and m.home in teams:
             courts = _courts_for(league, m.home)

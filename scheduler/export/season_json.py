@@ -20,7 +20,8 @@ Layout (format tag :data:`FORMAT`; keys always in this order)::
       ],
       "byes": {"<round>": [str, ...]},      (rounds in increasing order)
       "fairness": FairnessReport.to_dict() | null,
-      "revisions": [{"revision", "played_through", "changed", "note"}, ...]
+      "revisions": [{"revision", "played_through", "changed", "note",
+                     "postponed": [{"home", "away", "date"}, ...] (only when non-empty)}, ...]
                                             (only in a re-planned season, oldest first)
     }
 
@@ -169,6 +170,8 @@ def _revision_dict(r: Revision) -> dict:
         "played_through": r.played_through.isoformat() if r.played_through else None,
         "changed": r.changed,
         "note": r.note,
+        **({"postponed": [{"home": home, "away": away, "date": day.isoformat()}
+                          for home, away, day in r.postponed]} if r.postponed else {}),
     }
 
 

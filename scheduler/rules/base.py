@@ -4,7 +4,8 @@ A hard rule is one small object (see :class:`HardRule`) holding
 
 - the configuration fields it reads (``config_fields``) and whether the league switches it on;
 - its CP-SAT constraints, added to the timetable model through :class:`TimetableView` under its
-  own assumption literals (one per statement, so that a clash names the statements involved);
+  own assumption literals (one per statement, so that a clash names the statements involved),
+  and for some rules also to the re-plan's date model through :class:`DateModelView`;
 - an independent check of any :class:`~scheduler.season.Season`, from the fixtures alone (it
   imports nothing from the balancer), returning :class:`Violation` values;
 - its statement in the organizer's words, and where cheap the smallest relaxation to try.
@@ -308,6 +309,91 @@ class TimetableView(Protocol):  # numpydoc ignore=PR01
         """
 
 
+class DateModelView(Protocol):
+    """The small, named interface of the re-plan model (:mod:`scheduler.balance.repair`) that
+    rules use to add their constraints for games placed on dates.
+
+    Games are placed on *sittings*: a match day (one round a day) or a match day and a kick-off
+    time (several rounds a day), ``d`` 0-based in time order. History is fixed and is not a
+    variable: it enters through ``last_played``.
+
+    Parameters
+    ----------
+    *args, **kwargs
+        Not used: the re-plan model (:class:`scheduler.balance.repair.RepairModel`) provides
+        this interface; the protocol itself is never built.
+    """
+
+    cp: Any
+    """The ``ortools.sat.python.cp_model.CpModel``."""
+    league: League
+    days: list[date]
+    """The date of each sitting."""
+    teams: list[str]
+    last_played: dict[str, date | None]
+    """Each team's last game in history (``None``: it has played none)."""
+
+    def switch(self, statement: str) -> Any:
+        """The literal that enforces a statement (an assumption when explaining a clash).
+
+        Parameters
+        ----------
+        statement
+            The rule in the organizer's words.
+
+        Returns
+        -------
+        Any
+            A CP-SAT Boolean.
+        """
+
+    def plays(self, team: str, d: int) -> Any:
+        """Whether ``team`` plays in sitting ``d``.
+
+        Parameters
+        ----------
+        team
+            A team of the league.
+        d
+            Index of a sitting.
+
+        Returns
+        -------
+        Any
+            A linear expression, 1 when it plays, else 0.
+        """
+
+    def home(self, team: str, d: int) -> Any:
+        """Whether ``team`` plays at home in sitting ``d``.
+
+        Parameters
+        ----------
+        team
+            A team of the league.
+        d
+            Index of a sitting.
+
+        Returns
+        -------
+        Any
+            A CP-SAT Boolean.
+        """
+
+    def sittings_on(self, day: date) -> list[int]:
+        """The sittings on ``day``.
+
+        Parameters
+        ----------
+        day
+            A date.
+
+        Returns
+        -------
+        list of int
+            Their indices (empty when no game can be placed on ``day``).
+        """
+
+
 class HardRule:
     """Base of every hard rule (subclasses are frozen dataclasses without fields).
 
@@ -335,6 +421,10 @@ class HardRule:
     >>> [(v.team, v.round) for v in runs.check(league, season)]
     [('Ashby', 2)]
     """
+
+    date_constraints: ClassVar[bool] = False
+    """Whether the rule adds its own constraints to the re-plan's date model
+    (:meth:`add_date_constraints`); the re-plan model states the others itself."""
 
     key: ClassVar[str]
     """Short identifier used in reports (``rest_days``, ``runs``...)."""
@@ -395,6 +485,17 @@ class HardRule:
         ----------
         model : TimetableView
             The timetable model being built; ``model.league`` is the league.
+        """
+        raise NotImplementedError
+
+    def add_date_constraints(self, model: DateModelView) -> None:
+        """Add the rule's constraints to the re-plan model, where games are placed on dates
+        (only rules with :attr:`date_constraints`), each statement under its own literal.
+
+        Parameters
+        ----------
+        model
+            The re-plan model's interface for rules.
         """
         raise NotImplementedError
 

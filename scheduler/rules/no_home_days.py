@@ -8,7 +8,7 @@ from datetime import date
 from typing import TYPE_CHECKING
 
 from scheduler.config.model import League
-from scheduler.rules.base import HardRule, TimetableView, Violation
+from scheduler.rules.base import DateModelView, HardRule, TimetableView, Violation
 
 if TYPE_CHECKING:  # the season type only: rules import nothing above config at run time
     from scheduler.season import Season
@@ -19,6 +19,7 @@ class NoHomeDays(HardRule):
     key = "no_home_days"
     title = "days a team cannot play at home"
     config_fields = ("rules.no_home_games",)
+    date_constraints = True
 
     def is_on(self, league: League) -> bool:
         return any(entry.dates for entry in league.rules.no_home_games)
@@ -36,6 +37,23 @@ class NoHomeDays(HardRule):
             t = model.team_index[entry.team]
             for d in entry.dates:
                 _no_home(model, t, entry.team, d)
+
+    def add_date_constraints(self, model: DateModelView) -> None:
+        """The team is at home in no sitting on the dates (the re-plan's date model).
+
+        Parameters
+        ----------
+        model
+            The re-plan model's interface for rules.
+        """
+        for entry in model.league.rules.no_home_games:
+            for d in entry.dates:
+                sittings = model.sittings_on(d)
+                if not sittings:
+                    continue
+                literal = model.switch(f"{entry.team} cannot play at home on {d.isoformat()}")
+                for s in sittings:
+                    model.cp.add(model.home(entry.team, s) == 0).only_enforce_if(literal)
 
     def check(self, league: League, season: Season) -> tuple[Violation, ...]:
         out = []

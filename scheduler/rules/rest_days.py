@@ -21,7 +21,14 @@ from datetime import date
 from typing import TYPE_CHECKING
 
 from scheduler.config.model import League
-from scheduler.rules.base import HardRule, TimetableView, Violation, plural, team_games
+from scheduler.rules.base import (
+    DateModelView,
+    HardRule,
+    TimetableView,
+    Violation,
+    plural,
+    team_games,
+)
 
 if TYPE_CHECKING:  # the season type only: rules import nothing above config at run time
     from scheduler.season import Season
@@ -35,6 +42,7 @@ class RestDays(HardRule):
     key = "rest_days"
     title = "rest days between games"
     config_fields = ("rules.min_rest_days", "calendar.rounds_per_day")
+    date_constraints = True
 
     def is_on(self, league: League) -> bool:
         value = league.rules.min_rest_days
@@ -65,13 +73,47 @@ class RestDays(HardRule):
         for g in range(len(model.day_groups) - 1):
             model.cp.add(ordinal[g + 1] - ordinal[g] >= value + 1).only_enforce_if(literal)
 
+    def add_date_constraints(self, model: DateModelView) -> None:
+        """In the re-plan's date model: no team plays in two sittings fewer than ``value``
+        rest days apart (two games on one day have -1, so they break any value), nor in a
+        sitting too soon after its last game in history.
+
+        Parameters
+        ----------
+        model
+            The re-plan model's interface for rules.
+        """
+        value = model.league.rules.min_rest_days
+        if value is None:
+            return
+        literal = model.switch(f"at least {plural(value, 'rest day')} between two games of a "
+                               "team (min_rest_days)")
+        days = model.days
+        for i, first in enumerate(days):
+            for j in range(i + 1, len(days)):
+                if (days[j] - first).days - 1 >= value:
+                    break
+                for team in model.teams:
+                    model.cp.add(model.plays(team, i) + model.plays(team, j) <= 1
+                                 ).only_enforce_if(literal)
+        for team in model.teams:
+            last = model.last_played.get(team)
+            if last is None:
+                continue
+            for j, day in enumerate(days):
+                if (day - last).days - 1 >= value:
+                    break
+                model.cp.add(model.plays(team, j) == 0).only_enforce_if(literal)
+
     def check(self, league: League, season: Season) -> tuple[Violation, ...]:
         value = league.rules.min_rest_days
         if value is None:
             return ()
         out = []
         for team in season.teams:
-            for prev, cur in itertools.pairwise(team_games(season, team)):
+            # rest is felt in date order (a re-planned game keeps its round but not its date)
+            games = sorted(team_games(season, team), key=lambda f: f.date or date.min)
+            for prev, cur in itertools.pairwise(games):
                 if prev.date is None or cur.date is None:
                     continue
                 rest = (cur.date - prev.date).days - 1

@@ -11,7 +11,7 @@ from dataclasses import dataclass
 from typing import TYPE_CHECKING, Any
 
 from scheduler.config.model import League
-from scheduler.rules.base import HardRule, TimetableView, Violation
+from scheduler.rules.base import DateModelView, HardRule, TimetableView, Violation
 
 if TYPE_CHECKING:  # the season type only: rules import nothing above config at run time
     from scheduler.season import Season
@@ -22,6 +22,7 @@ class SharedGrounds(HardRule):
     key = "shared_grounds"
     title = "teams sharing a ground"
     config_fields = ("rules.shared_grounds", "teams.home_venue", "venues")
+    date_constraints = True
 
     def is_on(self, league: League) -> bool:
         return bool(league.shared_ground_groups)
@@ -39,6 +40,22 @@ class SharedGrounds(HardRule):
             literal = model.switch("shared ground: at most one of " + ", ".join(group)
                                    + " at home on a match day")
             home_days_at_most(model, members, 1, literal, per_team=True)
+
+    def add_date_constraints(self, model: DateModelView) -> None:
+        """At most one team of a group at home in a sitting (a match day; a kick-off when
+        several rounds share a day) in the re-plan's date model.
+
+        Parameters
+        ----------
+        model
+            The re-plan model's interface for rules.
+        """
+        for group in model.league.shared_ground_groups:
+            literal = model.switch("shared ground: at most one of " + ", ".join(group)
+                                   + " at home on a match day")
+            for d in range(len(model.days)):
+                model.cp.add(sum(model.home(name, d) for name in group) <= 1
+                             ).only_enforce_if(literal)
 
     def check(self, league: League, season: Season) -> tuple[Violation, ...]:
         out = []

@@ -11,7 +11,7 @@ from datetime import date
 from typing import TYPE_CHECKING
 
 from scheduler.config.model import League
-from scheduler.rules.base import HardRule, TimetableView, Violation
+from scheduler.rules.base import DateModelView, HardRule, TimetableView, Violation
 
 if TYPE_CHECKING:  # the season type only: rules import nothing above config at run time
     from scheduler.season import Season
@@ -22,6 +22,7 @@ class UnavailableDays(HardRule):
     key = "unavailable_days"
     title = "days a team cannot play"
     config_fields = ("rules.unavailable",)
+    date_constraints = True
 
     def is_on(self, league: League) -> bool:
         return any(entry.dates for entry in league.rules.unavailable)
@@ -39,6 +40,23 @@ class UnavailableDays(HardRule):
             t = model.team_index[entry.team]
             for d in entry.dates:
                 _unavailable(model, t, entry.team, d)
+
+    def add_date_constraints(self, model: DateModelView) -> None:
+        """The team plays in no sitting on the dates (the re-plan's date model).
+
+        Parameters
+        ----------
+        model
+            The re-plan model's interface for rules.
+        """
+        for entry in model.league.rules.unavailable:
+            for d in entry.dates:
+                sittings = model.sittings_on(d)
+                if not sittings:
+                    continue
+                literal = model.switch(f"{entry.team} is unavailable on {d.isoformat()}")
+                for s in sittings:
+                    model.cp.add(model.plays(entry.team, s) == 0).only_enforce_if(literal)
 
     def check(self, league: League, season: Season) -> tuple[Violation, ...]:
         out = []

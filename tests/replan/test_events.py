@@ -67,7 +67,7 @@ def test_dates_outside_the_season_and_history():
     ))
     assert any(p.startswith("played_through: 2030-12-01 is outside the season") for p in found)
     assert any(p.startswith("unavailable[0].dates: 2032-01-01 is outside") for p in found)
-    assert any("history cannot be changed" in p for p in found)
+    assert any(p.startswith("moved[0].date: 2030-11-01 is outside") for p in found)
 
 
 def test_unknown_option_and_missing_played_through():

@@ -3,7 +3,7 @@
 from __future__ import annotations
 
 import json
-from datetime import date
+from datetime import date, timedelta
 
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
@@ -72,3 +72,50 @@ def test_random_events_never_move_history(planned_small, through, postpone, off,
     assert all(f in result.season.fixtures for f in history)
     assert all(f.date > pt for f in result.season.fixtures if f not in history)
     assert len(result.season.fixtures) == len(previous.fixtures)
+
+
+@settings(max_examples=4, deadline=None, derandomize=True,
+          suppress_health_check=[HealthCheck.function_scoped_fixture])
+@given(
+    first=st.sampled_from(PLAYED[:3]),
+    weeks=st.integers(1, 2),
+    postpone=st.lists(st.tuples(st.integers(0, 30), st.booleans()), min_size=1, max_size=2),
+    later=st.lists(st.tuples(st.integers(0, 30), st.booleans()), max_size=2),
+)
+def test_a_growing_file_never_moves_history_and_repeats_as_nothing(planned_small, first, weeks,
+                                                                    postpone, later):
+    """Two re-plans with one file that grows (the second adds postponements and moves
+    ``played_through`` on): what either published as played stays exactly as it was, and the
+    grown file applied once more changes nothing (docs/replanning.md, section 8)."""
+    league = load_league(LEAGUE)
+    previous = load_season_json(planned_small / "season.json")
+
+    def entries(season, since, through, picks):
+        window = [f for f in season.fixtures if since < f.date <= through]
+        chosen = {window[i % len(window)]: dated for i, dated in picks} if window else {}
+        return [{"home": f.home, "away": f.away, **({"date": f.date} if dated else {})}
+                for f, dated in chosen.items()], list(chosen)
+
+    def replan(season, through, postponed):
+        events = parse_events({"league": league.name, "season": league.season,
+                               "played_through": through, "postponed": postponed}, league)
+        return replan_season(league, season, events, time_limit=2)
+
+    pt1 = date.fromisoformat(first)
+    pt2 = pt1 + timedelta(weeks=weeks)
+    listed, gone1 = entries(previous, date.min, pt1, postpone)
+    try:
+        one = replan(previous, pt1, listed).season
+    except InfeasibleError:
+        return
+    grown, gone2 = entries(one, pt1, pt2, later)
+    try:
+        two = replan(one, pt2, listed + grown)
+    except InfeasibleError:
+        return
+    for season, through, gone in ((previous, pt1, gone1), (one, pt2, gone2)):
+        played = [f for f in season.fixtures if f.date <= through and f not in gone]
+        assert all(f in two.season.fixtures for f in played)
+    assert len(two.season.fixtures) == len(previous.fixtures)
+    again = replan(two.season, pt2, listed + grown)
+    assert again.nothing_to_change and again.season == two.season

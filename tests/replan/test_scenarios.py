@@ -154,9 +154,11 @@ def test_moved_by_hand_is_kept_as_given(season_dir, tmp_path):
 
 def test_nothing_happened_changes_nothing(season_dir, tmp_path):
     before = fixtures(season_dir)
+    digest = folder_digest(season_dir)
     _, new, result = replan_and_check(season_dir, tmp_path, "")
     assert new == before
-    assert "0 game(s) changed" in result.output
+    assert "nothing to change" in result.output
+    assert folder_digest(season_dir) == digest
 
 
 # --- bad input: located message, exit 2, folder untouched -----------------------------------

@@ -136,8 +136,9 @@ def _split(count: int, needs: list[int]) -> list[tuple[int, int]] | None:
     return blocks
 
 
-def venue_shares(fed: Federation) -> tuple[dict[tuple[str, str], Venue], list[Coupling]]:
-    """How each venue used by several divisions is shared.
+def venue_shares(fed: Federation, strict: bool = True
+                 ) -> tuple[dict[tuple[str, str], Venue], list[Coupling]]:
+    """How each venue used by several divisions is shared by the one-after-another method.
 
     Returns ``(shares, couplings)``: ``shares[(division, venue)]`` is the part of the venue the
     division may use (some of its slots with every court, or some of its courts with every slot,
@@ -146,22 +147,38 @@ def venue_shares(fed: Federation) -> tuple[dict[tuple[str, str], Venue], list[Co
     ``ground`` coupling instead (never two of those teams of different divisions at home on one
     day), which needs no split. Venues used by one division are left whole.
 
+    Parameters
+    ----------
+    fed : Federation
+        The federation.
+    strict : bool
+        Raise for a venue that cannot be split (the one-after-another method needs the split);
+        with ``False`` such a venue only gets its ``venue`` coupling (the joint model shares it
+        date by date, :mod:`scheduler.divisions.joint`).
+
+    Returns
+    -------
+    tuple
+        ``(shares, couplings)`` as above.
+
     Raises
     ------
     ConfigError
-        A venue that can neither be split nor shared by dates (located at ``venues[i]``).
+        With ``strict``: a venue that can neither be split nor shared by dates (located at
+        ``venues[i]``).
     """
     shares: dict[tuple[str, str], Venue] = {}
     couplings: list[Coupling] = []
     users = _users(fed)
     for index, venue in enumerate(fed.venues):
         for divs in same_day_groups(fed, users.get(venue.name, [])):
-            _share(fed, index, venue, divs, shares, couplings)
+            _share(fed, index, venue, divs, shares, couplings, strict)
     return shares, couplings
 
 
 def _share(fed: Federation, index: int, venue: Venue, divs: list[str],
-       shares: dict[tuple[str, str], Venue], couplings: list[Coupling]) -> None:
+           shares: dict[tuple[str, str], Venue], couplings: list[Coupling],
+           strict: bool = True) -> None:
     leagues = [fed.division(d).league for d in divs]
     demand = [_games_per_day(lg, venue.name) for lg in leagues]
     slots = list(venue.slots)
@@ -180,7 +197,7 @@ def _share(fed: Federation, index: int, venue: Venue, divs: list[str],
         couplings.append(Coupling("ground", venue.name, tuple(divs), home_teams, "apart",
                                   venue.name))
         return
-    else:
+    elif strict:
         needs = ", ".join(f"{d} {n}" for d, n in zip(divs, demand, strict=True))
         raise ConfigError(
             [f"venues[{index}]: {venue.name!r} hosts {venue.capacity} games at a time but "
@@ -203,11 +220,6 @@ def couplings_of(fed: Federation) -> list[Coupling]:
         Explicit shared grounds first (file order), then shared venues and automatic grounds
         (venue order), then player groups (file order).
 
-    Raises
-    ------
-    ConfigError
-        A venue that cannot be shared (see :func:`venue_shares`).
-
     Examples
     --------
     >>> [c.kind for c in couplings_of(fed)]  # doctest: +SKIP
@@ -217,7 +229,7 @@ def couplings_of(fed: Federation) -> list[Coupling]:
     ----------
     ``docs/divisions.md``, "Couplings and units of work".
     """
-    _, couplings = venue_shares(fed)
+    _, couplings = venue_shares(fed, strict=False)
     out = []
     for g in fed.shared_grounds:
         divs = tuple(dict.fromkeys(fed.division_of(t) for t in g.teams))

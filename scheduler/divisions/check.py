@@ -10,13 +10,14 @@ its shares of venues, not the rules it added), and reports every broken rule:
 - two teams of one player group playing at overlapping times.
 
 It also measures the complementary pattern: for each ``complementary`` pair, on how many of the
-days one team was at home the other team played away (the part the planner cannot promise).
+days both played exactly one of them was at home; where the plan promised the pattern (units
+planned by the joint model) a day that misses it is a problem.
 """
 
 from __future__ import annotations
 
 import itertools
-from collections.abc import Mapping
+from collections.abc import Collection, Mapping
 from dataclasses import dataclass
 from datetime import date, datetime, timedelta
 
@@ -33,6 +34,8 @@ class ComplementFigure:
     teams: tuple[str, str]
     complementary_days: int
     common_days: int
+    enforced: bool = False
+    """Whether the plan promised the pattern (then every missed day is a problem)."""
 
 
 @dataclass(frozen=True)
@@ -62,7 +65,8 @@ def _overlap(a, b) -> bool:
     return a[0] < b[1] and b[0] < a[1]
 
 
-def check_federation(fed: Federation, seasons: Mapping[str, Season]) -> CrossCheck:
+def check_federation(fed: Federation, seasons: Mapping[str, Season],
+                     complementary_required: Collection[str] = ()) -> CrossCheck:
     """Check the rules across divisions in the planned ``seasons`` (division name -> season).
 
     Parameters
@@ -71,6 +75,10 @@ def check_federation(fed: Federation, seasons: Mapping[str, Season]) -> CrossChe
         The federation (for its grounds, player groups and each division's game length).
     seasons
         The planned season of every division.
+    complementary_required
+        Names of ``complementary`` shared grounds whose pattern the plan promised (planned by
+        the joint model): a common match day without exactly one of the pair at home is then
+        a problem; for the others it is only measured.
 
     Returns
     -------
@@ -130,7 +138,13 @@ def check_federation(fed: Federation, seasons: Mapping[str, Season]) -> CrossChe
             common = played_a & played_b
             good = sum(1 for day in common
                        if (day in home_days.get(a, set())) != (day in home_days.get(b, set())))
-            figures.append(ComplementFigure(ground.name, (a, b), good, len(common)))
+            required = ground.name in complementary_required
+            figures.append(ComplementFigure(ground.name, (a, b), good, len(common), required))
+            if required:
+                for day in sorted(common):
+                    if (day in home_days.get(a, set())) == (day in home_days.get(b, set())):
+                        problems.append(f"shared ground {ground.name!r} (complementary): {a} and "
+                                        f"{b} are not one at home and one away on {day}")
     spans: dict[str, list] = {}
     for name, f, span in games:
         for team in f.teams:

@@ -26,7 +26,7 @@ from typing import Any
 from scheduler.config.federation import Federation
 from scheduler.divisions.check import CrossCheck, check_federation
 from scheduler.divisions.grouping import Unit, units_of
-from scheduler.divisions.plan import DivisionPlan, UnitResult, plan_unit
+from scheduler.divisions.plan import JOINT, DivisionPlan, UnitResult, plan_unit
 from scheduler.errors import InfeasibleError, InputError
 
 CONNECT_SECONDS = 5
@@ -111,6 +111,7 @@ def plan_federation(
     cluster: str | None = None,
     time_limit: float | None = None,
     progress: Callable[[str, float], None] | None = None,
+    method: str = "auto",
 ) -> FederationPlan:
     """Plan every division of ``fed``, one Dask task per unit of work.
 
@@ -126,6 +127,9 @@ def plan_federation(
         Solver seconds per division (default: each division's own).
     progress
         ``progress(message, fraction)`` after each finished unit.
+    method
+        How units of several divisions are planned (:data:`scheduler.divisions.plan.METHODS`):
+        ``auto`` (the joint model, else one division after another), ``joint``, ``sequential``.
 
     Returns
     -------
@@ -162,7 +166,8 @@ def plan_federation(
         # SIAM J. Appl. Math. 17, 1969, from memory): the last units to finish are small, so
         # the workers finish close together. Only the order of work changes, never a result.
         futures = {
-            client.submit(plan_unit, shared, unit, time_limit, key=f"plan-{digest}-{unit.key}",
+            client.submit(plan_unit, shared, unit, time_limit, method,
+                          key=f"plan-{digest}-{method}-{unit.key}",
                           pure=False, priority=_unit_size(fed, unit)): unit.key
             for unit in units
         }
@@ -179,5 +184,9 @@ def plan_federation(
             f"{len(failed)} of {len(units)} units of divisions cannot be planned", conflicts)
     by_name = {p.name: p for r in ordered for p in r.plans}
     plans = tuple(by_name[name] for name in fed.division_names)
-    check = check_federation(fed, {p.name: p.season for p in plans})
+    joint = {d for u, r in zip(units, ordered, strict=True) if r.method == JOINT
+             for d in u.divisions}
+    promised = [g.name for g in fed.shared_grounds
+                if g.pattern == "complementary" and {fed.division_of(t) for t in g.teams} <= joint]
+    check = check_federation(fed, {p.name: p.season for p in plans}, promised)
     return FederationPlan(fed, units, ordered, plans, check, clock.perf_counter() - began)

@@ -148,13 +148,16 @@ def summary(plan: FederationPlan, folders: dict[str, str]) -> dict:
              "rules_across_divisions": list(p.added), "notes": list(p.notes)}
             for p in plan.plans
         ],
-        "units": [{"key": u.key, "divisions": list(u.divisions)} for u in plan.units],
+        "units": [{"key": u.key, "divisions": list(u.divisions), "method": r.method,
+                   **({"joint_model_not_used_because": r.fallback} if r.fallback else {})}
+                  for u, r in zip(plan.units, plan.results, strict=True)],
         "check": {
             "valid": plan.check.valid,
             "problems": list(plan.check.problems),
             "complementary": [
                 {"ground": c.ground, "teams": list(c.teams),
-                 "complementary_days": c.complementary_days, "common_days": c.common_days}
+                 "complementary_days": c.complementary_days, "common_days": c.common_days,
+                 "enforced": c.enforced}
                 for c in plan.check.complement
             ],
         },
@@ -166,6 +169,8 @@ def index_html(plan: FederationPlan, folders: dict[str, str], clubs: dict[str, s
     fed = plan.federation
     e = html.escape
     unit_of = {d: u.key for u in plan.units for d in u.divisions}
+    method_of = {d: r.method for u, r in zip(plan.units, plan.results, strict=True)
+                 for d in u.divisions}
     rows = []
     for p in plan.plans:
         folder = folders[p.name]
@@ -175,7 +180,8 @@ def index_html(plan: FederationPlan, folders: dict[str, str], clubs: dict[str, s
                                 ("fixtures.csv", "CSV"), ("calendars/league.ics", "calendar"),
                                 ("season.json", "data")))
         rows.append(f"<tr><td>{e(p.name)}</td><td>{len(p.season.teams)}</td>"
-                    f"<td>{p.season.rounds}</td><td>{e(unit_of[p.name])}</td><td>{links}</td></tr>")
+                    f"<td>{p.season.rounds}</td><td>{e(unit_of[p.name])}</td>"
+                    f"<td>{e(method_of[p.name])}</td><td>{links}</td></tr>")
     club_items = "".join(f'<li><a href="{CLUB_FOLDER}/{e(file)}">{e(name)}</a></li>'
                          for name, file in clubs.items())
     check = ("every rule across divisions holds (checked from the fixtures)"
@@ -197,7 +203,8 @@ text-align:left}}</style></head>
 <p>{len(plan.plans)} divisions in {len(plan.units)} independent units. {check}.</p>
 <p><a href="{WORKBOOK_FILE}">All divisions in one workbook</a> ·
 <a href="{SUMMARY_FILE}">summary (JSON)</a></p>
-<table><thead><tr><th>division</th><th>teams</th><th>rounds</th><th>unit</th><th>outputs</th>
+<table><thead><tr><th>division</th><th>teams</th><th>rounds</th><th>unit</th>
+<th>planned</th><th>outputs</th>
 </tr></thead><tbody>
 {chr(10).join(rows)}
 </tbody></table>

@@ -28,7 +28,21 @@ from scheduler.season import Season
 @dataclass(frozen=True, slots=True)
 class ComplementFigure:
     """For one complementary pair: days with exactly one of the two at home and the other away,
-    out of the days on which both played."""
+    out of the days on which both played.
+
+    Parameters
+    ----------
+    ground : str
+        The shared ground.
+    teams : tuple of str
+        The pair, in file order.
+    complementary_days : int
+        Days both played with exactly one of them at home.
+    common_days : int
+        Days both played.
+    enforced : bool
+        Whether the plan promised the pattern (joint model).
+    """
 
     ground: str
     teams: tuple[str, str]
@@ -40,13 +54,34 @@ class ComplementFigure:
 
 @dataclass(frozen=True)
 class CrossCheck:
-    """The outcome: ``problems`` (empty when every rule holds) and the complementary figures."""
+    """The outcome of :func:`check_federation`.
+
+    Parameters
+    ----------
+    problems : tuple of str
+        Every broken rule in plain words (empty when every rule holds).
+    complement : tuple of ComplementFigure
+        The figures of the complementary pairs.
+
+    Examples
+    --------
+    >>> CrossCheck((), ()).valid
+    True
+    >>> CrossCheck(("a broken rule",), ()).valid
+    False
+    """
 
     problems: tuple[str, ...]
     complement: tuple[ComplementFigure, ...]
 
     @property
     def valid(self) -> bool:
+        """Whether every rule across divisions holds.
+
+        Returns
+        -------
+        bool
+        """
         return not self.problems
 
 
@@ -87,8 +122,23 @@ def check_federation(fed: Federation, seasons: Mapping[str, Season],
 
     Examples
     --------
-    >>> check_federation(fed, {p.name: p.season for p in plan.plans}).valid  # doctest: +SKIP
-    True
+    >>> from scheduler.config.federation import parse_federation
+    >>> def division(name, teams):
+    ...     return {"name": name, "teams": [{"name": t, "home_venue": f"{t} Ground"}
+    ...                                      for t in teams]}
+    >>> fed = parse_federation({
+    ...     "federation": {"name": "Example", "season": "2031", "timezone": "Europe/London",
+    ...                    "solve_seconds": 1},
+    ...     "calendar": {"start": "2031-09-06", "end": "2031-12-20", "weekdays": ["sat"]},
+    ...     "venues": [{"name": f"{t} Ground"} for t in "ABCDEFGH"],
+    ...     "divisions": [division("First", "ABCD"), division("Reserves", "EF"),
+    ...                   division("Other", "GH")],
+    ...     "shared_grounds": [{"teams": ["A", "E"], "pattern": "complementary"}]})
+    >>> from scheduler.divisions import plan_unit, units_of
+    >>> plans = [p for unit in units_of(fed) for p in plan_unit(fed, unit).plans]
+    >>> check = check_federation(fed, {p.name: p.season for p in plans}, ["A / E"])
+    >>> check.valid, check.complement[0].complementary_days == check.complement[0].common_days
+    (True, True)
 
     References
     ----------

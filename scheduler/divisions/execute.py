@@ -35,8 +35,23 @@ CONNECT_SECONDS = 5
 
 @dataclass(frozen=True)
 class FederationPlan:
-    """Every division planned: ``plans`` in file order, the units, their results (unit order)
-    and the independent check of the rules across divisions."""
+    """Every division planned.
+
+    Parameters
+    ----------
+    federation : Federation
+        The federation planned.
+    units : tuple of Unit
+        Its units of work.
+    results : tuple of UnitResult
+        Their results, in unit order.
+    plans : tuple of DivisionPlan
+        The division plans, in file order.
+    check : CrossCheck
+        The independent check of the rules across divisions.
+    wall_seconds : float
+        Wall time of the whole planning.
+    """
 
     federation: Federation
     units: tuple[Unit, ...]
@@ -59,6 +74,18 @@ class FederationPlan:
 @contextmanager
 def dask_client(workers: int = 2, cluster: str | None = None) -> Iterator[Any]:
     """A ``distributed.Client``: on an embedded local cluster, or connected to ``cluster``.
+
+    Parameters
+    ----------
+    workers : int
+        Worker processes of the embedded cluster (ignored with ``cluster``).
+    cluster : str or None
+        Address of a running Dask scheduler, or ``None`` for the embedded cluster.
+
+    Yields
+    ------
+    distributed.Client
+        The client; closed (with the embedded cluster) on leaving the context.
 
     Raises
     ------

@@ -37,6 +37,27 @@ class Coupling:
     ``teams`` are the teams it binds (for a venue: the teams of its divisions homed there, empty
     when "home" is a side), ``divisions`` the divisions it joins, ``pattern`` the ground pattern
     (``apart``/``complementary``; empty for other kinds), ``venue`` the ground or hall.
+
+    Parameters
+    ----------
+    kind : {"ground", "venue", "players"}
+        What couples the divisions.
+    name : str
+        The ground, venue or group.
+    divisions : tuple of str
+        The divisions it joins.
+    teams : tuple of str
+        The teams it binds.
+    pattern : str
+        ``apart`` or ``complementary`` for a ground.
+    venue : str or None
+        The ground or hall, where there is one.
+
+    Examples
+    --------
+    >>> Coupling("ground", "Mill Lane", ("First", "Reserves"), ("Mill", "Mill Reserves"),
+    ...          "complementary").describe()
+    "shared ground 'Mill Lane' (Mill, Mill Reserves): complementary home/away"
     """
 
     kind: CouplingKind
@@ -47,7 +68,12 @@ class Coupling:
     venue: str | None = None
 
     def describe(self) -> str:
-        """The coupling in the words of the federation file."""
+        """The coupling in the words of the federation file.
+
+        Returns
+        -------
+        str
+        """
         if self.kind == "ground":
             what = "complementary home/away" if self.pattern == "complementary" else (
                 "never both at home on one day")
@@ -60,7 +86,20 @@ class Coupling:
 
 @dataclass(frozen=True, slots=True)
 class Unit:
-    """A unit of work: divisions planned together, in ``divisions`` order (file order)."""
+    """A unit of work: divisions planned together, in ``divisions`` order (file order).
+
+    Parameters
+    ----------
+    key : str
+        ``unit-01``, ``unit-02``, ...
+    divisions : tuple of str
+        Its divisions, in file order.
+
+    Examples
+    --------
+    >>> Unit("unit-01", ("First", "Reserves")).divisions
+    ('First', 'Reserves')
+    """
 
     key: str
     divisions: tuple[str, ...]
@@ -100,7 +139,17 @@ def _day_keys(league: League) -> frozenset:
 
 def may_share_day(a: League, b: League) -> bool:
     """Whether two divisions can ever play on the same day (a common weekday, or a date of one
-    on a weekday of the other). Divisions that never share a day need no coupling."""
+    on a weekday of the other). Divisions that never share a day need no coupling.
+
+    Parameters
+    ----------
+    a, b : League
+        The two divisions' leagues.
+
+    Returns
+    -------
+    bool
+    """
     ka, kb = _day_keys(a), _day_keys(b)
     if ka & kb:
         return True
@@ -114,7 +163,19 @@ def may_share_day(a: League, b: League) -> bool:
 
 def same_day_groups(fed: Federation, divisions: list[str]) -> list[list[str]]:
     """``divisions`` cut into groups that can share a day (connected under :func:`may_share_day`),
-    each in the given order; groups of one are left out."""
+    each in the given order; groups of one are left out.
+
+    Parameters
+    ----------
+    fed : Federation
+        The federation.
+    divisions : list of str
+        Division names.
+
+    Returns
+    -------
+    list of list of str
+    """
     graph = nx.Graph()
     graph.add_nodes_from(divisions)
     for a, b in itertools.combinations(divisions, 2):
@@ -222,8 +283,20 @@ def couplings_of(fed: Federation) -> list[Coupling]:
 
     Examples
     --------
-    >>> [c.kind for c in couplings_of(fed)]  # doctest: +SKIP
-    ['ground', 'venue', 'players']
+    >>> from scheduler.config.federation import parse_federation
+    >>> def division(name, teams):
+    ...     return {"name": name, "teams": [{"name": t, "home_venue": f"{t} Ground"}
+    ...                                      for t in teams]}
+    >>> fed = parse_federation({
+    ...     "federation": {"name": "Example", "season": "2031", "timezone": "Europe/London",
+    ...                    "solve_seconds": 1},
+    ...     "calendar": {"start": "2031-09-06", "end": "2031-12-20", "weekdays": ["sat"]},
+    ...     "venues": [{"name": f"{t} Ground"} for t in "ABCDEFGH"],
+    ...     "divisions": [division("First", "ABCD"), division("Reserves", "EF"),
+    ...                   division("Other", "GH")],
+    ...     "shared_grounds": [{"teams": ["A", "E"], "pattern": "complementary"}]})
+    >>> [(c.kind, c.divisions) for c in couplings_of(fed)]
+    [('ground', ('First', 'Reserves'))]
 
     References
     ----------
@@ -262,8 +335,21 @@ def coupling_graph(fed: Federation, couplings: list[Coupling] | None = None) -> 
 
     Examples
     --------
-    >>> coupling_graph(fed).number_of_nodes() == len(fed.divisions)  # doctest: +SKIP
-    True
+    >>> from scheduler.config.federation import parse_federation
+    >>> def division(name, teams):
+    ...     return {"name": name, "teams": [{"name": t, "home_venue": f"{t} Ground"}
+    ...                                      for t in teams]}
+    >>> fed = parse_federation({
+    ...     "federation": {"name": "Example", "season": "2031", "timezone": "Europe/London",
+    ...                    "solve_seconds": 1},
+    ...     "calendar": {"start": "2031-09-06", "end": "2031-12-20", "weekdays": ["sat"]},
+    ...     "venues": [{"name": f"{t} Ground"} for t in "ABCDEFGH"],
+    ...     "divisions": [division("First", "ABCD"), division("Reserves", "EF"),
+    ...                   division("Other", "GH")],
+    ...     "shared_grounds": [{"teams": ["A", "E"], "pattern": "complementary"}]})
+    >>> graph = coupling_graph(fed)
+    >>> graph.number_of_nodes(), list(graph.edges(data=True))
+    (3, [('First', 'Reserves', {'couplings': ['A / E']})])
 
     References
     ----------
@@ -289,10 +375,20 @@ def units_of(fed: Federation, couplings: list[Coupling] | None = None) -> tuple[
 
     Examples
     --------
-    >>> from scheduler.config.federation import load_federation  # doctest: +SKIP
-    >>> fed = load_federation("sample_leagues/federation.toml")  # doctest: +SKIP
-    >>> [u.key for u in units_of(fed)][:2]  # doctest: +SKIP
-    ['unit-01', 'unit-02']
+    >>> from scheduler.config.federation import parse_federation
+    >>> def division(name, teams):
+    ...     return {"name": name, "teams": [{"name": t, "home_venue": f"{t} Ground"}
+    ...                                      for t in teams]}
+    >>> fed = parse_federation({
+    ...     "federation": {"name": "Example", "season": "2031", "timezone": "Europe/London",
+    ...                    "solve_seconds": 1},
+    ...     "calendar": {"start": "2031-09-06", "end": "2031-12-20", "weekdays": ["sat"]},
+    ...     "venues": [{"name": f"{t} Ground"} for t in "ABCDEFGH"],
+    ...     "divisions": [division("First", "ABCD"), division("Reserves", "EF"),
+    ...                   division("Other", "GH")],
+    ...     "shared_grounds": [{"teams": ["A", "E"], "pattern": "complementary"}]})
+    >>> [(u.key, u.divisions) for u in units_of(fed)]
+    [('unit-01', ('First', 'Reserves')), ('unit-02', ('Other',))]
 
     Parameters
     ----------

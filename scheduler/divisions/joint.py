@@ -73,6 +73,19 @@ class JointOutcome:
     ``timetables`` and ``placements`` by division name (empty when it failed), ``factorizations``
     the round pairings used, ``reason`` why it failed (empty on success), ``status`` "optimal"
     when the timetable model proved its optimum, else "feasible".
+
+    Parameters
+    ----------
+    timetables : dict
+        Division name -> :class:`~scheduler.balance.timetable_model.Timetable`.
+    placements : dict
+        Division name -> :class:`~scheduler.balance.places.Placement`.
+    factorizations : dict
+        Division name -> the :class:`~scheduler.factorization.model.Factorization` used.
+    reason : str
+        Why the joint models could not be used (empty on success).
+    status : str
+        "optimal" or "feasible".
     """
 
     timetables: dict[str, Timetable] = field(default_factory=dict)

@@ -56,7 +56,44 @@ only, or ``sequential`` only."""
 @dataclass(frozen=True)
 class DivisionPlan:
     """A planned division: its league as planned (with the coupling rules added), the season,
-    the fairness figures, the planner's notes and the couplings that added rules."""
+    the fairness figures, the planner's notes and the couplings that added rules.
+
+    Parameters
+    ----------
+    name : str
+        The division.
+    league : League
+        Its league as planned (one after another: with the rules the couplings added).
+    season : Season
+        The planned season.
+    fairness : FairnessReport
+        Its fairness figures.
+    notes : tuple of str
+        The planner's notes.
+    added : tuple of str
+        The couplings that bound it (in the words of :meth:`Coupling.describe`).
+    seconds : float
+        Its share of the unit's planning time.
+
+    Examples
+    --------
+    >>> from scheduler.config.federation import parse_federation
+    >>> def division(name, teams):
+    ...     return {"name": name, "teams": [{"name": t, "home_venue": f"{t} Ground"}
+    ...                                      for t in teams]}
+    >>> fed = parse_federation({
+    ...     "federation": {"name": "Example", "season": "2031", "timezone": "Europe/London",
+    ...                    "solve_seconds": 1},
+    ...     "calendar": {"start": "2031-09-06", "end": "2031-12-20", "weekdays": ["sat"]},
+    ...     "venues": [{"name": f"{t} Ground"} for t in "ABCDEFGH"],
+    ...     "divisions": [division("First", "ABCD"), division("Reserves", "EF"),
+    ...                   division("Other", "GH")],
+    ...     "shared_grounds": [{"teams": ["A", "E"], "pattern": "complementary"}]})
+    >>> from scheduler.divisions.grouping import units_of
+    >>> first = plan_unit(fed, units_of(fed)[0]).plans[0]
+    >>> first.name, len(first.season.fixtures), first.added
+    ('First', 6, ("shared ground 'A / E' (A, E): complementary home/away",))
+    """
 
     name: str
     league: League
@@ -71,7 +108,32 @@ class DivisionPlan:
 class UnitResult:
     """The outcome of one unit: its division plans, or ``error`` (a message) when it failed;
     ``seconds`` is its wall time, ``cpu_seconds`` the processor time it used (its cost on an
-    otherwise idle core)."""
+    otherwise idle core).
+
+    Parameters
+    ----------
+    key : str
+        The unit.
+    plans : tuple of DivisionPlan
+        Its division plans (those planned before a failure, when it failed).
+    error : str or None
+        Why it failed.
+    conflicts : tuple of str
+        The rules found in conflict.
+    seconds : float
+        Wall time.
+    cpu_seconds : float
+        Processor time.
+    method : str
+        Which method planned it (:data:`JOINT`, :data:`SEQUENTIAL`, :data:`SINGLE`).
+    fallback : str
+        Why the joint model was not used.
+
+    Examples
+    --------
+    >>> UnitResult("unit-01", error="no plan").method
+    'one after another'
+    """
 
     key: str
     plans: tuple[DivisionPlan, ...] = ()
@@ -100,6 +162,16 @@ def possible_windows(league: League) -> list[tuple[int, int]]:
 
     From the slots of its venues (or the calendar's kick-off, and the later rounds of one day
     when several rounds share it) and its ``game_minutes``.
+
+    Parameters
+    ----------
+    league : League
+        The division.
+
+    Returns
+    -------
+    list of tuple of int
+        ``(start, end)`` minutes of the day, sorted.
     """
     cal = league.calendar
     minutes = cal.game_minutes
@@ -132,7 +204,26 @@ def adapt(league: League, name: str, fed: Federation, couplings: list[Coupling],
           shares: dict, planned: dict[str, DivisionPlan]) -> tuple[League, tuple[str, ...]]:
     """``league`` with the couplings to the ``planned`` divisions turned into its own rules.
 
-    Returns the league and the descriptions of the couplings that added something.
+    Parameters
+    ----------
+    league : League
+        The division's league.
+    name : str
+        The division.
+    fed : Federation
+        The federation.
+    couplings : list of Coupling
+        The federation's couplings.
+    shares : dict
+        ``(division, venue)`` -> the division's share of a shared venue.
+    planned : dict of str to DivisionPlan
+        The divisions of the unit already planned.
+
+    Returns
+    -------
+    tuple
+        The league with the rules added, and the descriptions of the couplings that added
+        something.
     """
     added: list[str] = []
     venues = tuple(shares.get((name, v.name), v) for v in league.venues)

@@ -50,7 +50,7 @@ from scheduler.errors import InfeasibleError, SchedulerError
 from scheduler.factorization.model import Factorization
 from scheduler.interrupt import solve_interruptibly
 
-__all__ = ["JointOutcome", "MAX_JOINT_TEAMS", "plan_jointly"]
+__all__ = ["MAX_JOINT_TEAMS", "JointOutcome", "plan_jointly"]
 
 MAX_JOINT_TEAMS = 120
 """Largest unit (teams over all its divisions) planned by the joint model; larger units are
@@ -506,13 +506,13 @@ def _placements(fed: Federation, unit: Unit, couplings: list[Coupling], parts: l
     for c in couplings:
         if c.kind != "players":
             continue
-        for a, b in itertools.combinations(c.teams, 2):
-            if fed.division_of(a) == fed.division_of(b):
+        for first, second in itertools.combinations(c.teams, 2):
+            if fed.division_of(first) == fed.division_of(second):
                 continue
-            for day in sorted({d for (t, d) in by_team_day if t == a}):
-                mine = [g for g in by_team_day.get((a, day), [])
-                        if b not in (games[g].home, games[g].away)]
-                theirs = by_team_day.get((b, day), [])
+            for day in sorted({d for (t, d) in by_team_day if t == first}):
+                mine = [g for g in by_team_day.get((first, day), [])
+                        if second not in (games[g].home, games[g].away)]
+                theirs = by_team_day.get((second, day), [])
                 if not mine or not theirs:
                     continue
                 pairs = [(g, p) for g in mine + theirs for p in games[g].options]

@@ -368,7 +368,7 @@ def _timetables(fed: Federation, unit: Unit, couplings: list[Coupling],
     reason = ""
     for free_days in (False, True):
         cp, parts, budget = _build(fed, unit, couplings, time_limit, free_days)
-        deterministic = max(1.0, TIMETABLE_SHARE * budget) / (1 if free_days else 2)
+        deterministic = max(1.0, TIMETABLE_SHARE * budget)
         limits = SolveLimits(deterministic, 4 * deterministic + 10, fed_seed(fed, unit))
         solver = cp_model.CpSolver()
         configure(solver, limits)

@@ -137,6 +137,10 @@ class _Part:
     fact: Factorization
     model: TimetableModel
     team_index: dict[str, int]
+    variables: range = range(0)
+    """Indices of the variables its timetable model created in the shared model."""
+    seconds: float = 0.0
+    """Its solve seconds."""
 
 
 class _DateLiterals:
@@ -284,7 +288,8 @@ def _build(fed: Federation, unit: Unit, couplings: list[Coupling], time_limit: f
             variable = cp.proto.variables[index]
             variable.name = f"div{j}_{variable.name}"
         parts.append(_Part(name, league, fact, model,
-                           {t: i for i, t in enumerate(league.team_names)}))
+                           {t: i for i, t in enumerate(league.team_names)},
+                           range(before, len(cp.proto.variables)), total))
     # every rule of every division holds (their assumption literals are fixed, not assumed)
     cp.add_bool_and([lit for p in parts for lit in p.model.book.literals])
     cp.clear_assumptions()
@@ -376,11 +381,47 @@ def _timetables(fed: Federation, unit: Unit, couplings: list[Coupling],
         if status in (cp_model.OPTIMAL, cp_model.FEASIBLE):
             optimal = status == cp_model.OPTIMAL
             hit = not optimal and solver.wall_time >= limits.wall * 0.98
+            if not optimal:
+                solver, hit = _polish(cp, parts, solver, limits.seed, hit)
             found = {p.name: p.model.read_timetable(solver, optimal, hit) for p in parts}
             return parts, found, "optimal" if optimal else "feasible", ""
         reason = ("the joint timetable model is infeasible" if status == cp_model.INFEASIBLE
                   else "the joint timetable model found no timetable within its limits")
     return [], {}, "", reason
+
+
+def _polish(cp: cp_model.CpModel, parts: list[_Part], solver: cp_model.CpSolver, seed: int,
+            hit: bool) -> tuple[cp_model.CpSolver, bool]:
+    """Improve a joint solution division by division (a large-neighbourhood step, common
+    practice): the other divisions' timetable variables are fixed at their values, the whole
+    model is solved again from the current solution for this division alone (its own share of
+    the time), and the solution is kept when the objective went down. Deterministic: fixed
+    order, seed and deterministic limits."""
+    best = solver
+    values = list(solver.response_proto.solution)
+    objective = solver.objective_value
+    for part in parts:
+        if len(parts) < 2:
+            break
+        model = cp.clone()
+        model.clear_hints()
+        for index in range(len(values)):
+            model.add_hint(model.get_int_var_from_proto_index(index), values[index])
+        for other in parts:
+            if other is part:
+                continue
+            for index in other.variables:
+                model.add(model.get_int_var_from_proto_index(index) == values[index])
+        deterministic = max(1.0, TIMETABLE_SHARE * part.seconds)
+        limits = SolveLimits(deterministic, 4 * deterministic + 10, seed)
+        attempt = cp_model.CpSolver()
+        configure(attempt, limits)
+        status = solve_interruptibly(attempt, model)
+        if status in (cp_model.OPTIMAL, cp_model.FEASIBLE) and attempt.objective_value < objective:
+            best, objective = attempt, attempt.objective_value
+            values = list(attempt.response_proto.solution)
+            hit = hit or (status != cp_model.OPTIMAL and attempt.wall_time >= limits.wall * 0.98)
+    return best, hit
 
 
 def fed_seed(fed: Federation, unit: Unit) -> int:

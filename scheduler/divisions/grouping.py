@@ -115,6 +115,35 @@ def _games_per_day(league: League, venue: str) -> int:
     return hosted * max(1, league.calendar.rounds_per_day)
 
 
+def possible_windows(league: League) -> list[tuple[int, int]]:
+    """Minute-of-day intervals ``[start, end)`` in which ``league`` may play a game.
+
+    From the slots of its venues (or the calendar's kick-off, and the later rounds of one day
+    when several rounds share it) and its ``game_minutes``.
+
+    Parameters
+    ----------
+    league : League
+        The division.
+
+    Returns
+    -------
+    list of tuple of int
+        ``(start, end)`` minutes of the day, sorted.
+    """
+    cal = league.calendar
+    minutes = cal.game_minutes
+    per_day = max(1, cal.rounds_per_day)
+    starts: set[int] = set()
+    for venue in league.venues:
+        if venue.slots:
+            starts.update(s.hour * 60 + s.minute for s in venue.slots)
+    base = cal.kickoff.hour * 60 + cal.kickoff.minute
+    if not starts or any(not v.slots for v in league.venues) or not league.venues:
+        starts.update(base + j * minutes for j in range(per_day))
+    return sorted((s, s + minutes) for s in starts)
+
+
 def _users(fed: Federation) -> dict[str, list[str]]:
     """Venue name -> divisions that play there (file order)."""
     users: dict[str, list[str]] = {}

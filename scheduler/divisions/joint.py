@@ -45,7 +45,7 @@ from scheduler.balance.solver import SolveLimits, configure
 from scheduler.balance.timetable_model import Timetable, TimetableModel
 from scheduler.config.federation import Federation
 from scheduler.config.model import League
-from scheduler.divisions.grouping import Coupling, Unit
+from scheduler.divisions.grouping import Coupling, Unit, possible_windows
 from scheduler.errors import InfeasibleError, SchedulerError
 from scheduler.factorization.model import Factorization
 from scheduler.interrupt import solve_interruptibly
@@ -257,8 +257,6 @@ def _coupled_teams(couplings: Iterable[Coupling], unit: Unit, fed: Federation) -
 
 
 def _windows(league: League) -> list[tuple[int, int]]:
-    from scheduler.divisions.plan import possible_windows
-
     return possible_windows(league)
 
 

@@ -34,7 +34,13 @@ from typing import TYPE_CHECKING
 
 from scheduler.config.federation import Federation
 from scheduler.config.model import League, TeamDates
-from scheduler.divisions.grouping import Coupling, Unit, couplings_of, venue_shares
+from scheduler.divisions.grouping import (
+    Coupling,
+    Unit,
+    couplings_of,
+    possible_windows,
+    venue_shares,
+)
 from scheduler.errors import InfeasibleError, SchedulerError
 from scheduler.season import Season
 
@@ -155,35 +161,6 @@ def _merge(entries: Iterable[TeamDates], extra: dict[str, set[date]]) -> tuple[T
     for team, days in extra.items():
         dates.setdefault(team, set()).update(days)
     return tuple(TeamDates(team, tuple(sorted(days))) for team, days in dates.items() if days)
-
-
-def possible_windows(league: League) -> list[tuple[int, int]]:
-    """Minute-of-day intervals ``[start, end)`` in which ``league`` may play a game.
-
-    From the slots of its venues (or the calendar's kick-off, and the later rounds of one day
-    when several rounds share it) and its ``game_minutes``.
-
-    Parameters
-    ----------
-    league : League
-        The division.
-
-    Returns
-    -------
-    list of tuple of int
-        ``(start, end)`` minutes of the day, sorted.
-    """
-    cal = league.calendar
-    minutes = cal.game_minutes
-    per_day = max(1, cal.rounds_per_day)
-    starts: set[int] = set()
-    for venue in league.venues:
-        if venue.slots:
-            starts.update(s.hour * 60 + s.minute for s in venue.slots)
-    base = cal.kickoff.hour * 60 + cal.kickoff.minute
-    if not starts or any(not v.slots for v in league.venues) or not league.venues:
-        starts.update(base + j * minutes for j in range(per_day))
-    return sorted((s, s + minutes) for s in starts)
 
 
 def _busy(start: datetime | None, day: date | None, minutes: int) -> tuple[date, int, int] | None:

@@ -18,6 +18,10 @@ federation in under 2 minutes on 2 cores. All three runs must give the same seas
 The times include starting the cluster, sending the federation and gathering the results, not
 writing the output folders. The machine may be shared: compare figures of one run only.
 
+Units of two or more divisions are planned by the joint model (one CP-SAT model per unit,
+``scheduler.divisions.joint``) unless ``--method sequential`` asks for one division after
+another; the script prints how many units each method planned.
+
 Run: ``python benchmarks/bench_divisions.py`` (``--small``: 20 divisions, 2 shared grounds).
 """
 
@@ -31,6 +35,7 @@ import socket
 import subprocess
 import sys
 import time
+from collections import Counter
 from pathlib import Path
 
 from scheduler.config.federation import Federation, parse_federation
@@ -82,7 +87,7 @@ def _free_port() -> int:
         return probe.getsockname()[1]
 
 
-def _separate_cluster(fed: Federation):
+def _separate_cluster(fed: Federation, method: str):
     dask = shutil.which("dask", path=str(Path(sys.executable).parent)) or shutil.which("dask")
     if dask is None:
         raise SystemExit("the `dask` command is missing (it comes with distributed)")
@@ -111,7 +116,7 @@ def _separate_cluster(fed: Federation):
                     raise
                 time.sleep(0.5)
         began = time.perf_counter()
-        result = plan_federation(fed, cluster=address)
+        result = plan_federation(fed, cluster=address, method=method)
         return result, time.perf_counter() - began
     finally:
         for proc in procs[::-1]:
@@ -129,6 +134,9 @@ def main() -> None:
     parser.add_argument("--small", action="store_true", help="20 divisions, 2 shared grounds")
     parser.add_argument("--default-priorities", action="store_true",
                         help="plan with the default priorities (breaks, carry-over, balance)")
+    parser.add_argument("--method", choices=("auto", "joint", "sequential"), default="auto",
+                        help="how units of several divisions are planned (default: auto, the "
+                             "joint model with the sequential method as fallback)")
     args = parser.parse_args()
     divisions, shared = (20, 2) if args.small else (200, 20)
     began = time.perf_counter()
@@ -143,11 +151,18 @@ def main() -> None:
     walls, results = {}, {}
     for workers in (1, 2):
         began = time.perf_counter()
-        results[workers] = plan_federation(fed, workers=workers)
+        results[workers] = plan_federation(fed, workers=workers, method=args.method)
         walls[workers] = time.perf_counter() - began
         print(f"local cluster, {workers} worker(s): {walls[workers]:7.1f} s wall")
-    remote, walls["separate"] = _separate_cluster(fed)
+    remote, walls["separate"] = _separate_cluster(fed, args.method)
     print(f"separate scheduler, 2 workers:  {walls['separate']:7.1f} s wall")
+    methods = Counter(r.method for r in results[1].results)
+    print("units by method: " + ", ".join(f"{m} {n}" for m, n in sorted(methods.items())))
+    for method in sorted(methods):
+        mine = [r for r in results[1].results if r.method == method]
+        print(f"  {method}: {sum(r.seconds for r in mine):7.1f} s wall, "
+              f"{sum(r.cpu_seconds for r in mine):7.1f} s processor time, slowest unit "
+              f"{max(r.seconds for r in mine):.2f} s")
     solve = results[1].solve_seconds
     cpu = results[1].cpu_seconds
     print(f"sum of the units' own planning times (1-worker run): {solve:7.1f} s wall, "

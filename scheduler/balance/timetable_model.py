@@ -157,13 +157,21 @@ class TimetableModel:
     def __init__(self, league: League, fact: Factorization, *, minimise_breaks: bool = True,
                  fixed_order: tuple[int, ...] | None = None, earliest_days: bool = False,
                  effort: float = 2.0,
-                 start_home: dict[tuple[int, int], bool] | None = None) -> None:
+                 start_home: dict[tuple[int, int], bool] | None = None,
+                 cp: cp_model.CpModel | None = None, extra_named: tuple[str, ...] = (),
+                 free_days: bool = False) -> None:
+        # ``cp``: build into this model (several leagues in one model, see
+        # scheduler.divisions.joint); ``extra_named``: teams to place on vertices explicitly even
+        # without a team-specific rule (so that ``team_home`` can speak of them); ``free_days``:
+        # let the model choose the match days even when no rule names a date
         self.earliest_days = earliest_days
         self.start_home = start_home
         self.effort = effort
         self.league = league
         self.fact = fact
-        self.cp = cp_model.CpModel()
+        self.extra_named = extra_named
+        self.free_days = free_days
+        self.cp = cp if cp is not None else cp_model.CpModel()
         self.book = RuleBook(self.cp)
         self.teams = len(league.teams)
         self.odd = self.teams % 2 == 1
@@ -461,6 +469,7 @@ class TimetableModel:
         named: set[int] = set()
         for rule in RULES:
             named |= {self.team_index[name] for name in rule.named_teams(self.league)}
+        named |= {self.team_index[name] for name in self.extra_named}
         self.capacity_groups = capacity_groups(self.league)
         self.named = sorted(named)
         cp = self.cp
@@ -530,6 +539,8 @@ class TimetableModel:
         self.candidate_days = candidate_days(self.league, self.season_rounds)
         groups = len(self.day_groups)
         self.day_index: dict[date, int] = {}
+        self.days_fixed = True
+        """Day group g is played on candidate day g (the first days), decided before solving."""
         if len(self.candidate_days) < groups:
             self.book.forbid(f"the calendar offers {len(self.candidate_days)} match days but the "
                              f"season needs {groups}")
@@ -539,18 +550,21 @@ class TimetableModel:
         self.day_index = {d: i for i, d in enumerate(self.candidate_days)}
         r = self.league.rules
         dated = r.unavailable or r.no_home_games or any(f.date is not None for f in r.fixed)
-        if self.earliest_days or (not dated and r.min_rest_days is None):
+        if self.earliest_days or (not dated and r.min_rest_days is None and not self.free_days):
             # nothing depends on the choice of days: use the first ones
             for g in range(groups):
                 self.cp.add(self.days.on[(g, g)] == 1)
+        else:
+            self.days_fixed = len(self.candidate_days) == groups
 
     def _build_objective(self) -> None:
         late = self.days.lateness() if self.days is not None else 0
         if self.minimise_breaks:
             span = len(self.day_groups) * max(1, len(self.candidate_days)) + 1
-            self.cp.minimize(span * self.total_breaks + late)
+            self.objective = span * self.total_breaks + late
         else:
-            self.cp.minimize(late)
+            self.objective = late
+        self.cp.minimize(self.objective)
 
     # --- solving -------------------------------------------------------------------------------
     def solve(self, limits: SolveLimits, *, explain_failure: bool = True) -> Timetable:
@@ -599,6 +613,31 @@ class TimetableModel:
             n=self.n, breaks=total_breaks(found["games"], self.teams),
             break_bound=self.bound.value, break_bound_reason=self.bound.reason,
             status="optimal" if status == cp_model.OPTIMAL else "feasible", wall_cap_hit=hit,
+            days=self.candidate_days, **found)
+
+    def read_timetable(self, solver: cp_model.CpSolver, optimal: bool,
+                       wall_cap_hit: bool = False) -> Timetable:
+        """The :class:`Timetable` of a solution ``solver`` found for a model holding this one
+        (this league's part of a larger model, see ``scheduler.divisions.joint``).
+
+        Parameters
+        ----------
+        solver : ortools.sat.python.cp_model.CpSolver
+            A solver that found a solution of the model this timetable model was built into.
+        optimal : bool
+            Whether that solution was proven optimal (the timetable's ``status``).
+        wall_cap_hit : bool
+            Whether the wall-clock safety limit stopped the search.
+
+        Returns
+        -------
+        Timetable
+        """
+        found = self._extract(solver)
+        return Timetable(
+            n=self.n, breaks=total_breaks(found["games"], self.teams),
+            break_bound=self.bound.value, break_bound_reason=self.bound.reason,
+            status="optimal" if optimal else "feasible", wall_cap_hit=wall_cap_hit,
             days=self.candidate_days, **found)
 
     def _still_infeasible(self, indices: list[int], limits: SolveLimits) -> bool:

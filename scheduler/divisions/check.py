@@ -10,13 +10,14 @@ its shares of venues, not the rules it added), and reports every broken rule:
 - two teams of one player group playing at overlapping times.
 
 It also measures the complementary pattern: for each ``complementary`` pair, on how many of the
-days one team was at home the other team played away (the part the planner cannot promise).
+days both played exactly one of them was at home; where the plan promised the pattern (units
+planned by the joint model) a day that misses it is a problem.
 """
 
 from __future__ import annotations
 
 import itertools
-from collections.abc import Mapping
+from collections.abc import Collection, Mapping
 from dataclasses import dataclass
 from datetime import date, datetime, timedelta
 
@@ -27,23 +28,60 @@ from scheduler.season import Season
 @dataclass(frozen=True, slots=True)
 class ComplementFigure:
     """For one complementary pair: days with exactly one of the two at home and the other away,
-    out of the days on which both played."""
+    out of the days on which both played.
+
+    Parameters
+    ----------
+    ground : str
+        The shared ground.
+    teams : tuple of str
+        The pair, in file order.
+    complementary_days : int
+        Days both played with exactly one of them at home.
+    common_days : int
+        Days both played.
+    enforced : bool
+        Whether the plan promised the pattern (joint model).
+    """
 
     ground: str
     teams: tuple[str, str]
     complementary_days: int
     common_days: int
+    enforced: bool = False
+    """Whether the plan promised the pattern (then every missed day is a problem)."""
 
 
 @dataclass(frozen=True)
 class CrossCheck:
-    """The outcome: ``problems`` (empty when every rule holds) and the complementary figures."""
+    """The outcome of :func:`check_federation`.
+
+    Parameters
+    ----------
+    problems : tuple of str
+        Every broken rule in plain words (empty when every rule holds).
+    complement : tuple of ComplementFigure
+        The figures of the complementary pairs.
+
+    Examples
+    --------
+    >>> CrossCheck((), ()).valid
+    True
+    >>> CrossCheck(("a broken rule",), ()).valid
+    False
+    """
 
     problems: tuple[str, ...]
     complement: tuple[ComplementFigure, ...]
 
     @property
     def valid(self) -> bool:
+        """Whether every rule across divisions holds.
+
+        Returns
+        -------
+        bool
+        """
         return not self.problems
 
 
@@ -62,7 +100,8 @@ def _overlap(a, b) -> bool:
     return a[0] < b[1] and b[0] < a[1]
 
 
-def check_federation(fed: Federation, seasons: Mapping[str, Season]) -> CrossCheck:
+def check_federation(fed: Federation, seasons: Mapping[str, Season],
+                     complementary_required: Collection[str] = ()) -> CrossCheck:
     """Check the rules across divisions in the planned ``seasons`` (division name -> season).
 
     Parameters
@@ -71,6 +110,10 @@ def check_federation(fed: Federation, seasons: Mapping[str, Season]) -> CrossChe
         The federation (for its grounds, player groups and each division's game length).
     seasons
         The planned season of every division.
+    complementary_required
+        Names of ``complementary`` shared grounds whose pattern the plan promised (planned by
+        the joint model): a common match day without exactly one of the pair at home is then
+        a problem; for the others it is only measured.
 
     Returns
     -------
@@ -79,8 +122,23 @@ def check_federation(fed: Federation, seasons: Mapping[str, Season]) -> CrossChe
 
     Examples
     --------
-    >>> check_federation(fed, {p.name: p.season for p in plan.plans}).valid  # doctest: +SKIP
-    True
+    >>> from scheduler.config.federation import parse_federation
+    >>> def division(name, teams):
+    ...     return {"name": name, "teams": [{"name": t, "home_venue": f"{t} Ground"}
+    ...                                      for t in teams]}
+    >>> fed = parse_federation({
+    ...     "federation": {"name": "Example", "season": "2031", "timezone": "Europe/London",
+    ...                    "solve_seconds": 1},
+    ...     "calendar": {"start": "2031-09-06", "end": "2031-12-20", "weekdays": ["sat"]},
+    ...     "venues": [{"name": f"{t} Ground"} for t in "ABCDEFGH"],
+    ...     "divisions": [division("First", "ABCD"), division("Reserves", "EF"),
+    ...                   division("Other", "GH")],
+    ...     "shared_grounds": [{"teams": ["A", "E"], "pattern": "complementary"}]})
+    >>> from scheduler.divisions import plan_unit, units_of
+    >>> plans = [p for unit in units_of(fed) for p in plan_unit(fed, unit).plans]
+    >>> check = check_federation(fed, {p.name: p.season for p in plans}, ["A / E"])
+    >>> check.valid, check.complement[0].complementary_days == check.complement[0].common_days
+    (True, True)
 
     References
     ----------
@@ -130,7 +188,13 @@ def check_federation(fed: Federation, seasons: Mapping[str, Season]) -> CrossChe
             common = played_a & played_b
             good = sum(1 for day in common
                        if (day in home_days.get(a, set())) != (day in home_days.get(b, set())))
-            figures.append(ComplementFigure(ground.name, (a, b), good, len(common)))
+            required = ground.name in complementary_required
+            figures.append(ComplementFigure(ground.name, (a, b), good, len(common), required))
+            if required:
+                for day in sorted(common):
+                    if (day in home_days.get(a, set())) == (day in home_days.get(b, set())):
+                        problems.append(f"shared ground {ground.name!r} (complementary): {a} and "
+                                        f"{b} are not one at home and one away on {day}")
     spans: dict[str, list] = {}
     for name, f, span in games:
         for team in f.teams:

@@ -26,7 +26,7 @@ from typing import Any
 from scheduler.config.federation import Federation
 from scheduler.divisions.check import CrossCheck, check_federation
 from scheduler.divisions.grouping import Unit, units_of
-from scheduler.divisions.plan import DivisionPlan, UnitResult, plan_unit
+from scheduler.divisions.plan import JOINT, DivisionPlan, UnitResult, plan_unit
 from scheduler.errors import InfeasibleError, InputError
 
 CONNECT_SECONDS = 5
@@ -35,8 +35,23 @@ CONNECT_SECONDS = 5
 
 @dataclass(frozen=True)
 class FederationPlan:
-    """Every division planned: ``plans`` in file order, the units, their results (unit order)
-    and the independent check of the rules across divisions."""
+    """Every division planned.
+
+    Parameters
+    ----------
+    federation : Federation
+        The federation planned.
+    units : tuple of Unit
+        Its units of work.
+    results : tuple of UnitResult
+        Their results, in unit order.
+    plans : tuple of DivisionPlan
+        The division plans, in file order.
+    check : CrossCheck
+        The independent check of the rules across divisions.
+    wall_seconds : float
+        Wall time of the whole planning.
+    """
 
     federation: Federation
     units: tuple[Unit, ...]
@@ -59,6 +74,18 @@ class FederationPlan:
 @contextmanager
 def dask_client(workers: int = 2, cluster: str | None = None) -> Iterator[Any]:
     """A ``distributed.Client``: on an embedded local cluster, or connected to ``cluster``.
+
+    Parameters
+    ----------
+    workers : int
+        Worker processes of the embedded cluster (ignored with ``cluster``).
+    cluster : str or None
+        Address of a running Dask scheduler, or ``None`` for the embedded cluster.
+
+    Yields
+    ------
+    distributed.Client
+        The client; closed (with the embedded cluster) on leaving the context.
 
     Raises
     ------
@@ -111,6 +138,7 @@ def plan_federation(
     cluster: str | None = None,
     time_limit: float | None = None,
     progress: Callable[[str, float], None] | None = None,
+    method: str = "auto",
 ) -> FederationPlan:
     """Plan every division of ``fed``, one Dask task per unit of work.
 
@@ -126,6 +154,9 @@ def plan_federation(
         Solver seconds per division (default: each division's own).
     progress
         ``progress(message, fraction)`` after each finished unit.
+    method
+        How units of several divisions are planned (:data:`scheduler.divisions.plan.METHODS`):
+        ``auto`` (the joint model, else one division after another), ``joint``, ``sequential``.
 
     Returns
     -------
@@ -162,7 +193,8 @@ def plan_federation(
         # SIAM J. Appl. Math. 17, 1969, from memory): the last units to finish are small, so
         # the workers finish close together. Only the order of work changes, never a result.
         futures = {
-            client.submit(plan_unit, shared, unit, time_limit, key=f"plan-{digest}-{unit.key}",
+            client.submit(plan_unit, shared, unit, time_limit, method,
+                          key=f"plan-{digest}-{method}-{unit.key}",
                           pure=False, priority=_unit_size(fed, unit)): unit.key
             for unit in units
         }
@@ -179,5 +211,9 @@ def plan_federation(
             f"{len(failed)} of {len(units)} units of divisions cannot be planned", conflicts)
     by_name = {p.name: p for r in ordered for p in r.plans}
     plans = tuple(by_name[name] for name in fed.division_names)
-    check = check_federation(fed, {p.name: p.season for p in plans})
+    joint = {d for u, r in zip(units, ordered, strict=True) if r.method == JOINT
+             for d in u.divisions}
+    promised = [g.name for g in fed.shared_grounds
+                if g.pattern == "complementary" and {fed.division_of(t) for t in g.teams} <= joint]
+    check = check_federation(fed, {p.name: p.season for p in plans}, promised)
     return FederationPlan(fed, units, ordered, plans, check, clock.perf_counter() - began)

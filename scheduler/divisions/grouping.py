@@ -37,6 +37,27 @@ class Coupling:
     ``teams`` are the teams it binds (for a venue: the teams of its divisions homed there, empty
     when "home" is a side), ``divisions`` the divisions it joins, ``pattern`` the ground pattern
     (``apart``/``complementary``; empty for other kinds), ``venue`` the ground or hall.
+
+    Parameters
+    ----------
+    kind : {"ground", "venue", "players"}
+        What couples the divisions.
+    name : str
+        The ground, venue or group.
+    divisions : tuple of str
+        The divisions it joins.
+    teams : tuple of str
+        The teams it binds.
+    pattern : str
+        ``apart`` or ``complementary`` for a ground.
+    venue : str or None
+        The ground or hall, where there is one.
+
+    Examples
+    --------
+    >>> Coupling("ground", "Mill Lane", ("First", "Reserves"), ("Mill", "Mill Reserves"),
+    ...          "complementary").describe()
+    "shared ground 'Mill Lane' (Mill, Mill Reserves): complementary home/away"
     """
 
     kind: CouplingKind
@@ -47,7 +68,12 @@ class Coupling:
     venue: str | None = None
 
     def describe(self) -> str:
-        """The coupling in the words of the federation file."""
+        """The coupling in the words of the federation file.
+
+        Returns
+        -------
+        str
+        """
         if self.kind == "ground":
             what = "complementary home/away" if self.pattern == "complementary" else (
                 "never both at home on one day")
@@ -60,7 +86,20 @@ class Coupling:
 
 @dataclass(frozen=True, slots=True)
 class Unit:
-    """A unit of work: divisions planned together, in ``divisions`` order (file order)."""
+    """A unit of work: divisions planned together, in ``divisions`` order (file order).
+
+    Parameters
+    ----------
+    key : str
+        ``unit-01``, ``unit-02``, ...
+    divisions : tuple of str
+        Its divisions, in file order.
+
+    Examples
+    --------
+    >>> Unit("unit-01", ("First", "Reserves")).divisions
+    ('First', 'Reserves')
+    """
 
     key: str
     divisions: tuple[str, ...]
@@ -74,6 +113,35 @@ def _games_per_day(league: League, venue: str) -> int:
     else:
         hosted = min(per_round, sum(1 for t in league.teams if t.home_venue == venue))
     return hosted * max(1, league.calendar.rounds_per_day)
+
+
+def possible_windows(league: League) -> list[tuple[int, int]]:
+    """Minute-of-day intervals ``[start, end)`` in which ``league`` may play a game.
+
+    From the slots of its venues (or the calendar's kick-off, and the later rounds of one day
+    when several rounds share it) and its ``game_minutes``.
+
+    Parameters
+    ----------
+    league : League
+        The division.
+
+    Returns
+    -------
+    list of tuple of int
+        ``(start, end)`` minutes of the day, sorted.
+    """
+    cal = league.calendar
+    minutes = cal.game_minutes
+    per_day = max(1, cal.rounds_per_day)
+    starts: set[int] = set()
+    for venue in league.venues:
+        if venue.slots:
+            starts.update(s.hour * 60 + s.minute for s in venue.slots)
+    base = cal.kickoff.hour * 60 + cal.kickoff.minute
+    if not starts or any(not v.slots for v in league.venues) or not league.venues:
+        starts.update(base + j * minutes for j in range(per_day))
+    return sorted((s, s + minutes) for s in starts)
 
 
 def _users(fed: Federation) -> dict[str, list[str]]:
@@ -100,7 +168,17 @@ def _day_keys(league: League) -> frozenset:
 
 def may_share_day(a: League, b: League) -> bool:
     """Whether two divisions can ever play on the same day (a common weekday, or a date of one
-    on a weekday of the other). Divisions that never share a day need no coupling."""
+    on a weekday of the other). Divisions that never share a day need no coupling.
+
+    Parameters
+    ----------
+    a, b : League
+        The two divisions' leagues.
+
+    Returns
+    -------
+    bool
+    """
     ka, kb = _day_keys(a), _day_keys(b)
     if ka & kb:
         return True
@@ -114,7 +192,19 @@ def may_share_day(a: League, b: League) -> bool:
 
 def same_day_groups(fed: Federation, divisions: list[str]) -> list[list[str]]:
     """``divisions`` cut into groups that can share a day (connected under :func:`may_share_day`),
-    each in the given order; groups of one are left out."""
+    each in the given order; groups of one are left out.
+
+    Parameters
+    ----------
+    fed : Federation
+        The federation.
+    divisions : list of str
+        Division names.
+
+    Returns
+    -------
+    list of list of str
+    """
     graph = nx.Graph()
     graph.add_nodes_from(divisions)
     for a, b in itertools.combinations(divisions, 2):
@@ -136,8 +226,9 @@ def _split(count: int, needs: list[int]) -> list[tuple[int, int]] | None:
     return blocks
 
 
-def venue_shares(fed: Federation) -> tuple[dict[tuple[str, str], Venue], list[Coupling]]:
-    """How each venue used by several divisions is shared.
+def venue_shares(fed: Federation, strict: bool = True
+                 ) -> tuple[dict[tuple[str, str], Venue], list[Coupling]]:
+    """How each venue used by several divisions is shared by the one-after-another method.
 
     Returns ``(shares, couplings)``: ``shares[(division, venue)]`` is the part of the venue the
     division may use (some of its slots with every court, or some of its courts with every slot,
@@ -146,22 +237,38 @@ def venue_shares(fed: Federation) -> tuple[dict[tuple[str, str], Venue], list[Co
     ``ground`` coupling instead (never two of those teams of different divisions at home on one
     day), which needs no split. Venues used by one division are left whole.
 
+    Parameters
+    ----------
+    fed : Federation
+        The federation.
+    strict : bool
+        Raise for a venue that cannot be split (the one-after-another method needs the split);
+        with ``False`` such a venue only gets its ``venue`` coupling (the joint model shares it
+        date by date, :mod:`scheduler.divisions.joint`).
+
+    Returns
+    -------
+    tuple
+        ``(shares, couplings)`` as above.
+
     Raises
     ------
     ConfigError
-        A venue that can neither be split nor shared by dates (located at ``venues[i]``).
+        With ``strict``: a venue that can neither be split nor shared by dates (located at
+        ``venues[i]``).
     """
     shares: dict[tuple[str, str], Venue] = {}
     couplings: list[Coupling] = []
     users = _users(fed)
     for index, venue in enumerate(fed.venues):
         for divs in same_day_groups(fed, users.get(venue.name, [])):
-            _share(fed, index, venue, divs, shares, couplings)
+            _share(fed, index, venue, divs, shares, couplings, strict)
     return shares, couplings
 
 
 def _share(fed: Federation, index: int, venue: Venue, divs: list[str],
-       shares: dict[tuple[str, str], Venue], couplings: list[Coupling]) -> None:
+           shares: dict[tuple[str, str], Venue], couplings: list[Coupling],
+           strict: bool = True) -> None:
     leagues = [fed.division(d).league for d in divs]
     demand = [_games_per_day(lg, venue.name) for lg in leagues]
     slots = list(venue.slots)
@@ -180,7 +287,7 @@ def _share(fed: Federation, index: int, venue: Venue, divs: list[str],
         couplings.append(Coupling("ground", venue.name, tuple(divs), home_teams, "apart",
                                   venue.name))
         return
-    else:
+    elif strict:
         needs = ", ".join(f"{d} {n}" for d, n in zip(divs, demand, strict=True))
         raise ConfigError(
             [f"venues[{index}]: {venue.name!r} hosts {venue.capacity} games at a time but "
@@ -203,21 +310,28 @@ def couplings_of(fed: Federation) -> list[Coupling]:
         Explicit shared grounds first (file order), then shared venues and automatic grounds
         (venue order), then player groups (file order).
 
-    Raises
-    ------
-    ConfigError
-        A venue that cannot be shared (see :func:`venue_shares`).
-
     Examples
     --------
-    >>> [c.kind for c in couplings_of(fed)]  # doctest: +SKIP
-    ['ground', 'venue', 'players']
+    >>> from scheduler.config.federation import parse_federation
+    >>> def division(name, teams):
+    ...     return {"name": name, "teams": [{"name": t, "home_venue": f"{t} Ground"}
+    ...                                      for t in teams]}
+    >>> fed = parse_federation({
+    ...     "federation": {"name": "Example", "season": "2031", "timezone": "Europe/London",
+    ...                    "solve_seconds": 1},
+    ...     "calendar": {"start": "2031-09-06", "end": "2031-12-20", "weekdays": ["sat"]},
+    ...     "venues": [{"name": f"{t} Ground"} for t in "ABCDEFGH"],
+    ...     "divisions": [division("First", "ABCD"), division("Reserves", "EF"),
+    ...                   division("Other", "GH")],
+    ...     "shared_grounds": [{"teams": ["A", "E"], "pattern": "complementary"}]})
+    >>> [(c.kind, c.divisions) for c in couplings_of(fed)]
+    [('ground', ('First', 'Reserves'))]
 
     References
     ----------
     ``docs/divisions.md``, "Couplings and units of work".
     """
-    _, couplings = venue_shares(fed)
+    _, couplings = venue_shares(fed, strict=False)
     out = []
     for g in fed.shared_grounds:
         divs = tuple(dict.fromkeys(fed.division_of(t) for t in g.teams))
@@ -250,8 +364,21 @@ def coupling_graph(fed: Federation, couplings: list[Coupling] | None = None) -> 
 
     Examples
     --------
-    >>> coupling_graph(fed).number_of_nodes() == len(fed.divisions)  # doctest: +SKIP
-    True
+    >>> from scheduler.config.federation import parse_federation
+    >>> def division(name, teams):
+    ...     return {"name": name, "teams": [{"name": t, "home_venue": f"{t} Ground"}
+    ...                                      for t in teams]}
+    >>> fed = parse_federation({
+    ...     "federation": {"name": "Example", "season": "2031", "timezone": "Europe/London",
+    ...                    "solve_seconds": 1},
+    ...     "calendar": {"start": "2031-09-06", "end": "2031-12-20", "weekdays": ["sat"]},
+    ...     "venues": [{"name": f"{t} Ground"} for t in "ABCDEFGH"],
+    ...     "divisions": [division("First", "ABCD"), division("Reserves", "EF"),
+    ...                   division("Other", "GH")],
+    ...     "shared_grounds": [{"teams": ["A", "E"], "pattern": "complementary"}]})
+    >>> graph = coupling_graph(fed)
+    >>> graph.number_of_nodes(), list(graph.edges(data=True))
+    (3, [('First', 'Reserves', {'couplings': ['A / E']})])
 
     References
     ----------
@@ -277,10 +404,20 @@ def units_of(fed: Federation, couplings: list[Coupling] | None = None) -> tuple[
 
     Examples
     --------
-    >>> from scheduler.config.federation import load_federation  # doctest: +SKIP
-    >>> fed = load_federation("sample_leagues/federation.toml")  # doctest: +SKIP
-    >>> [u.key for u in units_of(fed)][:2]  # doctest: +SKIP
-    ['unit-01', 'unit-02']
+    >>> from scheduler.config.federation import parse_federation
+    >>> def division(name, teams):
+    ...     return {"name": name, "teams": [{"name": t, "home_venue": f"{t} Ground"}
+    ...                                      for t in teams]}
+    >>> fed = parse_federation({
+    ...     "federation": {"name": "Example", "season": "2031", "timezone": "Europe/London",
+    ...                    "solve_seconds": 1},
+    ...     "calendar": {"start": "2031-09-06", "end": "2031-12-20", "weekdays": ["sat"]},
+    ...     "venues": [{"name": f"{t} Ground"} for t in "ABCDEFGH"],
+    ...     "divisions": [division("First", "ABCD"), division("Reserves", "EF"),
+    ...                   division("Other", "GH")],
+    ...     "shared_grounds": [{"teams": ["A", "E"], "pattern": "complementary"}]})
+    >>> [(u.key, u.divisions) for u in units_of(fed)]
+    [('unit-01', ('First', 'Reserves')), ('unit-02', ('Other',))]
 
     Parameters
     ----------

@@ -59,7 +59,17 @@ HEADERS = ("Round", "Leg", "Date", "Kick-off", "Home", "Away", "Venue", "Court",
 
 
 def division_folders(names: tuple[str, ...]) -> dict[str, str]:
-    """Division name -> its folder name (unique, never one of the federation's own names)."""
+    """Division name -> its folder name (unique, never one of the federation's own names).
+
+    Parameters
+    ----------
+    names : tuple of str
+        The division names.
+
+    Returns
+    -------
+    dict of str to str
+    """
     stems = safe_filenames(names)
     return {name: (f"division-{stem}" if stem.lower() in _RESERVED else stem)
             for name, stem in stems.items()}
@@ -70,7 +80,18 @@ def _cell(text: str | None) -> str | None:
 
 
 def workbook_bytes(plan: FederationPlan) -> bytes:
-    """The workbook: one sheet of fixtures per division, in file order (fixed bytes)."""
+    """The workbook: one sheet of fixtures per division, in file order (fixed bytes).
+
+    Parameters
+    ----------
+    plan : FederationPlan
+        The planned federation.
+
+    Returns
+    -------
+    bytes
+        The xlsx file.
+    """
 
     wb = Workbook()
     wb.remove(wb.active)
@@ -105,7 +126,22 @@ def _moment(component) -> tuple:
 
 
 def club_calendar(plan: FederationPlan, club: str, teams: tuple[str, ...]) -> bytes:
-    """One calendar with the games (and byes) of every team of ``club``, in time order."""
+    """One calendar with the games (and byes) of every team of ``club``, in time order.
+
+    Parameters
+    ----------
+    plan : FederationPlan
+        The planned federation.
+    club : str
+        The club's name.
+    teams : tuple of str
+        Its teams.
+
+    Returns
+    -------
+    bytes
+        The iCalendar file (RFC 5545).
+    """
     by_team = {t: p for p in plan.plans for t in p.season.teams}
     events: dict[str, Component] = {}
     zones: dict[str, Component] = {}
@@ -134,7 +170,20 @@ def club_calendar(plan: FederationPlan, club: str, teams: tuple[str, ...]) -> by
 
 
 def summary(plan: FederationPlan, folders: dict[str, str]) -> dict:
-    """The contents of ``federation.json`` (no clock, no machine: the same plan, same text)."""
+    """The contents of ``federation.json`` (no clock, no machine: the same plan, same text).
+
+    Parameters
+    ----------
+    plan : FederationPlan
+        The planned federation.
+    folders : dict of str to str
+        Division name -> its folder.
+
+    Returns
+    -------
+    dict
+        Divisions, units (with the method that planned each), check results.
+    """
     fed = plan.federation
     unit_of = {d: u.key for u in plan.units for d in u.divisions}
     return {
@@ -148,13 +197,16 @@ def summary(plan: FederationPlan, folders: dict[str, str]) -> dict:
              "rules_across_divisions": list(p.added), "notes": list(p.notes)}
             for p in plan.plans
         ],
-        "units": [{"key": u.key, "divisions": list(u.divisions)} for u in plan.units],
+        "units": [{"key": u.key, "divisions": list(u.divisions), "method": r.method,
+                   **({"joint_model_not_used_because": r.fallback} if r.fallback else {})}
+                  for u, r in zip(plan.units, plan.results, strict=True)],
         "check": {
             "valid": plan.check.valid,
             "problems": list(plan.check.problems),
             "complementary": [
                 {"ground": c.ground, "teams": list(c.teams),
-                 "complementary_days": c.complementary_days, "common_days": c.common_days}
+                 "complementary_days": c.complementary_days, "common_days": c.common_days,
+                 "enforced": c.enforced}
                 for c in plan.check.complement
             ],
         },
@@ -162,10 +214,27 @@ def summary(plan: FederationPlan, folders: dict[str, str]) -> dict:
 
 
 def index_html(plan: FederationPlan, folders: dict[str, str], clubs: dict[str, str]) -> str:
-    """The index page: every division with links to its outputs, the workbook, the clubs."""
+    """The index page: every division with links to its outputs, the workbook, the clubs.
+
+    Parameters
+    ----------
+    plan : FederationPlan
+        The planned federation.
+    folders : dict of str to str
+        Division name -> its folder.
+    clubs : dict of str to str
+        Club name -> its calendar file.
+
+    Returns
+    -------
+    str
+        The HTML page.
+    """
     fed = plan.federation
     e = html.escape
     unit_of = {d: u.key for u in plan.units for d in u.divisions}
+    method_of = {d: r.method for u, r in zip(plan.units, plan.results, strict=True)
+                 for d in u.divisions}
     rows = []
     for p in plan.plans:
         folder = folders[p.name]
@@ -175,7 +244,8 @@ def index_html(plan: FederationPlan, folders: dict[str, str], clubs: dict[str, s
                                 ("fixtures.csv", "CSV"), ("calendars/league.ics", "calendar"),
                                 ("season.json", "data")))
         rows.append(f"<tr><td>{e(p.name)}</td><td>{len(p.season.teams)}</td>"
-                    f"<td>{p.season.rounds}</td><td>{e(unit_of[p.name])}</td><td>{links}</td></tr>")
+                    f"<td>{p.season.rounds}</td><td>{e(unit_of[p.name])}</td>"
+                    f"<td>{e(method_of[p.name])}</td><td>{links}</td></tr>")
     club_items = "".join(f'<li><a href="{CLUB_FOLDER}/{e(file)}">{e(name)}</a></li>'
                          for name, file in clubs.items())
     check = ("every rule across divisions holds (checked from the fixtures)"
@@ -197,7 +267,8 @@ text-align:left}}</style></head>
 <p>{len(plan.plans)} divisions in {len(plan.units)} independent units. {check}.</p>
 <p><a href="{WORKBOOK_FILE}">All divisions in one workbook</a> ·
 <a href="{SUMMARY_FILE}">summary (JSON)</a></p>
-<table><thead><tr><th>division</th><th>teams</th><th>rounds</th><th>unit</th><th>outputs</th>
+<table><thead><tr><th>division</th><th>teams</th><th>rounds</th><th>unit</th>
+<th>planned</th><th>outputs</th>
 </tr></thead><tbody>
 {chr(10).join(rows)}
 </tbody></table>

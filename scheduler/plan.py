@@ -36,22 +36,27 @@ from __future__ import annotations
 import hashlib
 import itertools
 from collections.abc import Callable, Iterator
-from dataclasses import dataclass, replace
+from dataclasses import dataclass, field, replace
 
 from scheduler.balance.carry import improve_order
 from scheduler.balance.dates import candidate_days, day_groups, kickoff
+from scheduler.balance.low_carry_over import (
+    best_low_carry_over,
+    carry_over_bounds,
+    search_low_carry_over,
+)
 from scheduler.balance.perfect_breaks import stored_best_perfect
 from scheduler.balance.places import Placement, assign_places
 from scheduler.balance.timetable import SolveLimits, Timetable, solve_timetable
 from scheduler.carry_over import carry_over_of_rounds
-from scheduler.config.model import League
+from scheduler.config.model import League, Priorities
 from scheduler.errors import ConfigError, InfeasibleError, InputError
 from scheduler.factorization.anderson import anderson_factorization
 from scheduler.factorization.catalogue import catalogue_factorization
 from scheduler.factorization.circle import circle_factorization, circle_rounds
 from scheduler.factorization.model import Certificate, Factorization
 from scheduler.factorization.verify import verify_rounds
-from scheduler.fairness.frontier import ScheduleOption, frontier
+from scheduler.fairness.frontier import ScheduleOption, dominates, frontier
 from scheduler.progress import Progress
 from scheduler.rules.rest_days import calendar_clash
 from scheduler.season import Fixture, MixingInfo, PlanOptionFigures, Season
@@ -107,18 +112,73 @@ class PlanOption:
 @dataclass(frozen=True)
 class PlanResult:
     """The planned season, the alternatives considered, ``status`` ("optimal" when every solver
-    stage proved its optimum, else "feasible") and the planner's notes (also in the season)."""
+    stage proved its optimum, else "feasible"), the planner's notes (those of the season) and
+    why the chosen option was chosen."""
 
     season: Season
     options: tuple[PlanOption, ...]
     status: str
     notes: tuple[str, ...]
+    why: str = ""
+    """Why the league's priorities picked the chosen option (empty when only one option keeps
+    the rules); said on the terminal, never written into the season folder, so that choosing
+    an option later (:func:`choose_option`) writes the same files as a plan whose priorities
+    picked it."""
 
 
-def revision(league: League, seed: int) -> str:
-    """A deterministic 12-hex id of the league configuration and seed (sha256 of its repr; the
-    file path ``source`` is left out so that moving the file keeps the revision)."""
-    text = repr(replace(league, source=None)) + f"|seed={seed}"
+def plan_key(league: League, seed: int) -> str:
+    """A 16-hex id of what a plan's options are computed from: the league configuration without
+    its priorities and the seed (sha256 of their repr; the file path ``source`` is left out so
+    that moving the file keeps it).
+
+    The priorities are left out because they only weigh the options against each other; the
+    season folder keeps this id beside the stored options, so that ``choose`` can check that
+    the league file is still the one they were planned from.
+
+    Parameters
+    ----------
+    league
+        The league.
+    seed
+        The plan's seed.
+
+    Returns
+    -------
+    str
+        16 lower-case hexadecimal digits.
+    """
+    text = repr(replace(league, source=None, priorities=Priorities())) + f"|seed={seed}"
+    return hashlib.sha256(text.encode("utf-8")).hexdigest()[:16]
+
+
+def revision(league: League, seed: int, fixtures: tuple[Fixture, ...] = (),
+             byes: dict[int, tuple[str, ...]] | None = None) -> str:
+    """A deterministic 12-hex id of one published version of a season: the league configuration
+    without its priorities (:func:`plan_key`), the seed and the games published.
+
+    The games enter instead of the priorities, so that two plans of the same league that
+    publish the same games share a revision however the option was picked (by the priorities
+    or later with ``choose``), and different games always get different revisions.
+
+    Parameters
+    ----------
+    league
+        The league.
+    seed
+        The plan's seed.
+    fixtures, byes
+        The published games and byes.
+
+    Returns
+    -------
+    str
+        12 lower-case hexadecimal digits.
+    """
+    games = [(f.round, f.leg, f.home, f.away, f.venue, f.court, f.slot,
+              f.date.isoformat() if f.date else None, f.start.isoformat() if f.start else None)
+             for f in fixtures]
+    text = (plan_key(league, seed) + "|" + repr(games) + "|"
+            + repr(sorted((byes or {}).items())))
     return hashlib.sha256(text.encode("utf-8")).hexdigest()[:12]
 
 
@@ -145,6 +205,11 @@ class _Candidate:
     tt: Timetable | None = None
     error: InfeasibleError | None = None
     coe: int | None = None
+    placement: Placement | None = None
+    notes: list[str] = field(default_factory=list)
+    """Notes about this option alone (its carry-over search, its places)."""
+    season: Season | None = None
+    """The complete season of this option, as the outputs would publish it."""
 
 
 def _choose(cands: list[_Candidate], league: League) -> tuple[_Candidate, str | None]:
@@ -159,6 +224,18 @@ def _choose(cands: list[_Candidate], league: League) -> tuple[_Candidate, str | 
     def brk(c):
         return (c.tt.breaks - c.tt.break_bound) / max(1, c.tt.break_bound)
 
+    if w.carry_over > max(w.mixing, w.breaks) and all(c.coe is not None for c in ok):
+        mixing_first = w.mixing >= w.breaks
+
+        def by_carry_over(c: _Candidate) -> tuple[float, float, float]:
+            assert c.coe is not None
+            if mixing_first:
+                return (c.coe, -mix(c), brk(c))
+            return (c.coe, brk(c), -mix(c))
+
+        why = (f"priorities.carry_over ({w.carry_over}) weighs more than mixing ({w.mixing}) "
+               f"and breaks ({w.breaks}): the lowest carry-over value wins")
+        return min(ok, key=by_carry_over), why
     if w.mixing > w.breaks:
         key = lambda c: (-mix(c), brk(c))  # noqa: E731
         why = f"priorities.mixing ({w.mixing}) > priorities.breaks ({w.breaks})"
@@ -283,46 +360,30 @@ def plan_season(
         _try_other_factorizations(league, cands, total, seed)
     if all(c.tt is None for c in cands):
         raise _clash(cands)
-    chosen, why = _choose(cands, league)
-    tt = chosen.tt
-    assert tt is not None
-    chosen.coe = carry_over_of_rounds(_leg1_rounds(chosen.fact, tt), n)
-    for c in cands:
-        if c.tt is not None and c.coe is None:
-            c.coe = carry_over_of_rounds(_leg1_rounds(c.fact, c.tt), n)
+    feasible_base = [c for c in cands if c.tt is not None]
+    for c in feasible_base:
+        assert c.tt is not None
+        c.coe = carry_over_of_rounds(_leg1_rounds(c.fact, c.tt), n)
+    general = list(notes)
     if len(cands) > 1:
-        notes.extend(_tradeoff_notes(cands, chosen, why))
-    report("timetable: carry-over", 0.6)
-    if league.priorities.carry_over > 0:
-        tt, note = _reduce_carry_over(league, chosen, _limits(total, 0.1, seed))
-        chosen.tt = tt
-        if note:
-            notes.append(note)
-    if tt.wall_cap_hit:
-        notes.append("the wall-clock safety limit was hit while solving the timetable; the "
-                     "result may depend on machine load (allow more time: time_limit_seconds "
-                     "in the league file, or --time-limit)")
-    if tt.breaks > tt.break_bound and tt.status != "optimal":
-        notes.append(f"breaks: {tt.breaks} (lower bound {tt.break_bound}: {tt.break_bound_reason});"
-                     " not proven optimal within the time limit")
-    report("places", 0.75)
-    placement = assign_places(league, tt, _limits(total, 0.25, seed))
-    if placement.wall_cap_hit:
-        notes.append("the wall-clock safety limit was hit while placing the games; the result "
-                     "may depend on machine load (allow more time: time_limit_seconds in the "
-                     "league file, or --time-limit)")
-    if placement.court_max is not None or placement.slot_max is not None:
-        figs = [f"{label} {v}" for label, v in (("court", placement.court_max),
-                                                 ("slot", placement.slot_max)) if v is not None]
-        notes.append("most games of one team on one " + " and on one ".join(figs)
-                     + (" (proven best)" if placement.status == "optimal" else ""))
+        general.extend(_tradeoff_notes(cands))
+    report("timetable: more options", 0.55)
+    _add_order_options(league, cands, total, seed)
+    feasible = [c for c in cands if c.tt is not None]
+    for k, c in enumerate(feasible, start=1):
+        report(f"finishing option {k} of {len(feasible)}",
+               round(0.6 + 0.3 * (k - 1) / len(feasible), 6))
+        _finish(league, c, total, seed)
+    for c in feasible:
+        c.notes.extend(_carry_over_worst_notes(c, cands))
     report("dates", 0.9)
-    season = _season(league, chosen, tt, placement, seed, tuple(notes))
-    from scheduler.fairness.notes import silent_effect_notes
+    for c in feasible:
+        assert c.tt is not None and c.placement is not None
+        season = _season(league, c, c.tt, c.placement, seed, tuple(general + c.notes))
+        from scheduler.fairness.notes import silent_effect_notes
 
-    effects = silent_effect_notes(league, season)
-    season = replace(season, notes=season.notes + effects)
-    notes.extend(effects)
+        c.season = replace(season, notes=season.notes + silent_effect_notes(league, season))
+    chosen, why = _choose(cands, league)
     front = frontier(
         ScheduleOption(c.label, c.cert.perfect_pairs, c.tt.breaks, c.coe, payload=c)
         for c in cands if c.tt is not None and c.coe is not None)
@@ -334,16 +395,20 @@ def plan_season(
             chosen=c is chosen, feasible=c.tt is not None,
             on_frontier=any(o.payload is c for o in front))
         for c in cands)
+    assert chosen.season is not None and chosen.tt is not None and chosen.placement is not None
+    season = chosen.season
     if len(options) > 1:
         from scheduler.fairness.names import plain_text
 
         season = replace(season, options=tuple(
             PlanOptionFigures(plain_text(o.label), o.perfect_pairs, o.pairs, o.breaks,
-                              o.break_bound, o.carry_over, o.chosen, o.on_frontier)
-            for o in options))
-    status = "optimal" if tt.status == "optimal" and placement.status == "optimal" else "feasible"
+                              o.break_bound, o.carry_over, o.chosen, o.on_frontier,
+                              season=c.season)
+            for o, c in zip(options, cands, strict=True)))
+    status = ("optimal" if chosen.tt.status == "optimal" and chosen.placement.status == "optimal"
+              else "feasible")
     report("done", 1.0)
-    return PlanResult(season, options, status, tuple(notes))
+    return PlanResult(season, options, status, season.notes, why or "")
 
 
 def _calendar_clashes(league: League) -> None:
@@ -446,29 +511,162 @@ def _leg1_rounds(fact: Factorization, tt: Timetable):
     return [fact.rounds[k] for k in tt.order[0]]
 
 
-def _tradeoff_notes(cands: list[_Candidate], chosen: _Candidate, why: str | None) -> list[str]:
+def _tradeoff_notes(cands: list[_Candidate]) -> list[str]:
+    """What the first options show about mixing against breaks, in words that do not depend on
+    which option is chosen (the reason of the choice is ``PlanResult.why``)."""
     out = []
     failed = [c for c in cands if c.tt is None]
-    if failed and chosen.label.startswith("fallback"):
-        return [f"no timetable keeps every rule with the round pairings of "
-                f"{', '.join(c.fact.method for c in failed)}; planned with {chosen.fact.method}"]
+    rescued = [c for c in cands if c.tt is not None and c.label.startswith("fallback")]
+    if failed and rescued:
+        tried = ", ".join(c.fact.method for c in failed)
+        return [f"no timetable keeps every rule with the round pairings of {tried}; "
+                f"planned with {rescued[0].fact.method}"]
     a, b = cands[0], cands[1]
     if a.tt is None or b.tt is None:
         bad = a if a.tt is None else b
         out.append(f"{bad.label}: no timetable satisfies the rules with it")
         return out
-    # here cands is [a, b]: fallbacks are appended only when both failed (returned above)
     figs = "; ".join(
         f"{c.label}: {c.cert.perfect_pairs}/{c.cert.pairs} perfect round pairs, "
         f"{tt.breaks} breaks (lower bound {tt.break_bound})"
         for c, tt in ((a, a.tt), (b, b.tt)))
     if (a.cert.perfect_pairs > b.cert.perfect_pairs) and (a.tt.breaks > b.tt.breaks):
-        out.append(f"better mixing and fewest breaks conflict here: {figs}. "
-                   f"Chosen: {chosen.label} because {why}.")
+        out.append(f"better mixing and fewest breaks conflict here: {figs}")
     else:
-        out.append(f"compared {figs}. Chosen: {chosen.label}"
-                   + (f" because {why}." if why else "."))
+        out.append(f"compared {figs}")
     return out
+
+
+ORDER_MOVES = 3000
+"""Moves of the carry-over annealing that re-orders the rounds of the best-mixing option."""
+
+LOW_MOVES = 4000
+"""Moves of the carry-over annealing that may change the pairings (n not a power of two)."""
+
+EXTRA_SHARE = 0.1
+"""Share of the time limit for the timetable of each option added by :func:`_add_order_options`
+(the round order is fixed, so the model is small)."""
+
+MAX_OPTIONS = 5
+"""The planner offers at most this many options that keep every rule."""
+
+
+def _add_order_options(league: League, cands: list[_Candidate], total: float, seed: int) -> None:
+    """Add options with a low carry-over value (appended to ``cands``), each timetabled under
+    every hard rule with its round order kept (docs/options.md):
+
+    * the best-mixing option's own rounds in a low-carry-over order (annealing over round
+      orders only, so its mixing is kept; :func:`search_low_carry_over`);
+    * the lowest-carry-over single round robin the project can make: Russell's balanced
+      schedule for a power of two, else the annealing that may also change the pairings
+      (:func:`best_low_carry_over`).
+
+    An option is added only when its carry-over value is below every option's so far and no
+    option so far is at least as good in every figure; a round order that breaks a rule is left
+    out. No more than :data:`MAX_OPTIONS` options that keep the rules are offered."""
+    feasible = [c for c in cands if c.tt is not None and c.coe is not None]
+    if not feasible:
+        return
+    n = feasible[0].fact.n
+    lower, upper = carry_over_bounds(n) if n >= 4 else (0, 0)
+    if lower == upper:
+        return  # every single round robin of this order has the same carry-over value
+    makers: list[tuple[str, Callable[[], Factorization | None]]] = []
+    base = max(feasible, key=lambda c: c.cert.perfect_pairs)
+
+    def reordered() -> Factorization | None:
+        assert base.tt is not None
+        found = search_low_carry_over(_leg1_rounds(base.fact, base.tt), n, seed=seed,
+                                      moves=ORDER_MOVES, change_pairings=False)
+        return Factorization(n, found.rounds, base.fact.method, base.fact.source)
+
+    def lowest() -> Factorization | None:
+        found = best_low_carry_over(n, seed=seed, moves=LOW_MOVES)
+        russell = found.method.startswith("Russell")
+        source = ("K. G. Russell, Biometrika 67 (1980) 127-131" if russell
+                  else "simulated annealing over round orders and Kempe moves "
+                       "(scheduler.balance.low_carry_over)")
+        return Factorization(n, found.rounds, found.method, source)
+
+    makers.append((f"low carry-over order: {base.fact.method}", reordered))
+    makers.append(("lowest carry-over", lowest))
+    for label, make in makers:
+        if len([c for c in cands if c.tt is not None]) >= MAX_OPTIONS:
+            return
+        fact = make()
+        if fact is None or any(c.fact.rounds == fact.rounds for c in cands):
+            continue
+        value = carry_over_of_rounds(fact.rounds, n)
+        if value >= min(c.coe for c in cands if c.coe is not None):
+            continue
+        if label == "lowest carry-over":
+            label = f"lowest carry-over: {fact.method}"
+        cand = _Candidate(label, fact, verify_rounds(n, fact.rounds))
+        try:
+            cand.tt = solve_timetable(league, fact, _limits(total, EXTRA_SHARE, seed),
+                                      minimise_breaks=league.priorities.breaks > 0,
+                                      fixed_order=tuple(range(len(fact.rounds))))
+        except InfeasibleError:
+            continue
+        cand.coe = carry_over_of_rounds(_leg1_rounds(fact, cand.tt), n)
+        new = ScheduleOption(label, cand.cert.perfect_pairs, cand.tt.breaks, cand.coe)
+        if any(dominates(ScheduleOption(c.label, c.cert.perfect_pairs, c.tt.breaks, c.coe), new)
+               for c in cands if c.tt is not None and c.coe is not None):
+            continue
+        cands.append(cand)
+
+
+def _finish(league: League, cand: _Candidate, total: float, seed: int) -> None:
+    """Make one option complete, the same way whether it is chosen or not: its carry-over
+    search (when ``priorities.carry_over`` > 0), its places, and its notes."""
+    notes = cand.notes
+    if league.priorities.carry_over > 0:
+        reduced, note = _reduce_carry_over(league, cand, _limits(total, 0.1, seed))
+        cand.tt = reduced
+        if note:
+            notes.append(note)
+    tt = cand.tt
+    assert tt is not None
+    if tt.wall_cap_hit:
+        notes.append("the wall-clock safety limit was hit while solving the timetable; the "
+                     "result may depend on machine load (allow more time: time_limit_seconds "
+                     "in the league file, or --time-limit)")
+    if tt.breaks > tt.break_bound and tt.status != "optimal":
+        notes.append(f"breaks: {tt.breaks} (lower bound {tt.break_bound}: {tt.break_bound_reason});"
+                     " not proven optimal within the time limit")
+    placement = assign_places(league, tt, _limits(total, 0.25, seed))
+    if placement.wall_cap_hit:
+        notes.append("the wall-clock safety limit was hit while placing the games; the result "
+                     "may depend on machine load (allow more time: time_limit_seconds in the "
+                     "league file, or --time-limit)")
+    if placement.court_max is not None or placement.slot_max is not None:
+        figs = [f"{label} {v}" for label, v in (("court", placement.court_max),
+                                                 ("slot", placement.slot_max)) if v is not None]
+        notes.append("most games of one team on one " + " and on one ".join(figs)
+                     + (" (proven best)" if placement.status == "optimal" else ""))
+    cand.placement = placement
+
+
+def _carry_over_worst_notes(cand: _Candidate, cands: list[_Candidate]) -> list[str]:
+    """A note when this option has the worst carry-over value possible (Lambrechts et al.
+    2018: the circle method's), naming the option with the lowest value on offer."""
+    if cand.coe is None:
+        return []
+    n = cand.fact.n
+    lower, upper = carry_over_bounds(n) if n >= 4 else (0, 0)
+    if cand.coe < upper or lower == upper:
+        return []
+    assert cand.tt is not None
+    bye = " (the bye counted as a team)" if n != len(cand.tt.vertex_of_team) else ""
+    text = (f"carry-over value {cand.coe} is the worst possible for {n} teams{bye}, the circle "
+            f"method's (Lambrechts et al. 2018; lower bound {lower}, Russell 1980)")
+    others = [(k, c) for k, c in enumerate(cands, start=1)
+              if c.tt is not None and c.coe is not None and c.coe < cand.coe]
+    if not others:
+        return [text + "; no other schedule the planner built has a lower value"]
+    number, best = min(others, key=lambda kc: (kc[1].coe, kc[0]))
+    return [text + f"; option {number} ({best.label}) has {best.coe}, and `scheduler choose` "
+            f"with --option {number} picks it without solving again"]
 
 
 def _reduce_carry_over(league: League, cand: _Candidate,
@@ -534,7 +732,8 @@ def _season(league: League, cand: _Candidate, tt: Timetable, placement: Placemen
         byes=byes, legs=max(1, league.format.legs),
         scheme=league.format.scheme, timezone=league.timezone,
         venues=tuple(v.name for v in league.venues), mixing=mixing, seed=seed, notes=notes,
-        revision=revision(league, seed), home_meaning=league.format.home_meaning,
+        revision=revision(league, seed, tuple(fixtures), byes),
+        home_meaning=league.format.home_meaning,
         side_labels=league.format.side_labels,
         venue_addresses={v.name: v.address for v in league.venues if v.address},
         venue_coordinates={v.name: (v.latitude, v.longitude) for v in league.venues

@@ -78,7 +78,25 @@ class PlanOptionFigures:
     (pairs of rounds that mix perfectly out of ``pairs``, breaks with their lower bound, the
     carry-over value; ``None`` where the option found no timetable that keeps every rule),
     whether it was chosen, and whether no other option is at least as good in every figure
-    and better in one (``not_dominated``)."""
+    and better in one (``not_dominated``).
+
+    Attributes
+    ----------
+    label
+        The option's name, in plain text.
+    perfect_pairs, pairs
+        Pairs of rounds that mix perfectly, out of all pairs of rounds.
+    breaks, break_bound
+        Breaks of its timetable (``None``: no timetable keeps every rule) and their lower bound.
+    carry_over
+        Russell's carry-over value of leg 1 (``None`` when not measured).
+    chosen
+        Whether this option is the season's.
+    not_dominated
+        Whether no other option is at least as good in every figure and better in one.
+    season
+        The option's complete season (see below).
+    """
 
     label: str
     perfect_pairs: int
@@ -88,6 +106,11 @@ class PlanOptionFigures:
     carry_over: int | None
     chosen: bool
     not_dominated: bool
+    season: Season | None = field(default=None, compare=False, repr=False)
+    """The option's complete season as the outputs would publish it (its own options empty),
+    kept so that another option can be chosen without solving again; ``None`` for an option
+    without a timetable and for options read back from ``season.json`` (the timetables are in
+    the season folder's options file, ``docs/options.md``)."""
 
 
 @dataclass(frozen=True)

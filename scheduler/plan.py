@@ -37,6 +37,7 @@ import hashlib
 import itertools
 from collections.abc import Callable, Iterator
 from dataclasses import dataclass, field, replace
+from pathlib import Path
 
 from scheduler.balance.carry import improve_order
 from scheduler.balance.dates import candidate_days, day_groups, kickoff
@@ -740,3 +741,141 @@ def _season(league: League, cand: _Candidate, tt: Timetable, placement: Placemen
                            if v.latitude is not None and v.longitude is not None},
         calendar_end=league.calendar.end or max(league.calendar.dates, default=None))
 
+
+
+@dataclass(frozen=True)
+class Choice:
+    """A season rebuilt from another option kept in its folder (:func:`choose_option`).
+
+    Attributes
+    ----------
+    season
+        The season of the chosen option, with every option (and its complete season) listed
+        and this one marked chosen: ready for the season-folder writer.
+    number, label
+        The chosen option (1-based number, label).
+    previous_number, previous_label
+        The option the folder held before.
+    """
+
+    season: Season
+    number: int
+    label: str
+    previous_number: int
+    previous_label: str
+
+
+def _pick_option(options: tuple[PlanOptionFigures, ...], wanted: str, where: str) -> int:
+    """The 0-based index of the option named by ``wanted``: its number, its label (letter case
+    ignored) or the start of exactly one label."""
+    listing = "; ".join(f"{k} = {o.label}" for k, o in enumerate(options, start=1))
+    text = wanted.strip()
+    if text.isdigit():
+        number = int(text)
+        if 1 <= number <= len(options):
+            return number - 1
+        raise InputError(f"there is no option {number}; the options are {listing}",
+                         location=where)
+    folded = text.casefold()
+    exact = [k for k, o in enumerate(options) if o.label.casefold() == folded]
+    if exact:
+        return exact[0]
+    starts = [k for k, o in enumerate(options) if folded and o.label.casefold().startswith(folded)]
+    if len(starts) == 1:
+        return starts[0]
+    what = "names more than one option" if starts else "names no option"
+    raise InputError(f"{wanted!r} {what}; give a number or a label: {listing}", location=where)
+
+
+def choose_option(league: League, season_dir: str | Path, option: str) -> Choice:
+    """Another option of a planned season, from the timetables its folder keeps: no solving,
+    no factorization search (``docs/options.md``).
+
+    The season folder written from the result (``scheduler.export.write_season_outputs``) is
+    byte for byte the folder that ``plan`` writes over it when the league's priorities pick
+    that option: every option is finished the same way whether chosen or not, and the
+    revision depends on the games published, not on the priorities.
+
+    Parameters
+    ----------
+    league
+        The league file the season was planned from (its priorities may differ: they only
+        weigh the options).
+    season_dir
+        The season folder written by ``plan``.
+    option
+        The option: its number as listed (1 = first), its label, or the start of one label.
+
+    Returns
+    -------
+    Choice
+
+    Raises
+    ------
+    InputError
+        When the folder is not a season folder of this program, keeps no options, was changed
+        since it was written, was re-planned since (choosing would rewrite published history),
+        belongs to another league file, or ``option`` names no option that keeps the rules.
+
+    Examples
+    --------
+    >>> import tempfile
+    >>> from pathlib import Path
+    >>> try:
+    ...     choose_option(None, Path(tempfile.mkdtemp()), "1")  # doctest: +ELLIPSIS
+    ... except InputError as exc:
+    ...     print(exc.detail.split(";")[0])
+    not a season folder: it holds no season.json and no .season-manifest.json
+    """
+    from scheduler.export.bundle import SEASON_FILE
+    from scheduler.export.manifest import MANIFEST_FILE, Manifest
+    from scheduler.export.season_json import OPTIONS_FILE, load_season_json, loads_options
+
+    folder = Path(season_dir)
+    if not folder.is_dir():
+        raise InputError("not a folder" if folder.exists() else "no such folder",
+                         location=str(folder))
+    season_path, manifest_path = folder / SEASON_FILE, folder / MANIFEST_FILE
+    if not season_path.is_file() or not manifest_path.is_file():
+        raise InputError(f"not a season folder: it holds no {SEASON_FILE} and no {MANIFEST_FILE}"
+                         "; give the folder that `scheduler plan` wrote", location=str(folder))
+    try:
+        manifest = Manifest.from_bytes(manifest_path.read_bytes())
+    except (OSError, ValueError) as exc:
+        raise InputError(f"the season manifest cannot be read ({exc})",
+                         location=str(manifest_path)) from None
+    current = load_season_json(season_path)
+    if current.revisions:
+        raise InputError(
+            f"this season was re-planned since it was planned ({len(current.revisions)} "
+            "versions); choosing another option now would rewrite games already published or "
+            "played. Plan the season again instead", location=f"{season_path}: revisions")
+    if not current.options or not (folder / OPTIONS_FILE).is_file():
+        raise InputError(
+            f"this season keeps no options to choose from (no {OPTIONS_FILE}: only one option "
+            "was planned, or the folder was written by an older version); plan it again",
+            location=str(folder))
+    for name in (SEASON_FILE, OPTIONS_FILE):
+        if not manifest.matches(folder, name):
+            raise InputError(f"{name} was changed after the planner wrote it; plan the season "
+                             "again", location=str(folder / name))
+    stored = loads_options((folder / OPTIONS_FILE).read_text(encoding="utf-8"),
+                           source=str(folder / OPTIONS_FILE))
+    if stored.revision != current.revision or len(stored.seasons) != len(current.options):
+        raise InputError(f"{OPTIONS_FILE} does not belong to the {SEASON_FILE} beside it; plan "
+                         "the season again", location=str(folder / OPTIONS_FILE))
+    index = _pick_option(current.options, option, "--option")
+    picked = stored.seasons[index]
+    if picked is None:
+        raise InputError(f"option {index + 1} ({current.options[index].label}) has no timetable "
+                         "that keeps every rule; choose another", location="--option")
+    if revision(league, picked.seed, picked.fixtures, picked.byes) != picked.revision:
+        raise InputError(
+            "this league file is not the one the season was planned from (teams, venues, "
+            "calendar, rules or seed differ; only the priorities may change); plan the season "
+            "again", location=league.source or "league file")
+    options = tuple(replace(o, chosen=k == index, season=stored.seasons[k])
+                    for k, o in enumerate(current.options))
+    before = next((k for k, o in enumerate(current.options) if o.chosen), index)
+    return Choice(replace(picked, options=options), index + 1, current.options[index].label,
+                  before + 1, current.options[before].label)

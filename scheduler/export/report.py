@@ -480,6 +480,27 @@ def options_chart(options: Sequence[PlanOptionFigures]) -> Markup | None:
     return _svg(width, height, "".join(body), "Options weighed by the planner")
 
 
+def _options_words(options: Sequence[PlanOptionFigures]) -> dict:
+    """The words of the options section: how many options are not dominated (and why no more,
+    when fewer than three), the chosen option's number, and the worst possible carry-over value
+    of the league's order (the circle method's, Lambrechts et al. 2018), to flag it."""
+    if not options:
+        return {"options_summary": "", "options_chosen": "", "options_worst_carry_over": None}
+    from scheduler.fairness.frontier import frontier_summary
+
+    summary = frontier_summary([(o.perfect_pairs, o.pairs, o.breaks, o.carry_over)
+                                for o in options])
+    chosen = next((k for k, o in enumerate(options, start=1) if o.chosen), 0)
+    pairs = options[0].pairs
+    rounds = next((r for r in range(2, 400) if r * (r - 1) // 2 == pairs), 0)
+    n = rounds + 1
+    # up to 6 teams every order of the one single round robin has the same value (computed,
+    # docs/carry-over.md): nothing to flag
+    worst = (n - 1) * (n * n - 6 * n + 12) if n > 6 and n % 2 == 0 else None
+    return {"options_summary": summary, "options_chosen": chosen or "none",
+            "options_worst_carry_over": worst}
+
+
 def bound_gauge(value: int, low: int, high: int) -> Markup:
     """Where a value lies between its lower and upper bound (a marker on a line)."""
     width, pad = 320, 14
@@ -883,6 +904,7 @@ def report_context(
         "changes": _change_rows(changes) if changes is not None else None,
         "options": season.options,
         "options_chart": options_chart(season.options),
+        **_options_words(season.options),
         "change_counts": team_counts(changes) if changes else [],
         "revisions": season.revisions,
         "text_limit": TEXT_LIMIT,

@@ -402,6 +402,8 @@ def _print_options(options: Any, why: str, out_dir: Path, league_file: Path | No
 
     if len(options) < 2:
         return
+    summary = frontier_summary([(o.perfect_pairs, o.pairs, o.breaks, o.carry_over)
+                                for o in options])
     out.print("options (not dominated: no other option is at least as good in every figure "
               "and better in one):")
     for number, option in enumerate(options, start=1):
@@ -410,8 +412,8 @@ def _print_options(options: Any, why: str, out_dir: Path, league_file: Path | No
             mark += ", not dominated"
         out.print(f"  {number}. {mark}: {_plain(plain_text(option.label))}: "
                   f"{_plain(option.figures())}")
-    out.print(_plain(frontier_summary([(o.perfect_pairs, o.pairs, o.breaks, o.carry_over)
-                                       for o in options])))
+    if "fewer than three" not in summary:  # otherwise the notes say it, with the reason
+        out.print(_plain(summary))
     if why:
         out.print(f"chosen by the league's priorities: {_plain(why)}")
     league = str(league_file) if league_file is not None else "LEAGUE"

@@ -57,7 +57,7 @@ from scheduler.factorization.catalogue import catalogue_factorization
 from scheduler.factorization.circle import circle_factorization, circle_rounds
 from scheduler.factorization.model import Certificate, Factorization
 from scheduler.factorization.verify import verify_rounds
-from scheduler.fairness.frontier import ScheduleOption, dominates, frontier
+from scheduler.fairness.frontier import ScheduleOption, dominates, frontier, frontier_summary
 from scheduler.progress import Progress
 from scheduler.rules.rest_days import calendar_clash
 from scheduler.season import Fixture, MixingInfo, PlanOptionFigures, Season
@@ -377,6 +377,10 @@ def plan_season(
         _finish(league, c, total, seed)
     for c in feasible:
         c.notes.extend(_carry_over_worst_notes(c, cands))
+    summary = frontier_summary([(c.cert.perfect_pairs, c.cert.pairs,
+                                 c.tt.breaks if c.tt else None, c.coe) for c in cands])
+    if "fewer than three" in summary:
+        general.append(summary)
     report("dates", 0.9)
     for c in feasible:
         assert c.tt is not None and c.placement is not None

@@ -486,14 +486,12 @@ def _options_words(options: Sequence[PlanOptionFigures]) -> dict:
     of the league's order (the circle method's, Lambrechts et al. 2018), to flag it."""
     if not options:
         return {"options_summary": "", "options_chosen": "", "options_worst_carry_over": None}
-    from scheduler.fairness.frontier import frontier_summary
+    from scheduler.fairness.frontier import frontier_summary, rounds_of_pairs
 
     summary = frontier_summary([(o.perfect_pairs, o.pairs, o.breaks, o.carry_over)
                                 for o in options])
     chosen = next((k for k, o in enumerate(options, start=1) if o.chosen), 0)
-    pairs = options[0].pairs
-    rounds = next((r for r in range(2, 400) if r * (r - 1) // 2 == pairs), 0)
-    n = rounds + 1
+    n = rounds_of_pairs(options[0].pairs) + 1
     # up to 6 teams every order of the one single round robin has the same value (computed,
     # docs/carry-over.md): nothing to flag
     worst = (n - 1) * (n * n - 6 * n + 12) if n > 6 and n % 2 == 0 else None

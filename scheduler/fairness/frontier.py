@@ -12,6 +12,7 @@ by the league's priorities.
 
 from __future__ import annotations
 
+import math
 from collections.abc import Iterable, Sequence
 from dataclasses import dataclass, field
 
@@ -86,6 +87,28 @@ def frontier(options: Iterable[ScheduleOption]) -> tuple[ScheduleOption, ...]:
     return tuple(kept)
 
 
+def rounds_of_pairs(pairs: int) -> int:
+    """The number of rounds ``r`` with ``r(r-1)/2 == pairs`` (0 when there is none).
+
+    Parameters
+    ----------
+    pairs
+        A number of pairs of rounds.
+
+    Returns
+    -------
+    int
+        The rounds of one single round robin, so the teams are this plus one.
+
+    Examples
+    --------
+    >>> rounds_of_pairs(105)
+    15
+    """
+    rounds = (1 + math.isqrt(1 + 8 * max(0, pairs))) // 2
+    return rounds if rounds * (rounds - 1) // 2 == pairs and pairs > 0 else 0
+
+
 def frontier_summary(figures: Sequence[tuple[int, int, int | None, int | None]]) -> str:
     """One sentence on the frontier of a plan's options: how many are not dominated, and, when
     fewer than three, why no more were offered.
@@ -121,8 +144,7 @@ that is better in one figure without being worse in another).'
     if kept >= 3 or not figures:
         return text + "."
     pairs = figures[0][1]
-    rounds = next((r for r in range(2, 200) if r * (r - 1) // 2 == pairs), 0)
-    vertices = rounds + 1
+    vertices = rounds_of_pairs(pairs) + 1 if pairs else 2
     if 0 < vertices <= 6:
         reason = (f"with {vertices} teams or fewer (a bye counted as a team) there is one "
                   "single round robin up to renaming the teams and the order of the rounds, "

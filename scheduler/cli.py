@@ -432,7 +432,17 @@ def choose(
         str, typer.Option("--option", help="The option's number as listed, or its label.")
     ],
 ) -> None:
-    """Re-write a season folder from another of its options, without solving again."""
+    """Re-write a season folder from another of its options, without solving again.
+
+    Parameters
+    ----------
+    config
+        The league file the season was planned from.
+    season_dir
+        The season folder.
+    option
+        The option's number as listed, its label, or the start of one label.
+    """
     from scheduler.config import load_league
     from scheduler.export import write_season_outputs
     from scheduler.fairness import compute_fairness

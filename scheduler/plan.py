@@ -67,10 +67,27 @@ from scheduler.season import Fixture, MixingInfo, PlanOptionFigures, Season
 class PlanOption:
     """One alternative the planner considered.
 
-    ``method`` is the factorization's construction, ``perfect_pairs``/``pairs`` its mixing
-    (verifier), ``breaks`` the fewest breaks found with it under the rules (``None`` when the
-    rules cannot hold with it, then ``feasible`` is False), ``break_bound`` the proven lower
-    bound, ``carry_over`` Russell's carry-over value of leg 1 when computed.
+    Parameters
+    ----------
+    label
+        The option's name (what it is best at, and its construction).
+    method
+        The factorization's construction.
+    perfect_pairs, pairs
+        Its mixing, by the independent verifier: pairs of rounds that mix perfectly, of all.
+    breaks
+        The breaks of its timetable under every hard rule (``None`` when the rules cannot hold
+        with it; then ``feasible`` is False).
+    break_bound
+        The proven lower bound of the breaks.
+    carry_over
+        Russell's carry-over value of leg 1 (``None`` when not measured).
+    chosen
+        Whether the season is this option's.
+    feasible
+        Whether a timetable keeps every rule with it.
+    on_frontier
+        Whether it is not dominated (see below).
     """
 
     label: str
@@ -90,6 +107,11 @@ class PlanOption:
     def figures(self) -> str:
         """The option's figures in words, named as in every other output
         (:mod:`scheduler.fairness.names`), never a missing value printed as "None".
+
+        Returns
+        -------
+        str
+            The figures, comma-separated.
 
         Examples
         --------
@@ -112,9 +134,22 @@ class PlanOption:
 
 @dataclass(frozen=True)
 class PlanResult:
-    """The planned season, the alternatives considered, ``status`` ("optimal" when every solver
-    stage proved its optimum, else "feasible"), the planner's notes (those of the season) and
-    why the chosen option was chosen."""
+    """The result of :func:`plan_season`.
+
+    Parameters
+    ----------
+    season
+        The planned season (the chosen option's, every option listed in ``season.options``).
+    options
+        The options considered, in the order of the outputs' numbers.
+    status
+        "optimal" when every solver stage of the chosen option proved its optimum, else
+        "feasible".
+    notes
+        The planner's notes (those of the season).
+    why
+        Why the league's priorities picked the chosen option (see below).
+    """
 
     season: Season
     options: tuple[PlanOption, ...]
@@ -368,12 +403,13 @@ def plan_season(
     general = list(notes)
     if len(cands) > 1:
         general.extend(_tradeoff_notes(cands))
-    report("timetable: more options", 0.55)
+    report("timetable: more options", 0.6)
     _add_order_options(league, cands, total, seed)
     feasible = [c for c in cands if c.tt is not None]
+    report("places", 0.65)
     for k, c in enumerate(feasible, start=1):
-        report(f"finishing option {k} of {len(feasible)}",
-               round(0.6 + 0.3 * (k - 1) / len(feasible), 6))
+        report(f"places: option {k} of {len(feasible)} (carry-over, courts and slots)",
+               round(0.65 + 0.25 * (k - 1) / len(feasible), 6))
         _finish(league, c, total, seed)
     for c in feasible:
         c.notes.extend(_carry_over_worst_notes(c, cands))
@@ -751,7 +787,7 @@ def _season(league: League, cand: _Candidate, tt: Timetable, placement: Placemen
 class Choice:
     """A season rebuilt from another option kept in its folder (:func:`choose_option`).
 
-    Attributes
+    Parameters
     ----------
     season
         The season of the chosen option, with every option (and its complete season) listed

@@ -80,7 +80,7 @@ class PlanOptionFigures:
     whether it was chosen, and whether no other option is at least as good in every figure
     and better in one (``not_dominated``).
 
-    Attributes
+    Parameters
     ----------
     label
         The option's name, in plain text.

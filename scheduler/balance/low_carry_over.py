@@ -41,8 +41,19 @@ from scheduler.factorization.model import normalise_round
 
 @dataclass(frozen=True)
 class CarryOverResult:
-    """A single round robin (``rounds`` in playing order) and its carry-over effects value,
-    with Russell's lower bound and the circle method's value as the upper bound."""
+    """A single round robin and its carry-over effects value.
+
+    Parameters
+    ----------
+    rounds
+        The rounds in playing order (games of vertices).
+    value
+        Its carry-over effects value (Russell 1980).
+    lower, upper
+        Russell's lower bound ``n(n-1)`` and the circle method's value, the maximum.
+    method
+        How the schedule was made.
+    """
 
     rounds: tuple[tuple[tuple[int, int], ...], ...]
     value: int
@@ -57,14 +68,42 @@ class CarryOverResult:
 
 
 def carry_over_bounds(n: int) -> tuple[int, int]:
-    """``(n(n-1), (n-1)(n² - 6n + 12))``: Russell's lower bound and the circle method's value,
-    the maximum (Lambrechts et al. 2018)."""
+    """Russell's lower bound and the circle method's value, the maximum (Lambrechts et al. 2018).
+
+    Parameters
+    ----------
+    n
+        Even number of teams (a bye counted as a team).
+
+    Returns
+    -------
+    tuple of int
+        ``(n(n-1), (n-1)(n² - 6n + 12))``.
+
+    Examples
+    --------
+    >>> carry_over_bounds(16)
+    (240, 2580)
+    """
     return n * (n - 1), (n - 1) * (n * n - 6 * n + 12)
 
 
 def carry_over_value(rounds: Sequence[Sequence[tuple[int, int]]], n: int) -> int:
     """Russell's value of the rounds in the given order (cyclic), by the project's one
-    carry-over count (:func:`scheduler.carry_over.carry_over_of_rounds`)."""
+    carry-over count (:func:`scheduler.carry_over.carry_over_of_rounds`).
+
+    Parameters
+    ----------
+    rounds
+        The rounds in playing order.
+    n
+        Number of vertices.
+
+    Returns
+    -------
+    int
+        The carry-over effects value.
+    """
     return carry_over_of_rounds(rounds, n)
 
 

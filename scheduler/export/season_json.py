@@ -87,7 +87,20 @@ def _fixture_dict(f: Fixture) -> dict:
 
 
 def season_to_dict(season: Season, fairness: FairnessReport | None = None) -> dict:
-    """The JSON-ready form of ``season`` (and its fairness figures when given)."""
+    """The JSON-ready form of ``season`` (and its fairness figures when given).
+
+    Parameters
+    ----------
+    season
+        The season.
+    fairness
+        Its fairness figures, or ``None`` (then ``"fairness": null``).
+
+    Returns
+    -------
+    dict
+        The layout of the module docstring, keys in that order.
+    """
     mixing = None
     if season.mixing is not None:
         m = season.mixing
@@ -156,7 +169,20 @@ def _revision_dict(r: Revision) -> dict:
 
 
 def dumps_season(season: Season, fairness: FairnessReport | None = None) -> str:
-    """``season.json`` text: deterministic, UTF-8 (no ASCII escapes), indent 2, final newline."""
+    """``season.json`` text: deterministic, UTF-8 (no ASCII escapes), indent 2, final newline.
+
+    Parameters
+    ----------
+    season
+        The season.
+    fairness
+        Its fairness figures, or ``None``.
+
+    Returns
+    -------
+    str
+        The JSON text.
+    """
     data = season_to_dict(season, fairness)
     return json.dumps(data, ensure_ascii=False, indent=2, allow_nan=False) + "\n"
 
@@ -226,7 +252,7 @@ def dumps_options(season: Season) -> str:
 class StoredOptions:
     """The contents of :data:`OPTIONS_FILE`.
 
-    Attributes
+    Parameters
     ----------
     league, season_id
         The league and season it belongs to.

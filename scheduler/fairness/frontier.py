@@ -19,8 +19,21 @@ from dataclasses import dataclass, field
 
 @dataclass(frozen=True)
 class ScheduleOption:
-    """One schedule option's figures (``label`` names it; ``payload`` carries anything the
-    caller needs to rebuild it and takes no part in comparisons)."""
+    """One schedule option's figures.
+
+    Parameters
+    ----------
+    label
+        Names the option.
+    perfect_pairs
+        Pairs of rounds that mix perfectly (more is better).
+    breaks
+        Breaks (fewer is better).
+    carry_over
+        Russell's carry-over value (lower is better).
+    payload
+        Anything the caller needs to rebuild the option; takes no part in comparisons.
+    """
 
     label: str
     perfect_pairs: int
@@ -29,12 +42,34 @@ class ScheduleOption:
     payload: object = field(default=None, compare=False, hash=False, repr=False)
 
     def figures(self) -> tuple[int, int, int]:
-        """``(perfect pairs, breaks, carry-over)``."""
+        """The three figures compared.
+
+        Returns
+        -------
+        tuple of int
+            ``(perfect pairs, breaks, carry-over)``.
+        """
         return (self.perfect_pairs, self.breaks, self.carry_over)
 
 
 def dominates(first: ScheduleOption, second: ScheduleOption) -> bool:
-    """Is ``first`` at least as good as ``second`` in every figure and better in one?"""
+    """Is ``first`` at least as good as ``second`` in every figure and better in one?
+
+    Parameters
+    ----------
+    first, second
+        The two options.
+
+    Returns
+    -------
+    bool
+        True when ``first`` dominates ``second`` (Pareto dominance).
+
+    Examples
+    --------
+    >>> dominates(ScheduleOption("a", 10, 4, 90), ScheduleOption("b", 10, 6, 90))
+    True
+    """
     at_least = (first.perfect_pairs >= second.perfect_pairs and first.breaks <= second.breaks
                 and first.carry_over <= second.carry_over)
     better = (first.perfect_pairs > second.perfect_pairs or first.breaks < second.breaks

@@ -485,7 +485,8 @@ def _options_words(options: Sequence[PlanOptionFigures]) -> dict:
     when fewer than three), the chosen option's number, and the worst possible carry-over value
     of the league's order (the circle method's, Lambrechts et al. 2018), to flag it."""
     if not options:
-        return {"options_summary": "", "options_chosen": "", "options_worst_carry_over": None}
+        return {"options_summary": "", "options_chosen": "", "options_worst_carry_over": None,
+                "options_choosable": False}
     from scheduler.fairness.frontier import frontier_summary, rounds_of_pairs
 
     summary = frontier_summary([(o.perfect_pairs, o.pairs, o.breaks, o.carry_over)
@@ -496,7 +497,8 @@ def _options_words(options: Sequence[PlanOptionFigures]) -> dict:
     # docs/carry-over.md): nothing to flag
     worst = (n - 1) * (n * n - 6 * n + 12) if n > 6 and n % 2 == 0 else None
     return {"options_summary": summary, "options_chosen": chosen or "none",
-            "options_worst_carry_over": worst}
+            "options_worst_carry_over": worst,
+            "options_choosable": any(o.season is not None for o in options)}
 
 
 def bound_gauge(value: int, low: int, high: int) -> Markup:

@@ -53,7 +53,7 @@ def test_every_option_is_stored_and_read_back_exactly(planned):
 def test_a_damaged_options_file_is_refused_with_its_place():
     from scheduler.errors import InputError
 
-    with pytest.raises(InputError, match="options.json: format"):
+    with pytest.raises(InputError, match=r"options\.json: format"):
         loads_options('{"format": "something else"}')
     bad = json.dumps({"format": OPTIONS_FORMAT, "league": "x", "season": "y", "revision": "z",
                       "options": [{"format": "roundrobin-scheduler/season/1"}]})

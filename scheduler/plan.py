@@ -404,7 +404,14 @@ def plan_season(
     if len(cands) > 1:
         general.extend(_tradeoff_notes(cands))
     report("timetable: more options", 0.6)
-    _add_order_options(league, cands, total, seed)
+    def added(cand: _Candidate) -> None:
+        """Progress line of an added option, like those of the first ones."""
+        assert cand.tt is not None
+        best = min(c.tt.breaks for c in cands if c.tt is not None)
+        report(f"timetable: {cand.label}: {cand.tt.breaks} breaks (lower bound "
+               f"{cand.tt.break_bound}); fewest so far {best}", 0.6)
+
+    _add_order_options(league, cands, total, seed, added)
     feasible = [c for c in cands if c.tt is not None]
     report("places", 0.65)
     for k, c in enumerate(feasible, start=1):
@@ -592,7 +599,8 @@ MAX_OPTIONS = 5
 """The planner offers at most this many options that keep every rule."""
 
 
-def _add_order_options(league: League, cands: list[_Candidate], total: float, seed: int) -> None:
+def _add_order_options(league: League, cands: list[_Candidate], total: float, seed: int,
+                       added: Callable[[_Candidate], None] = lambda cand: None) -> None:
     """Add options with a low carry-over value (appended to ``cands``), each timetabled under
     every hard rule with its round order kept (docs/options.md):
 
@@ -655,6 +663,7 @@ def _add_order_options(league: League, cands: list[_Candidate], total: float, se
                for c in cands if c.tt is not None and c.coe is not None):
             continue
         cands.append(cand)
+        added(cand)
 
 
 def _finish(league: League, cand: _Candidate, total: float, seed: int) -> None:

@@ -421,7 +421,8 @@ def _print_options(options: Any, why: str, out_dir: Path, league_file: Path | No
               f"--season {_plain(str(out_dir))} --option NUMBER")
 
 
-@app.command()
+@app.command(help="Re-write a season folder from another of its options, without solving "
+             "again (the options are those plan listed, numbered as there).")
 @_guarded
 def choose(
     config: Annotated[Path, typer.Argument(help="The league file the season was planned from.")],

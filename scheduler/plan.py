@@ -246,6 +246,8 @@ class _Candidate:
     """Notes about this option alone (its carry-over search, its places)."""
     season: Season | None = None
     """The complete season of this option, as the outputs would publish it."""
+    added: bool = False
+    """An option added for its low carry-over value (smaller solver budgets)."""
 
 
 def _choose(cands: list[_Candidate], league: League) -> tuple[_Candidate, str | None]:
@@ -404,6 +406,7 @@ def plan_season(
     if len(cands) > 1:
         general.extend(_tradeoff_notes(cands))
     report("timetable: more options", 0.6)
+
     def added(cand: _Candidate) -> None:
         """Progress line of an added option, like those of the first ones."""
         assert cand.tt is not None
@@ -591,9 +594,18 @@ ORDER_MOVES = 3000
 LOW_MOVES = 4000
 """Moves of the carry-over annealing that may change the pairings (n not a power of two)."""
 
-EXTRA_SHARE = 0.1
-"""Share of the time limit for the timetable of each option added by :func:`_add_order_options`
-(the round order is fixed, so the model is small)."""
+EXTRA_SHARE = 0.05
+"""Share of the time limit for each solve of an option added by :func:`_add_order_options`
+(its timetable, whose round order is fixed so that the model is small, and its places), with a
+floor of :data:`EXTRA_FLOOR` deterministic seconds instead of one."""
+
+EXTRA_FLOOR = 0.4
+"""Least deterministic time of a solve for an added option."""
+
+
+def _extra_limits(total: float, seed: int) -> SolveLimits:
+    det = max(EXTRA_FLOOR, total * EXTRA_SHARE)
+    return SolveLimits(det, 4 * det + 10, seed)
 
 MAX_OPTIONS = 5
 """The planner offers at most this many options that keep every rule."""
@@ -650,9 +662,9 @@ def _add_order_options(league: League, cands: list[_Candidate], total: float, se
             continue
         if label == "lowest carry-over":
             label = f"lowest carry-over: {fact.method}"
-        cand = _Candidate(label, fact, verify_rounds(n, fact.rounds))
+        cand = _Candidate(label, fact, verify_rounds(n, fact.rounds), added=True)
         try:
-            cand.tt = solve_timetable(league, fact, _limits(total, EXTRA_SHARE, seed),
+            cand.tt = solve_timetable(league, fact, _extra_limits(total, seed),
                                       minimise_breaks=league.priorities.breaks > 0,
                                       fixed_order=tuple(range(len(fact.rounds))))
         except InfeasibleError:
@@ -684,7 +696,8 @@ def _finish(league: League, cand: _Candidate, total: float, seed: int) -> None:
     if tt.breaks > tt.break_bound and tt.status != "optimal":
         notes.append(f"breaks: {tt.breaks} (lower bound {tt.break_bound}: {tt.break_bound_reason});"
                      " not proven optimal within the time limit")
-    placement = assign_places(league, tt, _limits(total, 0.25, seed))
+    places_limits = _extra_limits(total, seed) if cand.added else _limits(total, 0.25, seed)
+    placement = assign_places(league, tt, places_limits)
     if placement.wall_cap_hit:
         notes.append("the wall-clock safety limit was hit while placing the games; the result "
                      "may depend on machine load (allow more time: time_limit_seconds in the "

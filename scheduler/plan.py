@@ -24,8 +24,16 @@ Stages (each reported through ``progress(stage, fraction)``):
    factorizations, the other available ones (GK_n, Anderson's GA_n, the catalogue's) are tried
    before a clash is reported; the clash names a minimal set of rules
    (:mod:`scheduler.balance.explain`).
-3. *places*: venue, court and time slot (:mod:`scheduler.balance.places`).
+   *More options* (``docs/options.md``): the best-mixing rounds in a low-carry-over order and
+   the lowest-carry-over schedule (Russell's for a power of two, else an annealing), each
+   timetabled with its order fixed, are added when no option so far is as good in every figure
+   (at most five options).
+3. *places*: every option is finished the same way, chosen or not: the carry-over swap search,
+   venue, court and time slot (:mod:`scheduler.balance.places`), then its complete season.
 4. *dates*: kick-off datetimes from ``scheduler.calendar``.
+5. *choice*: the league's priorities pick one option; the others stay in ``season.options``
+   with their complete seasons, so that :func:`choose_option` can switch to another later
+   without solving, writing exactly what a plan whose priorities picked it writes.
 
 Determinism: CP-SAT runs with one worker, a fixed seed and a deterministic time limit; a
 wall-clock cap is only a safety net and the notes say when it was hit.

@@ -1,7 +1,8 @@
 """The ``scheduler`` command: a thin layer over the library.
 
 Commands: ``new`` (starter config), ``factor`` (one-factorization of K_n with its certificate),
-``plan`` (league config -> season folder), ``replan`` (re-plan a season folder after what
+``plan`` (league config -> season folder), ``choose`` (another option of a planned season,
+without solving again), ``replan`` (re-plan a season folder after what
 happened, with the fewest changes), ``audit`` (fairness figures of any schedule file).
 Exit codes: 0 ok, 1 the audited schedule is invalid, 2 unusable input or rules that cannot hold,
 3 an internal error (a bug: please report it with the input), 130 interrupted (Ctrl-C).
@@ -438,7 +439,7 @@ def plan(
     )
     # From here on the new season is in place; an interrupt only cuts the printing short.
     try:
-        _print_plan(result, fairness, season, written, out_dir, quiet=quiet)
+        _print_plan(result, fairness, season, written, out_dir, quiet=quiet, config=config)
     except KeyboardInterrupt:
         raise KeyboardInterrupt(
             f"interrupted; the new season had already been written to {out_dir}"
@@ -446,7 +447,8 @@ def plan(
 
 
 def _print_plan(
-    result: Any, fairness: Any, season: Any, written: list[Path], out_dir: Path, *, quiet: bool
+    result: Any, fairness: Any, season: Any, written: list[Path], out_dir: Path, *, quiet: bool,
+    config: Path | None = None,
 ) -> None:
     if quiet:
         out.print(str(out_dir))
@@ -455,17 +457,85 @@ def _print_plan(
     _print_rule_checks(fairness.rule_checks)
     from scheduler.fairness.names import plain_text
 
-    if len(result.options) > 1:
-        out.print("options (not dominated: no other option is at least as good in every figure "
-                  "and better in one):")
-    for option in result.options:
-        mark = "chosen" if option.chosen else "considered"
-        if option.on_frontier and len(result.options) > 1:
-            mark += ", not dominated"
-        out.print(f"{mark}: {_plain(plain_text(option.label))}: {_plain(option.figures())}")
+    _print_options(result.options, result.why, out_dir, config)
     for note in result.notes:
         out.print(f"note: {_plain(plain_text(note))}")
     out.print(f"wrote {len(written)} files to {out_dir}")
+
+
+def _print_options(options: Any, why: str, out_dir: Path, league_file: Path | None = None) -> None:
+    """The options of a plan, numbered as in the report, which one is chosen and why, how many
+    are not dominated, and how to choose another without solving again."""
+    from scheduler.fairness.frontier import frontier_summary
+    from scheduler.fairness.names import plain_text
+
+    if len(options) < 2:
+        return
+    summary = frontier_summary([(o.perfect_pairs, o.pairs, o.breaks, o.carry_over)
+                                for o in options])
+    out.print("options (not dominated: no other option is at least as good in every figure "
+              "and better in one):")
+    for number, option in enumerate(options, start=1):
+        mark = "chosen" if option.chosen else "considered"
+        if option.on_frontier:
+            mark += ", not dominated"
+        out.print(f"  {number}. {mark}: {_plain(plain_text(option.label))}: "
+                  f"{_plain(option.figures())}")
+    if "fewer than three" not in summary:  # otherwise the notes say it, with the reason
+        out.print(_plain(summary))
+    if why:
+        out.print(f"chosen by the league's priorities: {_plain(why)}")
+    league = str(league_file) if league_file is not None else "LEAGUE"
+    out.print(f"to choose another without solving again: scheduler choose {_plain(league)} "
+              f"--season {_plain(str(out_dir))} --option NUMBER")
+
+
+@app.command(help="Re-write a season folder from another of its options, without solving "
+             "again (the options are those plan listed, numbered as there).")
+@_guarded
+def choose(
+    config: Annotated[Path, typer.Argument(help="The league file the season was planned from.")],
+    season_dir: Annotated[
+        Path, typer.Option("--season", help="The season folder written by plan.")
+    ],
+    option: Annotated[
+        str, typer.Option("--option", help="The option's number as listed, or its label.")
+    ],
+) -> None:
+    """Re-write a season folder from another of its options, without solving again.
+
+    Parameters
+    ----------
+    config
+        The league file the season was planned from.
+    season_dir
+        The season folder.
+    option
+        The option's number as listed, its label, or the start of one label.
+    """
+    from scheduler.config import load_league
+    from scheduler.export import write_season_outputs
+    from scheduler.fairness import compute_fairness
+    from scheduler.fairness.names import plain_text
+    from scheduler.plan import choose_option
+
+    league = load_league(config)
+    choice = choose_option(league, season_dir, option)
+    fairness = compute_fairness(choice.season, league)
+    written = write_season_outputs(
+        choice.season, fairness, season_dir, config_path=config,
+        game_minutes=league.calendar.game_minutes, side_labels=league.format.grid_labels)
+    for number, figures in enumerate(choice.season.options, start=1):
+        mark = "chosen" if figures.chosen else "kept"
+        out.print(f"  {number}. {mark}: {_plain(plain_text(figures.label))}")
+    if choice.number == choice.previous_number:
+        out.print(f"option {choice.number} was already the chosen one; the folder was written "
+                  "again unchanged")
+    else:
+        out.print(f"chose option {choice.number} ({_plain(choice.label)}) instead of option "
+                  f"{choice.previous_number} ({_plain(choice.previous_label)}), without solving "
+                  "again")
+    out.print(f"wrote {len(written)} files to {season_dir}")
 
 
 @app.command("plan-divisions")

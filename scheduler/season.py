@@ -165,6 +165,8 @@ class PlanOptionFigures:
         True for the option the season uses.
     not_dominated : bool
         True when no other option is at least as good in every figure and better in one.
+    season : Season or None, optional
+        The option's complete season (see below).
     """
 
     label: str
@@ -175,6 +177,11 @@ class PlanOptionFigures:
     carry_over: int | None
     chosen: bool
     not_dominated: bool
+    season: Season | None = field(default=None, compare=False, repr=False)
+    """The option's complete season as the outputs would publish it (its own options empty),
+    kept so that another option can be chosen without solving again; ``None`` for an option
+    without a timetable and for options read back from ``season.json`` (the timetables are in
+    the season folder's options file, ``docs/options.md``)."""
 
 
 @dataclass(frozen=True)

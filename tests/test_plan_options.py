@@ -65,3 +65,91 @@ def test_sixteen_team_single_round_robin_keeps_perfect_mixing_with_fewer_breaks(
             == (option.perfect_pairs, option.breaks, option.carry_over)
             and other.on_frontier for other in feasible if other is not option)
         assert option.on_frontier == (not beaten and not twin_first), option.label
+
+
+# --- low-carry-over options and the frontier of 3 to 5 options (docs/options.md) -------------
+
+
+def _carry_over_from_fixtures(season) -> int:
+    """Russell's value recounted from the published fixtures of leg 1 (Russell 1980: c[i][j]
+    counts the teams that meet i in a round and j in the next, the last round followed by the
+    first; the value is the sum of the squares), written out here, not the project's count."""
+    rounds = sorted({f.round for f in season.fixtures if f.leg == 1})
+    opponent = {r: {} for r in rounds}
+    for f in season.fixtures:
+        if f.leg == 1:
+            opponent[f.round][f.home] = f.away
+            opponent[f.round][f.away] = f.home
+    cells: dict[tuple[str, str], int] = {}
+    for k, r in enumerate(rounds):
+        nxt = rounds[(k + 1) % len(rounds)]
+        for team in season.teams:
+            i, j = opponent[r].get(team), opponent[nxt].get(team)
+            if i is not None and j is not None:
+                cells[(i, j)] = cells.get((i, j), 0) + 1
+    return sum(v * v for v in cells.values())
+
+
+def _not_dominated(options) -> list:
+    def beaten(o, by) -> bool:
+        return (by.perfect_pairs >= o.perfect_pairs and by.breaks <= o.breaks
+                and by.carry_over <= o.carry_over
+                and (by.perfect_pairs > o.perfect_pairs or by.breaks < o.breaks
+                     or by.carry_over < o.carry_over))
+
+    feasible = [o for o in options if o.feasible]
+    return [o for o in feasible if not any(beaten(o, other) for other in feasible)]
+
+
+@pytest.mark.parametrize("teams", [8, 10])
+def test_three_to_five_options_not_dominated_and_each_one_complete(teams):
+    from scheduler.factorization.verify import verify_rounds
+
+    result = plan_season(league(teams, solve_seconds=3.0))
+    front = _not_dominated(result.options)
+    assert 3 <= len(front) <= 5
+    assert len([o for o in result.options if o.feasible]) <= 5
+    for figures, option in zip(result.season.options, result.options, strict=True):
+        season = figures.season
+        assert season is not None
+        # every option is a complete timetable that keeps the rules: a valid single round robin
+        # (each pair meets once), its breaks and carry-over recounted from its own fixtures
+        pairs = [frozenset((f.home, f.away)) for f in season.fixtures]
+        assert len(pairs) == len(set(pairs)) == teams * (teams - 1) // 2
+        assert _breaks_from_fixtures(season) == option.breaks
+        assert _carry_over_from_fixtures(season) == option.carry_over
+        # mixing re-verified by the independent verifier on the option's own rounds
+        index = {name: k for k, name in enumerate(season.teams)}
+        rounds = [[(index[f.home], index[f.away]) for f in season.fixtures if f.round == r]
+                  for r in range(1, teams)]
+        assert verify_rounds(teams, rounds).perfect_pairs == option.perfect_pairs
+    # the season published is the chosen option's own
+    chosen = next(f for f in result.season.options if f.chosen)
+    assert chosen.season is not None and chosen.season.fixtures == result.season.fixtures
+
+
+def test_a_worst_carry_over_choice_is_said_and_a_low_carry_over_option_offered():
+    # breaks first: the circle method GK_8 is chosen for its n - 2 = 6 breaks (de Werra 1981);
+    # its carry-over value is the maximum (n-1)(n^2-6n+12) = 196 for n = 8 (Lambrechts, Ficker,
+    # Goossens & Spieksma, Math. Programming 172 (2018))
+    from scheduler.config.model import Priorities
+
+    result = plan_season(league(8, priorities=Priorities(mixing=1, breaks=5), solve_seconds=3.0))
+    chosen = next(o for o in result.options if o.chosen)
+    assert chosen.carry_over == 7 * (64 - 48 + 12) == _carry_over_from_fixtures(result.season)
+    worst = [n for n in result.notes if "worst possible" in n]
+    assert len(worst) == 1 and "scheduler choose" in worst[0]
+    lower = min(o.carry_over for o in result.options if o.feasible)
+    # Russell's balanced schedule reaches n(n-1) = 56 for n = 8 (Russell 1980)
+    assert lower == 8 * 7
+    best = next(o for o in result.options if o.carry_over == lower)
+    assert best.on_frontier and f"has {lower}" in worst[0]
+
+
+def test_three_teams_say_why_fewer_than_three_options_exist():
+    result = plan_season(league(3, solve_seconds=2.0))
+    said = [n for n in result.notes if "fewer than three" in n]
+    # K_4 has one one-factorization, every pair of its rounds is a 4-cycle (perfect), and the
+    # carry-over bounds n(n-1) and (n-1)(n^2-6n+12) meet at 12 (Russell 1980; Lambrechts 2018)
+    assert len(said) == 1 and "4 teams or fewer" in said[0]
+    assert "None" not in " ".join(result.notes)

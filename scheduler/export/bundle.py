@@ -6,6 +6,8 @@ Layout of ``out_dir``::
     fixtures.csv             RFC 4180 fixture list
     fixtures.xlsx            workbook: Fixtures, Grid, Fairness, one sheet per team
     report.html              the self-contained season report
+    options.json             every option the planner weighed, complete (when more than one;
+                             scheduler.export.season_json.dumps_options, docs/options.md)
     calendars/league.ics     every game (RFC 5545)
     calendars/<team>.ics     one feed per team (file stem from safety.safe_filename)
     calendars/.sequence.json per-UID SEQUENCE/DTSTAMP state, so a re-plan never lowers SEQUENCE
@@ -59,6 +61,7 @@ from scheduler.export.ics import (
     team_feed_names,
 )
 from scheduler.export.manifest import MANIFEST_FILE, Manifest
+from scheduler.export.season_json import OPTIONS_FILE, keeps_options
 from scheduler.export.site import site_files, site_paths
 from scheduler.export.xlsx import workbook_bytes
 from scheduler.fairness.model import FairnessReport
@@ -114,6 +117,7 @@ def output_paths(season: Season, out_dir: str | os.PathLike[str]) -> list[Path]:
         *(cal / name for name in team_feed_names(season).values()),
         out / REPORT_FILE,
         *(out / rel for rel in site_paths(season, team_feed_names(season))),
+        *([out / OPTIONS_FILE] if keeps_options(season) else []),
         out / SEASON_FILE,
         out / MANIFEST_FILE,
     ]
@@ -410,7 +414,7 @@ def render_season_files(
     ----------
     ``docs/outputs.md``; ``docs/season-folder.md``; RFC 5545 (iCalendar).
     """
-    from scheduler.export.season_json import dumps_season
+    from scheduler.export.season_json import dumps_options, dumps_season
 
     plan = plan_calendar(season, previous, state, game_minutes=game_minutes)
     calendars = CALENDAR_FOLDER + "/"
@@ -429,6 +433,8 @@ def render_season_files(
     if changes is not None:
         files[CHANGES_FILE] = changes_csv(changes).encode("utf-8")
     files.update(site_files(season, fairness, feed_names=team_feed_names(season)))
+    if keeps_options(season):
+        files[OPTIONS_FILE] = dumps_options(season).encode("utf-8")
     files[SEASON_FILE] = dumps_season(season, fairness).encode("utf-8")
     manifest = Manifest.of_files(season.league, season.season_id, season.revision, files)
     files[MANIFEST_FILE] = manifest.to_bytes()

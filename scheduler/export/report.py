@@ -569,6 +569,27 @@ def options_chart(options: Sequence[PlanOptionFigures]) -> Markup | None:
     return _svg(width, height, "".join(body), "Options weighed by the planner")
 
 
+def _options_words(options: Sequence[PlanOptionFigures]) -> dict:
+    """The words of the options section: how many options are not dominated (and why no more,
+    when fewer than three), the chosen option's number, and the worst possible carry-over value
+    of the league's order (the circle method's, Lambrechts et al. 2018), to flag it."""
+    if not options:
+        return {"options_summary": "", "options_chosen": "", "options_worst_carry_over": None,
+                "options_choosable": False}
+    from scheduler.fairness.frontier import frontier_summary, rounds_of_pairs
+
+    summary = frontier_summary([(o.perfect_pairs, o.pairs, o.breaks, o.carry_over)
+                                for o in options])
+    chosen = next((k for k, o in enumerate(options, start=1) if o.chosen), 0)
+    n = rounds_of_pairs(options[0].pairs) + 1
+    # up to 6 teams every order of the one single round robin has the same value (computed,
+    # docs/carry-over.md): nothing to flag
+    worst = (n - 1) * (n * n - 6 * n + 12) if n > 6 and n % 2 == 0 else None
+    return {"options_summary": summary, "options_chosen": chosen or "none",
+            "options_worst_carry_over": worst,
+            "options_choosable": any(o.season is not None for o in options)}
+
+
 def bound_gauge(value: int, low: int, high: int) -> Markup:
     """Where a value lies between its lower and upper bound (a marker on a line).
 
@@ -1054,6 +1075,7 @@ def report_context(
         "changes": _change_rows(changes) if changes is not None else None,
         "options": season.options,
         "options_chart": options_chart(season.options),
+        **_options_words(season.options),
         "change_counts": team_counts(changes) if changes else [],
         "revisions": season.revisions,
         "text_limit": TEXT_LIMIT,

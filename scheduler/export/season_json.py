@@ -35,6 +35,7 @@ newline (JSON: RFC 8259; date-times: ISO 8601 / RFC 3339 with offset).
 from __future__ import annotations
 
 import json
+from dataclasses import dataclass
 
 # The reading side lives with the audit's input side; it is re-exported here so callers that
 # read back the season they wrote (the output folder) keep one import.
@@ -47,15 +48,22 @@ from scheduler.audit.season_file import (
     loads_season_bytes,
     season_from_dict,
 )
+from scheduler.errors import InputError
 from scheduler.fairness.model import FairnessReport
 from scheduler.season import Fixture, Revision, Season
 
 __all__ = [
     "FORMAT",
     "FORMAT_PREFIX",
+    "OPTIONS_FILE",
+    "OPTIONS_FORMAT",
     "SUPPORTED_VERSIONS",
+    "StoredOptions",
+    "dumps_options",
     "dumps_season",
+    "keeps_options",
     "load_season_json",
+    "loads_options",
     "loads_season",
     "loads_season_bytes",
     "season_from_dict",
@@ -203,3 +211,129 @@ def dumps_season(season: Season, fairness: FairnessReport | None = None) -> str:
     """
     data = season_to_dict(season, fairness)
     return json.dumps(data, ensure_ascii=False, indent=2, allow_nan=False) + "\n"
+
+
+OPTIONS_FILE = "options.json"
+"""The season folder's file of every option's complete season (``docs/options.md``)."""
+
+OPTIONS_FORMAT = "roundrobin-scheduler/options/1"
+"""Format tag of :data:`OPTIONS_FILE`."""
+
+
+def keeps_options(season: Season) -> bool:
+    """Whether ``season`` carries the complete seasons of its options (a plan that weighed more
+    than one option), so that the folder gets an :data:`OPTIONS_FILE`.
+
+    Parameters
+    ----------
+    season
+        The season to write.
+
+    Returns
+    -------
+    bool
+        True when at least one of ``season.options`` holds its season.
+    """
+    return any(o.season is not None for o in season.options)
+
+
+def dumps_options(season: Season) -> str:
+    """The text of :data:`OPTIONS_FILE`: every option's complete season, in the order of
+    ``season.options`` (``null`` for an option without a timetable), each in the layout of
+    ``season.json`` without fairness figures, plus the revision of the season it sits beside.
+
+    Layout::
+
+        {"format": "roundrobin-scheduler/options/1", "league": str, "season": str,
+         "revision": str (of the season.json beside it),
+         "options": [season.json layout without "fairness" | null, ...]}
+
+    Deterministic like :func:`dumps_season`; ``season.json`` itself is unchanged by it, so
+    readers of ``season.json`` never see the options' timetables.
+
+    Parameters
+    ----------
+    season
+        The chosen season, its options carrying their seasons (:func:`keeps_options`).
+
+    Returns
+    -------
+    str
+        JSON text, UTF-8 without ASCII escapes, indent 1, one trailing newline.
+    """
+    options: list[dict | None] = []
+    for option in season.options:
+        if option.season is None:
+            options.append(None)
+            continue
+        data = season_to_dict(option.season)
+        del data["fairness"]
+        options.append(data)
+    payload = {"format": OPTIONS_FORMAT, "league": season.league, "season": season.season_id,
+               "revision": season.revision, "options": options}
+    return json.dumps(payload, ensure_ascii=False, indent=1, allow_nan=False) + "\n"
+
+
+@dataclass(frozen=True)
+class StoredOptions:
+    """The contents of :data:`OPTIONS_FILE`.
+
+    Parameters
+    ----------
+    league, season_id
+        The league and season it belongs to.
+    revision
+        The revision of the ``season.json`` written beside it.
+    seasons
+        Every option's complete season, ``None`` for an option without a timetable.
+    """
+
+    league: str
+    season_id: str
+    revision: str
+    seasons: tuple[Season | None, ...]
+
+
+def loads_options(text: str, *, source: str = OPTIONS_FILE) -> StoredOptions:
+    """Read the text of :data:`OPTIONS_FILE`.
+
+    Parameters
+    ----------
+    text
+        The JSON text.
+    source
+        Name of the file in error locations.
+
+    Returns
+    -------
+    StoredOptions
+
+    Raises
+    ------
+    InputError
+        For text that is not an options file of this program (located by its JSON path).
+    """
+    try:
+        data = json.loads(text)
+    except json.JSONDecodeError as exc:
+        raise InputError(f"not JSON: {exc.msg} (line {exc.lineno})", location=source) from None
+    if not isinstance(data, dict) or data.get("format") != OPTIONS_FORMAT:
+        raise InputError(f"not an options file of this program (expected format "
+                         f"{OPTIONS_FORMAT!r})", location=f"{source}: format")
+    for key in ("league", "season", "revision"):
+        if not isinstance(data.get(key), str):
+            raise InputError(f"{key!r} must be text", location=f"{source}: {key}")
+    raw = data.get("options")
+    if not isinstance(raw, list):
+        raise InputError("'options' must be a list", location=f"{source}: options")
+    seasons: list[Season | None] = []
+    for i, item in enumerate(raw):
+        if item is None:
+            seasons.append(None)
+            continue
+        try:
+            seasons.append(season_from_dict(item))
+        except InputError as exc:
+            inner = f".{exc.location}" if exc.location else ""
+            raise InputError(exc.detail, location=f"{source}: options[{i}]{inner}") from None
+    return StoredOptions(data["league"], data["season"], data["revision"], tuple(seasons))

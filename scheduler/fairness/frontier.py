@@ -12,7 +12,8 @@ by the league's priorities.
 
 from __future__ import annotations
 
-from collections.abc import Iterable
+import math
+from collections.abc import Iterable, Sequence
 from dataclasses import dataclass, field
 
 
@@ -127,3 +128,74 @@ def frontier(options: Iterable[ScheduleOption]) -> tuple[ScheduleOption, ...]:
             continue
         kept.append(option)
     return tuple(kept)
+
+
+def rounds_of_pairs(pairs: int) -> int:
+    """The number of rounds ``r`` with ``r(r-1)/2 == pairs`` (0 when there is none).
+
+    Parameters
+    ----------
+    pairs
+        A number of pairs of rounds.
+
+    Returns
+    -------
+    int
+        The rounds of one single round robin, so the teams are this plus one.
+
+    Examples
+    --------
+    >>> rounds_of_pairs(105)
+    15
+    """
+    rounds = (1 + math.isqrt(1 + 8 * max(0, pairs))) // 2
+    return rounds if rounds * (rounds - 1) // 2 == pairs and pairs > 0 else 0
+
+
+def frontier_summary(figures: Sequence[tuple[int, int, int | None, int | None]]) -> str:
+    """One sentence on the frontier of a plan's options: how many are not dominated, and, when
+    fewer than three, why no more were offered.
+
+    Parameters
+    ----------
+    figures
+        Per option ``(perfect pairs, pairs of rounds, breaks, carry-over value)``; breaks or
+        carry-over ``None`` for an option without a timetable (it takes no part).
+
+    Returns
+    -------
+    str
+        For example ``"3 of 4 options are not dominated."``.
+
+    Examples
+    --------
+    >>> frontier_summary([(105, 105, 20, 600), (60, 105, 14, 2580), (60, 105, 16, 2580)])
+    '2 of 3 options are not dominated (fewer than three: the planner found no other schedule \
+that is better in one figure without being worse in another).'
+
+    References
+    ----------
+    M. Ehrgott, *Multicriteria Optimization*, Springer 2005, ch. 2 (Pareto dominance);
+    ``docs/options.md``.
+    """
+    options = [ScheduleOption(str(k), perfect, breaks, carry)
+               for k, (perfect, _pairs, breaks, carry) in enumerate(figures)
+               if breaks is not None and carry is not None]
+    kept = len(frontier(options))
+    noun = "option is" if len(figures) == 1 else "options are"
+    text = f"{kept} of {len(figures)} {noun} not dominated"
+    if kept >= 3 or not figures:
+        return text + "."
+    pairs = figures[0][1]
+    vertices = rounds_of_pairs(pairs) + 1 if pairs else 2
+    if 0 < vertices <= 6:
+        reason = (f"with {vertices} teams or fewer (a bye counted as a team) there is one "
+                  "single round robin up to renaming the teams and the order of the rounds, "
+                  "every pair of its rounds mixes perfectly"
+                  + (", and every order of its rounds has the same carry-over value"
+                     if vertices >= 4 else "")
+                  + ", so only the breaks can differ")
+    else:
+        reason = ("the planner found no other schedule that is better in one figure without "
+                  "being worse in another")
+    return f"{text} (fewer than three: {reason})."

@@ -31,7 +31,7 @@ def test_season_is_complete():
     assert s.teams == lg.team_names and s.legs == 2 and s.scheme == "mirrored"
     assert s.timezone == "Europe/London" and s.venues == ("Riverside Hall",)
     assert s.seed == 3 and re.fullmatch(r"[0-9a-f]{12}", s.revision)
-    assert s.revision == revision(lg, 3) != revision(lg, 4)
+    assert s.revision == revision(lg, 3, s.fixtures, s.byes) != revision(lg, 4, s.fixtures, s.byes)
     assert s.rounds == 14 and len(s.fixtures) == 2 * 21
     assert all(len(b) == 1 for b in s.byes.values()) and len(s.byes) == 14
     for f in s.fixtures:

@@ -143,6 +143,14 @@ class TimetableModel:
         Scales the search for a starting point (the deterministic seconds of the solve).
     start_home
         Leg-1 venues to start from (``{(a, b): a is at home}``), or ``None``.
+    cp
+        Build into this CP-SAT model instead of a new one (several divisions in one model,
+        :mod:`scheduler.divisions.joint`); ``None`` for a model of its own.
+    extra_named
+        Teams placed on vertices explicitly even without a team-specific rule, so that
+        :meth:`team_home` can speak of them.
+    free_days
+        Let the model choose the match days even when no rule names a date.
 
     Raises
     ------
@@ -160,10 +168,6 @@ class TimetableModel:
                  start_home: dict[tuple[int, int], bool] | None = None,
                  cp: cp_model.CpModel | None = None, extra_named: tuple[str, ...] = (),
                  free_days: bool = False) -> None:
-        # ``cp``: build into this model (several leagues in one model, see
-        # scheduler.divisions.joint); ``extra_named``: teams to place on vertices explicitly even
-        # without a team-specific rule (so that ``team_home`` can speak of them); ``free_days``:
-        # let the model choose the match days even when no rule names a date
         self.earliest_days = earliest_days
         self.start_home = start_home
         self.effort = effort

@@ -231,14 +231,14 @@ class TimetableModel:
         """
         self.book.forbid(statement)
 
-    def vertex_home(self, s: int, v: int) -> cp_model.IntVar:
-        """Literal: vertex ``v`` plays at home in season round ``s`` (false at its bye).
+    def vertex_home(self, season_round: int, vertex: int) -> cp_model.IntVar:
+        """Literal: ``vertex`` plays at home in ``season_round`` (false at its bye).
 
         Parameters
         ----------
-        s
+        season_round
             Season round, 0-based.
-        v
+        vertex
             Factorization vertex.
 
         Returns
@@ -246,16 +246,16 @@ class TimetableModel:
         ortools.sat.python.cp_model.IntVar
             The literal.
         """
-        return self.home_in_round[s][v]
+        return self.home_in_round[season_round][vertex]
 
-    def vertex_plays(self, s: int, v: int) -> cp_model.BoolVarT | None:
-        """Literal 'vertex v plays in season round s' (None = always).
+    def vertex_plays(self, season_round: int, vertex: int) -> cp_model.BoolVarT | None:
+        """Literal: ``vertex`` plays in ``season_round`` (None = always).
 
         Parameters
         ----------
-        s
+        season_round
             Season round, 0-based.
-        v
+        vertex
             Factorization vertex.
 
         Returns
@@ -265,16 +265,16 @@ class TimetableModel:
         """
         if not self.odd:
             return None
-        return self.round_holds[s][self.bye_round[v]].negated()
+        return self.round_holds[season_round][self.bye_round[vertex]].negated()
 
-    def break_at(self, s: int, v: int) -> cp_model.IntVar:
-        """Literal: vertex ``v`` has a break in season round ``s`` (``s >= 1``).
+    def break_at(self, season_round: int, vertex: int) -> cp_model.IntVar:
+        """Literal: ``vertex`` has a break in ``season_round`` (1 or more).
 
         Parameters
         ----------
-        s
+        season_round
             Season round, 0-based, at least 1 (a break is counted in its second round).
-        v
+        vertex
             Factorization vertex.
 
         Returns
@@ -282,17 +282,17 @@ class TimetableModel:
         ortools.sat.python.cp_model.IntVar
             The literal.
         """
-        return self.break_in_round[s][v]
+        return self.break_in_round[season_round][vertex]
 
-    def team_home(self, t: int, s: int) -> cp_model.IntVar:
-        """Literal 'team t (named) plays at home in season round s'.
+    def team_home(self, team: int, season_round: int) -> cp_model.IntVar:
+        """Literal: ``team`` (named by a rule) plays at home in ``season_round``.
 
         Parameters
         ----------
-        t
+        team
             Team index in ``league.teams`` (a team a rule names, placed on a vertex by the
             model).
-        s
+        season_round
             Season round, 0-based.
 
         Returns
@@ -300,22 +300,23 @@ class TimetableModel:
         ortools.sat.python.cp_model.IntVar
             The literal (made once per team and round).
         """
-        key = (t, s)
+        key = (team, season_round)
         if key not in self._team_home:
-            literal = self.cp.new_bool_var(f"team{t}_home_in_round{s}")
-            for v, on_vertex in self.team_on_vertex[t].items():
-                self.cp.add(literal == self.home_in_round[s][v]).only_enforce_if(on_vertex)
+            literal = self.cp.new_bool_var(f"team{team}_home_in_round{season_round}")
+            for vertex, on_vertex in self.team_on_vertex[team].items():
+                self.cp.add(literal == self.home_in_round[season_round][vertex]
+                            ).only_enforce_if(on_vertex)
             self._team_home[key] = literal
         return self._team_home[key]
 
-    def team_bye(self, t: int, s: int) -> cp_model.IntVar:
-        """Literal 'team t (named) has its bye in season round s' (odd leagues).
+    def team_bye(self, team: int, season_round: int) -> cp_model.IntVar:
+        """Literal: ``team`` (named by a rule) has its bye in ``season_round``.
 
         Parameters
         ----------
-        t
+        team
             Team index in ``league.teams``.
-        s
+        season_round
             Season round, 0-based.
 
         Returns
@@ -323,44 +324,45 @@ class TimetableModel:
         ortools.sat.python.cp_model.IntVar
             The literal (made once per team and round).
         """
-        key = (t, s)
+        key = (team, season_round)
         if key not in self._team_bye:
-            literal = self.cp.new_bool_var(f"team{t}_bye_in_round{s}")
-            for v, on_vertex in self.team_on_vertex[t].items():
-                self.cp.add(literal == self.round_holds[s][self.bye_round[v]]
+            literal = self.cp.new_bool_var(f"team{team}_bye_in_round{season_round}")
+            for vertex, on_vertex in self.team_on_vertex[team].items():
+                self.cp.add(literal == self.round_holds[season_round][self.bye_round[vertex]]
                             ).only_enforce_if(on_vertex)
             self._team_bye[key] = literal
         return self._team_bye[key]
 
-    def teams_meet(self, a: int, b: int, s: int, literal: cp_model.IntVar) -> None:
-        """Under ``literal``: teams a and b (named) meet in season round s.
+    def teams_meet(self, first_team: int, second_team: int, season_round: int,
+                   literal: cp_model.IntVar) -> None:
+        """Under ``literal``: ``first_team`` and ``second_team`` (named) meet in ``season_round``.
 
         Parameters
         ----------
-        a, b
+        first_team, second_team
             Team indexes in ``league.teams``.
-        s
+        season_round
             Season round, 0-based.
         literal
             The constraint holds only when this literal is true.
         """
-        for v in self.vertices:
-            for k in range(self.rounds_per_leg):
-                w = self.partner[k][v]
-                clause = [literal.negated(), self.team_on_vertex[a][v].negated(),
-                          self.round_holds[s][k].negated()]
-                if w != self.bye:
-                    clause.append(self.team_on_vertex[b][w])
+        for vertex in self.vertices:
+            for round_index in range(self.rounds_per_leg):
+                partner_vertex = self.partner[round_index][vertex]
+                clause = [literal.negated(), self.team_on_vertex[first_team][vertex].negated(),
+                          self.round_holds[season_round][round_index].negated()]
+                if partner_vertex != self.bye:
+                    clause.append(self.team_on_vertex[second_team][partner_vertex])
                 self.cp.add_bool_or(clause)
 
-    def position_in_leg(self, leg: int, k: int) -> cp_model.LinearExpr | int:
-        """Linear expression: the 0-based position of factorization round ``k`` in ``leg``.
+    def position_in_leg(self, leg: int, round_index: int) -> cp_model.LinearExpr | int:
+        """Linear expression: the 0-based position of a factorization round in ``leg``.
 
         Parameters
         ----------
         leg
             Leg index, 0-based.
-        k
+        round_index
             Factorization round index.
 
         Returns
@@ -368,7 +370,7 @@ class TimetableModel:
         ortools.sat.python.cp_model.LinearExpr or int
             The position, as an expression of the model's variables.
         """
-        return sum(q * self.leg_order[leg][q][k] for q in range(self.rounds_per_leg))
+        return sum(q * self.leg_order[leg][q][round_index] for q in range(self.rounds_per_leg))
 
     def home_venue_groups(self) -> list[tuple[str, int, list[int]]]:
         """Venues whose capacity a match day could exceed, with their home teams.

@@ -190,14 +190,14 @@ class TimetableView(Protocol):  # numpydoc ignore=PR01
             The statement in the organizer's words.
         """
 
-    def vertex_home(self, s: int, v: int) -> Any:
-        """Literal: vertex ``v`` plays at home in round ``s`` (false at its bye).
+    def vertex_home(self, season_round: int, vertex: int) -> Any:
+        """Literal: ``vertex`` plays at home in ``season_round`` (false at its bye).
 
         Parameters
         ----------
-        s : int
+        season_round : int
             The season round, 0-based.
-        v : int
+        vertex : int
             The vertex.
 
         Returns
@@ -206,14 +206,14 @@ class TimetableView(Protocol):  # numpydoc ignore=PR01
             The literal.
         """
 
-    def vertex_plays(self, s: int, v: int) -> Any:
-        """Literal: vertex ``v`` plays in round ``s`` (``None`` in an even league: always).
+    def vertex_plays(self, season_round: int, vertex: int) -> Any:
+        """Literal: ``vertex`` plays in ``season_round`` (``None`` in an even league: always).
 
         Parameters
         ----------
-        s : int
+        season_round : int
             The season round, 0-based.
-        v : int
+        vertex : int
             The vertex.
 
         Returns
@@ -222,14 +222,14 @@ class TimetableView(Protocol):  # numpydoc ignore=PR01
             The literal; None when the vertex plays in every round.
         """
 
-    def break_at(self, s: int, v: int) -> Any:
-        """Literal: vertex ``v`` has a break in round ``s`` (``s >= 1``).
+    def break_at(self, season_round: int, vertex: int) -> Any:
+        """Literal: ``vertex`` has a break in ``season_round`` (1 or more).
 
         Parameters
         ----------
-        s : int
+        season_round : int
             The season round, 0-based, 1 or more.
-        v : int
+        vertex : int
             The vertex.
 
         Returns
@@ -238,14 +238,14 @@ class TimetableView(Protocol):  # numpydoc ignore=PR01
             The literal.
         """
 
-    def team_home(self, t: int, s: int) -> Any:
-        """Literal: named team ``t`` plays at home in round ``s``.
+    def team_home(self, team: int, season_round: int) -> Any:
+        """Literal: named team ``team`` plays at home in ``season_round``.
 
         Parameters
         ----------
-        t : int
+        team : int
             The team's index in ``league.teams``; the team must be named by a rule.
-        s : int
+        season_round : int
             The season round, 0-based.
 
         Returns
@@ -254,14 +254,14 @@ class TimetableView(Protocol):  # numpydoc ignore=PR01
             The literal.
         """
 
-    def team_bye(self, t: int, s: int) -> Any:
-        """Literal: named team ``t`` sits out round ``s`` (odd leagues).
+    def team_bye(self, team: int, season_round: int) -> Any:
+        """Literal: named team ``team`` sits out ``season_round`` (odd leagues).
 
         Parameters
         ----------
-        t : int
+        team : int
             The team's index in ``league.teams``; the team must be named by a rule.
-        s : int
+        season_round : int
             The season round, 0-based.
 
         Returns
@@ -270,27 +270,28 @@ class TimetableView(Protocol):  # numpydoc ignore=PR01
             The literal.
         """
 
-    def teams_meet(self, a: int, b: int, s: int, literal: Any) -> None:
-        """Under ``literal``: named teams ``a`` and ``b`` meet in round ``s``.
+    def teams_meet(self, first_team: int, second_team: int, season_round: int,
+                   literal: Any) -> None:
+        """Under ``literal``: ``first_team`` and ``second_team`` (named) meet in ``season_round``.
 
         Parameters
         ----------
-        a, b : int
+        first_team, second_team : int
             The two teams' indices in ``league.teams``; both must be named by a rule.
-        s : int
+        season_round : int
             The season round, 0-based.
         literal : Any
             The enforcement literal (usually a statement's :meth:`switch`).
         """
 
-    def position_in_leg(self, leg: int, k: int) -> Any:
-        """Linear expression: the 0-based position of factorization round ``k`` in ``leg``.
+    def position_in_leg(self, leg: int, round_index: int) -> Any:
+        """Linear expression: the 0-based position of a factorization round in ``leg``.
 
         Parameters
         ----------
         leg : int
             The leg, 0-based.
-        k : int
+        round_index : int
             The round of the factorization (leg 1's pairings), 0-based.
 
         Returns

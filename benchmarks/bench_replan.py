@@ -13,8 +13,9 @@ three weeks). Printed side by side:
   people who already have the dates in their calendars.
 
 Measured on the shared 2-core development machine (one CP-SAT worker): the minimal re-plan
-changes 7 of 163 future fixtures, proven minimal in 4.4 s (ratio 0.44 to the 10 s target); the
-plan from scratch changes 161 (23 times as many).
+changes 7 of 163 future fixtures, proven minimal in 1.5-4.7 s depending on the machine's load
+(ratio 0.15-0.47 to the 10 s target); the plan from scratch changes 160-161 (about 23 times as
+many). Every run is recorded in ``docs/replanning.md``.
 
 Run: ``python benchmarks/bench_replan.py``.
 """

@@ -103,7 +103,7 @@ def test_plan_lists_numbered_options_and_how_to_choose(planned):
     # every option has a short label, unique, and its construction as a separate detail
     labels = [o["label"] for o in options]
     assert len(set(labels)) == len(labels) and all(len(label) <= 28 for label in labels)
-    assert all(":" not in label and o.get("detail") for label, o in zip(labels, options))
+    assert all(":" not in o["label"] and o.get("detail") for o in options)
     stored = json.loads((planned["first"] / "options.json").read_text(encoding="utf-8"))
     assert len(stored["options"]) == len(options)
     manifest = json.loads((planned["first"] / ".season-manifest.json").read_text("utf-8"))

@@ -65,8 +65,8 @@ def _mark(group: ET.Element) -> ET.Element:
 
 def _same_order(values: list[float], places: list[float], *, reverse: bool = False) -> None:
     """The places sort the options as their values do (ties stay ties)."""
-    for a, pa in zip(values, places):
-        for b, pb in zip(values, places):
+    for a, pa in zip(values, places, strict=True):
+        for b, pb in zip(values, places, strict=True):
             if a == b:
                 assert pa == pytest.approx(pb, abs=0.02)
             elif (a < b) != reverse:
@@ -77,7 +77,7 @@ def _same_order(values: list[float], places: list[float], *, reverse: bool = Fal
 
 @pytest.mark.parametrize("options", [EIGHT, EIGHT[:3], tuple(reversed(EIGHT))])
 def test_every_option_is_drawn_in_both_panels_where_its_figures_put_it(options):
-    root, panels = _read(options)
+    _, panels = _read(options)
     assert set(panels) == {"breaks", "carry-over"}
     drawn = {k: o for k, o in enumerate(options, 1) if o.breaks is not None}
     for name, figure in (("breaks", "breaks"), ("carry-over", "carry_over")):
@@ -101,7 +101,7 @@ def test_every_option_is_drawn_in_both_panels_where_its_figures_put_it(options):
 
 def _linear(points: list[tuple[float, float]]):
     """The straight line through the first two points of different value (value -> y)."""
-    (v1, y1), (v2, y2) = next(((a, b) for a in points for b in points if a[0] != b[0]))
+    (v1, y1), (v2, y2) = next((a, b) for a in points for b in points if a[0] != b[0])
     return lambda value: y1 + (value - v1) * (y2 - y1) / (v2 - v1)
 
 
@@ -122,7 +122,9 @@ def test_bound_lines_lie_where_the_numbers_say():
         labels = [t.text for t in panel.iter(f"{SVG}text")]
         for line in lines:
             value = int(line.get("data-value"))
-            assert float(line.get("y1")) == float(line.get("y2")) == pytest.approx(scale(value), abs=0.02)  # drawn to 0.01
+            # drawn to 0.01 of a unit
+            assert float(line.get("y1")) == float(line.get("y2"))
+            assert float(line.get("y1")) == pytest.approx(scale(value), abs=0.02)
             assert expected[value] in labels
         # dashed for the lower bound, dotted (shorter dashes) for the worst possible value
         dashes = {int(el.get("data-value")): el.get("stroke-dasharray") for el in lines}
@@ -191,12 +193,12 @@ def test_the_table_shows_short_labels_with_their_detail_and_the_chart_numbers():
     rows = [row for row in table.rows if row]
     assert len(rows) == len(EIGHT)
     assert table.details == [o.detail for o in EIGHT]
-    for row, option in zip(rows, EIGHT):
+    for row, option in zip(rows, EIGHT, strict=True):
         assert row[1].startswith(option.label) and row[1].endswith(option.detail)
     chart = page[page.index("<svg", page.index('id="options"')):]
     root = ET.fromstring(chart[:chart.index("</svg>") + len("</svg>")])
     values = {t.text for t in root.iter(f"{SVG}text")}
-    for row, option in zip(rows, EIGHT):
+    for row, option in zip(rows, EIGHT, strict=True):
         if option.breaks is not None:
             assert row[3].startswith(str(option.breaks)) and row[4].startswith(
                 str(option.carry_over))

@@ -255,9 +255,9 @@ def test_options_weighed_are_listed_and_drawn():
     svg = "{http://www.w3.org/2000/svg}"
     for panel in (g for g in root.iter(f"{svg}g") if g.get("data-figure")):
         marks = [g for g in panel.iter(f"{svg}g") if g.get("data-option")]
-        titles = sorted(((int(g.get("data-option")), g.find(f"{svg}title").text) for g in marks))
+        titles = sorted((int(g.get("data-option")), g.find(f"{svg}title").text) for g in marks)
         assert [number for number, _ in titles] == [1, 2, 3]
-        assert all(f"({o.label}" in words for (_, words), o in zip(titles, options))
+        assert all(f"({o.label}" in words for (_, words), o in zip(titles, options, strict=True))
     page = render_report(replace(season, options=options), compute_fairness(season))
     assert 'id="options"' in page and "fewest breaks" in page and "not beaten" in page
     assert options_chart(options[:1]) is None  # one option is no choice: no chart

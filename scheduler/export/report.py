@@ -662,7 +662,11 @@ def options_chart(options: Sequence[PlanOptionFigures]) -> Markup | None:
     for value in sorted({0, pairs} | {o.perfect_pairs for _, o in shown}):
         body.append(f'<line x1="{x(value):g}" y1="{axis_y}" x2="{x(value):g}" '
                     f'y2="{axis_y + 4}" stroke="#555555"/>')
-    for value in sorted({0, pairs}):
+    labelled: list[float] = []
+    for value in [0, pairs, *sorted({o.perfect_pairs for _, o in shown} - {0, pairs})]:
+        if any(abs(x(value) - at) < 20 for at in labelled):
+            continue  # too close to a number already written: the marks' places still tell
+        labelled.append(x(value))
         body.append(f'<text x="{x(value):g}" y="{axis_y + 15}" text-anchor="middle" '
                     f'class="axis">{value}</text>')
     body.append(f'<text x="{left + span_x / 2:g}" y="{axis_y + 32}" text-anchor="middle" '
@@ -683,6 +687,10 @@ def options_chart(options: Sequence[PlanOptionFigures]) -> Markup | None:
         "dotted line: worst possible; the number in a mark is the option's</text></g>")
     height = legend_y + 26
     missing = [k for k, o in enumerate(options, 1) if o.breaks is None]
+    if missing:
+        body.append(f'<text x="{left}" y="{height + 4}" class="axis">not drawn, no timetable '
+                    f"keeps every rule: option {', '.join(map(str, missing))}</text>")
+        height += 16
     desc = "; ".join(_option_words(k, o) for k, o in enumerate(options, 1))
     if limits is not None:
         desc += (f". Carry-over: lower bound {limits[0]} (Russell 1980), worst possible "

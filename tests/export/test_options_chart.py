@@ -150,6 +150,9 @@ def test_marks_differ_in_shape_not_only_colour_and_the_chart_is_described():
     legend = " ".join(t.text or "" for g in root.iter(f"{SVG}g") if g.get("class") == "legend"
                       for t in g.iter(f"{SVG}text"))
     assert "chosen" in legend and "not beaten" in legend and "lower bound" in legend
+    # the option without a timetable is said on the chart too, not only in its description
+    assert any((t.text or "").endswith("option 6") and "not drawn" in t.text
+               for t in root.iter(f"{SVG}text"))
 
 
 class _Table(HTMLParser):

@@ -78,7 +78,9 @@ class PlanOption:
     Parameters
     ----------
     label
-        The option's name in reports (which factorization, from which source).
+        The option's short name in every output and for ``scheduler choose --option``: what the
+        option is for ("best mixing", "fewest breaks", ...), unique among the options
+        (``docs/options.md``).
     method
         The factorization's construction (:attr:`scheduler.factorization.Factorization.method`).
     perfect_pairs
@@ -100,6 +102,9 @@ class PlanOption:
     on_frontier
         ``True`` when no other option considered is at least as good in perfect pairs,
         breaks and carry-over and better in one of them.
+    detail
+        The long description beside the short label: which factorization, from which source,
+        in which round order (empty when there is nothing to add).
 
     Examples
     --------
@@ -121,6 +126,8 @@ class PlanOption:
     """No other option considered has at least as many perfect pairs, at most as many breaks and
     at most the carry-over value, and is better in one of them
     (:func:`scheduler.fairness.frontier.frontier`)."""
+    detail: str = ""
+    """The long description of the option (the label is short)."""
 
     def figures(self) -> str:
         """The option's figures in words, named as in every other output
@@ -257,6 +264,8 @@ class _Candidate:
     label: str
     fact: Factorization
     cert: Certificate
+    detail: str = ""
+    """The long description (the factorization and how its rounds were ordered)."""
     tt: Timetable | None = None
     error: InfeasibleError | None = None
     coe: int | None = None
@@ -380,21 +389,20 @@ def plan_season(
     report("factorize", 0.0)
     found = _factorize(teams, seed, max(0.5, 0.2 * total), progress)
     n = found.n
-    cands = [_Candidate(f"mixing: {found.method}", found, verify_rounds(n, found.rounds))]
+    cands = [_Candidate("best mixing", found, verify_rounds(n, found.rounds),
+                        detail=found.method)]
     if not _is_circle(found) and league.priorities.breaks > 0:
         gk = circle_factorization(n)
-        cands[0].label = f"best mixing: {found.method}"
         single = max(1, league.format.legs) == 1
         stored = stored_best_perfect(n) if cands[0].cert.perfect and single else None
         if stored is not None and stored.factorization.rounds != found.rounds:
             # another perfect factorization of the same order that admits fewer breaks in a
             # single round robin (docs/perfect-breaks.md): perfect mixing kept, breaks lowered
             fewer = stored.factorization
-            cands.append(_Candidate(f"perfect with fewest breaks: {fewer.method}", fewer,
-                                    verify_rounds(n, fewer.rounds)))
-        cands.append(_Candidate(f"fewest breaks: {gk.method}", gk, verify_rounds(n, gk.rounds)))
-    else:
-        cands[0].label = found.method
+            cands.append(_Candidate("perfect with fewest breaks", fewer,
+                                    verify_rounds(n, fewer.rounds), detail=fewer.method))
+        cands.append(_Candidate("fewest breaks", gk, verify_rounds(n, gk.rounds),
+                                detail=gk.method))
     report("timetable", 0.2)
     share = 0.45 / len(cands)
     fewest: int | None = None
@@ -463,7 +471,7 @@ def plan_season(
             pairs=c.cert.pairs, breaks=c.tt.breaks if c.tt else None,
             break_bound=c.tt.break_bound if c.tt else 0, carry_over=c.coe,
             chosen=c is chosen, feasible=c.tt is not None,
-            on_frontier=any(o.payload is c for o in front))
+            on_frontier=any(o.payload is c for o in front), detail=c.detail)
         for c in cands)
     assert chosen.season is not None and chosen.tt is not None and chosen.placement is not None
     season = chosen.season
@@ -473,7 +481,7 @@ def plan_season(
         season = replace(season, options=tuple(
             PlanOptionFigures(plain_text(o.label), o.perfect_pairs, o.pairs, o.breaks,
                               o.break_bound, o.carry_over, o.chosen, o.on_frontier,
-                              season=c.season)
+                              season=c.season, detail=plain_text(o.detail))
             for o, c in zip(options, cands, strict=True)))
     status = ("optimal" if chosen.tt.status == "optimal" and chosen.placement.status == "optimal"
               else "feasible")
@@ -552,7 +560,9 @@ def _try_other_factorizations(league: League, cands: list[_Candidate], total: fl
         return  # no rule clash (the time limit ran out): other pairings would not be faster
     others = _other_factorizations(cands[0].fact.n, [c.fact for c in cands], seed)
     for fact in itertools.islice(others, FALLBACKS):
-        cand = _Candidate(f"fallback: {fact.method}", fact, verify_rounds(fact.n, fact.rounds))
+        number = sum(c.label.startswith("fallback") for c in cands) + 1
+        cand = _Candidate("fallback" if number == 1 else f"fallback {number}", fact,
+                          verify_rounds(fact.n, fact.rounds), detail=fact.method)
         cands.append(cand)
         try:
             cand.tt = solve_timetable(league, fact, _limits(total, 0.45 / FALLBACKS, seed),
@@ -652,6 +662,8 @@ def _add_order_options(league: League, cands: list[_Candidate], total: float, se
     if lower == upper:
         return  # every single round robin of this order has the same carry-over value
     makers: list[tuple[str, Callable[[], Factorization | None]]] = []
+    details = {"low carry-over order": f"{{}}, rounds re-ordered for a low carry-over value "
+                                       f"(annealing, seed {seed}, {ORDER_MOVES} moves)"}
     base = max(feasible, key=lambda c: c.cert.perfect_pairs)
 
     def reordered() -> Factorization | None:
@@ -668,7 +680,7 @@ def _add_order_options(league: League, cands: list[_Candidate], total: float, se
                        "(scheduler.balance.low_carry_over)")
         return Factorization(n, found.rounds, found.method, source)
 
-    makers.append((f"low carry-over order: {base.fact.method}", reordered))
+    makers.append(("low carry-over order", reordered))
     makers.append(("lowest carry-over", lowest))
     for label, make in makers:
         if len([c for c in cands if c.tt is not None]) >= MAX_OPTIONS:
@@ -679,9 +691,8 @@ def _add_order_options(league: League, cands: list[_Candidate], total: float, se
         value = carry_over_of_rounds(fact.rounds, n)
         if value >= min(c.coe for c in cands if c.coe is not None):
             continue
-        if label == "lowest carry-over":
-            label = f"lowest carry-over: {fact.method}"
-        cand = _Candidate(label, fact, verify_rounds(n, fact.rounds), added=True)
+        detail = details.get(label, "{}").format(fact.method)
+        cand = _Candidate(label, fact, verify_rounds(n, fact.rounds), detail=detail, added=True)
         try:
             cand.tt = solve_timetable(league, fact, _extra_limits(total, seed),
                                       minimise_breaks=league.priorities.breaks > 0,

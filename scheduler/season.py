@@ -167,6 +167,9 @@ class PlanOptionFigures:
         True when no other option is at least as good in every figure and better in one.
     season : Season or None, optional
         The option's complete season (see below).
+    detail : str, optional
+        The long description beside the short label (which factorization, from which source,
+        in which round order); empty when there is nothing to add.
     """
 
     label: str
@@ -182,6 +185,8 @@ class PlanOptionFigures:
     kept so that another option can be chosen without solving again; ``None`` for an option
     without a timetable and for options read back from ``season.json`` (the timetables are in
     the season folder's options file, ``docs/options.md``)."""
+    detail: str = ""
+    """The option's long description; the label stays short (``docs/options.md``)."""
 
 
 @dataclass(frozen=True)

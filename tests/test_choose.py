@@ -95,9 +95,15 @@ def test_plan_lists_numbered_options_and_how_to_choose(planned):
     assert "None" not in text
     options = options_of(planned["first"])
     assert 3 <= sum(o["not_dominated"] for o in options) <= 5
-    # season.json keeps the option figures of earlier versions, key for key (older readers)
-    assert all(set(o) == {"label", "perfect_pairs", "pairs", "breaks", "break_bound",
-                          "carry_over", "chosen", "not_dominated"} for o in options)
+    # season.json keeps the option figures of earlier versions, key for key (older readers,
+    # which ignore keys they do not know), plus the long description beside the short label
+    earlier = {"label", "perfect_pairs", "pairs", "breaks", "break_bound", "carry_over",
+               "chosen", "not_dominated"}
+    assert all(set(o) - {"detail"} == earlier for o in options)
+    # every option has a short label, unique, and its construction as a separate detail
+    labels = [o["label"] for o in options]
+    assert len(set(labels)) == len(labels) and all(len(label) <= 28 for label in labels)
+    assert all(":" not in o["label"] and o.get("detail") for o in options)
     stored = json.loads((planned["first"] / "options.json").read_text(encoding="utf-8"))
     assert len(stored["options"]) == len(options)
     manifest = json.loads((planned["first"] / ".season-manifest.json").read_text("utf-8"))
@@ -223,3 +229,45 @@ def test_another_league_file_or_a_changed_options_file_is_refused(planned, tmp_p
     options.write_bytes(options.read_bytes().replace(b'"Court 1"', b'"Court 9"', 1))
     expect_refusal(["choose", str(planned["mixing"]), "--season", str(folder), "--option", "2"],
                    folder, "options.json was changed")
+
+
+def test_an_option_is_chosen_by_the_unique_start_of_its_short_label(planned, tmp_path):
+    folder = copy(planned["first"], tmp_path / "season")
+    options = options_of(folder)
+    target = next(k for k, o in enumerate(options) if not o["chosen"])
+    label = options[target]["label"]
+    # the shortest start of the label that no other label shares
+    start = next(label[:end] for end in range(1, len(label) + 1)
+                 if sum(o["label"].casefold().startswith(label[:end].casefold())
+                        for o in options) == 1)
+    result = runner.invoke(app, ["choose", str(planned["mixing"]), "--season", str(folder),
+                                 "--option", start.upper()], catch_exceptions=False)
+    assert result.exit_code == 0, result.output
+    assert f"chose option {target + 1} ({label})" in result.output
+    assert options_of(folder)[target]["chosen"]
+
+
+def test_labels_stored_before_short_labels_are_still_read_and_chosen(planned, tmp_path):
+    """A season.json written when an option's label held its construction too ("kind:
+    construction", no "detail" key) reads as short label and detail, and `choose` finds it."""
+    from scheduler.export.season_json import load_season_json
+
+    folder = copy(planned["first"], tmp_path / "season")
+    path = folder / "season.json"
+    data = json.loads(path.read_text(encoding="utf-8"))
+    for option in data["options"]:
+        option["label"] = f"{option['label']}: {option.pop('detail')}"
+    raw = (json.dumps(data, ensure_ascii=False, indent=2) + "\n").encode("utf-8")
+    path.write_bytes(raw)
+    manifest_path = folder / ".season-manifest.json"
+    manifest = json.loads(manifest_path.read_text(encoding="utf-8"))
+    manifest["files"]["season.json"] = hashlib.sha256(raw).hexdigest()
+    manifest_path.write_text(json.dumps(manifest), encoding="utf-8")
+    fresh = options_of(planned["first"])
+    read = load_season_json(path).options
+    assert [(o.label, o.detail) for o in read] == [(o["label"], o["detail"]) for o in fresh]
+    target = next(k for k, o in enumerate(fresh) if not o["chosen"])
+    result = runner.invoke(app, ["choose", str(planned["mixing"]), "--season", str(folder),
+                                 "--option", fresh[target]["label"]], catch_exceptions=False)
+    assert result.exit_code == 0, result.output
+    assert options_of(folder)[target]["chosen"]

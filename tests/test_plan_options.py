@@ -104,6 +104,7 @@ def _not_dominated(options) -> list:
 @pytest.mark.parametrize("teams", [8, 10])
 def test_three_to_five_options_not_dominated_and_each_one_complete(teams):
     from scheduler.factorization.verify import verify_rounds
+    from scheduler.fairness.names import plain_text
 
     result = plan_season(league(teams, solve_seconds=3.0))
     front = _not_dominated(result.options)
@@ -123,6 +124,13 @@ def test_three_to_five_options_not_dominated_and_each_one_complete(teams):
         rounds = [[(index[f.home], index[f.away]) for f in season.fixtures if f.round == r]
                   for r in range(1, teams)]
         assert verify_rounds(teams, rounds).perfect_pairs == option.perfect_pairs
+    # short labels, unique (so that `scheduler choose --option LABEL` names one), and the long
+    # description kept beside them, naming the option's factorization (docs/options.md)
+    labels = [o.label for o in result.options]
+    assert len(set(labels)) == len(labels) and all(len(label) <= 28 for label in labels)
+    for figures, option in zip(result.season.options, result.options, strict=True):
+        assert figures.label == option.label and option.method in option.detail
+        assert figures.detail == plain_text(option.detail)  # the outputs' plain words
     # the season published is the chosen option's own
     chosen = next(f for f in result.season.options if f.chosen)
     assert chosen.season is not None and chosen.season.fixtures == result.season.fixtures

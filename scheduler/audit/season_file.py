@@ -313,8 +313,14 @@ def _presentation(data: dict) -> dict:
         where = f"options[{i}]"
         if not isinstance(item, dict):
             raise InputError("an option must be an object", location=where)
+        label = _need(item, "label", str, where)
+        detail = _need(item, "detail", str, where, optional=True, default=None)
+        if detail is None:
+            # files written before options had a short label kept "kind: construction" in one
+            # string (docs/options.md); read them as label and detail
+            label, _, detail = label.partition(": ")
         options.append(PlanOptionFigures(
-            label=_need(item, "label", str, where),
+            label=label, detail=detail,
             perfect_pairs=_need(item, "perfect_pairs", int, where),
             pairs=_need(item, "pairs", int, where),
             breaks=_need(item, "breaks", int, where, optional=True),

@@ -159,11 +159,12 @@ _PATTERNS = (
 )
 
 
-def _svg(width: float, height: float, body: str, title: str) -> Markup:
+def _svg(width: float, height: float, body: str, title: str, desc: str = "") -> Markup:
+    described = f"<desc>{escape(desc)}</desc>" if desc else ""
     return Markup(
         f'<svg xmlns="http://www.w3.org/2000/svg" role="img" viewBox="0 0 {width:g} {height:g}" '
         f'width="{width:g}" height="{height:g}" class="chart">'
-        f"<title>{escape(title)}</title>{_PATTERNS}{body}</svg>"
+        f"<title>{escape(title)}</title>{described}{_PATTERNS}{body}</svg>"
     )
 
 
@@ -507,10 +508,47 @@ def stacked_bars(
     return _svg(width, height, paths.svg() + "".join(text), title)
 
 
+def _carry_over_limits(pairs: int) -> tuple[int, int] | None:
+    """Russell's lower bound n(n-1) and the circle method's value (n-1)(n² - 6n + 12), the
+    worst possible (Lambrechts et al. 2018; docs/carry-over.md), for the league whose one leg
+    has ``pairs`` pairs of rounds; ``None`` when the number of teams cannot be told."""
+    from scheduler.fairness.frontier import rounds_of_pairs
+
+    rounds = rounds_of_pairs(pairs)
+    teams = rounds + 1
+    if rounds < 3 or teams % 2:
+        return None
+    return teams * (teams - 1), (teams - 1) * (teams * teams - 6 * teams + 12)
+
+
+def _option_words(number: int, option: PlanOptionFigures) -> str:
+    """One option in words, for the chart's description (a text equivalent of the marks)."""
+    marks = [word for word, on in (("chosen", option.chosen), ("not beaten",
+                                                                 option.not_dominated)) if on]
+    head = f"option {number} ({option.label}{'; ' + ', '.join(marks) if marks else ''}): "
+    text = f"{option.perfect_pairs} of {option.pairs} pairs of rounds mix perfectly"
+    if option.breaks is None:
+        return head + text + ", no timetable keeps every rule"
+    text += f", {option.breaks} breaks (lower bound {option.break_bound})"
+    if option.carry_over is not None:
+        text += f", carry-over value {option.carry_over}"
+    return head + text
+
+
+OPTIONS_CHART_WIDTH = 640
+"""Width of the options chart in SVG units (its two panels share it)."""
+
+
 def options_chart(options: Sequence[PlanOptionFigures]) -> Markup | None:
-    """The options the planner weighed as points: breaks across (fewer is better, to the left),
-    pairs of rounds that mix perfectly upwards (more is better); the chosen option filled, the
-    options no other beats in every figure ringed, the others grey. Numbers match the table.
+    """The options the planner weighed, in two panels that share the horizontal axis, pairs of
+    rounds that mix perfectly (more is better, to the right): breaks in the upper panel and the
+    carry-over value in the lower one (fewer is better, downwards), each with its lower bound as
+    a dashed line and, for carry-over, the worst possible value (the circle method's) as a dotted
+    line. Marks differ in shape and fill, not only in colour: the chosen option is a filled
+    square, options no other beats in every figure are open circles with a heavy ring, the
+    others small grey circles with a dashed ring; each mark carries its option's number and the
+    value beside it, as in the table. The SVG has a ``<title>`` and a ``<desc>`` that lists every
+    option in words.
 
     Parameters
     ----------
@@ -521,52 +559,147 @@ def options_chart(options: Sequence[PlanOptionFigures]) -> Markup | None:
     -------
     Markup or None
         An inline SVG chart, or ``None`` when fewer than two options have a break count.
+
+    References
+    ----------
+    K. G. Russell, Biometrika 67 (1980) 127-131 (the carry-over value and its lower bound);
+    R. Lambrechts et al., Mathematical Programming 172 (2018) 277-302 (the circle method's value
+    is the largest); ``docs/options.md``.
+
+    Examples
+    --------
+    >>> from scheduler.season import PlanOptionFigures
+    >>> chart = options_chart([PlanOptionFigures("a", 21, 21, 6, 6, 196, True, True),
+    ...                        PlanOptionFigures("b", 0, 21, 8, 6, 56, False, True)])
+    >>> "<desc>" in chart, "worst possible 196" in chart
+    (True, True)
     """
     shown = [(k, o) for k, o in enumerate(options, 1) if o.breaks is not None]
-    breaks = {k: o.breaks for k, o in shown if o.breaks is not None}
     if len(shown) < 2:
         return None
-    left, bottom, span_x, span_y, top = 70, 40, 420, 180, 14
-    lo_b = min(min(breaks.values()), min(o.break_bound for _, o in shown))
-    hi_b = max(breaks.values())
-    lo_p = min(o.perfect_pairs for _, o in shown)
-    hi_p = max(o.pairs for _, o in shown)
-    width, height = left + span_x + 30, top + span_y + bottom
-
-    pad_b, pad_p = max(1, (hi_b - lo_b) // 10), max(1, (hi_p - lo_p) // 10)
+    pairs = max(o.pairs for _, o in shown)
+    left, right, width = 64, 136, OPTIONS_CHART_WIDTH
+    span_x = width - left - right
+    panel_h, gap, top = 130, 56, 30
 
     def x(value: float) -> float:
-        return left + (value - lo_b + pad_b) / (hi_b - lo_b + 2 * pad_b) * span_x
+        return round(left + 12 + value / max(1, pairs) * (span_x - 24), 2)
 
-    def y(value: float) -> float:
-        return top + span_y - (value - lo_p + pad_p) / (hi_p - lo_p + 2 * pad_p) * span_y
-
-    body = [
-        f'<line x1="{left}" y1="{top + span_y}" x2="{left + span_x}" y2="{top + span_y}" '
-        'stroke="#555555"/>',
-        f'<line x1="{left}" y1="{top}" x2="{left}" y2="{top + span_y}" stroke="#555555"/>',
-        f'<text x="{left + span_x / 2:g}" y="{height - 8}" text-anchor="middle" class="lbl">'
-        "breaks (fewer is better)</text>",
-        f'<text x="12" y="{top + span_y / 2:g}" class="lbl" transform="rotate(-90 12 '
-        f'{top + span_y / 2:g})" text-anchor="middle">pairs of rounds that mix perfectly</text>',
+    limits = _carry_over_limits(pairs)
+    break_bounds = sorted({o.break_bound for _, o in shown})
+    panels: list[tuple[str, str, list[tuple[int, PlanOptionFigures, int]],
+                       list[tuple[int, str, str]]]] = [
+        ("breaks", "Breaks (fewer is better)",
+         [(k, o, o.breaks) for k, o in shown if o.breaks is not None],
+         [(b, f"lower bound {b}", "6 4") for b in break_bounds]),
+        ("carry-over", "Carry-over value (lower is better)",
+         [(k, o, o.carry_over) for k, o in shown if o.carry_over is not None],
+         [] if limits is None else
+         ([(limits[0], f"lower bound {limits[0]}", "6 4"),
+           (limits[1], f"worst possible {limits[1]}", "2 3")] if limits[0] != limits[1]
+          else [(limits[0], f"lower bound = worst possible {limits[0]}", "6 4")])),
     ]
-    for value in sorted({lo_b, hi_b}):
-        body.append(f'<text x="{x(value):g}" y="{top + span_y + 16}" text-anchor="middle" '
-                    f'class="lbl">{value}</text>')
-    for value in sorted({lo_p, hi_p}):
-        body.append(f'<text x="{left - 6}" y="{y(value) + 4:g}" text-anchor="end" '
-                    f'class="lbl">{value}</text>')
-    for k, o in shown:
-        cx, cy = x(breaks[k]), y(o.perfect_pairs)
-        fill = OI_BLUE if o.chosen else ("#FFFFFF" if o.not_dominated else "#BBBBBB")
-        ring = OI_BLUE if (o.chosen or o.not_dominated) else "#888888"
-        body.append(
-            f'<circle cx="{cx:g}" cy="{cy:g}" r="9" fill="{fill}" stroke="{ring}" '
-            f'stroke-width="2"><title>{escape(o.label)}</title></circle>'
-            f'<text x="{cx:g}" y="{cy + 4:g}" text-anchor="middle" class="cell" '
-            f'fill="{"#FFFFFF" if o.chosen else "#000000"}">{k}</text>'
-        )
-    return _svg(width, height, "".join(body), "Options weighed by the planner")
+    body: list[str] = []
+    for index, (name, heading, points, lines) in enumerate(panels):
+        y0 = top + index * (panel_h + gap)
+        values = [v for _, _, v in points] + [v for v, _, _ in lines]
+        if not values:
+            continue
+        low, high = min(values), max(values)
+        high = high if high > low else low + 1
+
+        def y(value: float, y0: int = y0, low: int = low, high: int = high) -> float:
+            return round(y0 + 10 + (high - value) / (high - low) * (panel_h - 20), 2)
+
+        body.append(f'<g class="panel" data-figure="{name}">')
+        body.append(f'<text x="{left}" y="{y0 - 8}" class="lbl">{escape(heading)}</text>')
+        body.append(f'<rect x="{left}" y="{y0}" width="{span_x}" height="{panel_h}" '
+                    'fill="none" stroke="#888888"/>')
+        for value, words, dash in lines:
+            body.append(
+                f'<line class="bound" data-value="{value}" x1="{left}" y1="{y(value):g}" '
+                f'x2="{left + span_x}" y2="{y(value):g}" stroke="#333333" '
+                f'stroke-dasharray="{dash}"/>'
+                f'<text x="{left + span_x + 4}" y="{y(value) + 4:g}" class="axis">'
+                f"{escape(words)}</text>")
+        for value in sorted({low, max(v for v in values)}):
+            body.append(f'<text x="{left - 6}" y="{y(value) + 4:g}" text-anchor="end" '
+                        f'class="axis">{value}</text>')
+        at: dict[tuple[float, float], list[int]] = {}
+        for k, o, value in points:
+            at.setdefault((x(o.perfect_pairs), y(value)), []).append(k)
+        # the chosen option last, so that it is drawn on top of any option at the same place
+        for k, o, value in sorted(points, key=lambda item: item[1].chosen):
+            cx, cy = x(o.perfect_pairs), y(value)
+            title = escape(_option_words(k, o))
+            kind = "chosen" if o.chosen else ("not-beaten" if o.not_dominated else "beaten")
+            if o.chosen:
+                mark = (f'<rect x="{cx - 9:g}" y="{cy - 9:g}" width="18" height="18" '
+                        f'fill="{RAMP_DARK}" stroke="#000000" stroke-width="1.5"/>')
+                ink = "#FFFFFF"
+            elif o.not_dominated:
+                mark = (f'<circle cx="{cx:g}" cy="{cy:g}" r="9" fill="#FFFFFF" '
+                        f'stroke="{RAMP_DARK}" stroke-width="2.5"/>')
+                ink = "#000000"
+            else:
+                mark = (f'<circle cx="{cx:g}" cy="{cy:g}" r="8" fill="#E4E4E4" '
+                        'stroke="#555555" stroke-width="1.2" stroke-dasharray="2 2"/>')
+                ink = "#000000"
+            together = at[(cx, cy)]
+            words = (f"{', '.join(map(str, together))}: {value}" if len(together) > 1
+                     else str(value))
+            far_right = cx > left + span_x * 0.8
+            label_x = cx - 13 if far_right else cx + 13
+            body.append(
+                f'<g class="option {kind}" data-option="{k}"><title>{title}</title>{mark}'
+                f'<text x="{cx:g}" y="{cy + 4:g}" text-anchor="middle" class="cell" '
+                f'fill="{ink}">{k}</text>'
+                f'<text x="{label_x:g}" y="{cy + 4:g}" '
+                f'text-anchor="{"end" if far_right else "start"}" class="lbl" stroke="#FFFFFF" '
+                f'stroke-width="3" paint-order="stroke">{words}</text></g>')
+        body.append("</g>")
+    axis_y = top + 2 * panel_h + gap
+    for value in sorted({0, pairs} | {o.perfect_pairs for _, o in shown}):
+        body.append(f'<line x1="{x(value):g}" y1="{axis_y}" x2="{x(value):g}" '
+                    f'y2="{axis_y + 4}" stroke="#555555"/>')
+    labelled: list[float] = []
+    for value in [0, pairs, *sorted({o.perfect_pairs for _, o in shown} - {0, pairs})]:
+        if any(abs(x(value) - at) < 20 for at in labelled):
+            continue  # too close to a number already written: the marks' places still tell
+        labelled.append(x(value))
+        body.append(f'<text x="{x(value):g}" y="{axis_y + 15}" text-anchor="middle" '
+                    f'class="axis">{value}</text>')
+    body.append(f'<text x="{left + span_x / 2:g}" y="{axis_y + 32}" text-anchor="middle" '
+                f'class="lbl">pairs of rounds that mix perfectly (more is better) &#8594;</text>')
+    legend_y = axis_y + 56
+    body.append(
+        f'<g class="legend"><rect x="{left}" y="{legend_y - 9}" width="12" height="12" '
+        f'fill="{RAMP_DARK}" stroke="#000000"/>'
+        f'<text x="{left + 18}" y="{legend_y + 1}" class="axis">chosen</text>'
+        f'<circle cx="{left + 76}" cy="{legend_y - 3}" r="6" fill="#FFFFFF" '
+        f'stroke="{RAMP_DARK}" stroke-width="2.5"/>'
+        f'<text x="{left + 88}" y="{legend_y + 1}" class="axis">not beaten</text>'
+        f'<circle cx="{left + 166}" cy="{legend_y - 3}" r="5" fill="#E4E4E4" stroke="#555555" '
+        'stroke-dasharray="2 2"/>'
+        f'<text x="{left + 178}" y="{legend_y + 1}" class="axis">beaten in every figure by '
+        "another</text>"
+        f'<text x="{left}" y="{legend_y + 18}" class="axis">dashed line: lower bound; '
+        "dotted line: worst possible; the number in a mark is the option's</text></g>")
+    height = legend_y + 26
+    missing = [k for k, o in enumerate(options, 1) if o.breaks is None]
+    if missing:
+        body.append(f'<text x="{left}" y="{height + 4}" class="axis">not drawn, no timetable '
+                    f"keeps every rule: option {', '.join(map(str, missing))}</text>")
+        height += 16
+    desc = "; ".join(_option_words(k, o) for k, o in enumerate(options, 1))
+    if limits is not None:
+        desc += (f". Carry-over: lower bound {limits[0]} (Russell 1980), worst possible "
+                 f"{limits[1]} (the circle method's)")
+    desc += f". Breaks: lower bound {', '.join(map(str, break_bounds))}"
+    if missing:
+        desc += f"; not drawn (no timetable): option {', '.join(map(str, missing))}"
+    return _svg(width, height, "".join(body), "Options weighed by the planner: breaks and "
+                "carry-over value against pairs of rounds that mix perfectly", desc=desc + ".")
 
 
 def _options_words(options: Sequence[PlanOptionFigures]) -> dict:

@@ -166,7 +166,8 @@ def _presentation(season: Season) -> dict:
         out["options"] = [
             {"label": o.label, "perfect_pairs": o.perfect_pairs, "pairs": o.pairs,
              "breaks": o.breaks, "break_bound": o.break_bound, "carry_over": o.carry_over,
-             "chosen": o.chosen, "not_dominated": o.not_dominated}
+             "chosen": o.chosen, "not_dominated": o.not_dominated,
+             **({"detail": o.detail} if o.detail else {})}
             for o in season.options
         ]
     return out

@@ -250,11 +250,14 @@ def test_options_weighed_are_listed_and_drawn():
     )
     chart = options_chart(options)
     root = ET.fromstring(str(chart))
-    # one titled point per option (the shared pattern definitions hold untitled shapes)
-    points = [el for el in root.iter() if el.tag.endswith("circle")
-              and any(child.tag.endswith("title") for child in el)]
-    assert [p.find("{http://www.w3.org/2000/svg}title").text for p in points] == [
-        "best mixing", "fewest breaks", "another"]
+    # one titled mark per option in each of the two panels (breaks, carry-over), the title
+    # naming the option (tests/export/test_options_chart.py checks where the marks are)
+    svg = "{http://www.w3.org/2000/svg}"
+    for panel in (g for g in root.iter(f"{svg}g") if g.get("data-figure")):
+        marks = [g for g in panel.iter(f"{svg}g") if g.get("data-option")]
+        titles = sorted((int(g.get("data-option")), g.find(f"{svg}title").text) for g in marks)
+        assert [number for number, _ in titles] == [1, 2, 3]
+        assert all(f"({o.label}" in words for (_, words), o in zip(titles, options, strict=True))
     page = render_report(replace(season, options=options), compute_fairness(season))
     assert 'id="options"' in page and "fewest breaks" in page and "not beaten" in page
     assert options_chart(options[:1]) is None  # one option is no choice: no chart

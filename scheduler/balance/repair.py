@@ -10,10 +10,14 @@ continued from history), ``no_breaks_first``/``no_breaks_last``, shared grounds,
 once per day (venue capacity), unavailability and closures, and ``min_separation`` counted in
 the season's match days between two meetings of a pair. In a home-and-away season each pair
 keeps its number of home games per team (a swap of home and away is possible only as a swap of
-both meetings). Rest days, the league's unavailable and no-home days and shared grounds come
-from their rule modules (``add_date_constraints`` through the interface
-:class:`scheduler.rules.base.DateModelView`, which this model provides); the others are stated
-here.
+both meetings). Every league rule a re-plan can break (runs, break-free ends, separation, rest
+days, the league's unavailable and no-home days, shared grounds) states its constraints in its
+own rule module (``add_date_constraints`` through the interface
+:class:`scheduler.rules.base.DateModelView`, which this model provides, history's state
+included); this model states only what a re-plan is (one game per team and sitting, each place
+once a sitting, which also keeps venue capacity, the events' unavailability and closures, the
+hand-moved games, each pair's home games). Fixed games are kept like any game that need not
+move, not bound (``docs/rules.md``, "Left open").
 
 This is the *minimal perturbation problem* of timetabling (Barták, Müller & Rudová, "A new
 approach to modeling and solving minimal perturbation problems", CSCLP 2003, LNCS 3010, 2004;

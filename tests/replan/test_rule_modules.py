@@ -1,5 +1,6 @@
-"""The rules whose date-model constraints live in their rule modules (docs/rules.md): rest days,
-unavailable days, no-home days and shared grounds, as the re-plan model uses them.
+"""The rules whose date-model constraints live in their rule modules (docs/rules.md): runs,
+break-free ends, separation, rest days, unavailable days, no-home days and shared grounds, as
+the re-plan model uses them.
 
 Each re-plan is judged by the rules' own independent checks (``check_rules``, fixtures only) and
 by the independent checker of this folder (``checker.py``, which imports nothing from the

@@ -10,10 +10,14 @@ continued from history), ``no_breaks_first``/``no_breaks_last``, shared grounds,
 once per day (venue capacity), unavailability and closures, and ``min_separation`` counted in
 the season's match days between two meetings of a pair. In a home-and-away season each pair
 keeps its number of home games per team (a swap of home and away is possible only as a swap of
-both meetings). Rest days, the league's unavailable and no-home days and shared grounds come
-from their rule modules (``add_date_constraints`` through the interface
-:class:`scheduler.rules.base.DateModelView`, which this model provides); the others are stated
-here.
+both meetings). Every league rule a re-plan can break (runs, break-free ends, separation, rest
+days, the league's unavailable and no-home days, shared grounds) states its constraints in its
+own rule module (``add_date_constraints`` through the interface
+:class:`scheduler.rules.base.DateModelView`, which this model provides, history's state
+included); this model states only what a re-plan is (one game per team and sitting, each place
+once a sitting, which also keeps venue capacity, the events' unavailability and closures, the
+hand-moved games, each pair's home games). Fixed games are kept like any game that need not
+move, not bound (``docs/rules.md``, "Left open").
 
 This is the *minimal perturbation problem* of timetabling (Barták, Müller & Rudová, "A new
 approach to modeling and solving minimal perturbation problems", CSCLP 2003, LNCS 3010, 2004;
@@ -595,55 +599,103 @@ class RepairModel:
         return [s for s, (when, _) in enumerate(self.sittings) if when == day]
 
     def _build_rules(self) -> None:
-        lg, rules, m = self.league, self.league.rules, self.model
-        days = self.days
-        # rules that state their own date-model constraints (docs/rules.md)
-        for rule in RULES:
-            if rule.date_constraints and rule.is_on(lg):
-                rule.add_date_constraints(self)
-        for value, home, word in ((rules.max_home_run, True, "home"),
-                                  (rules.max_away_run, False, "away")):
-            if value is None:
-                continue
-            lit = self._rule(f"at most {value} {word} games in a row (max_{word}_run)")
-            for team in self.teams:
-                self._run_limit(team, value, home, lit)
+        """The breaks (a goal, and what the break-free ends rule reads) and, in a season of
+        several legs, each pair's home games per team; then every hard rule of the league
+        states its own constraints (its module's ``add_date_constraints``, docs/rules.md)."""
         self._build_breaks()
-        if rules.no_breaks_last:
-            lit = self._rule(f"no break in a team's last {rules.no_breaks_last} game(s) "
-                             "(no_breaks_last)")
-            for team in self.teams:
-                for d in range(len(days)):
-                    later = sum(self.plays(team, e) for e in range(d + 1, len(days)))
-                    m.add(later >= rules.no_breaks_last).only_enforce_if([lit, self.brk[team][d]])
-        if rules.no_breaks_first:
-            lit = self._rule(f"no break in a team's games 2..{rules.no_breaks_first + 1} "
-                             "(no_breaks_first)")
-            for team in self.teams:
-                for d in range(len(days)):
-                    before = self.history_count[team] + sum(
-                        self.plays(team, e) for e in range(d))
-                    m.add(before >= rules.no_breaks_first + 1).only_enforce_if(
-                        [lit, self.brk[team][d]])
-        if lg.format.legs > 1:
+        if self.league.format.legs > 1:
             self._pair_home_counts()
-            if rules.min_separation is not None:
-                self._separation(rules.min_separation)
+        for rule in RULES:
+            if rule.date_constraints and rule.date_constraints_on(self.league):
+                rule.add_date_constraints(self)
 
-    def _run_limit(self, team: str, value: int, home: bool, lit) -> None:
-        m = self.model
-        start = self.trailing[team][0 if home else 1]
-        top = max(value, start)
-        prev: cp_model.LinearExprT = start
-        for d in range(len(self.days)):
-            same = self.home_on[team][d] if home else self.away_on[team][d]
-            other = self.away_on[team][d] if home else self.home_on[team][d]
-            count = m.new_int_var(0, top, f"{team}_{'home' if home else 'away'}_run_day{d}")
-            m.add(count == prev + 1).only_enforce_if([lit, same])
-            m.add(count <= value).only_enforce_if([lit, same])
-            m.add(count == 0).only_enforce_if([lit, other])
-            m.add(count == prev).only_enforce_if([lit, same.negated(), other.negated()])
-            prev = count
+    def away(self, team: str, d: int) -> cp_model.IntVar:
+        """Whether ``team`` plays away in sitting ``d``.
+
+        Parameters
+        ----------
+        team
+            A team of the league.
+        d
+            Index of a sitting.
+
+        Returns
+        -------
+        IntVar
+            The Boolean.
+        """
+        return self.away_on[team][d]
+
+    def games_played(self, team: str) -> int:
+        """How many games ``team`` has played in history.
+
+        Parameters
+        ----------
+        team
+            A team of the league.
+
+        Returns
+        -------
+        int
+            Its games with a date on or before ``played_through``.
+        """
+        return self.history_count[team]
+
+    def run_from_history(self, team: str, home: bool) -> int:
+        """The run of home (``home``) or away games that ``team``'s history ends with.
+
+        Parameters
+        ----------
+        team
+            A team of the league.
+        home
+            True for the home run, False for the away run.
+
+        Returns
+        -------
+        int
+            Its length (0 when the last game played was on the other side, or none was).
+        """
+        return self.trailing[team][0 if home else 1]
+
+    def break_in(self, team: str, d: int) -> cp_model.IntVar:
+        """Whether ``team`` has a break in sitting ``d`` (the same side as in its previous
+        game, history included).
+
+        Parameters
+        ----------
+        team
+            A team of the league.
+        d
+            Index of a sitting.
+
+        Returns
+        -------
+        IntVar
+            The Boolean.
+        """
+        return self.brk[team][d]
+
+    def meetings_on_match_days(self) -> dict[frozenset[str], list[tuple[int, Any]]]:
+        """Every meeting of each pair: its leg and its position among the season's match days
+        (history's dates and the candidate dates, 0-based in time order).
+
+        Returns
+        -------
+        dict of frozenset of str to list of tuple of (int, Any)
+            Pair -> ``(leg, position)`` per meeting, history first: an int for a game played,
+            a linear expression for a game to place.
+        """
+        axis = sorted({f.date for f in self.problem.history if f.date} | set(self.days))
+        position = {day: i for i, day in enumerate(axis)}
+        meetings: dict[frozenset[str], list[tuple[int, Any]]] = {}
+        for f in self.problem.history:
+            if f.date is not None:
+                meetings.setdefault(f.pair, []).append((f.leg, position[f.date]))
+        for g, old in enumerate(self.problem.future):
+            where = sum(position[self.days[d]] * lit for d, _, _, lit in self.options[g])
+            meetings.setdefault(old.pair, []).append((old.leg, where))
+        return meetings
 
     def _build_breaks(self) -> None:
         """brk[team][d]: team plays on day d with the same side as in its previous game."""
@@ -694,26 +746,6 @@ class RepairModel:
                     if (old.home == first) != swapped:
                         terms.append(lit)
             m.add(sum(terms) == planned)
-
-    def _separation(self, value: int) -> None:
-        m = self.model
-        axis = sorted({f.date for f in self.problem.history if f.date} | set(self.days))
-        position = {d: i for i, d in enumerate(axis)}
-        lit = self._rule(f"at least {value} match days between two meetings of a pair "
-                         "(min_separation)")
-        meetings: dict[frozenset[str], list[tuple[int, int | cp_model.LinearExpr]]] = {}
-        for f in self.problem.history:
-            if f.date is not None:
-                meetings.setdefault(f.pair, []).append((f.leg, position[f.date]))
-        for g, old in enumerate(self.problem.future):
-            where = sum(position[self.days[d]] * lit_ for d, _, _, lit_ in self.options[g])
-            meetings.setdefault(old.pair, []).append((old.leg, where))
-        for pair in sorted(meetings, key=sorted):
-            items = sorted(meetings[pair], key=lambda item: item[0])
-            for (_, early), (_, late) in itertools.pairwise(items):
-                if isinstance(early, int) and isinstance(late, int):
-                    continue  # both in history
-                m.add(late - early - 1 >= value).only_enforce_if(lit)
 
     # --- soft goals (second stage) --------------------------------------------------------
     def _off_reserve(self) -> cp_model.LinearExprT:

@@ -316,7 +316,9 @@ class DateModelView(Protocol):
 
     Games are placed on *sittings*: a match day (one round a day) or a match day and a kick-off
     time (several rounds a day), ``d`` 0-based in time order. History is fixed and is not a
-    variable: it enters through ``last_played``.
+    variable: it enters through ``last_played``, :meth:`games_played`, :meth:`run_from_history`,
+    :meth:`break_in` (which continues from the side of the last game played) and
+    :meth:`meetings_on_match_days`.
 
     Parameters
     ----------
@@ -394,6 +396,81 @@ class DateModelView(Protocol):
             Their indices (empty when no game can be placed on ``day``).
         """
 
+    def away(self, team: str, d: int) -> Any:
+        """Whether ``team`` plays away in sitting ``d``.
+
+        Parameters
+        ----------
+        team
+            A team of the league.
+        d
+            Index of a sitting.
+
+        Returns
+        -------
+        Any
+            A CP-SAT Boolean.
+        """
+
+    def games_played(self, team: str) -> int:
+        """How many games ``team`` has played in history.
+
+        Parameters
+        ----------
+        team
+            A team of the league.
+
+        Returns
+        -------
+        int
+            Its games on or before the last day of history.
+        """
+
+    def run_from_history(self, team: str, home: bool) -> int:
+        """The run of home (``home``) or away games that ``team``'s history ends with; a re-plan
+        continues it.
+
+        Parameters
+        ----------
+        team
+            A team of the league.
+        home
+            True for the home run, False for the away run.
+
+        Returns
+        -------
+        int
+            Its length (0 when the last game played was on the other side, or none was).
+        """
+
+    def break_in(self, team: str, d: int) -> Any:
+        """Whether ``team`` has a break in sitting ``d``: it plays there on the same side as in
+        its previous game (history included).
+
+        Parameters
+        ----------
+        team
+            A team of the league.
+        d
+            Index of a sitting.
+
+        Returns
+        -------
+        Any
+            A CP-SAT Boolean.
+        """
+
+    def meetings_on_match_days(self) -> dict[frozenset[str], list[tuple[int, Any]]]:
+        """Every meeting of each pair: its leg and its position among the season's match days
+        (the dates of history and the candidate dates, 0-based in time order).
+
+        Returns
+        -------
+        dict of frozenset of str to list of tuple of (int, Any)
+            Pair -> ``(leg, position)`` per meeting, history first; the position is an int for
+            a game played, a linear expression for a game to place.
+        """
+
 
 class HardRule:
     """Base of every hard rule (subclasses are frozen dataclasses without fields).
@@ -425,7 +502,8 @@ class HardRule:
 
     date_constraints: ClassVar[bool] = False
     """Whether the rule adds its own constraints to the re-plan's date model
-    (:meth:`add_date_constraints`); the re-plan model states the others itself."""
+    (:meth:`add_date_constraints`), as every rule whose constraints a re-plan can break does;
+    see ``docs/rules.md`` for the two that need none."""
 
     key: ClassVar[str]
     """Short identifier used in reports (``rest_days``, ``runs``...)."""
@@ -488,6 +566,22 @@ class HardRule:
             The timetable model being built; ``model.league`` is the league.
         """
         raise NotImplementedError
+
+    def date_constraints_on(self, league: League) -> bool:
+        """Whether the rule adds constraints to the re-plan's date model for ``league``.
+
+        Parameters
+        ----------
+        league : League
+            The league.
+
+        Returns
+        -------
+        bool
+            :meth:`is_on` (the default); a rule overrides it when a re-plan states it in more
+            leagues than a first plan does.
+        """
+        return self.is_on(league)
 
     def add_date_constraints(self, model: DateModelView) -> None:
         """Add the rule's constraints to the re-plan model, where games are placed on dates

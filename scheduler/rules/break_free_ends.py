@@ -13,7 +13,14 @@ from dataclasses import dataclass
 from typing import TYPE_CHECKING
 
 from scheduler.config.model import League
-from scheduler.rules.base import HardRule, TimetableView, Violation, plural, team_games
+from scheduler.rules.base import (
+    DateModelView,
+    HardRule,
+    TimetableView,
+    Violation,
+    plural,
+    team_games,
+)
 
 if TYPE_CHECKING:  # the season type only: rules import nothing above config at run time
     from scheduler.season import Season
@@ -28,6 +35,7 @@ class BreakFreeEnds(HardRule):
     key = "break_free_ends"
     title = "no breaks at the start or the end"
     config_fields = ("rules.no_breaks_first", "rules.no_breaks_last")
+    date_constraints = True
 
     def is_on(self, league: League) -> bool:
         return bool(league.rules.no_breaks_first or league.rules.no_breaks_last)
@@ -58,6 +66,36 @@ class BreakFreeEnds(HardRule):
             for s in range(max(1, rounds - r.no_breaks_last), rounds):
                 for v in model.vertices:
                     cp.add_implication(literal, model.break_at(s, v).negated())
+
+    def add_date_constraints(self, model: DateModelView) -> None:
+        """In the re-plan's date model: a team's break in a sitting needs at least
+        ``no_breaks_last`` more games after it, and at least ``no_breaks_first + 1`` games
+        before it (history included), so no break falls in the last games or in games
+        2..``no_breaks_first + 1`` of a team.
+
+        Parameters
+        ----------
+        model
+            The re-plan model's interface for rules.
+        """
+        r, cp, sittings = model.league.rules, model.cp, len(model.days)
+        if r.no_breaks_last:
+            literal = model.switch(f"no break in a team's last {r.no_breaks_last} game(s) "
+                                   "(no_breaks_last)")
+            for team in model.teams:
+                for d in range(sittings):
+                    games_after = sum(model.plays(team, later) for later in range(d + 1, sittings))
+                    cp.add(games_after >= r.no_breaks_last).only_enforce_if(
+                        [literal, model.break_in(team, d)])
+        if r.no_breaks_first:
+            literal = model.switch(f"no break in a team's games 2..{r.no_breaks_first + 1} "
+                                   "(no_breaks_first)")
+            for team in model.teams:
+                for d in range(sittings):
+                    games_before = model.games_played(team) + sum(
+                        model.plays(team, earlier) for earlier in range(d))
+                    cp.add(games_before >= r.no_breaks_first + 1).only_enforce_if(
+                        [literal, model.break_in(team, d)])
 
     def check(self, league: League, season: Season) -> tuple[Violation, ...]:
         r = league.rules

@@ -8,10 +8,10 @@ traveling tournament problem (Easton, Nemhauser & Trick, CP 2001, LNCS 2239, fro
 from __future__ import annotations
 
 from dataclasses import dataclass
-from typing import TYPE_CHECKING
+from typing import TYPE_CHECKING, Any
 
 from scheduler.config.model import League
-from scheduler.rules.base import HardRule, TimetableView, Violation, team_games
+from scheduler.rules.base import DateModelView, HardRule, TimetableView, Violation, team_games
 
 if TYPE_CHECKING:  # the season type only: rules import nothing above config at run time
     from scheduler.season import Season
@@ -28,6 +28,7 @@ class RunLimits(HardRule):
     key = "runs"
     title = "runs of home or away games"
     config_fields = ("rules.max_home_run", "rules.max_away_run")
+    date_constraints = True
 
     def is_on(self, league: League) -> bool:
         return bool(_limits(league))
@@ -44,6 +45,21 @@ class RunLimits(HardRule):
                 continue
             for v in model.vertices:
                 _run_limit(model, v, value, home, literal)
+
+    def add_date_constraints(self, model: DateModelView) -> None:
+        """In the re-plan's date model: no team plays more than ``max_home_run`` home (or
+        ``max_away_run`` away) games in a row, in the order of the sittings, continuing the
+        run its history ends with.
+
+        Parameters
+        ----------
+        model
+            The re-plan model's interface for rules.
+        """
+        for value, home, word in _limits(model.league):
+            literal = model.switch(f"at most {value} {word} games in a row (max_{word}_run)")
+            for team in model.teams:
+                _date_run_limit(model, team, value, home, literal)
 
     def check(self, league: League, season: Season) -> tuple[Violation, ...]:
         out = []
@@ -93,4 +109,23 @@ def _run_limit(model: TimetableView, v: int, value: int, home: bool, literal) ->
             cp.add(run == previous + 1).only_enforce_if([literal, plays, same])
             cp.add(run == 0).only_enforce_if([literal, plays, same.negated()])
             cp.add(run == previous).only_enforce_if([literal, plays.negated()])
+        previous = run
+
+
+def _date_run_limit(model: DateModelView, team: str, value: int, home: bool, literal) -> None:
+    """Under ``literal``: at most ``value`` home (or away) games of ``team`` in a row over the
+    sittings, a counter of the current run that a sitting without a game leaves unchanged."""
+    cp = model.cp
+    start = model.run_from_history(team, home)
+    top = max(value, start)
+    previous: Any = start
+    side = "home" if home else "away"
+    for d in range(len(model.days)):
+        same = model.home(team, d) if home else model.away(team, d)
+        other = model.away(team, d) if home else model.home(team, d)
+        run = cp.new_int_var(0, top, f"{team}_{side}_run_day{d}")
+        cp.add(run == previous + 1).only_enforce_if([literal, same])
+        cp.add(run <= value).only_enforce_if([literal, same])
+        cp.add(run == 0).only_enforce_if([literal, other])
+        cp.add(run == previous).only_enforce_if([literal, same.negated(), other.negated()])
         previous = run

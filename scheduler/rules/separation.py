@@ -15,7 +15,7 @@ from typing import TYPE_CHECKING
 
 from scheduler import leg_schemes
 from scheduler.config.model import League
-from scheduler.rules.base import HardRule, TimetableView, Violation, plural
+from scheduler.rules.base import DateModelView, HardRule, TimetableView, Violation, plural
 
 if TYPE_CHECKING:  # the season type only: rules import nothing above config at run time
     from scheduler.season import Season
@@ -26,6 +26,7 @@ class Separation(HardRule):
     key = "separation"
     title = "rounds between two meetings of the same teams"
     config_fields = ("rules.min_separation", "format.legs", "format.scheme")
+    date_constraints = True
 
     def is_on(self, league: League) -> bool:
         value = league.rules.min_separation
@@ -52,6 +53,46 @@ class Separation(HardRule):
             for k in range(rounds):
                 gap = rounds + model.position_in_leg(leg + 1, k) - model.position_in_leg(leg, k) - 1
                 model.cp.add(gap >= value).only_enforce_if(literal)
+
+    def date_constraints_on(self, league: League) -> bool:
+        """Whether a re-plan states the rule: for any ``min_separation`` (0 included, which
+        still keeps the meetings of a pair in the order of their legs) of a league with more
+        than one leg.
+
+        Parameters
+        ----------
+        league : League
+            The league.
+
+        Returns
+        -------
+        bool
+            True when ``min_separation`` is set and the league has more than one leg.
+        """
+        return league.rules.min_separation is not None and league.format.legs > 1
+
+    def add_date_constraints(self, model: DateModelView) -> None:
+        """In the re-plan's date model: two meetings of a pair, in the order of their legs,
+        have at least ``min_separation`` of the season's match days (history's included)
+        strictly between them.
+
+        Parameters
+        ----------
+        model
+            The re-plan model's interface for rules.
+        """
+        value = model.league.rules.min_separation
+        if value is None:
+            return
+        literal = model.switch(f"at least {value} match days between two meetings of a pair "
+                               "(min_separation)")
+        meetings = model.meetings_on_match_days()
+        for pair in sorted(meetings, key=sorted):
+            in_leg_order = sorted(meetings[pair], key=lambda meeting: meeting[0])
+            for (_, earlier), (_, later) in itertools.pairwise(in_leg_order):
+                if isinstance(earlier, int) and isinstance(later, int):
+                    continue  # both played: history is not re-planned
+                model.cp.add(later - earlier - 1 >= value).only_enforce_if(literal)
 
     def check(self, league: League, season: Season) -> tuple[Violation, ...]:
         value = league.rules.min_separation

@@ -17,7 +17,7 @@ Adding a rule means adding one module to ``scheduler/rules/`` and naming it in
 from __future__ import annotations
 
 from dataclasses import dataclass
-from datetime import date
+from datetime import date, time
 from typing import TYPE_CHECKING, Any, ClassVar, Protocol
 
 from scheduler.config.model import League
@@ -635,7 +635,11 @@ class HardRule:
 
 
 def team_games(season: Season, team: str) -> list[Fixture]:
-    """The team's fixtures in round order (the order its games are played).
+    """The team's fixtures in the order it plays them.
+
+    When every game of the team has a date, that order is the date, then the kick-off, then
+    the round (a re-planned game keeps its round number but not its date,
+    ``docs/replanning.md``); otherwise it is the round order. In a first plan both orders agree.
 
     Parameters
     ----------
@@ -647,10 +651,13 @@ def team_games(season: Season, team: str) -> list[Fixture]:
     Returns
     -------
     list of Fixture
-        Every game of the team, home or away, sorted by round.
+        Every game of the team, home or away, in playing order.
     """
-    return sorted((f for f in season.fixtures if team in (f.home, f.away)),
-                  key=lambda f: f.round)
+    games = [f for f in season.fixtures if team in (f.home, f.away)]
+    if games and all(f.date is not None for f in games):
+        return sorted(games, key=lambda f: (f.date, f.start.time() if f.start else time.min,
+                                            f.round))
+    return sorted(games, key=lambda f: f.round)
 
 
 def plural(count: int, word: str) -> str:

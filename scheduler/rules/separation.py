@@ -101,15 +101,34 @@ class Separation(HardRule):
         when = defaultdict(list)
         for f in season.fixtures:
             when[tuple(sorted((f.home, f.away)))].append(f)
+        # A re-planned game keeps its round number but not its date, and a re-plan counts the
+        # separation in the season's match days (docs/replanning.md): in a re-planned season
+        # with one round a day and every game dated, the match days with games between two
+        # meetings are counted; a first plan is judged in rounds, as it was planned.
+        replanned = any(r.played_through is not None for r in season.revisions)
+        dated = (replanned and league.calendar.rounds_per_day == 1
+                 and all(f.date is not None for f in season.fixtures))
+        match_days = sorted({f.date for f in season.fixtures if f.date is not None})
+        index = {day: position for position, day in enumerate(match_days)}
         out = []
         for (a, b), games in sorted(when.items()):
-            games.sort(key=lambda f: f.round)
+            if dated:
+                games.sort(key=lambda f: (f.date, f.round))
+            else:
+                games.sort(key=lambda f: f.round)
             for x, y in itertools.pairwise(games):
-                between = y.round - x.round - 1
+                if dated and x.date is not None and y.date is not None:
+                    between = index[y.date] - index[x.date] - 1
+                    where = f"on {x.date.isoformat()} and {y.date.isoformat()}"
+                    unit = "match day"
+                else:
+                    between = y.round - x.round - 1
+                    where = f"in rounds {x.round} and {y.round}"
+                    unit = "round"
                 if between < value:
                     out.append(Violation(f"{a}, {b}", y.round, y.date,
-                                         f"meet in rounds {x.round} and {y.round}, "
-                                         f"{plural(between, 'round')} apart (at least {value})"))
+                                         f"meet {where}, {plural(between, unit)} apart "
+                                         f"(at least {value})"))
         return tuple(out)
 
     def relaxation(self, league: League, statement: str) -> str | None:

@@ -141,3 +141,40 @@ def test_rules_that_are_off_are_not_listed():
     assert check_rules(lg, _season(ROUNDS, NAMES)) == ()
     lg = replace(lg, rules=Rules(max_home_run=3))
     assert [c.rule for c in check_rules(lg, _season(ROUNDS, NAMES))] == ["runs"]
+
+
+# A re-planned game keeps its round number but not its date (docs/replanning.md), so the checks
+# read a team's games in date order. Here round 1 was postponed to after round 3.
+POSTPONED_DAYS = [date(2027, 1, 30), date(2027, 1, 9), date(2027, 1, 16)]
+
+
+def test_runs_are_read_in_date_order():
+    # Alder Vale: home, away, home in round order, but rounds 2, 3, 1 by date: away, home, home
+    rounds = [[("Alder Vale", "Brook Farm"), ("Cobble Hill", "Dunmere")],
+              [("Cobble Hill", "Alder Vale"), ("Dunmere", "Brook Farm")],
+              [("Alder Vale", "Dunmere"), ("Brook Farm", "Cobble Hill")]]
+    in_round_order = _violations(Rules(max_home_run=1), _season(rounds, NAMES))
+    assert "Alder Vale" not in {v.team for v in in_round_order}
+    found = _violations(Rules(max_home_run=1), _season(rounds, NAMES, POSTPONED_DAYS))
+    assert ("Alder Vale", 1) in {(v.team, v.round) for v in found}
+    assert all("2 home games in a row" in v.what for v in found)
+
+
+def test_separation_of_a_replanned_season_counts_match_days():
+    from scheduler.season import Revision
+
+    swapped = [[(a, h) for h, a in r] for r in ROUNDS]
+    rounds = [*ROUNDS, swapped[0], swapped[1], swapped[2]]  # every pair 2 rounds apart
+    days = [date(2027, 1, 2) + timedelta(weeks=r) for r in range(6)]
+    days[0] = days[3] + timedelta(days=3)  # round 1 re-played between rounds 4 and 5
+    rules = Rules(min_separation=2)
+    first_plan = _season(rounds, NAMES, days)
+    lg = league(4, rules=rules, legs=2, scheme="free")
+    (check,) = check_rules(lg, first_plan)
+    assert check.kept  # a first plan is judged in rounds, as it was planned
+    replanned = replace(first_plan, revisions=(Revision("a" * 12), Revision(
+        "b" * 12, played_through=date(2027, 1, 1), changed=1)))
+    found = _violations(rules, replanned, legs=2, scheme="free")
+    # the re-played round-1 games now sit on the match day right after round 4's meeting
+    assert {v.team for v in found} == {"Alder Vale, Brook Farm", "Cobble Hill, Dunmere"}
+    assert all("0 match days apart" in v.what for v in found)

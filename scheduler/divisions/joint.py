@@ -63,6 +63,11 @@ single-league planner gives its timetable stage)."""
 PLACEMENT_SHARE = 0.25
 """Share of each division's solve seconds given to the joint placement model."""
 
+WALL_FACTOR = 10
+"""Wall-clock safety net of the joint timetable solves: this many times their deterministic
+limit, plus 30 s. Only a net (the deterministic limit decides); wide, because the model with
+open days runs several wall seconds per deterministic second and a loaded machine more."""
+
 BoolLike = cp_model.IntVar | cp_model.BoolVarT
 
 
@@ -383,7 +388,7 @@ def _timetables(fed: Federation, unit: Unit, couplings: list[Coupling],
             break
         cp, parts, budget = _build(fed, unit, couplings, time_limit, free_days)
         deterministic = max(1.0, TIMETABLE_SHARE * budget)
-        limits = SolveLimits(deterministic, 4 * deterministic + 10, fed_seed(fed, unit))
+        limits = SolveLimits(deterministic, WALL_FACTOR * deterministic + 30, fed_seed(fed, unit))
         solver = cp_model.CpSolver()
         configure(solver, limits)
         status = solve_interruptibly(solver, cp)
@@ -434,7 +439,7 @@ def _polish(cp: cp_model.CpModel, parts: list[_Part], solver: cp_model.CpSolver,
             for index in other.variables:
                 model.add(model.get_int_var_from_proto_index(index) == values[index])
         deterministic = max(1.0, TIMETABLE_SHARE * part.seconds)
-        limits = SolveLimits(deterministic, 4 * deterministic + 10, seed)
+        limits = SolveLimits(deterministic, WALL_FACTOR * deterministic + 30, seed)
         attempt = cp_model.CpSolver()
         configure(attempt, limits)
         status = solve_interruptibly(attempt, model)

@@ -10,6 +10,7 @@ time) are common practice; ``docs/divisions.md`` describes them.
 from __future__ import annotations
 
 import dataclasses
+import itertools
 import json
 import textwrap
 import tomllib
@@ -242,7 +243,7 @@ def _breaks_from_fixtures(season, team):
     """The test's own count: consecutive games of ``team`` on the same side (home or away)."""
     sides = [f.home == team for f in sorted(season.fixtures, key=lambda f: f.start)
              if team in f.teams]
-    return sum(1 for first, second in zip(sides, sides[1:], strict=False) if first == second)
+    return sum(1 for first, second in itertools.pairwise(sides) if first == second)
 
 
 def _pair_federation(reserves, legs, pairs):

@@ -63,6 +63,11 @@ single-league planner gives its timetable stage)."""
 PLACEMENT_SHARE = 0.25
 """Share of each division's solve seconds given to the joint placement model."""
 
+WALL_FACTOR = 10
+"""Wall-clock safety net of the joint timetable solves: this many times their deterministic
+limit, plus 30 s. Only a net (the deterministic limit decides); wide, because the model with
+open days runs several wall seconds per deterministic second and a loaded machine more."""
+
 BoolLike = cp_model.IntVar | cp_model.BoolVarT
 
 
@@ -366,26 +371,49 @@ def _venue_capacity(cp: cp_model.CpModel, fed: Federation, by_name: dict[str, _P
 
 def _timetables(fed: Federation, unit: Unit, couplings: list[Coupling],
                 time_limit: float | None) -> tuple[list[_Part], dict[str, Timetable], str, str]:
-    """Solve the joint timetable model: first on each division's own choice of days, then with
-    the days open; returns the parts, timetables, status and the reason of a failure."""
+    """Solve the joint timetable model twice: on each division's own earliest days, then with
+    the days open; keep the solution of the lower objective (breaks first, then lateness) and
+    improve it; returns the parts, timetables, status and the reason of a failure.
+
+    The second attempt is skipped when the first reached every division's lower bound on
+    breaks (nothing left to gain). Open days matter: with the first days fixed, a shared
+    ground makes the two teams' home/away patterns meet on every common date, which forces
+    many breaks when the divisions' round-robin structures differ (``docs/divisions.md``);
+    with open days the model can shift a division's dates.
+    """
     reason = ""
+    best: tuple[float, cp_model.CpModel, list[_Part], cp_model.CpSolver, bool, bool] | None = None
     for free_days in (False, True):
+        if best is not None and _at_bounds(best[2], best[3]):
+            break
         cp, parts, budget = _build(fed, unit, couplings, time_limit, free_days)
         deterministic = max(1.0, TIMETABLE_SHARE * budget)
-        limits = SolveLimits(deterministic, 4 * deterministic + 10, fed_seed(fed, unit))
+        limits = SolveLimits(deterministic, WALL_FACTOR * deterministic + 30, fed_seed(fed, unit))
         solver = cp_model.CpSolver()
         configure(solver, limits)
         status = solve_interruptibly(solver, cp)
         if status in (cp_model.OPTIMAL, cp_model.FEASIBLE):
             optimal = status == cp_model.OPTIMAL
             hit = not optimal and solver.wall_time >= limits.wall * 0.98
-            if not optimal:
-                solver, hit = _polish(cp, parts, solver, limits.seed, hit)
-            found = {p.name: p.model.read_timetable(solver, optimal, hit) for p in parts}
-            return parts, found, "optimal" if optimal else "feasible", ""
-        reason = ("the joint timetable model is infeasible" if status == cp_model.INFEASIBLE
-                  else "the joint timetable model found no timetable within its limits")
-    return [], {}, "", reason
+            if best is None or solver.objective_value < best[0]:
+                best = (solver.objective_value, cp, parts, solver, optimal, hit)
+            continue
+        if best is None:
+            reason = ("the joint timetable model is infeasible" if status == cp_model.INFEASIBLE
+                      else "the joint timetable model found no timetable within its limits")
+    if best is None:
+        return [], {}, "", reason
+    _, cp, parts, solver, optimal, hit = best
+    if not optimal:
+        solver, hit = _polish(cp, parts, solver, fed_seed(fed, unit), hit)
+    found = {p.name: p.model.read_timetable(solver, optimal, hit) for p in parts}
+    return parts, found, "optimal" if optimal else "feasible", ""
+
+
+def _at_bounds(parts: list[_Part], solver: cp_model.CpSolver) -> bool:
+    """Whether every division's breaks in the solution equal its lower bound on breaks."""
+    return all(not p.model.minimise_breaks
+               or solver.value(p.model.total_breaks) <= p.model.bound.value for p in parts)
 
 
 def _polish(cp: cp_model.CpModel, parts: list[_Part], solver: cp_model.CpSolver, seed: int,
@@ -411,7 +439,7 @@ def _polish(cp: cp_model.CpModel, parts: list[_Part], solver: cp_model.CpSolver,
             for index in other.variables:
                 model.add(model.get_int_var_from_proto_index(index) == values[index])
         deterministic = max(1.0, TIMETABLE_SHARE * part.seconds)
-        limits = SolveLimits(deterministic, 4 * deterministic + 10, seed)
+        limits = SolveLimits(deterministic, WALL_FACTOR * deterministic + 30, seed)
         attempt = cp_model.CpSolver()
         configure(attempt, limits)
         status = solve_interruptibly(attempt, model)

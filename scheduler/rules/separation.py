@@ -109,7 +109,7 @@ class Separation(HardRule):
         dated = (replanned and league.calendar.rounds_per_day == 1
                  and all(f.date is not None for f in season.fixtures))
         match_days = sorted({f.date for f in season.fixtures if f.date is not None})
-        index = {day: position for position, day in enumerate(match_days)}
+        index = {day: position for position, day in enumerate(match_days)} if dated else {}
         out = []
         for (a, b), games in sorted(when.items()):
             if dated:

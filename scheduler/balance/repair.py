@@ -963,11 +963,10 @@ class RepairModel:
         stage_limits = SolveLimits(max(1.0, min(5.0, limits.deterministic / 4)), limits.wall,
                                    limits.seed)
         for name, expr in goals:
-            values = {lit.index: use.value(lit) for opts in self.options for *_, lit in opts}
             m.clear_hints()
             for opts in self.options:
                 for *_, lit in opts:
-                    m.add_hint(lit, values[lit.index])
+                    m.add_hint(lit, use.value(lit))
             m.minimize(expr)
             stage = cp_model.CpSolver()
             configure(stage, stage_limits)

@@ -319,6 +319,9 @@ class RepairModel:
                                    | {(g.date, g.start) for g in problem.forced.values()})
         self.days = [d for d, _ in self.sittings]
         self.sitting_index = {sitting: i for i, sitting in enumerate(self.sittings)}
+        self.sittings_by_day: dict[date, list[int]] = {}
+        for s, (day, _) in enumerate(self.sittings):
+            self.sittings_by_day.setdefault(day, []).append(s)
         self.teams = list(league.team_names)
         self._history_state()
         self._build_options()
@@ -509,11 +512,8 @@ class RepairModel:
         day, and never two whose kick-offs are less than ``game_minutes`` apart."""
         m = self.model
         length = self.league.calendar.game_minutes
-        by_day: dict[date, list[int]] = {}
-        for s, (day, _) in enumerate(self.sittings):
-            by_day.setdefault(day, []).append(s)
-        for day in sorted(by_day):
-            sittings = by_day[day]
+        for day in sorted(self.sittings_by_day):
+            sittings = self.sittings_by_day[day]
             for team in self.teams:
                 if len(sittings) > self.per_day:
                     m.add(sum(self.plays(team, s) for s in sittings) <= self.per_day)
@@ -596,7 +596,7 @@ class RepairModel:
         list of int
             Their indices (empty when no game can be placed on ``day``).
         """
-        return [s for s, (when, _) in enumerate(self.sittings) if when == day]
+        return list(self.sittings_by_day.get(day, ()))
 
     def _build_rules(self) -> None:
         """The breaks (a goal, and what the break-free ends rule reads) and, in a season of

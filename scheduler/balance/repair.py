@@ -1002,12 +1002,11 @@ class RepairModel:
             forced = self.problem.forced.get(g)
             place = self.forced_place[g] if forced is not None else self.places[p]
             start = self._start(day, place, forced)
-            new = replace(old, home=home, away=away, venue=place.venue, court=place.court,
-                          slot=place.slot_label, date=day, start=start)
-            if forced is not None and (old.date, old.start, old.court, old.home) == (
-                    day, start, place.court, home):
-                new = old
-            out.append(new)
+            if forced is not None and self._forced_same(g):
+                out.append(old)
+                continue
+            out.append(replace(old, home=home, away=away, venue=place.venue, court=place.court,
+                               slot=place.slot_label, date=day, start=start))
         return out, on_reserve
 
     # --- explaining -----------------------------------------------------------------------

@@ -378,6 +378,7 @@ class RepairModel:
         self.same: list[cp_model.IntVar | None] = []
         self.forced_place: dict[int, Place] = {}
         self.empty: list[int] = []
+        self.extra_places: dict[tuple[str | None, str | None, time | None], int] = {}
         for g, old in enumerate(self.problem.future):
             opts: list[tuple[int, bool, int, cp_model.IntVar]] = []
             same_lit = None
@@ -451,8 +452,7 @@ class RepairModel:
         for p, known in enumerate(self.places):
             if (known.venue, known.court, known.slot_time) == key:
                 return p
-        extra = self.__dict__.setdefault("_extra_places", {})
-        return extra.setdefault(key, len(self.places) + len(extra))
+        return self.extra_places.setdefault(key, len(self.places) + len(self.extra_places))
 
     def _forced_place(self, forced: ForcedGame) -> Place:
         home_places = [self.places[p] for p in self._home_places(forced.home)]

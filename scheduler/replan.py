@@ -605,14 +605,13 @@ def replan_season(league: League, previous: Season, events: Events, *,
         notes=(*previous.notes, summary, *result.notes),
     )
     fairness = compute_fairness(season)
-    before_figures = before_fairness
     played, played_before = (compute_fairness(played_order(s)) for s in (season, previous))
     worse = worsened_figures(played_before, played,
                              skip=("carry_over_value", "separation_min"))
-    worse += worsened_figures(before_figures, fairness, skip=tuple(
+    worse += worsened_figures(before_fairness, fairness, skip=tuple(
         name for name, *_ in WATCHED if name not in ("carry_over_value", "separation_min")),
         teams=False)
-    return ReplanResult(season, previous, tuple(changes), result, fairness, before_figures,
+    return ReplanResult(season, previous, tuple(changes), result, fairness, before_fairness,
                         worse, events, played, league)
 
 

@@ -319,6 +319,9 @@ class RepairModel:
                                    | {(g.date, g.start) for g in problem.forced.values()})
         self.days = [d for d, _ in self.sittings]
         self.sitting_index = {sitting: i for i, sitting in enumerate(self.sittings)}
+        self.sittings_by_day: dict[date, list[int]] = {}
+        for s, (day, _) in enumerate(self.sittings):
+            self.sittings_by_day.setdefault(day, []).append(s)
         self.teams = list(league.team_names)
         self._history_state()
         self._build_options()
@@ -375,6 +378,7 @@ class RepairModel:
         self.same: list[cp_model.IntVar | None] = []
         self.forced_place: dict[int, Place] = {}
         self.empty: list[int] = []
+        self.extra_places: dict[tuple[str | None, str | None, time | None], int] = {}
         for g, old in enumerate(self.problem.future):
             opts: list[tuple[int, bool, int, cp_model.IntVar]] = []
             same_lit = None
@@ -448,8 +452,7 @@ class RepairModel:
         for p, known in enumerate(self.places):
             if (known.venue, known.court, known.slot_time) == key:
                 return p
-        extra = self.__dict__.setdefault("_extra_places", {})
-        return extra.setdefault(key, len(self.places) + len(extra))
+        return self.extra_places.setdefault(key, len(self.places) + len(self.extra_places))
 
     def _forced_place(self, forced: ForcedGame) -> Place:
         home_places = [self.places[p] for p in self._home_places(forced.home)]
@@ -509,11 +512,8 @@ class RepairModel:
         day, and never two whose kick-offs are less than ``game_minutes`` apart."""
         m = self.model
         length = self.league.calendar.game_minutes
-        by_day: dict[date, list[int]] = {}
-        for s, (day, _) in enumerate(self.sittings):
-            by_day.setdefault(day, []).append(s)
-        for day in sorted(by_day):
-            sittings = by_day[day]
+        for day in sorted(self.sittings_by_day):
+            sittings = self.sittings_by_day[day]
             for team in self.teams:
                 if len(sittings) > self.per_day:
                     m.add(sum(self.plays(team, s) for s in sittings) <= self.per_day)
@@ -596,7 +596,7 @@ class RepairModel:
         list of int
             Their indices (empty when no game can be placed on ``day``).
         """
-        return [s for s, (when, _) in enumerate(self.sittings) if when == day]
+        return list(self.sittings_by_day.get(day, ()))
 
     def _build_rules(self) -> None:
         """The breaks (a goal, and what the break-free ends rule reads) and, in a season of
@@ -963,11 +963,10 @@ class RepairModel:
         stage_limits = SolveLimits(max(1.0, min(5.0, limits.deterministic / 4)), limits.wall,
                                    limits.seed)
         for name, expr in goals:
-            values = {lit.index: use.value(lit) for opts in self.options for *_, lit in opts}
             m.clear_hints()
             for opts in self.options:
                 for *_, lit in opts:
-                    m.add_hint(lit, values[lit.index])
+                    m.add_hint(lit, use.value(lit))
             m.minimize(expr)
             stage = cp_model.CpSolver()
             configure(stage, stage_limits)
@@ -1003,12 +1002,11 @@ class RepairModel:
             forced = self.problem.forced.get(g)
             place = self.forced_place[g] if forced is not None else self.places[p]
             start = self._start(day, place, forced)
-            new = replace(old, home=home, away=away, venue=place.venue, court=place.court,
-                          slot=place.slot_label, date=day, start=start)
-            if forced is not None and (old.date, old.start, old.court, old.home) == (
-                    day, start, place.court, home):
-                new = old
-            out.append(new)
+            if forced is not None and self._forced_same(g):
+                out.append(old)
+                continue
+            out.append(replace(old, home=home, away=away, venue=place.venue, court=place.court,
+                               slot=place.slot_label, date=day, start=start))
         return out, on_reserve
 
     # --- explaining -----------------------------------------------------------------------

@@ -653,11 +653,11 @@ def team_games(season: Season, team: str) -> list[Fixture]:
     list of Fixture
         Every game of the team, home or away, in playing order.
     """
-    games = [f for f in season.fixtures if team in (f.home, f.away)]
+    games = list(season.fixtures_of(team))
     if games and all(f.date is not None for f in games):
         return sorted(games, key=lambda f: (f.date, f.start.time() if f.start else time.min,
                                             f.round))
-    return sorted(games, key=lambda f: f.round)
+    return games
 
 
 def plural(count: int, word: str) -> str:

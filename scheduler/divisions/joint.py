@@ -141,7 +141,6 @@ class _Part:
     league: League
     fact: Factorization
     model: TimetableModel
-    team_index: dict[str, int]
     variables: range = range(0)
     """Indices of the variables its timetable model created in the shared model."""
     seconds: float = 0.0
@@ -191,7 +190,7 @@ class _DateLiterals:
 
     def home_terms(self, team: str, day: date) -> list[BoolLike]:
         """One literal per round that may fall on ``day``: the team is at home in it there."""
-        t = self.part.team_index[team]
+        t = self.part.model.team_index[team]
         model = self.part.model
         terms = []
         for on, g in self.by_date.get(day, []):
@@ -205,7 +204,7 @@ class _DateLiterals:
         key = (team, day)
         if key not in self._home:
             terms = self.home_terms(team, day)
-            t = self.part.team_index[team]
+            t = self.part.model.team_index[team]
             self._home[key] = (self._or(terms, f"{self.prefix}team{t}_home_on_{day:%Y%m%d}")
                                if terms else None)
         return self._home[key]
@@ -215,7 +214,7 @@ class _DateLiterals:
         key = (team, day)
         if key in self._plays:
             return self._plays[key]
-        t = self.part.team_index[team]
+        t = self.part.model.team_index[team]
         model = self.part.model
         terms: list[BoolLike] = []
         certain = False
@@ -261,14 +260,11 @@ def _coupled_teams(couplings: Iterable[Coupling], unit: Unit, fed: Federation) -
     return out
 
 
-def _windows(league: League) -> list[tuple[int, int]]:
-    return possible_windows(league)
-
-
 def _always_overlap(a: League, b: League) -> bool:
     """Whether every kick-off of ``a`` overlaps every kick-off of ``b`` (then two of their
     teams can never both play on one date without a clash)."""
-    return all(x[0] < y[1] and y[0] < x[1] for x in _windows(a) for y in _windows(b))
+    windows_b = possible_windows(b)
+    return all(x[0] < y[1] and y[0] < x[1] for x in possible_windows(a) for y in windows_b)
 
 
 def _build(fed: Federation, unit: Unit, couplings: list[Coupling], time_limit: float | None,
@@ -290,9 +286,8 @@ def _build(fed: Federation, unit: Unit, couplings: list[Coupling], time_limit: f
         for index in range(before, len(cp.proto.variables)):
             variable = cp.proto.variables[index]
             variable.name = f"div{j}_{variable.name}"
-        parts.append(_Part(name, league, fact, model,
-                           {t: i for i, t in enumerate(league.team_names)},
-                           range(before, len(cp.proto.variables)), total))
+        parts.append(_Part(name, league, fact, model, range(before, len(cp.proto.variables)),
+                           total))
     # every rule of every division holds (their assumption literals are fixed, not assumed)
     cp.add_bool_and([lit for p in parts for lit in p.model.book.literals])
     cp.clear_assumptions()

@@ -359,18 +359,16 @@ def _joint_plans(fed: Federation, unit: Unit, couplings: list[Coupling], outcome
 
 def _plan_sequentially(fed: Federation, unit: Unit, couplings: list[Coupling],
                        time_limit: float | None) -> UnitResult:
-    """One division after another (the module docstring)."""
+    """One division after another (the module docstring); :func:`plan_unit` sets the times."""
     from scheduler.errors import ConfigError
     from scheduler.fairness import compute_fairness
     from scheduler.plan import plan_season
 
-    began = clock.perf_counter()
-    cpu_began = clock.process_time()
     try:
         shares, _ = venue_shares(fed)
     except ConfigError as exc:
         return UnitResult(unit.key, (), f"{unit.key} cannot be planned one division after "
-                          f"another: {exc}", (), 0.0, 0.0)
+                          f"another: {exc}")
     planned: dict[str, DivisionPlan] = {}
     for name in unit.divisions:
         start = clock.perf_counter()
@@ -383,14 +381,11 @@ def _plan_sequentially(fed: Federation, unit: Unit, couplings: list[Coupling],
                 head += (" once the rules across divisions already planned in this unit ("
                          + ", ".join(planned) + ") are added")
             return UnitResult(unit.key, tuple(planned.values()), f"{head}: {exc}",
-                              tuple(f"coupling: {a}" for a in added) + tuple(exc.conflicts),
-                              clock.perf_counter() - began, clock.process_time() - cpu_began)
+                              tuple(f"coupling: {a}" for a in added) + tuple(exc.conflicts))
         except SchedulerError as exc:
-            return UnitResult(unit.key, tuple(planned.values()), f"division {name!r}: {exc}",
-                              (), clock.perf_counter() - began, clock.process_time() - cpu_began)
+            return UnitResult(unit.key, tuple(planned.values()), f"division {name!r}: {exc}")
         fairness = compute_fairness(result.season)
         planned[name] = DivisionPlan(name, league, result.season, fairness, result.notes, added,
                                      clock.perf_counter() - start)
-    return UnitResult(unit.key, tuple(planned.values()), None, (), clock.perf_counter() - began,
-                      clock.process_time() - cpu_began)
+    return UnitResult(unit.key, tuple(planned.values()))
 

@@ -45,7 +45,7 @@ from scheduler.balance.solver import SolveLimits, configure
 from scheduler.balance.timetable_model import Timetable, TimetableModel
 from scheduler.config.federation import Federation
 from scheduler.config.model import League
-from scheduler.divisions.grouping import Coupling, Unit, possible_windows
+from scheduler.divisions.grouping import Coupling, Unit, possible_windows, windows_overlap
 from scheduler.errors import InfeasibleError, SchedulerError
 from scheduler.factorization.model import Factorization
 from scheduler.interrupt import solve_interruptibly
@@ -264,7 +264,7 @@ def _always_overlap(a: League, b: League) -> bool:
     """Whether every kick-off of ``a`` overlaps every kick-off of ``b`` (then two of their
     teams can never both play on one date without a clash)."""
     windows_b = possible_windows(b)
-    return all(x[0] < y[1] and y[0] < x[1] for x in possible_windows(a) for y in windows_b)
+    return all(windows_overlap(x, y) for x in possible_windows(a) for y in windows_b)
 
 
 def _build(fed: Federation, unit: Unit, couplings: list[Coupling], time_limit: float | None,

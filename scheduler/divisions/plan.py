@@ -40,6 +40,7 @@ from scheduler.divisions.grouping import (
     couplings_of,
     possible_windows,
     venue_shares,
+    windows_overlap,
 )
 from scheduler.errors import InfeasibleError, SchedulerError
 from scheduler.season import Season
@@ -173,10 +174,6 @@ def _busy(start: datetime | None, day: date | None, minutes: int) -> tuple[date,
     return None
 
 
-def _overlaps(window: tuple[int, int], busy: tuple[int, int]) -> bool:
-    return window[0] < busy[1] and busy[0] < window[1]
-
-
 def adapt(league: League, name: str, fed: Federation, couplings: list[Coupling],
           shares: dict, planned: dict[str, DivisionPlan]) -> tuple[League, tuple[str, ...]]:
     """``league`` with the couplings to the ``planned`` divisions turned into its own rules.
@@ -237,7 +234,7 @@ def adapt(league: League, name: str, fed: Federation, couplings: list[Coupling],
                 no_home.setdefault(t, set()).update(days)
         elif c.kind == "players":
             days = {day for t in theirs for day, a, b in games.get(t, [])
-                    if any(_overlaps(w, (a, b)) for w in windows)}
+                    if any(windows_overlap(w, (a, b)) for w in windows)}
             for t in ours:
                 unavailable.setdefault(t, set()).update(days)
         after = sum(len(v) for v in no_home.values()) + sum(len(v) for v in unavailable.values())

@@ -154,7 +154,6 @@ class UnitResult:
     """Why the joint model was not used (empty when it was, or was not tried)."""
 
 
-
 def _merge(entries: Iterable[TeamDates], extra: dict[str, set[date]]) -> tuple[TeamDates, ...]:
     dates: dict[str, set[date]] = {}
     for e in entries:

@@ -268,7 +268,8 @@ def _always_overlap(a: League, b: League) -> bool:
 
 
 def _build(fed: Federation, unit: Unit, couplings: list[Coupling], time_limit: float | None,
-           free_days: bool) -> tuple[cp_model.CpModel, list[_Part], float]:
+           facts: dict[str, Factorization], free_days: bool
+           ) -> tuple[cp_model.CpModel, list[_Part], float]:
     cp = cp_model.CpModel()
     named = _coupled_teams(couplings, unit, fed)
     parts: list[_Part] = []
@@ -277,7 +278,7 @@ def _build(fed: Federation, unit: Unit, couplings: list[Coupling], time_limit: f
         league = fed.division(name).league
         total = float(time_limit if time_limit is not None else league.solve_seconds)
         budget += total
-        fact = factorization_for(league, time_limit)
+        fact = facts[name]
         before = len(cp.proto.variables)
         order = tuple(t for t in league.team_names if t in named[name])
         model = TimetableModel(league, fact, minimise_breaks=league.priorities.breaks > 0,
@@ -378,10 +379,12 @@ def _timetables(fed: Federation, unit: Unit, couplings: list[Coupling],
     """
     reason = ""
     best: tuple[float, cp_model.CpModel, list[_Part], cp_model.CpSolver, bool, bool] | None = None
+    facts = {name: factorization_for(fed.division(name).league, time_limit)
+             for name in unit.divisions}
     for free_days in (False, True):
         if best is not None and _at_bounds(best[2], best[3]):
             break
-        cp, parts, budget = _build(fed, unit, couplings, time_limit, free_days)
+        cp, parts, budget = _build(fed, unit, couplings, time_limit, facts, free_days)
         deterministic = max(1.0, TIMETABLE_SHARE * budget)
         limits = SolveLimits(deterministic, WALL_FACTOR * deterministic + 30, fed_seed(fed, unit))
         solver = cp_model.CpSolver()

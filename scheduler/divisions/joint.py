@@ -421,12 +421,12 @@ def _polish(cp: cp_model.CpModel, parts: list[_Part], solver: cp_model.CpSolver,
     model is solved again from the current solution for this division alone (its own share of
     the time), and the solution is kept when the objective went down. Deterministic: fixed
     order, seed and deterministic limits."""
+    if len(parts) < 2:
+        return solver, hit
     best = solver
     values = list(solver.response_proto.solution)
     objective = solver.objective_value
     for part in parts:
-        if len(parts) < 2:
-            break
         model = cp.clone()
         model.clear_hints()
         for index in range(len(values)):

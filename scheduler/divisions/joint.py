@@ -565,16 +565,18 @@ def _placements(fed: Federation, unit: Unit, couplings: list[Coupling], parts: l
                 cp.add_at_most_one(covering)
     # a team plays one game at a time; player groups across divisions likewise
     by_team_day: dict[tuple[str, date], list[int]] = {}
+    days_of_team: dict[str, set[date]] = {}
     for g, game in enumerate(games):
         for team in (game.home, game.away):
             by_team_day.setdefault((team, game.day), []).append(g)
+            days_of_team.setdefault(team, set()).add(game.day)
     for c in couplings:
         if c.kind != "players":
             continue
         for first, second in itertools.combinations(c.teams, 2):
             if fed.division_of(first) == fed.division_of(second):
                 continue
-            for day in sorted({d for (t, d) in by_team_day if t == first}):
+            for day in sorted(days_of_team.get(first, set())):
                 mine = [g for g in by_team_day.get((first, day), [])
                         if second not in (games[g].home, games[g].away)]
                 theirs = by_team_day.get((second, day), [])

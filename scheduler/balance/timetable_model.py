@@ -614,12 +614,7 @@ class TimetableModel:
                 "no timetable was found within the time limit; allow more solve_seconds or relax "
                 "the rules", [])
         hit = status != cp_model.OPTIMAL and solver.wall_time >= limits.wall * 0.98
-        found = self._extract(solver)
-        return Timetable(
-            n=self.n, breaks=total_breaks(found["games"], self.teams),
-            break_bound=self.bound.value, break_bound_reason=self.bound.reason,
-            status="optimal" if status == cp_model.OPTIMAL else "feasible", wall_cap_hit=hit,
-            days=self.candidate_days, **found)
+        return self.read_timetable(solver, status == cp_model.OPTIMAL, hit)
 
     def read_timetable(self, solver: cp_model.CpSolver, optimal: bool,
                        wall_cap_hit: bool = False) -> Timetable:

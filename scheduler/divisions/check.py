@@ -186,15 +186,14 @@ def check_federation(fed: Federation, seasons: Mapping[str, Season],
             played_a = home_days.get(a, set()) | away_days.get(a, set())
             played_b = home_days.get(b, set()) | away_days.get(b, set())
             common = played_a & played_b
-            good = sum(1 for day in common
-                       if (day in home_days.get(a, set())) != (day in home_days.get(b, set())))
+            missed = sorted(day for day in common
+                            if (day in home_days.get(a, set())) == (day in home_days.get(b, set())))
             required = ground.name in complementary_required
-            figures.append(ComplementFigure(ground.name, (a, b), good, len(common), required))
+            figures.append(ComplementFigure(ground.name, (a, b), len(common) - len(missed),
+                                            len(common), required))
             if required:
-                for day in sorted(common):
-                    if (day in home_days.get(a, set())) == (day in home_days.get(b, set())):
-                        problems.append(f"shared ground {ground.name!r} (complementary): {a} and "
-                                        f"{b} are not one at home and one away on {day}")
+                problems.extend(f"shared ground {ground.name!r} (complementary): {a} and {b} are "
+                                f"not one at home and one away on {day}" for day in missed)
     spans: dict[str, list] = {}
     for name, f, span in games:
         for team in f.teams:

@@ -144,6 +144,26 @@ def possible_windows(league: League) -> list[tuple[int, int]]:
     return sorted((s, s + minutes) for s in starts)
 
 
+def windows_overlap(first: tuple[int, int], second: tuple[int, int]) -> bool:
+    """Whether two half-open intervals ``[start, end)`` (minutes of the day) overlap.
+
+    Parameters
+    ----------
+    first, second : tuple of int
+        ``(start, end)``, as :func:`possible_windows` gives them.
+
+    Returns
+    -------
+    bool
+
+    Examples
+    --------
+    >>> windows_overlap((600, 690), (660, 750)), windows_overlap((600, 690), (690, 780))
+    (True, False)
+    """
+    return first[0] < second[1] and second[0] < first[1]
+
+
 def _users(fed: Federation) -> dict[str, list[str]]:
     """Venue name -> divisions that play there (file order)."""
     users: dict[str, list[str]] = {}

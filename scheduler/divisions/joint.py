@@ -45,7 +45,7 @@ from scheduler.balance.solver import SolveLimits, configure
 from scheduler.balance.timetable_model import Timetable, TimetableModel
 from scheduler.config.federation import Federation
 from scheduler.config.model import League
-from scheduler.divisions.grouping import Coupling, Unit, possible_windows
+from scheduler.divisions.grouping import Coupling, Unit, possible_windows, windows_overlap
 from scheduler.errors import InfeasibleError, SchedulerError
 from scheduler.factorization.model import Factorization
 from scheduler.interrupt import solve_interruptibly
@@ -141,7 +141,6 @@ class _Part:
     league: League
     fact: Factorization
     model: TimetableModel
-    team_index: dict[str, int]
     variables: range = range(0)
     """Indices of the variables its timetable model created in the shared model."""
     seconds: float = 0.0
@@ -191,7 +190,7 @@ class _DateLiterals:
 
     def home_terms(self, team: str, day: date) -> list[BoolLike]:
         """One literal per round that may fall on ``day``: the team is at home in it there."""
-        t = self.part.team_index[team]
+        t = self.part.model.team_index[team]
         model = self.part.model
         terms = []
         for on, g in self.by_date.get(day, []):
@@ -205,7 +204,7 @@ class _DateLiterals:
         key = (team, day)
         if key not in self._home:
             terms = self.home_terms(team, day)
-            t = self.part.team_index[team]
+            t = self.part.model.team_index[team]
             self._home[key] = (self._or(terms, f"{self.prefix}team{t}_home_on_{day:%Y%m%d}")
                                if terms else None)
         return self._home[key]
@@ -215,7 +214,7 @@ class _DateLiterals:
         key = (team, day)
         if key in self._plays:
             return self._plays[key]
-        t = self.part.team_index[team]
+        t = self.part.model.team_index[team]
         model = self.part.model
         terms: list[BoolLike] = []
         certain = False
@@ -261,18 +260,16 @@ def _coupled_teams(couplings: Iterable[Coupling], unit: Unit, fed: Federation) -
     return out
 
 
-def _windows(league: League) -> list[tuple[int, int]]:
-    return possible_windows(league)
-
-
 def _always_overlap(a: League, b: League) -> bool:
     """Whether every kick-off of ``a`` overlaps every kick-off of ``b`` (then two of their
     teams can never both play on one date without a clash)."""
-    return all(x[0] < y[1] and y[0] < x[1] for x in _windows(a) for y in _windows(b))
+    windows_b = possible_windows(b)
+    return all(windows_overlap(x, y) for x in possible_windows(a) for y in windows_b)
 
 
 def _build(fed: Federation, unit: Unit, couplings: list[Coupling], time_limit: float | None,
-           free_days: bool) -> tuple[cp_model.CpModel, list[_Part], float]:
+           facts: dict[str, Factorization], free_days: bool
+           ) -> tuple[cp_model.CpModel, list[_Part], float]:
     cp = cp_model.CpModel()
     named = _coupled_teams(couplings, unit, fed)
     parts: list[_Part] = []
@@ -281,7 +278,7 @@ def _build(fed: Federation, unit: Unit, couplings: list[Coupling], time_limit: f
         league = fed.division(name).league
         total = float(time_limit if time_limit is not None else league.solve_seconds)
         budget += total
-        fact = factorization_for(league, time_limit)
+        fact = facts[name]
         before = len(cp.proto.variables)
         order = tuple(t for t in league.team_names if t in named[name])
         model = TimetableModel(league, fact, minimise_breaks=league.priorities.breaks > 0,
@@ -290,9 +287,8 @@ def _build(fed: Federation, unit: Unit, couplings: list[Coupling], time_limit: f
         for index in range(before, len(cp.proto.variables)):
             variable = cp.proto.variables[index]
             variable.name = f"div{j}_{variable.name}"
-        parts.append(_Part(name, league, fact, model,
-                           {t: i for i, t in enumerate(league.team_names)},
-                           range(before, len(cp.proto.variables)), total))
+        parts.append(_Part(name, league, fact, model, range(before, len(cp.proto.variables)),
+                           total))
     # every rule of every division holds (their assumption literals are fixed, not assumed)
     cp.add_bool_and([lit for p in parts for lit in p.model.book.literals])
     cp.clear_assumptions()
@@ -383,10 +379,12 @@ def _timetables(fed: Federation, unit: Unit, couplings: list[Coupling],
     """
     reason = ""
     best: tuple[float, cp_model.CpModel, list[_Part], cp_model.CpSolver, bool, bool] | None = None
+    facts = {name: factorization_for(fed.division(name).league, time_limit)
+             for name in unit.divisions}
     for free_days in (False, True):
         if best is not None and _at_bounds(best[2], best[3]):
             break
-        cp, parts, budget = _build(fed, unit, couplings, time_limit, free_days)
+        cp, parts, budget = _build(fed, unit, couplings, time_limit, facts, free_days)
         deterministic = max(1.0, TIMETABLE_SHARE * budget)
         limits = SolveLimits(deterministic, WALL_FACTOR * deterministic + 30, fed_seed(fed, unit))
         solver = cp_model.CpSolver()
@@ -423,12 +421,12 @@ def _polish(cp: cp_model.CpModel, parts: list[_Part], solver: cp_model.CpSolver,
     model is solved again from the current solution for this division alone (its own share of
     the time), and the solution is kept when the objective went down. Deterministic: fixed
     order, seed and deterministic limits."""
+    if len(parts) < 2:
+        return solver, hit
     best = solver
     values = list(solver.response_proto.solution)
     objective = solver.objective_value
     for part in parts:
-        if len(parts) < 2:
-            break
         model = cp.clone()
         model.clear_hints()
         for index in range(len(values)):
@@ -567,16 +565,18 @@ def _placements(fed: Federation, unit: Unit, couplings: list[Coupling], parts: l
                 cp.add_at_most_one(covering)
     # a team plays one game at a time; player groups across divisions likewise
     by_team_day: dict[tuple[str, date], list[int]] = {}
+    days_of_team: dict[str, set[date]] = {}
     for g, game in enumerate(games):
         for team in (game.home, game.away):
             by_team_day.setdefault((team, game.day), []).append(g)
+            days_of_team.setdefault(team, set()).add(game.day)
     for c in couplings:
         if c.kind != "players":
             continue
         for first, second in itertools.combinations(c.teams, 2):
             if fed.division_of(first) == fed.division_of(second):
                 continue
-            for day in sorted({d for (t, d) in by_team_day if t == first}):
+            for day in sorted(days_of_team.get(first, set())):
                 mine = [g for g in by_team_day.get((first, day), [])
                         if second not in (games[g].home, games[g].away)]
                 theirs = by_team_day.get((second, day), [])

@@ -40,6 +40,7 @@ from scheduler.divisions.grouping import (
     couplings_of,
     possible_windows,
     venue_shares,
+    windows_overlap,
 )
 from scheduler.errors import InfeasibleError, SchedulerError
 from scheduler.season import Season
@@ -153,7 +154,6 @@ class UnitResult:
     """Why the joint model was not used (empty when it was, or was not tried)."""
 
 
-
 def _merge(entries: Iterable[TeamDates], extra: dict[str, set[date]]) -> tuple[TeamDates, ...]:
     dates: dict[str, set[date]] = {}
     for e in entries:
@@ -171,10 +171,6 @@ def _busy(start: datetime | None, day: date | None, minutes: int) -> tuple[date,
     if day is not None:
         return (day, 0, 24 * 60)
     return None
-
-
-def _overlaps(window: tuple[int, int], busy: tuple[int, int]) -> bool:
-    return window[0] < busy[1] and busy[0] < window[1]
 
 
 def adapt(league: League, name: str, fed: Federation, couplings: list[Coupling],
@@ -237,7 +233,7 @@ def adapt(league: League, name: str, fed: Federation, couplings: list[Coupling],
                 no_home.setdefault(t, set()).update(days)
         elif c.kind == "players":
             days = {day for t in theirs for day, a, b in games.get(t, [])
-                    if any(_overlaps(w, (a, b)) for w in windows)}
+                    if any(windows_overlap(w, (a, b)) for w in windows)}
             for t in ours:
                 unavailable.setdefault(t, set()).update(days)
         after = sum(len(v) for v in no_home.values()) + sum(len(v) for v in unavailable.values())
@@ -359,18 +355,16 @@ def _joint_plans(fed: Federation, unit: Unit, couplings: list[Coupling], outcome
 
 def _plan_sequentially(fed: Federation, unit: Unit, couplings: list[Coupling],
                        time_limit: float | None) -> UnitResult:
-    """One division after another (the module docstring)."""
+    """One division after another (the module docstring); :func:`plan_unit` sets the times."""
     from scheduler.errors import ConfigError
     from scheduler.fairness import compute_fairness
     from scheduler.plan import plan_season
 
-    began = clock.perf_counter()
-    cpu_began = clock.process_time()
     try:
         shares, _ = venue_shares(fed)
     except ConfigError as exc:
         return UnitResult(unit.key, (), f"{unit.key} cannot be planned one division after "
-                          f"another: {exc}", (), 0.0, 0.0)
+                          f"another: {exc}")
     planned: dict[str, DivisionPlan] = {}
     for name in unit.divisions:
         start = clock.perf_counter()
@@ -383,14 +377,11 @@ def _plan_sequentially(fed: Federation, unit: Unit, couplings: list[Coupling],
                 head += (" once the rules across divisions already planned in this unit ("
                          + ", ".join(planned) + ") are added")
             return UnitResult(unit.key, tuple(planned.values()), f"{head}: {exc}",
-                              tuple(f"coupling: {a}" for a in added) + tuple(exc.conflicts),
-                              clock.perf_counter() - began, clock.process_time() - cpu_began)
+                              tuple(f"coupling: {a}" for a in added) + tuple(exc.conflicts))
         except SchedulerError as exc:
-            return UnitResult(unit.key, tuple(planned.values()), f"division {name!r}: {exc}",
-                              (), clock.perf_counter() - began, clock.process_time() - cpu_began)
+            return UnitResult(unit.key, tuple(planned.values()), f"division {name!r}: {exc}")
         fairness = compute_fairness(result.season)
         planned[name] = DivisionPlan(name, league, result.season, fairness, result.notes, added,
                                      clock.perf_counter() - start)
-    return UnitResult(unit.key, tuple(planned.values()), None, (), clock.perf_counter() - began,
-                      clock.process_time() - cpu_began)
+    return UnitResult(unit.key, tuple(planned.values()))
 

@@ -455,11 +455,11 @@ def plan_season(
     if "fewer than three" in summary:
         general.append(summary)
     report("dates", 0.9)
+    from scheduler.fairness.notes import silent_effect_notes
+
     for c in feasible:
         assert c.tt is not None and c.placement is not None
         season = _season(league, c, c.tt, c.placement, seed, tuple(general + c.notes))
-        from scheduler.fairness.notes import silent_effect_notes
-
         c.season = replace(season, notes=season.notes + silent_effect_notes(league, season))
     chosen, why = _choose(cands, league)
     front = frontier(
@@ -661,37 +661,35 @@ def _add_order_options(league: League, cands: list[_Candidate], total: float, se
     lower, upper = carry_over_bounds(n) if n >= 4 else (0, 0)
     if lower == upper:
         return  # every single round robin of this order has the same carry-over value
-    makers: list[tuple[str, Callable[[], Factorization | None]]] = []
-    details = {"low carry-over order": f"{{}}, rounds re-ordered for a low carry-over value "
-                                       f"(annealing, seed {seed}, {ORDER_MOVES} moves)"}
     base = max(feasible, key=lambda c: c.cert.perfect_pairs)
 
-    def reordered() -> Factorization | None:
+    def reordered() -> tuple[Factorization, str]:
         assert base.tt is not None
         found = search_low_carry_over(_leg1_rounds(base.fact, base.tt), n, seed=seed,
                                       moves=ORDER_MOVES, change_pairings=False)
-        return Factorization(n, found.rounds, base.fact.method, base.fact.source)
+        detail = (f"{base.fact.method}, rounds re-ordered for a low carry-over value "
+                  f"(annealing, seed {seed}, {ORDER_MOVES} moves)")
+        return Factorization(n, found.rounds, base.fact.method, base.fact.source), detail
 
-    def lowest() -> Factorization | None:
+    def lowest() -> tuple[Factorization, str]:
         found = best_low_carry_over(n, seed=seed, moves=LOW_MOVES)
         russell = found.method.startswith("Russell")
         source = ("K. G. Russell, Biometrika 67 (1980) 127-131" if russell
                   else "simulated annealing over round orders and Kempe moves "
                        "(scheduler.balance.low_carry_over)")
-        return Factorization(n, found.rounds, found.method, source)
+        return Factorization(n, found.rounds, found.method, source), found.method
 
-    makers.append(("low carry-over order", reordered))
-    makers.append(("lowest carry-over", lowest))
+    makers: list[tuple[str, Callable[[], tuple[Factorization, str]]]] = [
+        ("low carry-over order", reordered), ("lowest carry-over", lowest)]
     for label, make in makers:
         if len([c for c in cands if c.tt is not None]) >= MAX_OPTIONS:
             return
-        fact = make()
-        if fact is None or any(c.fact.rounds == fact.rounds for c in cands):
+        fact, detail = make()
+        if any(c.fact.rounds == fact.rounds for c in cands):
             continue
         value = carry_over_of_rounds(fact.rounds, n)
         if value >= min(c.coe for c in cands if c.coe is not None):
             continue
-        detail = details.get(label, "{}").format(fact.method)
         cand = _Candidate(label, fact, verify_rounds(n, fact.rounds), detail=detail, added=True)
         try:
             cand.tt = solve_timetable(league, fact, _extra_limits(total, seed),

@@ -61,6 +61,7 @@ import numpy as np
 
 from scheduler.balance.orders import OrderResult
 from scheduler.errors import InputError
+from scheduler.factorization.verify import verify_rounds
 
 MAX_N = 62
 """Colourings are bit masks in an int64."""
@@ -200,23 +201,7 @@ def is_perfect(rounds: Sequence[Sequence[tuple[int, int]]], n: int) -> bool:
     A perfect one-factorization (every union of two one-factors is a Hamiltonian cycle):
     E. Mendelsohn & A. Rosa, Ars Combin. 20 (1985) 43-52 (survey, from memory).
     """
-    partners = []
-    for games in rounds:
-        p = [0] * n
-        for a, b in games:
-            p[a], p[b] = b, a
-        partners.append(p)
-    for i in range(len(partners)):
-        for j in range(i + 1, len(partners)):
-            v, length = 0, 0
-            while True:
-                v = partners[j][partners[i][v]]
-                length += 2
-                if v == 0:
-                    break
-            if length != n:
-                return False
-    return True
+    return verify_rounds(n, rounds).perfect
 
 
 def window_tables(rounds: Sequence[Sequence[tuple[int, int]]], n: int, *,

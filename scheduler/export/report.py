@@ -512,13 +512,14 @@ def _carry_over_limits(pairs: int) -> tuple[int, int] | None:
     """Russell's lower bound n(n-1) and the circle method's value (n-1)(n² - 6n + 12), the
     worst possible (Lambrechts et al. 2018; docs/carry-over.md), for the league whose one leg
     has ``pairs`` pairs of rounds; ``None`` when the number of teams cannot be told."""
+    from scheduler.balance.low_carry_over import carry_over_bounds
     from scheduler.fairness.frontier import rounds_of_pairs
 
     rounds = rounds_of_pairs(pairs)
     teams = rounds + 1
     if rounds < 3 or teams % 2:
         return None
-    return teams * (teams - 1), (teams - 1) * (teams * teams - 6 * teams + 12)
+    return carry_over_bounds(teams)
 
 
 def _option_words(number: int, option: PlanOptionFigures) -> str:

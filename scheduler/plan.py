@@ -791,6 +791,36 @@ def _reduce_carry_over(league: League, cand: _Candidate,
     return tt, f"carry-over value {before} (Russell 1980)"
 
 
+def season_from_timetable(league: League, fact: Factorization, timetable: Timetable,
+                          placement: Placement, notes: tuple[str, ...]) -> Season:
+    """The season of one solved timetable, assembled exactly as :func:`plan_season` does.
+
+    For planners that solve timetables themselves (the joint model of several divisions,
+    :mod:`scheduler.divisions.joint`) and need the same Season: dated fixtures, byes, mixing
+    certificate (re-verified by :func:`scheduler.factorization.verify.verify_rounds`), revision.
+
+    Parameters
+    ----------
+    league
+        The league the timetable was solved for.
+    fact
+        The one-factorization whose rounds the timetable orders.
+    timetable
+        The solved timetable (round order, home/away, days).
+    placement
+        Its venues, courts and slots (:func:`scheduler.balance.places.assign_places`).
+    notes
+        The planner's notes, in plain sentences.
+
+    Returns
+    -------
+    Season
+        The season, seeded with ``league.seed``.
+    """
+    cand = _Candidate(fact.method, fact, verify_rounds(fact.n, fact.rounds), tt=timetable)
+    return _season(league, cand, timetable, placement, league.seed, notes)
+
+
 def _season(league: League, cand: _Candidate, tt: Timetable, placement: Placement, seed: int,
             notes: tuple[str, ...]) -> Season:
     names = league.team_names

@@ -323,10 +323,9 @@ def plan_unit(fed: Federation, unit: Unit, time_limit: float | None = None,
 def _joint_plans(fed: Federation, unit: Unit, couplings: list[Coupling], outcome,
                  seconds: float) -> tuple[DivisionPlan, ...]:
     """The division plans of a unit the joint model solved."""
-    from scheduler.factorization.verify import verify_rounds
     from scheduler.fairness import compute_fairness
     from scheduler.fairness.notes import silent_effect_notes
-    from scheduler.plan import _Candidate, _season
+    from scheduler.plan import season_from_timetable
 
     plans = []
     for name in unit.divisions:
@@ -344,8 +343,7 @@ def _joint_plans(fed: Federation, unit: Unit, couplings: list[Coupling], outcome
             notes.append(f"breaks: {timetable.breaks} (lower bound {timetable.break_bound}: "
                          f"{timetable.break_bound_reason}); not proven optimal within the time "
                          "limit of the joint model")
-        candidate = _Candidate(fact.method, fact, verify_rounds(fact.n, fact.rounds), timetable)
-        season = _season(league, candidate, timetable, placement, league.seed, tuple(notes))
+        season = season_from_timetable(league, fact, timetable, placement, tuple(notes))
         season = replace(season, notes=season.notes + silent_effect_notes(league, season))
         added = tuple(c.describe() for c in couplings if name in c.divisions)
         plans.append(DivisionPlan(name, league, season, compute_fairness(season), season.notes,

@@ -316,8 +316,7 @@ def _choose(cands: list[_Candidate], league: League) -> tuple[_Candidate, str | 
 
 
 def _limits(total: float, share: float, seed: int) -> SolveLimits:
-    det = max(1.0, total * share)
-    return SolveLimits(det, 4 * det + 10, seed)
+    return SolveLimits.with_safety_net(max(1.0, total * share), seed)
 
 
 def plan_season(
@@ -633,8 +632,7 @@ EXTRA_FLOOR = 0.4
 
 
 def _extra_limits(total: float, seed: int) -> SolveLimits:
-    det = max(EXTRA_FLOOR, total * EXTRA_SHARE)
-    return SolveLimits(det, 4 * det + 10, seed)
+    return SolveLimits.with_safety_net(max(EXTRA_FLOOR, total * EXTRA_SHARE), seed)
 
 MAX_OPTIONS = 5
 """The planner offers at most this many options that keep every rule."""

@@ -43,6 +43,31 @@ class SolveLimits:
     wall: float
     seed: int
 
+    @classmethod
+    def with_safety_net(cls, deterministic: float, seed: int) -> SolveLimits:
+        """Limits with the planner's usual wall-clock safety net, ``4 * deterministic + 10``
+        seconds (room for a machine four times slower than CP-SAT's work units assume, plus
+        model building).
+
+        Parameters
+        ----------
+        deterministic
+            CP-SAT's deterministic time limit.
+        seed
+            CP-SAT's random seed.
+
+        Returns
+        -------
+        SolveLimits
+            The limits.
+
+        Examples
+        --------
+        >>> SolveLimits.with_safety_net(5.0, seed=7)
+        SolveLimits(deterministic=5.0, wall=30.0, seed=7)
+        """
+        return cls(deterministic, 4 * deterministic + 10, seed)
+
 
 def configure(solver: cp_model.CpSolver, limits: SolveLimits) -> None:
     """Parameters for reproducible runs: one worker, fixed seed, deterministic limit.

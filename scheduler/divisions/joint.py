@@ -588,8 +588,7 @@ def _placements(fed: Federation, unit: Unit, couplings: list[Coupling], parts: l
                     if len(covering) > 1:
                         cp.add_at_most_one(covering)
     _balance_objective(cp, parts, games, places, x, joined)
-    deterministic = max(1.0, PLACEMENT_SHARE * budget)
-    limits = SolveLimits(deterministic, 4 * deterministic + 10, fed_seed(fed, unit))
+    limits = SolveLimits.with_safety_net(max(1.0, PLACEMENT_SHARE * budget), fed_seed(fed, unit))
     solver = cp_model.CpSolver()
     configure(solver, limits)
     status = solve_interruptibly(solver, cp)

@@ -3,15 +3,17 @@
 Spaces (``scheduler.factorization.twin_point_starters``): even starters over ``Z_2 x H`` with
 ``|H| = 25`` (K_52: ``Z_25``, ``Z_5 x Z_5``, ``GF(25)``) or ``|H| = 27`` (K_56: ``Z_27``,
 ``Z_3 x Z_9``, ``Z_3 x Z_3 x Z_3``, ``GF(27)``), for every admissible missing element and
-multiplier. Multiplier spaces are small and run to exhaustion first; the plain spaces then get
-seeded restarts until the stop time. Each task is ``run_task(order, space, seed, budget)``, a
-plain top-level function with plain arguments and a JSON-ready result, so that a process pool
-(here) or a distributed engine can map it.
+multiplier; with ``--merged`` only the merged class (two starters of ``H`` merged).
+Multiplier spaces are small and run to exhaustion first; the plain spaces then get seeded
+restarts until the stop time (a stop time earlier than now is tomorrow's). Each task is
+``run_task(order, space, seed, budget)``, a plain top-level function with plain arguments and a
+JSON-ready result, so that a process pool (here) or a distributed engine can map it.
 
     nice -n 15 python benchmarks/find_k52_k56.py --orders 52 56 --task-seconds 120 \\
         --stop 17:55 --workers 1
     nice -n 15 python benchmarks/find_k52_k56.py --rate
     python benchmarks/find_k52_k56.py --engine dask --workers 2 --stop 18:30
+    python benchmarks/find_k52_k56.py --merged --skip-small --orders 56 --stop 00:25
     python benchmarks/find_k52_k56.py --engine dask --cluster tcp://192.0.2.10:8786
 
 Prints one ``#`` line per task (space, seed, found, exhausted, nodes, seconds, nodes/s), then
@@ -43,14 +45,14 @@ def run_task(order: int, space: str, seed: int, budget: float) -> dict:
     return tw.search_task(order, space, seed, budget)
 
 
-def spaces(order: int) -> tuple[list[str], list[str]]:
-    """``(multiplier spaces, plain spaces)`` for ``K_order``."""
+def spaces(order: int, merged: bool = False) -> tuple[list[str], list[str]]:
+    """``(multiplier spaces, plain spaces)`` for ``K_order``; ``merged``: the merged class."""
     small, plain = [], []
     for base in BASES[order]:
         for missing in tw.missing_representatives(base):
             for size, u in tw.multiplier_choices(base, missing):
                 name = tw.space_name(base, swapped=False, missing=missing,
-                                     multiplier=1 if size == 1 else u)
+                                     multiplier=1 if size == 1 else u, merged=merged)
                 (plain if size == 1 else small).append(name)
     return small, plain
 
@@ -61,6 +63,8 @@ def _stop_time(text: str | None) -> float | None:
     now = dt.datetime.now(dt.UTC)
     hour, minute = (int(v) for v in text.split(":"))
     stop = now.replace(hour=hour, minute=minute, second=0, microsecond=0)
+    if stop <= now:  # a stop after midnight
+        stop += dt.timedelta(days=1)
     return time.time() + (stop - now).total_seconds()
 
 
@@ -126,6 +130,9 @@ def main() -> None:
     parser.add_argument("--cluster",
                         help="address of a running Dask scheduler (with --engine dask)")
     parser.add_argument("--skip-small", action="store_true")
+    parser.add_argument("--merged", action="store_true",
+                        help="search the merged class (two starters of H merged, the class of "
+                        "the published finds)")
     parser.add_argument("--space", action="append", default=[],
                         help="search only this space (repeatable; seeds round-robin)")
     parser.add_argument("--rate", action="store_true")
@@ -141,7 +148,7 @@ def main() -> None:
         order = tw.twin_group(base).order + 2
         plain_tasks += [(order, name, seed, args.task_seconds) for seed in range(args.seeds)]
     for order in [] if args.space else args.orders:
-        small, plain = spaces(order)
+        small, plain = spaces(order, args.merged)
         if not args.skip_small:
             tasks += [(order, name, 0, args.small_seconds) for name in small]
         plain_tasks += [(order, name, seed, args.task_seconds)

@@ -556,6 +556,10 @@ def plan_divisions(
         bool, typer.Option(help="Replace an output folder that holds something else.")
     ] = False,
     quiet: Annotated[bool, typer.Option(help="Print only the output folder.")] = False,
+    method: Annotated[
+        str, typer.Option(help="Divisions that share grounds or players: auto (one model for "
+                          "them together, else one after another), joint or sequential.")
+    ] = "auto",
 ) -> None:
     """Plan every division of a federation file (units of divisions in parallel, on Dask).
     \f
@@ -575,13 +579,15 @@ def plan_divisions(
         Replace an output folder that holds something else.
     quiet
         Print only the output folder.
+    method
+        How coupled divisions are planned (:data:`scheduler.divisions.plan.METHODS`).
 
     References
     ----------
     ``docs/divisions.md``.
     """
     _plan_federation(config, out_dir, workers=workers, cluster=cluster, time_limit=time_limit,
-                     force=force, quiet=quiet)
+                     force=force, quiet=quiet, method=method)
 
 
 @app.command()
@@ -802,19 +808,24 @@ def _print_fairness(fairness: Any, *, title: str) -> None:
 
 
 def _plan_federation(config: Path, out_dir: Path, *, workers: int, cluster: str | None,
-                     time_limit: float | None, force: bool, quiet: bool) -> None:
+                     time_limit: float | None, force: bool, quiet: bool,
+                     method: str = "auto") -> None:
     """Plan every division of a federation file and write its folder (``plan`` and
     ``plan-divisions`` share this)."""
     from scheduler.config.federation import load_federation
     from scheduler.divisions.execute import plan_federation
     from scheduler.divisions.outputs import write_federation_outputs
+    from scheduler.divisions.plan import METHODS
 
     if time_limit is not None and time_limit <= 0:
         raise InputError(f"--time-limit must be a positive number of seconds, got {time_limit}")
+    if method not in METHODS:
+        raise InputError(f"--method must be one of {', '.join(METHODS)}, got {method!r}",
+                         location="--method")
     federation = load_federation(config)
     with _progress(not quiet) as progress:
         result = plan_federation(federation, workers=workers, cluster=cluster,
-                                 time_limit=time_limit, progress=progress)
+                                 time_limit=time_limit, progress=progress, method=method)
     if not result.check.valid:
         raise RuntimeError("the plan breaks rules across divisions: "
                            + "; ".join(result.check.problems[:5]))

@@ -33,6 +33,7 @@ from scheduler.errors import InfeasibleError, InputError
 from scheduler.export.changes import GameChange, team_counts
 from scheduler.fairness import compute_fairness
 from scheduler.fairness.model import FairnessReport
+from scheduler.rules.rest_days import rest_days_between
 from scheduler.season import Fixture, Revision, Season
 
 SEASON_FILE = "season.json"
@@ -404,7 +405,8 @@ def _check_moved(league: League, events: Events, history: list[Fixture],
                                f"{seen[sitting]})")
             seen[sitting] = where
             rest = rules.min_rest_days
-            if rest is not None and team in last and (game.date - last[team]).days - 1 < rest:
+            if (rest is not None and team in last
+                    and rest_days_between(last[team], game.date) < rest):
                 raise _located(events, where, f"{team} last played on {last[team].isoformat()}; "
                                f"{game.date.isoformat()} leaves fewer than {rest} days of rest "
                                "(rules.min_rest_days)")

@@ -8,7 +8,8 @@ far as the rules allow), respecting:
 - team unavailability: in an even league every team plays every round, so a date on which a team
   is unavailable can host no round; in an odd league it can host the round of that team's bye;
 - no home games of a team on a date; fixed-date fixtures;
-- ``min_rest_days``: between two consecutive games of a team ``(d2 - d1).days - 1 >= value``.
+- ``min_rest_days``: between two consecutive games of a team at least ``value`` rest days
+  (:func:`scheduler.rules.rest_days.rest_days_between`).
   In any two consecutive rounds of a league of three or more teams some team plays in both (at
   most one bye per round), so the rule is exactly a gap of ``value + 1`` days between the match
   days of consecutive rounds, and two rounds on one day break it.

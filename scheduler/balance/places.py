@@ -78,7 +78,25 @@ class Placement:
     wall_cap_hit: bool = False
 
 
-def _venue_places(league: League, venue_index: int, per_day: int) -> list[Place]:
+def venue_places(league: League, venue_index: int, per_day: int) -> list[Place]:
+    """The places of one venue on a match day: every court at every slot (the venue's own slots,
+    else ``per_day`` kick-offs ``game_minutes`` apart from the calendar's kick-off, else one
+    unnamed time).
+
+    Parameters
+    ----------
+    league : League
+        The league the venue belongs to.
+    venue_index : int
+        The venue's position in ``league.venues``.
+    per_day : int
+        Rounds played on one match day (``calendar.rounds_per_day``).
+
+    Returns
+    -------
+    list of Place
+        Court by court, slot by slot; a slot label only where the times are named.
+    """
     v = league.venues[venue_index]
     if v.slots:
         times: list[time | None] = list(v.slots)
@@ -134,7 +152,7 @@ def assign_places(league: League, tt: Timetable, limits: SolveLimits) -> Placeme
     by_venue: dict[str, list[int]] = {}
     for vi, v in enumerate(league.venues):
         ids = []
-        for place in _venue_places(league, vi, per_day):
+        for place in venue_places(league, vi, per_day):
             ids.append(len(all_places))
             all_places.append(place)
         by_venue[v.name] = ids

@@ -61,6 +61,7 @@ from scheduler.config.model import League
 from scheduler.errors import InfeasibleError, InputError
 from scheduler.interrupt import solve_interruptibly
 from scheduler.rules import RULES
+from scheduler.rules.rest_days import rest_days_between
 from scheduler.season import Fixture
 
 WEEKDAY_NAMES = ("Monday", "Tuesday", "Wednesday", "Thursday", "Friday", "Saturday", "Sunday")
@@ -771,7 +772,7 @@ class RepairModel:
         pairs: list[tuple[int, int, int]] = []  # (rest, day i, day j), i = -1: last game played
         for i, d1 in enumerate(self.days):
             for j in range(i + 1, len(self.days)):
-                gap = max(0, (self.days[j] - d1).days - 1)  # two games on one day: 0 rest
+                gap = max(0, rest_days_between(d1, self.days[j]))  # one day: 0 rest
                 if gap >= cap:
                     break
                 if gap >= floor:
@@ -782,7 +783,7 @@ class RepairModel:
             if last is None:
                 continue
             for j, day in enumerate(self.days):
-                gap = (day - last).days - 1
+                gap = rest_days_between(last, day)
                 if gap >= cap:
                     break
                 if gap >= floor:

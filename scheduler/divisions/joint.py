@@ -481,7 +481,7 @@ def _placements(fed: Federation, unit: Unit, couplings: list[Coupling], parts: l
                 ) -> tuple[dict[str, Placement], str]:
     """Courts and slots: jointly for the divisions tied by a shared venue or a player group,
     with the single-league placement for the others."""
-    from scheduler.balance.places import _venue_places
+    from scheduler.balance.places import venue_places
     from scheduler.calendar import kickoff
 
     joined = {d for c in couplings if c.kind in ("venue", "players") for d in c.divisions}
@@ -516,7 +516,7 @@ def _placements(fed: Federation, unit: Unit, couplings: list[Coupling], parts: l
         venues: dict[str, list[int]] = {}
         for vi, venue in enumerate(league.venues):
             ids = []
-            for place in _venue_places(league, vi, 1):
+            for place in venue_places(league, vi, 1):
                 start = kickoff(league, first_day, place.slot)
                 minute = start.hour * 60 + start.minute
                 ids.append(len(places))

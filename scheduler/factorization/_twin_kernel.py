@@ -24,10 +24,34 @@ from scheduler.factorization._search_kernel import (
 
 
 @numba.njit(cache=True)
-def twin_search_kernel(M, add, neg, mulu, par, tinv, mis, twist, reps, seed, shuffle,
+def _kind_taken(par, in_pure, in_mixed, a, b):
+    """Would the pair ``{a, b}`` give ``a``'s or ``b``'s element of ``H`` a second pair of its
+    kind (equal or mixed parity)?"""
+    if par[a] == par[b]:
+        return in_pure[a // 2] or in_pure[b // 2]
+    return in_mixed[a // 2] or in_mixed[b // 2]
+
+
+@numba.njit(cache=True)
+def _mark_kind(par, in_pure, in_mixed, a, b, value):
+    """Record (or, with ``value`` False, forget) the kind of the pair ``{a, b}``."""
+    if par[a] == par[b]:
+        in_pure[a // 2] = value
+        in_pure[b // 2] = value
+    else:
+        in_mixed[a // 2] = value
+        in_mixed[b // 2] = value
+
+
+@numba.njit(cache=True)
+def twin_search_kernel(M, add, neg, mulu, par, tinv, mis, twist, merged, reps, seed, shuffle,
                        node_limit, out_pairs):
     """Returns ``(status, nodes)``: 1 found (pairs in ``out_pairs``), 0 node limit hit, -1 the
-    space (this missing element, multiplier and twist) holds no perfect even starter."""
+    space (this missing element, multiplier, twist and class) holds no perfect even starter.
+
+    With ``merged`` every element ``h`` of ``H`` lies in at most one pair of equal parity and at
+    most one pair of mixed parity (the merged class: the pairs of each kind project onto a
+    starter of ``H`` or one of its translates)."""
     np.random.seed(seed)
     n = M + 2
     inf1 = M
@@ -62,6 +86,8 @@ def twin_search_kernel(M, add, neg, mulu, par, tinv, mis, twist, reps, seed, shu
         return -1, 0
     top[0] = 0
 
+    in_pure = np.zeros(M // 2, np.bool_)
+    in_mixed = np.zeros(M // 2, np.bool_)
     used = np.zeros(M, np.bool_)
     used[0] = True
     used[mis] = True
@@ -116,6 +142,8 @@ def twin_search_kernel(M, add, neg, mulu, par, tinv, mis, twist, reps, seed, shu
                 d1 = add[a, neg[b]]
                 dused[d1] = False
                 dused[neg[d1]] = False
+                if merged:
+                    _mark_kind(par, in_pure, in_mixed, a, b, False)
             continue
         x = cx[depth]
         y = cand[depth, ci[depth]]
@@ -136,6 +164,11 @@ def twin_search_kernel(M, add, neg, mulu, par, tinv, mis, twist, reps, seed, shu
             if dused[d1] or dused[neg[d1]]:
                 ok = False
                 break
+            if merged:
+                if _kind_taken(par, in_pure, in_mixed, a, b):
+                    ok = False
+                    break
+                _mark_kind(par, in_pure, in_mixed, a, b, True)
             used[a] = True
             used[b] = True
             dused[d1] = True
@@ -180,6 +213,8 @@ def twin_search_kernel(M, add, neg, mulu, par, tinv, mis, twist, reps, seed, shu
                 d1 = add[a, neg[b]]
                 dused[d1] = False
                 dused[neg[d1]] = False
+                if merged:
+                    _mark_kind(par, in_pure, in_mixed, a, b, False)
             continue
         depth += 1
         need_gen = True

@@ -48,6 +48,21 @@ Two facts computed here (proofs; the tests confirm them on small groups):
   keeps the two alternating edge classes, so it cannot exchange them. It stays here as a valid
   (non-perfect) construction; the searches use the kept version.
 
+* *One path.* Read every pair of ``F_0`` in ``H`` (``{(b, x), (c, y)} -> x y``, ``∞1 0``,
+  ``∞2 m_H``): each element of ``H`` other than ``0`` and ``m_H`` gets degree 2, so the result
+  is a path from ``∞1`` to ``∞2`` plus cycles. ``τ_t`` maps ``F_0`` onto ``F_t`` and fixes the
+  two points at infinity, so ``F_0 ∪ F_t`` is the double cover of that picture: Hamiltonian
+  exactly when the picture is one path through all of ``H``. ``F_0 ∪ E`` walks the same picture
+  (each edge of ``E`` joins the two elements over one point of ``H``), so it is Hamiltonian under
+  the same condition. Two of the ``|G|/2 + 1`` walks are therefore one test.
+
+Merged class (:func:`is_merged_starter`): every element of ``H`` lies in at most one pair of
+equal parity and one of mixed parity; then each kind, read in ``H``, is a starter of ``H`` or a
+translate of one, and the even starter is two starters of ``H`` merged. The published
+perfect one-factorization of ``K_56`` is of this kind (an even starter of ``Z_54`` from two
+starters of ``Z_27`` merged by A. J. Wolfe's method; read in a summary of D. A. Pike's paper,
+docs/factorization-search.md). The kernel keeps to the class on request.
+
 Why this space (docs/factorization-search.md; the attributions from memory): the perfect
 one-factorizations of ``K_52`` and
 ``K_56`` were found by computer searches over one-factorizations with a prescribed automorphism
@@ -483,6 +498,8 @@ class TwinSearchResult:
         Wall time spent.
     exhausted : bool
         True when a run explored the whole space without success.
+    merged : bool, optional
+        True when the search kept to the merged class (:func:`is_merged_starter`).
     """
 
     base: str
@@ -495,6 +512,7 @@ class TwinSearchResult:
     nodes: int
     seconds: float
     exhausted: bool
+    merged: bool = False
 
     @property
     def found(self) -> bool:
@@ -511,6 +529,7 @@ def search_perfect_twin_starter(
     *,
     swapped: bool = False,
     multiplier: int = 1,
+    merged: bool = False,
     seed: int = 0,
     budget: float = 10.0,
     base_nodes: int = 20_000,
@@ -539,6 +558,9 @@ def search_perfect_twin_starter(
     multiplier : int, optional
         A unit ``u`` of ``H``'s ring; the starter must be invariant under ``(b, h) -> (b, u h)``
         (1: no multiplier).
+    merged : bool, optional
+        Keep to the merged class (:func:`is_merged_starter`), the class of the published finds
+        at 52 and 56 points.
     seed : int, optional
         The seed of the restarts.
     budget : float, optional
@@ -593,7 +615,8 @@ def search_perfect_twin_starter(
         if max_nodes is not None:
             limit = max(1, min(limit, max_nodes - nodes))
         status, used = twin_search_kernel(
-            M, G.add, G.neg, mu.astype(np.int64), G.par, 1, int(missing), swapped, reps,
+            M, G.add, G.neg, mu.astype(np.int64), G.par, 1, int(missing), swapped,
+            bool(merged), reps,
             run_seed(seed, runs, _TWIN_SALT), shuffle, limit, out)
         nodes += int(used)
         elapsed = time.perf_counter() - start
@@ -603,12 +626,13 @@ def search_perfect_twin_starter(
             return TwinSearchResult(
                 starter=starter, exhausted=exhausted, base=base, swapped=swapped,
                 missing=int(missing), multiplier=multiplier, seed=seed, runs=runs,
-                nodes=nodes, seconds=elapsed)
+                nodes=nodes, seconds=elapsed, merged=bool(merged))
 
         if status == 1:
             starter = tuple(sorted((int(min(a, b)), int(max(a, b))) for a, b in out))
-            if not is_perfect_twin_starter(base, starter, swapped=swapped):  # pragma: no cover
-                raise AssertionError(f"twin kernel returned a non-perfect starter {starter}")
+            if not is_perfect_twin_starter(base, starter, swapped=swapped) or (
+                    merged and not is_merged_starter(base, starter)):  # pragma: no cover
+                raise AssertionError(f"twin kernel returned a wrong starter {starter}")
             return result(starter, exhausted=False)
         if status == -1:
             return result(None, exhausted=True)
@@ -663,6 +687,44 @@ def is_perfect_twin_starter(base: str, starter: Sequence[Sequence[int]], *,
     if not _hamiltonian(p0, partners(rounds[-1])):
         return False
     return all(_hamiltonian(p0, partners(rounds[g])) for g in check_representatives(base))
+
+
+def is_merged_starter(base: str, starter: Sequence[Sequence[int]]) -> bool:
+    """Is ``starter`` an even starter of the *merged class*: does every element ``h`` of ``H``
+    lie in at most one pair of equal parity and at most one pair of mixed parity?
+
+    Then the pairs of equal parity, read in ``H``, form a starter of ``H`` or a translate of one,
+    and so do the mixed pairs: the even starter is two starters of ``H`` merged, the
+    construction of the published perfect one-factorizations of ``K_52`` and ``K_56``
+    (docs/factorization-search.md).
+
+    Parameters
+    ----------
+    base : str
+        Name of the odd-order abelian group ``H`` (as :func:`twin_group` reads it).
+    starter : sequence of pairs
+        The pairs ``(x, y)`` of codes of ``Z_2 × H``.
+
+    Returns
+    -------
+    bool
+        False also for anything that is not an even starter (kept points).
+
+    Examples
+    --------
+    >>> is_merged_starter("Z_5", [(1, 5), (2, 9), (4, 7), (6, 8)])
+    True
+    """
+    if not is_twin_starter(base, starter):
+        return False
+    seen: set[tuple[int, bool]] = set()
+    for a, b in _pairs(starter):
+        mixed = (a - b) % 2 == 1
+        for h in (a // 2, b // 2):
+            if (h, mixed) in seen:
+                return False
+            seen.add((h, mixed))
+    return True
 
 
 def multiplier_choices(base: str, missing: int) -> list[tuple[int, int]]:
@@ -734,21 +796,23 @@ def search_task(order: int, space: str, seed: int, budget: float) -> dict:
     InputError
         For an unknown space or one of another order.
     """
-    base, swapped, missing, multiplier = parse_space(space)
+    base, swapped, missing, multiplier, merged = parse_space(space)
     G = twin_group(base)
     if G.order + 2 != order:
         raise InputError(f"space {space!r} gives K_{G.order + 2}, not K_{order}",
                          location="space")
     res = search_perfect_twin_starter(base, missing, swapped=swapped, multiplier=multiplier,
-                                      seed=seed, budget=budget)
+                                      merged=merged, seed=seed, budget=budget)
     return {"order": order, "space": space, "seed": seed, "found": res.found,
             "exhausted": res.exhausted, "runs": res.runs, "nodes": res.nodes,
             "seconds": round(res.seconds, 3),
             "starter": [list(p) for p in res.starter] if res.starter else None}
 
 
-def space_name(base: str, *, swapped: bool, missing: int, multiplier: int = 1) -> str:
-    """``"Z_2 x <H> | swapped | m=<m> | u=<u>"``, read back by :func:`parse_space`.
+def space_name(base: str, *, swapped: bool, missing: int, multiplier: int = 1,
+               merged: bool = False) -> str:
+    """``"Z_2 x <H> | <kind> | m=<m> | u=<u>"``, read back by :func:`parse_space`; the kind is
+    ``kept``, ``swapped`` or ``merged`` (kept points, merged class).
 
     Parameters
     ----------
@@ -762,22 +826,32 @@ def space_name(base: str, *, swapped: bool, missing: int, multiplier: int = 1) -
     multiplier : int, optional
         A unit ``u`` of ``H``'s ring; the starter must be invariant under ``(b, h) -> (b, u h)``
         (1: no multiplier).
+    merged : bool, optional
+        The merged class (:func:`is_merged_starter`; kept points only).
 
     Returns
     -------
     str
         The space's name.
 
+    Raises
+    ------
+    InputError
+        For a merged class with swapped points.
+
     Examples
     --------
     >>> space_name("Z_25", swapped=False, missing=3, multiplier=7)
     'Z_2 x Z_25 | kept | m=3 | u=7'
     """
-    return f"Z_2 x {base} | {'swapped' if swapped else 'kept'} | m={missing} | u={multiplier}"
+    if merged and swapped:
+        raise InputError("the merged class is searched with the points kept", location="space")
+    kind = "swapped" if swapped else "merged" if merged else "kept"
+    return f"Z_2 x {base} | {kind} | m={missing} | u={multiplier}"
 
 
-def parse_space(space: str) -> tuple[str, bool, int, int]:
-    """``(base, swapped, missing, multiplier)`` from a :func:`space_name` string.
+def parse_space(space: str) -> tuple[str, bool, int, int, bool]:
+    """``(base, swapped, missing, multiplier, merged)`` from a :func:`space_name` string.
 
     Parameters
     ----------
@@ -786,8 +860,8 @@ def parse_space(space: str) -> tuple[str, bool, int, int]:
 
     Returns
     -------
-    tuple of (str, bool, int, int)
-        ``(base, swapped, missing, multiplier)``.
+    tuple of (str, bool, int, int, bool)
+        ``(base, swapped, missing, multiplier, merged)``.
 
     Raises
     ------
@@ -797,13 +871,15 @@ def parse_space(space: str) -> tuple[str, bool, int, int]:
     Examples
     --------
     >>> parse_space("Z_2 x Z_25 | kept | m=3 | u=7")
-    ('Z_25', False, 3, 7)
+    ('Z_25', False, 3, 7, False)
+    >>> parse_space("Z_2 x Z_27 | merged | m=2 | u=1")
+    ('Z_27', False, 2, 1, True)
     """
     try:
         group, kind, mis, mult = (part.strip() for part in space.split("|"))
-        if not group.startswith("Z_2 x ") or kind not in ("kept", "swapped"):
+        if not group.startswith("Z_2 x ") or kind not in ("kept", "swapped", "merged"):
             raise ValueError(space)
         return (group[len("Z_2 x "):], kind == "swapped", int(mis.removeprefix("m=")),
-                int(mult.removeprefix("u=")))
+                int(mult.removeprefix("u=")), kind == "merged")
     except ValueError:
         raise InputError(f"unknown search space {space!r}", location="space") from None

@@ -35,6 +35,7 @@ from zoneinfo import ZoneInfo, ZoneInfoNotFoundError
 from scheduler.calendar import match_days
 from scheduler.config.model import League
 from scheduler.errors import SchedulerError
+from scheduler.rules.rest_days import rest_days_between
 from scheduler.season import Season
 
 EARLY_END_DAYS = 14
@@ -208,7 +209,7 @@ def silent_effects(league: League, season: Season) -> tuple[SilentEffect, ...]:
         if no_home.get(day):
             reasons.append(f"{_names(no_home[day])} may not play at home that day")
         rest = rules.min_rest_days
-        if rest is not None and (day - previous).days - 1 < rest:
+        if rest is not None and rest_days_between(previous, day) < rest:
             reasons.append(
                 f"the least rest between two games (min_rest_days = {rest}) needs {rest + 1} "
                 f"days between match days, and the last games were on {previous.isoformat()}"

@@ -1,7 +1,8 @@
 """Rest days: at least ``min_rest_days`` whole days without a game between two games of a team.
 
-Tuesday then Friday gives 2 rest days: ``(d2 - d1).days - 1``. In any two consecutive rounds of
-a league of three or more teams some team plays in both (at most one bye per round), so the rule
+Tuesday then Friday gives 2 rest days (:func:`rest_days_between`, the one home of that count).
+In any two consecutive rounds of a league of three or more teams some team plays in both (at most
+one bye per round), so the rule
 is exactly a gap of ``value + 1`` days between the match days of consecutive rounds, and two
 rounds on one match day break it (``scheduler/balance/dates.py``). ``min_rest_days = 0`` with
 one round a match day holds by construction: the rule is then off.
@@ -91,7 +92,7 @@ class RestDays(HardRule):
         days = model.days
         for i, first in enumerate(days):
             for j in range(i + 1, len(days)):
-                if (days[j] - first).days - 1 >= value:
+                if rest_days_between(first, days[j]) >= value:
                     break
                 for team in model.teams:
                     model.cp.add(model.plays(team, i) + model.plays(team, j) <= 1
@@ -101,7 +102,7 @@ class RestDays(HardRule):
             if last is None:
                 continue
             for j, day in enumerate(days):
-                if (day - last).days - 1 >= value:
+                if rest_days_between(last, day) >= value:
                     break
                 model.cp.add(model.plays(team, j) == 0).only_enforce_if(literal)
 
@@ -116,7 +117,7 @@ class RestDays(HardRule):
             for prev, cur in itertools.pairwise(games):
                 if prev.date is None or cur.date is None:
                     continue
-                rest = (cur.date - prev.date).days - 1
+                rest = rest_days_between(prev.date, cur.date)
                 if rest < value:
                     out.append(Violation(team, cur.round, cur.date,
                                          f"{plural(max(rest, 0), 'rest day')} since "
@@ -131,6 +132,36 @@ class RestDays(HardRule):
         if value and statement.startswith(f"min_rest_days = {value}"):
             return f"min_rest_days = {value - 1}"
         return None
+
+
+def rest_days_between(earlier: date, later: date) -> int:
+    """Whole days without a game between a team's games on ``earlier`` and ``later``.
+
+    The one home of the count behind ``min_rest_days``, the rest figures of the report and the
+    re-plan's checks: Tuesday then Friday gives 2, consecutive days 0, two games on one day -1
+    (callers that show rest clamp that to 0).
+
+    Parameters
+    ----------
+    earlier : datetime.date
+        The date of the first game.
+    later : datetime.date
+        The date of the next game.
+
+    Returns
+    -------
+    int
+        ``(later - earlier).days - 1``.
+
+    Examples
+    --------
+    >>> from datetime import date
+    >>> rest_days_between(date(2026, 9, 1), date(2026, 9, 4))  # Tuesday, then Friday
+    2
+    >>> rest_days_between(date(2026, 9, 5), date(2026, 9, 5))
+    -1
+    """
+    return (later - earlier).days - 1
 
 
 def longest_rested_chain(value: int, days: Sequence[date]) -> int:
@@ -159,7 +190,7 @@ def longest_rested_chain(value: int, days: Sequence[date]) -> int:
     """
     count, last = 0, None
     for d in days:
-        if last is None or (d - last).days - 1 >= value:
+        if last is None or rest_days_between(last, d) >= value:
             count, last = count + 1, d
     return count
 
@@ -186,7 +217,7 @@ def calendar_clash(value: int, days: Sequence[date], rounds: int) -> str | None:
     if fit >= rounds or not days:
         return None
     weekdays = sorted({d.weekday() for d in days})
-    gaps = [(b - a).days - 1 for a, b in itertools.pairwise(days)]
+    gaps = [rest_days_between(a, b) for a, b in itertools.pairwise(days)]
     widest = max(gaps, default=0)
     on = (f"match days are {', '.join(WEEKDAY_NAMES[w] for w in weekdays)}"
           if len(weekdays) <= 3 else "the calendar's match days")

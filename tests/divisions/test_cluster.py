@@ -8,6 +8,7 @@ icalendar (the club calendars, RFC 5545) and the standard library's HTML parser 
 
 from __future__ import annotations
 
+import json
 import os
 import shutil
 import socket
@@ -170,3 +171,21 @@ def test_factorization_restarts_run_as_tasks_on_a_local_cluster():
         assert got["nodes"] == here["nodes"]
         if got["found"]:
             assert verify_rounds(28, tw.twin_rounds("Z_13", got["starter"])).perfect
+
+
+def test_method_option(small_federation_file, tmp_path):
+    """``--method sequential`` plans every unit one division after another (as federation.json
+    records it); an unknown method is refused with exit 2 and nothing written."""
+    out = tmp_path / "out"
+    result = runner.invoke(app, ["plan-divisions", str(small_federation_file), "--out", str(out),
+                                 "--quiet", "--workers", "1", "--method", "sequential"])
+    assert result.exit_code == 0, result.output
+    units = json.loads((out / "federation.json").read_text(encoding="utf-8"))["units"]
+    methods = {u["method"] for u in units if len(u["divisions"]) > 1}
+    assert methods == {"one after another"}
+    bad = tmp_path / "bad"
+    result = runner.invoke(app, ["plan-divisions", str(small_federation_file), "--out", str(bad),
+                                 "--quiet", "--method", "together"])
+    assert result.exit_code == 2, result.output
+    assert "--method must be one of auto, joint, sequential" in result.output
+    assert not bad.exists()

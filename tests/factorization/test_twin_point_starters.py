@@ -176,7 +176,7 @@ def test_search_finds_perfect_factorizations(base, n):
 
 def test_task_function_is_picklable_and_bounded():
     space = tw.space_name("Z_13", swapped=False, missing=3)
-    assert tw.parse_space(space) == ("Z_13", False, 3, 1)
+    assert tw.parse_space(space) == ("Z_13", False, 3, 1, False)
     task = pickle.loads(pickle.dumps(tw.search_task))
     out = task(28, space, 0, 30.0)
     assert pickle.loads(pickle.dumps(out)) == out
@@ -199,3 +199,106 @@ def test_bad_input():
     assert not tw.is_twin_starter("Z_5", [(1, 2)])
     with pytest.raises(InputError):
         tw.twin_factorization("Z_5", [(1, 2)])
+
+
+def _projected_path(base: str, starter) -> bool:
+    """The projection criterion, written here on its own (docs/factorization-search.md): read
+    every pair of ``F_0`` in ``H`` (``∞1 - 0``, ``∞2 - m``, ``{(b, x), (c, y)} -> x - y``); the
+    result is one path from ``∞1`` to ``∞2`` through all of ``H``."""
+    G = tw.twin_group(base)
+    k = G.base.order
+    pairs = [tuple(p) for p in starter]
+    covered = {c for p in pairs for c in p}
+    m = next(c for c in range(2, G.order) if c not in covered)
+    graph = nx.MultiGraph()
+    graph.add_nodes_from(["inf1", "inf2", *range(k)])
+    graph.add_edge("inf1", 0)
+    graph.add_edge("inf2", m // 2)
+    for a, b in pairs:
+        graph.add_edge(a // 2, b // 2)
+    if any(graph.degree(v) != (1 if v in ("inf1", "inf2") else 2) for v in graph):
+        return False
+    return nx.is_connected(graph)
+
+
+@pytest.mark.parametrize("base", ["Z_5", "Z_7", "Z_3 x Z_3", "Z_9"])
+def test_fixed_round_and_involution_round_criterion(base):
+    """``F_0 ∪ E`` is Hamiltonian exactly when ``F_0 ∪ F_t`` is, exactly when the projection of
+    ``F_0`` onto ``H`` is one path (proved in docs/factorization-search.md; networkx decides the
+    two unions here, our own code only builds the rounds). Every third even starter of each
+    missing-element class, to keep the test short."""
+    seen = {True: 0, False: 0}
+    for m in tw.missing_representatives(base):
+        for s in itertools.islice(tw.enumerate_twin_starters(base, m), 0, None, 3):
+            rounds = tw.twin_rounds(base, s)
+            n = len(rounds) + 1
+
+            def hamiltonian(r1, r2, n=n) -> bool:
+                union = nx.Graph([*r1, *r2])
+                return union.number_of_nodes() == n and nx.is_connected(union)
+
+            with_fixed = hamiltonian(rounds[0], rounds[-1])
+            with_t = hamiltonian(rounds[0], rounds[1])  # rounds[g] is F_g; t has code 1
+            assert with_fixed == with_t == _projected_path(base, s)
+            seen[with_fixed] += 1
+    assert seen[True] and (seen[False] or base == "Z_5")  # every union is one cycle for Z_5
+
+
+@pytest.mark.parametrize("base", ["Z_5", "Z_7", "Z_9", "Z_3 x Z_3"])
+def test_merged_class_is_two_starters_of_h(base):
+    """A merged even starter's pairs of each kind, read in ``H``, are a translate of a starter of
+    ``H`` (every element but one, each difference class once), checked against the cyclic
+    starter definition written here; counts from the enumeration (Z_5: 2, Z_7: 16, Z_9: 228;
+    computed)."""
+    G = tw.twin_group(base)
+    H = G.base
+    count = 0
+    for m in tw.missing_representatives(base):
+        for s in tw.enumerate_twin_starters(base, m):
+            kinds: dict[bool, list[tuple[int, int]]] = {False: [], True: []}
+            for a, b in s:
+                kinds[(a - b) % 2 == 1].append((a // 2, b // 2))
+            as_two_starters = True
+            for projected in kinds.values():
+                elements = [x for p in projected for x in p]
+                diffs = {int(H.add[x, H.neg[y]]) for x, y in projected}
+                diffs |= {int(H.neg[d]) for d in diffs}
+                as_two_starters &= (len(set(elements)) == len(elements) == H.order - 1
+                                    and len(diffs) == H.order - 1)
+            assert tw.is_merged_starter(base, s) == as_two_starters
+            count += as_two_starters
+    assert count == {"Z_5": 2, "Z_7": 16, "Z_9": 228}.get(base, count)
+
+
+@pytest.mark.parametrize("base", ["Z_5", "Z_7", "Z_9"])
+def test_merged_kernel_agrees_with_enumeration(base):
+    """Exhaustive merged-class runs of the kernel against the Python enumerator filtered by
+    :func:`is_merged_starter` (Z_9 holds 2 perfect merged even starters, Z_5 and Z_7 none;
+    computed)."""
+    total = 0
+    for m in tw.missing_representatives(base):
+        perfect = [s for s in tw.enumerate_twin_starters(base, m)
+                   if tw.is_merged_starter(base, s) and tw.is_perfect_twin_starter(base, s)]
+        total += len(perfect)
+        res = tw.search_perfect_twin_starter(base, m, merged=True, shuffle=False,
+                                             base_nodes=10**9, max_run_nodes=10**9)
+        assert res.found == bool(perfect) and res.exhausted == (not perfect)
+        assert res.merged
+        if res.found:
+            assert res.starter in perfect
+            assert verify_rounds(G_order(base) + 2, tw.twin_rounds(base, res.starter)).perfect
+    assert total == {"Z_5": 0, "Z_7": 0, "Z_9": 2}[base]
+
+
+def G_order(base: str) -> int:
+    return tw.twin_group(base).order
+
+
+def test_merged_space_names():
+    name = tw.space_name("Z_27", swapped=False, missing=2, merged=True)
+    assert name == "Z_2 x Z_27 | merged | m=2 | u=1"
+    assert tw.parse_space(name) == ("Z_27", False, 2, 1, True)
+    with pytest.raises(InputError):
+        tw.space_name("Z_27", swapped=True, missing=2, merged=True)
+    out = tw.search_task(20, "Z_2 x Z_9 | merged | m=3 | u=1", 0, 20.0)
+    assert out["found"] and tw.is_merged_starter("Z_9", out["starter"])

@@ -1116,7 +1116,8 @@ def relaxations(problem: RepairProblem, limits: SolveLimits) -> list[str]:
     -------
     list of str
         Each relaxation that works, tested by re-solving: a later end by 1-4 weeks (the
-        smallest), one more weekday, or one rule lowered by one.
+        smallest), one more weekday, or one step of a rule
+        (:meth:`~scheduler.rules.base.HardRule.lowered`).
     """
     league = problem.league
     cal, rules = league.calendar, league.rules
@@ -1140,20 +1141,7 @@ def relaxations(problem: RepairProblem, limits: SolveLimits) -> list[str]:
                 found.append(f"allow games on {WEEKDAY_NAMES[weekday]}s "
                              "(add it to calendar.weekdays)")
                 break
-    lowered = []
-    if rules.min_rest_days:
-        lowered.append(("min_rest_days", rules.min_rest_days - 1))
-    if rules.max_home_run is not None:
-        lowered.append(("max_home_run", rules.max_home_run + 1))
-    if rules.max_away_run is not None:
-        lowered.append(("max_away_run", rules.max_away_run + 1))
-    if rules.no_breaks_last:
-        lowered.append(("no_breaks_last", rules.no_breaks_last - 1))
-    if rules.no_breaks_first:
-        lowered.append(("no_breaks_first", rules.no_breaks_first - 1))
-    if rules.min_separation:
-        lowered.append(("min_separation", rules.min_separation - 1))
-    for name, value in lowered:
+    for name, value in (step for rule in RULES for step in rule.lowered(league)):
         lowered_rule: dict[str, Any] = {name: value}
         trial = replace(problem, league=replace(league, rules=replace(rules, **lowered_rule)))
         if is_feasible(trial, small):

@@ -614,6 +614,25 @@ class HardRule:
         """
         raise NotImplementedError
 
+    def lowered(self, league: League) -> tuple[tuple[str, int], ...]:
+        """Each one-step relaxation of the rule's own fields: ``(field, value)`` with the value
+        one step more lenient (a run one longer, one rest day or round fewer). The one home of
+        these steps: :meth:`relaxation` words them for a clash, and a re-plan that has no
+        solution tries them one by one.
+
+        Parameters
+        ----------
+        league : League
+            The league.
+
+        Returns
+        -------
+        tuple of (str, int)
+            The field (without ``rules.``) and its relaxed value; empty (the default) when the
+            rule has no such step.
+        """
+        return ()
+
     def relaxation(self, league: League, statement: str) -> str | None:
         """The smallest change of the configuration that removes ``statement`` from a clash,
         when there is an obvious one (else ``None``).
@@ -628,9 +647,12 @@ class HardRule:
         Returns
         -------
         str or None
-            The change in the organizer's words, for example ``"raise max_home_run to 3"``; None
-            (the default) when no single obvious change exists.
+            The change in the organizer's words, for example ``"max_home_run = 3"``: the step of
+            :meth:`lowered` for the field the statement names; None when there is none.
         """
+        for name, value in self.lowered(league):
+            if statement.startswith(f"{name} = "):
+                return f"{name} = {value}"
         return None
 
 

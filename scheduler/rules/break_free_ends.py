@@ -116,10 +116,8 @@ class BreakFreeEnds(HardRule):
                                          f"within the last {plural(r.no_breaks_last, 'round')}"))
         return tuple(out)
 
-    def relaxation(self, league: League, statement: str) -> str | None:
+    def lowered(self, league: League) -> tuple[tuple[str, int], ...]:
         r = league.rules
-        for name, value in (("no_breaks_first", r.no_breaks_first),
-                            ("no_breaks_last", r.no_breaks_last)):
-            if value and statement.startswith(f"{name} = {value}"):
-                return f"{name} = {value - 1}"
-        return None
+        return tuple((name, value - 1) for name, value in (("no_breaks_first", r.no_breaks_first),
+                                                            ("no_breaks_last", r.no_breaks_last))
+                     if value)

@@ -127,11 +127,9 @@ class RestDays(HardRule):
                                          f"(at least {plural(value, 'rest day')})"))
         return tuple(out)
 
-    def relaxation(self, league: League, statement: str) -> str | None:
+    def lowered(self, league: League) -> tuple[tuple[str, int], ...]:
         value = league.rules.min_rest_days
-        if value and statement.startswith(f"min_rest_days = {value}"):
-            return f"min_rest_days = {value - 1}"
-        return None
+        return (("min_rest_days", value - 1),) if value else ()
 
 
 def rest_days_between(earlier: date, later: date) -> int:

@@ -75,11 +75,8 @@ class RunLimits(HardRule):
                                              f"(at most {value})"))
         return tuple(out)
 
-    def relaxation(self, league: League, statement: str) -> str | None:
-        for value, _, word in _limits(league):
-            if statement.startswith(f"max_{word}_run = {value}"):
-                return f"max_{word}_run = {value + 1}"
-        return None
+    def lowered(self, league: League) -> tuple[tuple[str, int], ...]:
+        return tuple((f"max_{word}_run", value + 1) for value, _, word in _limits(league))
 
 
 def _run_limit(model: TimetableView, v: int, value: int, home: bool, literal) -> None:

@@ -131,10 +131,12 @@ class Separation(HardRule):
                                          f"(at least {value})"))
         return tuple(out)
 
-    def relaxation(self, league: League, statement: str) -> str | None:
+    def lowered(self, league: League) -> tuple[tuple[str, int], ...]:
         value = league.rules.min_separation
-        if value and statement.startswith(f"min_separation = {value}"):
-            if league.format.scheme in leg_schemes.FIXED_SCHEMES and "scheme" in statement:
-                return 'scheme = "free" or a lower min_separation'
-            return f"min_separation = {value - 1}"
-        return None
+        return (("min_separation", value - 1),) if value else ()
+
+    def relaxation(self, league: League, statement: str) -> str | None:
+        if (statement.startswith("min_separation = ") and "scheme" in statement
+                and league.format.scheme in leg_schemes.FIXED_SCHEMES):
+            return 'scheme = "free" or a lower min_separation'
+        return super().relaxation(league, statement)

@@ -113,3 +113,23 @@ def test_option_figures_never_print_none():
     option = PlanOption("best mixing", "x", 3, 3, None, 12, None, False, False)
     assert "None" not in option.figures()
     assert "no timetable" in option.figures()
+
+
+def test_each_rule_words_its_own_one_step_relaxations():
+    """The steps (``lowered``) and the clash wording (``relaxation``) come from one place: each
+    statement of a switched-on rule gets exactly its field's step; a rule that is off offers
+    none (a run one longer, one rest day, break-free round or match day fewer)."""
+    from scheduler.rules import RULES
+
+    lg = league(8, rules=Rules(max_home_run=2, max_away_run=3, min_rest_days=2,
+                               no_breaks_first=1, no_breaks_last=2, min_separation=3))
+    steps = [step for rule in RULES for step in rule.lowered(lg)]
+    assert sorted(steps) == [("max_away_run", 4), ("max_home_run", 3), ("min_rest_days", 1),
+                             ("min_separation", 2), ("no_breaks_first", 0),
+                             ("no_breaks_last", 1)]
+    for rule in RULES:
+        for name, value in rule.lowered(lg):
+            assert rule.relaxation(lg, f"{name} = 7 for every team") == f"{name} = {value}"
+        assert rule.relaxation(lg, "some other statement") is None
+    plain = league(8)
+    assert all(not rule.lowered(plain) for rule in RULES)

@@ -2,10 +2,9 @@
 
 Tuesday then Friday gives 2 rest days (:func:`rest_days_between`, the one home of that count).
 In any two consecutive rounds of a league of three or more teams some team plays in both (at most
-one bye per round), so the rule
-is exactly a gap of ``value + 1`` days between the match days of consecutive rounds, and two
-rounds on one match day break it (``scheduler/balance/dates.py``). ``min_rest_days = 0`` with
-one round a match day holds by construction: the rule is then off.
+one bye per round), so the rule is exactly a gap of ``value + 1`` days between the match days of
+consecutive rounds, and two rounds on one match day break it (``scheduler/balance/dates.py``).
+``min_rest_days = 0`` with one round a match day holds by construction: the rule is then off.
 
 Before any solving, :func:`calendar_clash` finds the calendars on which the rule cannot hold
 whatever the pairings: the longest chain of candidate match days whose gaps are all at least
@@ -135,9 +134,11 @@ class RestDays(HardRule):
 def rest_days_between(earlier: date, later: date) -> int:
     """Whole days without a game between a team's games on ``earlier`` and ``later``.
 
-    The one home of the count behind ``min_rest_days``, the rest figures of the report and the
-    re-plan's checks: Tuesday then Friday gives 2, consecutive days 0, two games on one day -1
-    (callers that show rest clamp that to 0).
+    The one home of the count behind ``min_rest_days``: the rule's constraints and check, the
+    calendar clash, the re-plan's checks and priorities and the report's notes. Tuesday then
+    Friday gives 2, consecutive days 0, two games on one day -1 (callers that show rest clamp
+    that to 0). The report's rest figures count the same over numpy day numbers
+    (``scheduler/fairness/rest.py``, tested against pandas).
 
     Parameters
     ----------

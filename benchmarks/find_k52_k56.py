@@ -68,6 +68,14 @@ def _stop_time(text: str | None) -> float | None:
     return time.time() + (stop - now).total_seconds()
 
 
+def _rate_text(nodes: int, seconds: float) -> str:
+    """``"N nodes/s"``, or ``"rate not measured"`` for a task too short to time (a tiny space
+    exhausted in milliseconds would otherwise print an absurd rate)."""
+    if seconds < 0.05:
+        return "rate not measured"
+    return f"{nodes / seconds:,.0f} nodes/s"
+
+
 def rate() -> None:
     from scheduler.factorization.groups import cyclic
     from scheduler.factorization.search import search_perfect_starter
@@ -187,10 +195,10 @@ def main() -> None:
                 tot["nodes"] += res["nodes"]
                 tot["seconds"] += res["seconds"]
                 tot["tasks"] += 1
-                speed = res["nodes"] / max(res["seconds"], 1e-9)
                 print(f"# K_{res['order']} {res['space']} seed {res['seed']}: "
                       f"found={res['found']} exhausted={res['exhausted']} "
-                      f"nodes={res['nodes']} {res['seconds']:.1f}s {speed:,.0f} nodes/s",
+                      f"nodes={res['nodes']} {res['seconds']:.1f}s "
+                      f"{_rate_text(res['nodes'], res['seconds'])}",
                       file=sys.stderr, flush=True)
                 if res["found"]:
                     if tot["first"] is None:
@@ -199,11 +207,11 @@ def main() -> None:
                     print(json.dumps(res), flush=True)
                 submit()
     for order, tot in totals.items():
-        speed = tot["nodes"] / max(tot["seconds"], 1e-9)
         first = (f"first find after {tot['first']:.1f}s" if tot["first"] is not None
                  else f"no find in {tot['nodes']:,} nodes")
         print(f"K_{order}: {tot['tasks']} tasks, {tot['nodes']:,} nodes, "
-              f"{tot['seconds']:.0f}s of search, {speed:,.0f} nodes/s, {first}", flush=True)
+              f"{tot['seconds']:.0f}s of search, {_rate_text(tot['nodes'], tot['seconds'])}, "
+              f"{first}", flush=True)
 
 
 if __name__ == "__main__":

@@ -4,7 +4,7 @@ Every merged even starter over ``Z_2 x Z_k`` whose equal-parity pairs miss ``0``
 is the same factorization read backwards, docs/factorization-search.md) is a starter ``A`` of
 ``Z_k`` (equal-parity pairs), a starter ``B`` of ``Z_k`` moved by ``h`` (mixed pairs, missing
 ``h``) and the parities forced by the one path from ``0`` to ``h`` that ``A`` and ``B + h``
-must form. This script makes every such merge for ``k <= 15`` (all starters from
+must form. This script makes every such merge for ``k <= 17`` (all starters from
 :func:`scheduler.factorization.starters.enumerate_starters`), or random ones for larger ``k``,
 keeps those with a whole path and walks the remaining unions ``F_0 ∪ F_g`` (one ``g`` per
 ``±`` class, ``g != t``, in increasing order). It prints, per ``k``: the merges, those with a
@@ -13,12 +13,13 @@ found, and the number the product of the marginals predicts (what "the walks are
 would give). Each perfect merge is re-checked by the module's own perfection test and by the
 independent verifier.
 
-    python benchmarks/merged_survival.py                # k = 9, 11, 13, 15 (about a minute)
+    python benchmarks/merged_survival.py                # k = 9, 11, 13, 15 (seconds)
+    python benchmarks/merged_survival.py --all 17       # every merge at 17 (minutes)
     python benchmarks/merged_survival.py --sample 17 21 25 --merges 2000000
     python benchmarks/merged_survival.py --all --spread 21 25   # does the choice of A matter?
     python benchmarks/merged_survival.py --all --perfect 25 27  # pairs of perfect starters
 
-Recorded figures: docs/factorization-search.md ("Are the walks independent?").
+Recorded figures: docs/factorization-search.md ("Are the union walks independent?").
 """
 
 from __future__ import annotations
@@ -400,7 +401,7 @@ def main() -> None:
     parser = argparse.ArgumentParser(description=__doc__,
                                      formatter_class=argparse.RawDescriptionHelpFormatter)
     parser.add_argument("--all", type=int, nargs="*", default=[9, 11, 13, 15],
-                        help="orders k whose merges are all made (k <= 15)")
+                        help="orders k whose merges are all made (17 takes minutes)")
     parser.add_argument("--sample", type=int, nargs="*", default=[],
                         help="orders k whose merges are drawn at random")
     parser.add_argument("--merges", type=int, default=1_000_000)

@@ -32,7 +32,11 @@ import numpy as np
 
 from scheduler.factorization import twin_point_starters as tw
 from scheduler.factorization.groups import cyclic
-from scheduler.factorization.starters import enumerate_starters, good_differences
+from scheduler.factorization.starters import (
+    enumerate_starters,
+    good_differences,
+    is_perfect_starter,
+)
 from scheduler.factorization.verify import verify_rounds
 
 A006204 = {3: 1, 5: 1, 7: 3, 9: 9, 11: 25, 13: 133, 15: 631, 17: 3857, 19: 25905}
@@ -428,6 +432,9 @@ def main() -> None:
     for k in args.perfect:
         count, rows = perfect_cyclic_starters(k)
         assert count == A006204.get(k, count), "the count disagrees with OEIS A006204"
+        for row in rows[:: max(1, len(rows) // 20)]:  # the package's own test, on a sample
+            pairs = [(x, int(row[x])) for x in range(1, k) if x < row[x]]
+            assert is_perfect_starter(cyclic(k), pairs)
         print(f"Z_{k}: {count:,} starters, {len(rows)} perfect; every pair of perfect ones merged")
         survey(k, rows, rows, 0, args.seed, count=False)
     for k in args.spread:

@@ -36,6 +36,7 @@ from scheduler.factorization.starters import (
     enumerate_starters,
     good_differences,
     is_perfect_starter,
+    starter_partner,
 )
 from scheduler.factorization.verify import verify_rounds
 
@@ -44,14 +45,16 @@ A006204 = {3: 1, 5: 1, 7: 3, 9: 9, 11: 25, 13: 133, 15: 631, 17: 3857, 19: 25905
 
 
 def starter_partners(k: int) -> np.ndarray:
-    """Every starter of ``Z_k`` as a row of partners (``row[0] = 0``)."""
-    rows = []
-    for starter in enumerate_starters(cyclic(k)):
-        row = np.zeros(k, np.int64)
-        for x, y in starter:
-            row[x], row[y] = y, x
-        rows.append(row)
-    return np.array(rows)
+    """Every starter of ``Z_k`` as a row of partners (the package's
+    :func:`~scheduler.factorization.starters.starter_partner` without ``∞``; ``row[0]`` is never
+    read)."""
+    group = cyclic(k)
+    return np.array([starter_partner(group, s)[:k] for s in enumerate_starters(group)])
+
+
+def row_pairs(row: np.ndarray) -> list[tuple[int, int]]:
+    """The pairs of the starter whose partner row is ``row``."""
+    return [(x, int(row[x])) for x in range(1, len(row)) if x < row[x]]
 
 
 def random_starter_partners(k: int, count: int, rng: np.random.Generator) -> np.ndarray:
@@ -387,8 +390,7 @@ def starter_spread(k: int, count: int, samples: int, rng: np.random.Generator) -
                                np.zeros(len(reps), np.int64))
         rates.append(passed.sum() / max(whole * len(reps), 1))
         paths.append(whole)
-        pairs = [(x, int(a[x])) for x in range(1, k) if x < a[x]]
-        good.append(len(good_differences(cyclic(k), pairs)))
+        good.append(len(good_differences(cyclic(k), row_pairs(a))))
     r, g = np.array(rates), np.array(good)
     noise = np.sqrt(r.mean() * (1 - r.mean()) / (np.mean(paths) * len(reps)))
     print(f"k = {k}: {count} starters A, {samples:,} merges each: walk pass rate "
@@ -433,8 +435,7 @@ def main() -> None:
         count, rows = perfect_cyclic_starters(k)
         assert count == A006204.get(k, count), "the count disagrees with OEIS A006204"
         for row in rows[:: max(1, len(rows) // 20)]:  # the package's own test, on a sample
-            pairs = [(x, int(row[x])) for x in range(1, k) if x < row[x]]
-            assert is_perfect_starter(cyclic(k), pairs)
+            assert is_perfect_starter(cyclic(k), row_pairs(row))
         print(f"Z_{k}: {count:,} starters, {len(rows)} perfect; every pair of perfect ones merged")
         survey(k, rows, rows, 0, args.seed, count=False)
     for k in args.spread:

@@ -3,9 +3,12 @@
 Spaces (``scheduler.factorization.twin_point_starters``): even starters over ``Z_2 x H`` with
 ``|H| = 25`` (K_52: ``Z_25``, ``Z_5 x Z_5``, ``GF(25)``) or ``|H| = 27`` (K_56: ``Z_27``,
 ``Z_3 x Z_9``, ``Z_3 x Z_3 x Z_3``, ``GF(27)``), for every admissible missing element and
-multiplier; with ``--merged`` only the merged class (two starters of ``H`` merged).
-Multiplier spaces are small and run to exhaustion first; the plain spaces then get seeded
-restarts until the stop time (a stop time earlier than now is tomorrow's). Each task is
+multiplier; with ``--merged`` only the merged class (two starters of ``H`` merged); with
+``--linear`` the spaces of every matrix symmetry of ``Z_5 x Z_5`` and ``Z_3 x Z_3 x Z_3`` (one per
+conjugacy class of cyclic subgroups of ``GL(d, p)``) instead of the ring's multipliers.
+Symmetric spaces run first, to exhaustion (plain depth-first runs with doubling node limits;
+capped random restarts could never settle a space larger than their cap); the plain spaces then
+get seeded restarts until the stop time (a stop time earlier than now is tomorrow's). Each task is
 ``run_task(order, space, seed, budget)``, a plain top-level function with plain arguments and a
 JSON-ready result, so that a process pool (here) or a distributed engine can map it.
 
@@ -14,6 +17,7 @@ JSON-ready result, so that a process pool (here) or a distributed engine can map
     nice -n 15 python benchmarks/find_k52_k56.py --rate
     python benchmarks/find_k52_k56.py --engine dask --workers 2 --stop 18:30
     python benchmarks/find_k52_k56.py --merged --skip-small --orders 56 --stop 00:25
+    nice -n 15 python benchmarks/find_k52_k56.py --linear --merged
     python benchmarks/find_k52_k56.py --engine dask --cluster tcp://192.0.2.10:8786
 
 Prints one ``#`` line per task (space, seed, found, exhausted, nodes, seconds, nodes/s), then
@@ -38,6 +42,8 @@ from scheduler.factorization import twin_point_starters as tw
 
 BASES = {52: ["GF(25)", "Z_25", "Z_5 x Z_5"],
          56: ["GF(27)", "Z_27", "Z_3 x Z_9", "Z_3 x Z_3 x Z_3"]}
+# GF(q) and Z_p^d are the same group with the same codes, so their matrix spaces coincide
+LINEAR_BASES = ("Z_5 x Z_5", "Z_3 x Z_3 x Z_3")
 
 
 def run_task(order: int, space: str, seed: int, budget: float) -> dict:
@@ -45,8 +51,14 @@ def run_task(order: int, space: str, seed: int, budget: float) -> dict:
     return tw.search_task(order, space, seed, budget)
 
 
-def spaces(order: int, merged: bool = False) -> tuple[list[str], list[str]]:
-    """``(multiplier spaces, plain spaces)`` for ``K_order``; ``merged``: the merged class."""
+def spaces(order: int, merged: bool = False, linear: bool = False
+           ) -> tuple[list[str], list[str]]:
+    """``(symmetric spaces, plain spaces)`` for ``K_order``; ``merged``: the merged class;
+    ``linear``: the symmetric spaces are those of a matrix of ``GL(d, p)`` (one per conjugacy
+    class, on the elementary abelian ``H``) instead of the ring's multipliers."""
+    if linear:
+        return [name for base in BASES[order] if base in LINEAR_BASES
+                for name in tw.linear_symmetry_spaces(base, merged=merged)], []
     small, plain = [], []
     for base in BASES[order]:
         for missing in tw.missing_representatives(base):
@@ -127,8 +139,8 @@ def main() -> None:
                                      formatter_class=argparse.RawDescriptionHelpFormatter)
     parser.add_argument("--orders", type=int, nargs="+", default=[52, 56], choices=[52, 56])
     parser.add_argument("--task-seconds", type=float, default=120.0)
-    parser.add_argument("--small-seconds", type=float, default=60.0,
-                        help="budget of one multiplier-space task")
+    parser.add_argument("--small-seconds", type=float, default=600.0,
+                        help="budget of one symmetric-space task (searched to exhaustion)")
     parser.add_argument("--seeds", type=int, default=1000, help="restarts per plain space")
     parser.add_argument("--stop", help="UTC time HH:MM after which no task starts")
     parser.add_argument("--workers", type=int, default=1)
@@ -141,6 +153,10 @@ def main() -> None:
     parser.add_argument("--merged", action="store_true",
                         help="search the merged class (two starters of H merged, the class of "
                         "the published finds)")
+    parser.add_argument("--linear", action="store_true",
+                        help="the symmetric spaces of every matrix symmetry of Z_5 x Z_5 and "
+                        "Z_3 x Z_3 x Z_3 (one per conjugacy class), searched to exhaustion; "
+                        "no plain restarts")
     parser.add_argument("--space", action="append", default=[],
                         help="search only this space (repeatable; seeds round-robin)")
     parser.add_argument("--rate", action="store_true")
@@ -156,7 +172,7 @@ def main() -> None:
         order = tw.twin_group(base).order + 2
         plain_tasks += [(order, name, seed, args.task_seconds) for seed in range(args.seeds)]
     for order in [] if args.space else args.orders:
-        small, plain = spaces(order, args.merged)
+        small, plain = spaces(order, args.merged, args.linear)
         if not args.skip_small:
             tasks += [(order, name, 0, args.small_seconds) for name in small]
         plain_tasks += [(order, name, seed, args.task_seconds)

@@ -13,6 +13,7 @@ finishes its work silently and exits with the code it would have had.
 
 from __future__ import annotations
 
+import inspect
 import json
 import os
 import sys
@@ -192,6 +193,7 @@ def new(
 ) -> None:
     """Write a commented starter league file to PATH (TOML or YAML by its ending; never
     overwrites a file).
+
     \f
     Parameters
     ----------
@@ -243,6 +245,7 @@ def factor(
     summary: Annotated[bool, typer.Option(help="Leave the rounds out of the text output.")] = False,
 ) -> None:
     """Print a one-factorization for N teams: method, source, mixing certificate and rounds.
+
     \f
     Parameters
     ----------
@@ -368,7 +371,8 @@ def plan(
     ] = "auto",
 ) -> None:
     """Plan a season from a league config and write it to the output folder (a file of several
-    divisions plans every division, see ``plan-divisions``).
+    divisions plans every division, see plan-divisions).
+
     \f
     Parameters
     ----------
@@ -562,6 +566,7 @@ def plan_divisions(
     ] = "auto",
 ) -> None:
     """Plan every division of a federation file (units of divisions in parallel, on Dask).
+
     \f
     Parameters
     ----------
@@ -606,6 +611,7 @@ def replan(
 ) -> None:
     """Re-plan a season after postponements, closures and withdrawals, changing as few games
     as possible; history never moves.
+
     \f
     Parameters
     ----------
@@ -690,6 +696,7 @@ def audit(
     ] = None,
 ) -> None:
     """Check any schedule and print its fairness figures (exit 1 when it is invalid).
+
     \f
     Parameters
     ----------
@@ -839,6 +846,23 @@ def _plan_federation(config: Path, out_dir: Path, *, workers: int, cluster: str 
         out.print(f"complementary {_plain(figure.ground)}: {figure.complementary_days} of "
                   f"{figure.common_days} common match days")
     out.print(f"wrote {out_dir}/index.html and a folder per division")
+
+
+def _one_line_summaries() -> None:
+    """Give every command a one-line summary for the command list of ``scheduler --help``.
+
+    The list shows the first paragraph of a command's help with its line breaks kept; the
+    summary is that paragraph (the text before the contributor notes after ``\\f``) on one
+    line, so the docstring stays the one place it is written.
+    """
+    for command in app.registered_commands:
+        if command.short_help is None and command.callback is not None:
+            text = command.help or inspect.getdoc(command.callback) or ""
+            first = text.partition("\f")[0].strip().split("\n\n")[0]
+            command.short_help = " ".join(first.split())
+
+
+_one_line_summaries()
 
 
 def main() -> None:

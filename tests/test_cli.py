@@ -326,3 +326,19 @@ def test_closed_stdout_keeps_the_invalid_verdict(tmp_path):
     finally:
         os.close(writer)
     assert done.returncode in (1, 2), done.stderr.decode()
+
+
+def test_command_list_shows_one_plain_summary_per_command():
+    # The command list of ``scheduler --help`` is read by organizers: one summary each, taken
+    # from the command's docstring, without the contributor notes (numpydoc sections, RST
+    # markup) that follow it.
+    result = runner.invoke(app, ["--help"], env={"COLUMNS": "200", "NO_COLOR": "1"})
+    assert result.exit_code == 0, result.output
+    listing = result.stdout.split("Commands")[1]
+    for command in ("new", "factor", "plan", "choose", "plan-divisions", "replan", "audit"):
+        assert f" {command} " in listing
+    for contributor_text in ("Parameters", "----------", "``", ":data:", "Raises"):
+        assert contributor_text not in listing
+    # Each summary sits on one line at this width (its line breaks in the source are dropped).
+    assert "Re-plan a season after postponements, closures and withdrawals, changing as few " \
+           "games as possible; history never moves." in " ".join(listing.split())

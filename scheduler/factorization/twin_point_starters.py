@@ -75,6 +75,7 @@ own, as in :mod:`scheduler.factorization.search`.
 
 from __future__ import annotations
 
+import json
 import time
 from collections.abc import Iterator, Sequence
 from dataclasses import dataclass
@@ -84,6 +85,11 @@ import numpy as np
 
 from scheduler.errors import InputError
 from scheduler.factorization.groups import AbelianGroup, group_from_name
+from scheduler.factorization.linear_symmetries import (
+    Matrix,
+    linear_permutation,
+    linear_symmetry_classes,
+)
 from scheduler.factorization.model import Factorization, normalise_round
 from scheduler.factorization.search import element_orbits, luby, run_seed
 from scheduler.progress import Progress
@@ -193,6 +199,23 @@ def twin_group(base: str) -> TwinGroup:
     add = 2 * group.add[h[:, None], h[None, :]] + (b[:, None] ^ b[None, :])
     neg = 2 * group.neg[h] + b
     return TwinGroup(group, add.astype(np.int64), neg.astype(np.int64), b.astype(np.int64))
+
+
+def _symmetry(G: TwinGroup, multiplier: int = 1, matrix: Matrix | None = None) -> np.ndarray:
+    """The symmetry ``(b, h) -> (b, u h)`` or ``(b, h) -> (b, A h)`` as a permutation of the codes
+    of ``G`` (the identity when neither is given)."""
+    if matrix is not None:
+        if multiplier != 1:
+            raise InputError("give a multiplier or a matrix, not both", location="matrix")
+        perm = linear_permutation(G.base, matrix)
+        codes = np.arange(G.order)
+        return (2 * perm[codes // 2] + codes % 2).astype(np.int64)
+    return G.multiplier(multiplier) if multiplier != 1 else np.arange(G.order)
+
+
+def _matrix_tuple(matrix: Matrix | None) -> Matrix | None:
+    """``matrix`` as a tuple of tuples of plain ints (hashable, comparable), or None."""
+    return None if matrix is None else tuple(tuple(int(v) for v in row) for row in matrix)
 
 
 def _pairs(starter: Sequence[Sequence[int]]) -> list[Pair]:
@@ -326,7 +349,8 @@ def twin_factorization(base: str, starter: Sequence[Sequence[int]], *, swapped: 
                          source or SOURCE, info)
 
 
-def check_representatives(base: str, multiplier: int = 1) -> list[int]:
+def check_representatives(base: str, multiplier: int = 1, matrix: Matrix | None = None
+                          ) -> list[int]:
     """One ``g`` (the smallest code) per orbit of ``<g -> -g, μ>`` on ``G \\ {0}``.
 
     Parameters
@@ -337,6 +361,10 @@ def check_representatives(base: str, multiplier: int = 1) -> list[int]:
     multiplier : int, optional
         A unit ``u`` of ``H``'s ring; the starter must be invariant under ``(b, h) -> (b, u h)``
         (1: no multiplier).
+    matrix : tuple of tuple of int or None, optional
+        For ``H = Z_p^d``: an invertible matrix ``A``; the starter must be invariant under
+        ``(b, h) -> (b, A h)`` (:mod:`scheduler.factorization.linear_symmetries`; not together
+        with a multiplier).
 
     Returns
     -------
@@ -349,8 +377,66 @@ def check_representatives(base: str, multiplier: int = 1) -> list[int]:
     [1, 2, 3, 4, 5]
     """
     G = twin_group(base)
-    perm = G.multiplier(multiplier) if multiplier != 1 else np.arange(G.order)
+    perm = _symmetry(G, multiplier, matrix)
     return [g for g, _ in element_orbits(G.neg, perm)]
+
+
+def missing_parity(k: int) -> int:
+    """The parity of the missing element of every even starter of ``Z_2 × H`` with ``|H| = k``:
+    1 (odd) when ``k ≡ 1 (mod 4)``, 0 (even) when ``k ≡ 3 (mod 4)`` (the parity rule of the
+    module docstring).
+
+    Parameters
+    ----------
+    k : int
+        The odd order of ``H``.
+
+    Returns
+    -------
+    int
+        0 or 1.
+
+    Examples
+    --------
+    >>> missing_parity(25), missing_parity(27)
+    (1, 0)
+    """
+    return 1 if k % 4 == 1 else 0
+
+
+def linear_symmetry_spaces(base: str, *, merged: bool = False) -> list[str]:
+    """The space names (:func:`space_name`) of the even starters of ``Z_2 × H``, ``H = Z_p^d``,
+    invariant under a matrix: one per conjugacy class of cyclic subgroups of ``GL(d, p)`` that
+    fix a non-zero vector and per choice of the missing element's part in ``H`` up to the
+    normaliser (:func:`~scheduler.factorization.linear_symmetries.linear_symmetry_classes`), the
+    missing element of the parity that admits even starters. Conjugate choices give isomorphic
+    spaces, so these cover every such symmetry.
+
+    Parameters
+    ----------
+    base : str
+        The name of an elementary abelian ``H`` (``"Z_5 x Z_5"``, ``"Z_3 x Z_3 x Z_3"``, or a
+        Galois field, whose additive group is numbered the same way).
+    merged : bool, optional
+        Name the merged class instead of all even starters.
+
+    Returns
+    -------
+    list of str
+        Largest symmetry order first.
+
+    Examples
+    --------
+    >>> for name in linear_symmetry_spaces("Z_3 x Z_3"):
+    ...     print(name)
+    Z_2 x Z_3 x Z_3 | kept | m=9 | A=[[0,1],[2,2]]
+    Z_2 x Z_3 x Z_3 | kept | m=9 | A=[[0,1],[1,0]]
+    """
+    G = twin_group(base)
+    parity = missing_parity(G.base.order)
+    return [space_name(base, swapped=False, missing=2 * part + parity, matrix=c.matrix,
+                       merged=merged)
+            for c in linear_symmetry_classes(G.base) for part in c.missing_parts]
 
 
 def missing_representatives(base: str, *, swapped: bool = False, multiplier: int = 1
@@ -385,7 +471,7 @@ def missing_representatives(base: str, *, swapped: bool = False, multiplier: int
     seen: set[int] = set()
     out = []
     fixed = G.multiplier(multiplier) if multiplier != 1 else np.arange(G.order)
-    parity = 1 if G.base.order % 4 == 1 else 0  # the parity rule of the module docstring
+    parity = missing_parity(G.base.order)
     for c in range(2, G.order):
         if c in seen or (swapped and G.par[c]) or G.par[c] != parity:
             continue
@@ -397,8 +483,8 @@ def missing_representatives(base: str, *, swapped: bool = False, multiplier: int
     return out
 
 
-def enumerate_twin_starters(base: str, missing: int, multiplier: int = 1
-                            ) -> Iterator[tuple[Pair, ...]]:
+def enumerate_twin_starters(base: str, missing: int, multiplier: int = 1,
+                            matrix: Matrix | None = None) -> Iterator[tuple[Pair, ...]]:
     """Every even starter of ``Z_2 × H`` missing ``missing`` and invariant under the multiplier
     (exhaustive, plain Python; tiny groups only).
 
@@ -412,6 +498,10 @@ def enumerate_twin_starters(base: str, missing: int, multiplier: int = 1
     multiplier : int, optional
         A unit ``u`` of ``H``'s ring; the starter must be invariant under ``(b, h) -> (b, u h)``
         (1: no multiplier).
+    matrix : tuple of tuple of int or None, optional
+        For ``H = Z_p^d``: an invertible matrix ``A``; the starter must be invariant under
+        ``(b, h) -> (b, A h)`` (:mod:`scheduler.factorization.linear_symmetries`; not together
+        with a multiplier).
 
     Yields
     ------
@@ -425,7 +515,7 @@ def enumerate_twin_starters(base: str, missing: int, multiplier: int = 1
     """
     G = twin_group(base)
     M = G.order
-    mu = G.multiplier(multiplier) if multiplier != 1 else np.arange(M)
+    mu = _symmetry(G, multiplier, matrix)
     used = [False] * M
     dused = [False] * M
     used[0] = used[missing] = True
@@ -500,6 +590,8 @@ class TwinSearchResult:
         True when a run explored the whole space without success.
     merged : bool, optional
         True when the search kept to the merged class (:func:`is_merged_starter`).
+    matrix : tuple of tuple of int or None, optional
+        The matrix the starter had to be invariant under (None: none).
     """
 
     base: str
@@ -513,6 +605,7 @@ class TwinSearchResult:
     seconds: float
     exhausted: bool
     merged: bool = False
+    matrix: Matrix | None = None
 
     @property
     def found(self) -> bool:
@@ -529,6 +622,7 @@ def search_perfect_twin_starter(
     *,
     swapped: bool = False,
     multiplier: int = 1,
+    matrix: Matrix | None = None,
     merged: bool = False,
     seed: int = 0,
     budget: float = 10.0,
@@ -536,6 +630,7 @@ def search_perfect_twin_starter(
     max_run_nodes: int = 5_000_000,
     max_nodes: int | None = None,
     shuffle: bool = True,
+    exhaustive: bool = False,
     progress: Progress | None = None,
 ) -> TwinSearchResult:
     """Search ``Z_2 × H`` for a perfect even starter missing ``missing``.
@@ -543,8 +638,12 @@ def search_perfect_twin_starter(
     Runs follow the Luby sequence times ``base_nodes`` (capped by ``max_run_nodes``); ``budget``
     is wall seconds checked between runs and ``max_nodes`` an optional total work limit (the
     outcome then depends only on the arguments, not on the machine). With ``shuffle=False`` and
-    large limits a run is a plain exhaustive search. Every starter returned has been re-checked
-    by walking the induced factorization's unions (:func:`is_perfect_twin_starter`).
+    large limits a run is a plain exhaustive search. With ``exhaustive=True`` the runs are plain
+    depth-first searches in a fixed order whose node limits double from ``base_nodes`` without
+    a cap, so that a space of any size is settled once the budget allows (at most twice the
+    nodes of one complete search); capped restarts (the default) can never exhaust a space
+    whose search tree has more than ``max_run_nodes`` nodes. Every starter returned has been
+    re-checked by walking the induced factorization's unions (:func:`is_perfect_twin_starter`).
 
     Parameters
     ----------
@@ -558,6 +657,10 @@ def search_perfect_twin_starter(
     multiplier : int, optional
         A unit ``u`` of ``H``'s ring; the starter must be invariant under ``(b, h) -> (b, u h)``
         (1: no multiplier).
+    matrix : tuple of tuple of int or None, optional
+        For ``H = Z_p^d``: an invertible matrix ``A``; the starter must be invariant under
+        ``(b, h) -> (b, A h)`` (:mod:`scheduler.factorization.linear_symmetries`; not together
+        with a multiplier).
     merged : bool, optional
         Keep to the merged class (:func:`is_merged_starter`), the class of the published finds
         at 52 and 56 points.
@@ -573,6 +676,9 @@ def search_perfect_twin_starter(
         A total work limit; None: only the clock.
     shuffle : bool, optional
         Random partner order; False for plain exhaustive runs.
+    exhaustive : bool, optional
+        Plain depth-first runs with doubling node limits (``shuffle`` and ``max_run_nodes`` are
+        then not used): the way to prove a space empty.
     progress : callable or None, optional
         Called as ``progress(message, fraction)`` after each run.
 
@@ -596,8 +702,8 @@ def search_perfect_twin_starter(
         raise InputError(f"the seed must be an integer, got {seed!r}", location="seed")
     if not budget > 0:
         raise InputError(f"the time budget must be positive, got {budget!r}", location="budget")
-    mu = G.multiplier(multiplier) if multiplier != 1 else np.arange(M)
-    parity = 1 if G.base.order % 4 == 1 else 0
+    mu = _symmetry(G, multiplier, matrix)
+    parity = missing_parity(G.base.order)
     if (not 1 < int(missing) < M or G.par[int(missing)] != parity
             or (swapped and G.par[int(missing)]) or mu[missing] != missing):
         raise InputError(f"missing element {missing!r} is not allowed here (not 0 or t, of the "
@@ -605,19 +711,20 @@ def search_perfect_twin_starter(
                          f"fixed by the multiplier)", location="missing")
     from scheduler.factorization._twin_kernel import twin_search_kernel  # numba: lazily
 
-    reps = np.array(check_representatives(base, multiplier), dtype=np.int64)
+    reps = np.array(check_representatives(base, multiplier, matrix), dtype=np.int64)
     out = np.zeros((M // 2 - 1, 2), dtype=np.int64)
     start = time.perf_counter()
     runs = nodes = 0
     while True:
         runs += 1
-        limit = min(max_run_nodes, base_nodes * luby(runs))
+        limit = (base_nodes * 2 ** (runs - 1) if exhaustive
+                 else min(max_run_nodes, base_nodes * luby(runs)))
         if max_nodes is not None:
             limit = max(1, min(limit, max_nodes - nodes))
         status, used = twin_search_kernel(
             M, G.add, G.neg, mu.astype(np.int64), G.par, 1, int(missing), swapped,
             bool(merged), reps,
-            run_seed(seed, runs, _TWIN_SALT), shuffle, limit, out)
+            run_seed(seed, runs, _TWIN_SALT), shuffle and not exhaustive, limit, out)
         nodes += int(used)
         elapsed = time.perf_counter() - start
 
@@ -626,7 +733,7 @@ def search_perfect_twin_starter(
             return TwinSearchResult(
                 starter=starter, exhausted=exhausted, base=base, swapped=swapped,
                 missing=int(missing), multiplier=multiplier, seed=seed, runs=runs,
-                nodes=nodes, seconds=elapsed, merged=bool(merged))
+                nodes=nodes, seconds=elapsed, merged=bool(merged), matrix=_matrix_tuple(matrix))
 
         if status == 1:
             starter = tuple(sorted((int(min(a, b)), int(max(a, b))) for a, b in out))
@@ -773,6 +880,8 @@ def search_task(order: int, space: str, seed: int, budget: float) -> dict:
     arguments and result): search the space named ``space`` (:func:`parse_space`) for a
     perfect one-factorization of ``K_order`` for ``budget`` seconds with ``seed``. Returns a
     JSON-ready dict (``found``, ``starter``, ``nodes``, ``seconds``, ``exhausted``, ...).
+    A space with a multiplier or a matrix is searched exhaustively (plain depth-first runs
+    with doubling node limits), the others by capped random restarts.
 
     Parameters
     ----------
@@ -796,13 +905,16 @@ def search_task(order: int, space: str, seed: int, budget: float) -> dict:
     InputError
         For an unknown space or one of another order.
     """
-    base, swapped, missing, multiplier, merged = parse_space(space)
+    base, swapped, missing, symmetry, merged = parse_space(space)
     G = twin_group(base)
     if G.order + 2 != order:
         raise InputError(f"space {space!r} gives K_{G.order + 2}, not K_{order}",
                          location="space")
+    matrix = symmetry if isinstance(symmetry, tuple) else None
+    multiplier = symmetry if isinstance(symmetry, int) else 1
     res = search_perfect_twin_starter(base, missing, swapped=swapped, multiplier=multiplier,
-                                      merged=merged, seed=seed, budget=budget)
+                                      matrix=matrix, merged=merged, seed=seed, budget=budget,
+                                      exhaustive=matrix is not None or multiplier != 1)
     return {"order": order, "space": space, "seed": seed, "found": res.found,
             "exhausted": res.exhausted, "runs": res.runs, "nodes": res.nodes,
             "seconds": round(res.seconds, 3),
@@ -810,9 +922,10 @@ def search_task(order: int, space: str, seed: int, budget: float) -> dict:
 
 
 def space_name(base: str, *, swapped: bool, missing: int, multiplier: int = 1,
-               merged: bool = False) -> str:
-    """``"Z_2 x <H> | <kind> | m=<m> | u=<u>"``, read back by :func:`parse_space`; the kind is
-    ``kept``, ``swapped`` or ``merged`` (kept points, merged class).
+               matrix: Matrix | None = None, merged: bool = False) -> str:
+    """``"Z_2 x <H> | <kind> | m=<m> | u=<u>"`` (or ``A=<rows>`` for a matrix), read back by
+    :func:`parse_space`; the kind is ``kept``, ``swapped`` or ``merged`` (kept points, merged
+    class).
 
     Parameters
     ----------
@@ -826,6 +939,10 @@ def space_name(base: str, *, swapped: bool, missing: int, multiplier: int = 1,
     multiplier : int, optional
         A unit ``u`` of ``H``'s ring; the starter must be invariant under ``(b, h) -> (b, u h)``
         (1: no multiplier).
+    matrix : tuple of tuple of int or None, optional
+        For ``H = Z_p^d``: an invertible matrix ``A``; the starter must be invariant under
+        ``(b, h) -> (b, A h)`` (:mod:`scheduler.factorization.linear_symmetries`; not together
+        with a multiplier).
     merged : bool, optional
         The merged class (:func:`is_merged_starter`; kept points only).
 
@@ -843,15 +960,21 @@ def space_name(base: str, *, swapped: bool, missing: int, multiplier: int = 1,
     --------
     >>> space_name("Z_25", swapped=False, missing=3, multiplier=7)
     'Z_2 x Z_25 | kept | m=3 | u=7'
+    >>> space_name("Z_5 x Z_5", swapped=False, missing=13, matrix=((0, 1), (1, 0)), merged=True)
+    'Z_2 x Z_5 x Z_5 | merged | m=13 | A=[[0,1],[1,0]]'
     """
     if merged and swapped:
         raise InputError("the merged class is searched with the points kept", location="space")
     kind = "swapped" if swapped else "merged" if merged else "kept"
+    if matrix is not None:
+        rows = ",".join("[" + ",".join(str(int(v)) for v in row) + "]" for row in matrix)
+        return f"Z_2 x {base} | {kind} | m={missing} | A=[{rows}]"
     return f"Z_2 x {base} | {kind} | m={missing} | u={multiplier}"
 
 
-def parse_space(space: str) -> tuple[str, bool, int, int, bool]:
-    """``(base, swapped, missing, multiplier, merged)`` from a :func:`space_name` string.
+def parse_space(space: str) -> tuple[str, bool, int, int | Matrix, bool]:
+    """``(base, swapped, missing, symmetry, merged)`` from a :func:`space_name` string; the
+    symmetry is the multiplier ``u`` (an int, 1 for none) or the matrix (a tuple of rows).
 
     Parameters
     ----------
@@ -860,8 +983,8 @@ def parse_space(space: str) -> tuple[str, bool, int, int, bool]:
 
     Returns
     -------
-    tuple of (str, bool, int, int, bool)
-        ``(base, swapped, missing, multiplier, merged)``.
+    tuple of (str, bool, int, int or Matrix, bool)
+        ``(base, swapped, missing, symmetry, merged)``.
 
     Raises
     ------
@@ -874,12 +997,24 @@ def parse_space(space: str) -> tuple[str, bool, int, int, bool]:
     ('Z_25', False, 3, 7, False)
     >>> parse_space("Z_2 x Z_27 | merged | m=2 | u=1")
     ('Z_27', False, 2, 1, True)
+    >>> parse_space("Z_2 x Z_5 x Z_5 | merged | m=13 | A=[[0,1],[1,0]]")
+    ('Z_5 x Z_5', False, 13, ((0, 1), (1, 0)), True)
     """
     try:
-        group, kind, mis, mult = (part.strip() for part in space.split("|"))
+        group, kind, mis, sym = (part.strip() for part in space.split("|"))
         if not group.startswith("Z_2 x ") or kind not in ("kept", "swapped", "merged"):
             raise ValueError(space)
+        symmetry: int | Matrix
+        if sym.startswith("A="):
+            rows = json.loads(sym.removeprefix("A="))
+            if not isinstance(rows, list) or not all(
+                    isinstance(row, list) and all(isinstance(v, int) for v in row)
+                    for row in rows):
+                raise ValueError(space)
+            symmetry = tuple(tuple(row) for row in rows)
+        else:
+            symmetry = int(sym.removeprefix("u="))
         return (group[len("Z_2 x "):], kind == "swapped", int(mis.removeprefix("m=")),
-                int(mult.removeprefix("u=")), kind == "merged")
+                symmetry, kind == "merged")
     except ValueError:
         raise InputError(f"unknown search space {space!r}", location="space") from None

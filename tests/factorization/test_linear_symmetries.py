@@ -1,0 +1,172 @@
+"""Matrix symmetries of ``Z_p^d`` (:mod:`scheduler.factorization.linear_symmetries`) and the
+even-starter spaces they prescribe (:mod:`scheduler.factorization.twin_point_starters`).
+
+Outside checks: the orders of ``GL(2, p)`` are OEIS A000252 (invertible 2 × 2 matrices mod n:
+a(2) = 6, a(3) = 48, a(5) = 480, a(7) = 2016; verified on oeis.org) and the order of
+``GL(3, 3)`` is the classical formula ``(q^3 - 1)(q^3 - q)(q^3 - q^2)`` = 11232; the numbers of
+conjugacy classes of elements, ``q^2 - 1`` for ``GL(2, q)`` and ``q^3 - q`` for ``GL(3, q)``,
+are classical (I. G. Macdonald, Bull. Austral. Math. Soc. 23 (1981); from memory) and are
+counted here by brute force over the enumerated group. The invariant even starters of the
+plain-Python enumerator are compared with a filter of the full enumeration, and the kernel's
+exhaustive verdicts with the enumeration.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+import pytest
+
+from scheduler.errors import InputError
+from scheduler.factorization import twin_point_starters as tw
+from scheduler.factorization.groups import group_from_name
+from scheduler.factorization.linear_symmetries import (
+    elementary_shape,
+    general_linear_group,
+    linear_permutation,
+    linear_symmetry_classes,
+)
+
+
+@pytest.mark.parametrize("p, d, order", [(2, 2, 6), (3, 2, 48), (5, 2, 480), (7, 2, 2016),
+                                         (3, 3, 11232)])
+def test_general_linear_group_order(p, d, order):
+    mats = general_linear_group(p, d)
+    assert len(mats) == order
+    dets = np.round(np.linalg.det(mats)).astype(np.int64) % p
+    assert (dets != 0).all()  # every matrix listed is invertible
+
+
+def _element_classes(p: int, d: int) -> int:
+    mats = general_linear_group(p, d)
+    weights = p ** np.arange(d * d)
+    keys = (mats.reshape(len(mats), -1) * weights).sum(1)
+    index = {int(k): i for i, k in enumerate(keys)}
+    inverses = np.array([np.round(np.linalg.inv(m) * np.linalg.det(m)).astype(np.int64)
+                         * pow(round(float(np.linalg.det(m))) % p, -1, p) % p for m in mats])
+    seen = np.zeros(len(mats), dtype=bool)
+    classes = 0
+    for i in range(len(mats)):
+        if seen[i]:
+            continue
+        classes += 1
+        conj = np.einsum("nij,jk,nkl->nil", mats, mats[i], inverses) % p
+        for key in (conj.reshape(len(mats), -1) * weights).sum(1):
+            seen[index[int(key)]] = True
+    return classes
+
+
+@pytest.mark.parametrize("p, d, classes", [(3, 2, 8), (5, 2, 24), (3, 3, 24)])
+def test_conjugacy_class_counts(p, d, classes):
+    assert _element_classes(p, d) == classes
+
+
+@pytest.mark.parametrize("base", ["Z_3 x Z_3", "Z_5 x Z_5", "Z_3 x Z_3 x Z_3"])
+def test_subgroup_classes_are_consistent(base):
+    group = group_from_name(base)
+    p, d = elementary_shape(group)
+    classes = linear_symmetry_classes(group)
+    assert [c.order for c in classes] == sorted((c.order for c in classes), reverse=True)
+    for c in classes:
+        perm = linear_permutation(group, c.matrix)
+        fixed = [x for x in range(1, group.order) if perm[x] == x]
+        assert len(fixed) == c.fixed and set(c.missing_parts) <= set(fixed)
+        # an automorphism of the group, of the stated order
+        assert (perm[group.add] == group.add[perm[:, None], perm[None, :]]).all()
+        power, k = perm.copy(), 1
+        while not (power == np.arange(group.order)).all():
+            power, k = perm[power], k + 1
+        assert k == c.order
+        # a fixed space of dimension f has p^f - 1 non-zero vectors
+        assert c.fixed + 1 in {p ** f for f in range(1, d)}
+    # the classes found in Z_5 x Z_5: unipotent (order 5), diag(1, 2) (order 4), diag(1, -1)
+    if base == "Z_5 x Z_5":
+        assert [(c.order, c.conjugates) for c in classes] == [(5, 6), (4, 30), (2, 30)]
+
+
+def test_codes_follow_the_digit_numbering():
+    group = group_from_name("GF(25)")  # the field's additive group is numbered like Z_5 x Z_5
+    assert elementary_shape(group) == (5, 2)
+    perm = linear_permutation(group, ((1, 1), (0, 1)))  # (x, y) -> (x + y, y)
+    assert int(perm[5]) == 6  # (0, 1) -> (1, 1)
+    assert int(perm[1]) == 1  # (1, 0) fixed
+
+
+def test_bad_matrices_and_groups():
+    group = group_from_name("Z_5 x Z_5")
+    with pytest.raises(InputError):
+        linear_permutation(group, ((1, 2), (2, 4)))  # singular mod 5
+    with pytest.raises(InputError):
+        linear_permutation(group, ((1, 0, 0), (0, 1, 0), (0, 0, 1)))
+    with pytest.raises(InputError):
+        linear_permutation(group, "no matrix")  # type: ignore[arg-type]
+    with pytest.raises(InputError):
+        elementary_shape(group_from_name("Z_9"))
+    with pytest.raises(InputError):
+        elementary_shape(group_from_name("Z_3 x Z_5"))
+    with pytest.raises(InputError):
+        tw.search_perfect_twin_starter("Z_5 x Z_5", 13, multiplier=9, matrix=((0, 1), (1, 0)))
+    with pytest.raises(InputError):  # the swap moves (1, 0), so it cannot fix m = (1, (1, 0))
+        tw.search_perfect_twin_starter("Z_5 x Z_5", 3, matrix=((0, 1), (1, 0)))
+    with pytest.raises(InputError):
+        tw.parse_space("Z_2 x Z_5 x Z_5 | kept | m=13 | A=[[0,1],[1,x]]")
+    with pytest.raises(InputError):
+        tw.parse_space("Z_2 x Z_5 x Z_5 | kept | m=13 | A=[0,1]")
+
+
+def test_matrix_spaces_of_z3_squared():
+    # every invariant even starter the enumerator gives is one of the full enumeration that
+    # the matrix maps onto itself, and the other way round; at Z_2 x Z_3 x Z_3 there are none
+    # (as with the ring's order-2 multipliers, tested against the enumeration elsewhere)
+    base = "Z_3 x Z_3"
+    G = tw.twin_group(base)
+    for name in tw.linear_symmetry_spaces(base):
+        _, _, m, matrix, _ = tw.parse_space(name)
+        assert isinstance(matrix, tuple)
+        perm = linear_permutation(G.base, matrix)
+        mu = 2 * perm[np.arange(G.order) // 2] + np.arange(G.order) % 2
+        assert mu[m] == m
+        everything = set(tw.enumerate_twin_starters(base, m))
+        expected = {s for s in everything
+                    if tuple(sorted((min(mu[a], mu[b]), max(mu[a], mu[b])) for a, b in s)) == s}
+        assert set(tw.enumerate_twin_starters(base, m, matrix=matrix)) == expected
+        out = tw.search_task(20, name, 0, 30.0)
+        assert out["exhausted"] and not out["found"]
+
+
+def test_conjugate_symmetries_give_spaces_of_one_size():
+    # If S is invariant under A and misses m, then P S is invariant under P A P^-1 and misses
+    # P m, so conjugate choices hold equally many even starters. The three unipotent
+    # symmetries below (order 5, all conjugate in GL(2, 5)) each fix their own line, and the
+    # missing element lies on it.
+    base = "Z_5 x Z_5"
+    counts = set()
+    for matrix, part in [(((0, 1), (4, 2)), 6), (((1, 1), (0, 1)), 1), (((1, 0), (1, 1)), 5)]:
+        starters = list(tw.enumerate_twin_starters(base, 2 * part + 1, matrix=matrix))
+        assert all(tw.is_twin_starter(base, s) for s in starters[::997])
+        assert len(set(starters)) == len(starters)
+        counts.add(len(starters))
+    assert counts == {60000}
+
+
+@pytest.mark.parametrize("base, found", [("Z_5", True), ("Z_7", True), ("Z_3 x Z_3", False)])
+def test_exhaustive_mode_settles_plain_spaces(base, found):
+    # K_12 and K_16 have perfect even starters in these spaces, K_20 over Z_3 x Z_3 none
+    # (docs/factorization-search.md, "Small orders"); tiny first runs make the limits double.
+    outcomes = [tw.search_perfect_twin_starter(base, m, exhaustive=True, base_nodes=8)
+                for m in tw.missing_representatives(base)]
+    assert any(r.found for r in outcomes) == found
+    for r in outcomes:
+        assert r.found != r.exhausted
+        if r.found:
+            assert tw.is_perfect_twin_starter(base, r.starter)
+    assert max(r.runs for r in outcomes) > 1
+
+
+def test_matrix_space_names_round_trip():
+    matrix = ((0, 0, 1), (0, 1, 0), (1, 0, 0))
+    name = tw.space_name("Z_3 x Z_3 x Z_3", swapped=False, missing=6, matrix=matrix,
+                         merged=True)
+    assert tw.parse_space(name) == ("Z_3 x Z_3 x Z_3", False, 6, matrix, True)
+    spaces = tw.linear_symmetry_spaces("Z_3 x Z_3 x Z_3")
+    assert len(spaces) == 9 and all(" | m=" in s and "A=[[" in s for s in spaces)
+    assert len(tw.linear_symmetry_spaces("Z_5 x Z_5", merged=True)) == 3

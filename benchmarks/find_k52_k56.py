@@ -5,7 +5,9 @@ Spaces (``scheduler.factorization.twin_point_starters``): even starters over ``Z
 ``Z_3 x Z_9``, ``Z_3 x Z_3 x Z_3``, ``GF(27)``), for every admissible missing element and
 multiplier; with ``--merged`` only the merged class (two starters of ``H`` merged); with
 ``--linear`` the spaces of every matrix symmetry of ``Z_5 x Z_5`` and ``Z_3 x Z_3 x Z_3`` (one per
-conjugacy class of cyclic subgroups of ``GL(d, p)``) instead of the ring's multipliers.
+conjugacy class of cyclic subgroups of ``GL(d, p)``) instead of the ring's multipliers; with
+``--flip`` those of the flips ``x -> a x + m`` (``a`` an involution of ``H`` negating ``m``,
+the two points at infinity exchanged).
 Symmetric spaces run first, to exhaustion (plain depth-first runs with doubling node limits;
 capped random restarts could never settle a space larger than their cap); the plain spaces then
 get seeded restarts until the stop time (a stop time earlier than now is tomorrow's). Each task is
@@ -18,6 +20,7 @@ JSON-ready result, so that a process pool (here) or a distributed engine can map
     python benchmarks/find_k52_k56.py --engine dask --workers 2 --stop 18:30
     python benchmarks/find_k52_k56.py --merged --skip-small --orders 56 --stop 00:25
     nice -n 15 python benchmarks/find_k52_k56.py --linear --merged
+    nice -n 15 python benchmarks/find_k52_k56.py --flip
     python benchmarks/find_k52_k56.py --engine dask --cluster tcp://192.0.2.10:8786
 
 Prints one ``#`` line per task (space, seed, found, exhausted, nodes, seconds, nodes/s), then
@@ -51,14 +54,18 @@ def run_task(order: int, space: str, seed: int, budget: float) -> dict:
     return tw.search_task(order, space, seed, budget)
 
 
-def spaces(order: int, merged: bool = False, linear: bool = False
+def spaces(order: int, merged: bool = False, linear: bool = False, flip: bool = False
            ) -> tuple[list[str], list[str]]:
     """``(symmetric spaces, plain spaces)`` for ``K_order``; ``merged``: the merged class;
     ``linear``: the symmetric spaces are those of a matrix of ``GL(d, p)`` (one per conjugacy
-    class, on the elementary abelian ``H``) instead of the ring's multipliers."""
-    if linear:
-        return [name for base in BASES[order] if base in LINEAR_BASES
-                for name in tw.linear_symmetry_spaces(base, merged=merged)], []
+    class, on the elementary abelian ``H``) instead of the ring's multipliers; ``flip``: those
+    of the flips ``x -> α x + m`` (``α`` an involution negating ``m``)."""
+    if linear or flip:
+        linear_spaces = [name for base in BASES[order] if linear and base in LINEAR_BASES
+                         for name in tw.linear_symmetry_spaces(base, merged=merged)]
+        flip_spaces = [name for base in BASES[order] if flip and not base.startswith("GF")
+                       for name in tw.flip_symmetry_spaces(base, merged=merged)]
+        return linear_spaces + flip_spaces, []
     small, plain = [], []
     for base in BASES[order]:
         for missing in tw.missing_representatives(base):
@@ -157,6 +164,10 @@ def main() -> None:
                         help="the symmetric spaces of every matrix symmetry of Z_5 x Z_5 and "
                         "Z_3 x Z_3 x Z_3 (one per conjugacy class), searched to exhaustion; "
                         "no plain restarts")
+    parser.add_argument("--flip", action="store_true",
+                        help="the symmetric spaces of every flip x -> a x + m (a an involution "
+                        "of H negating m, the points at infinity exchanged), searched to "
+                        "exhaustion; no plain restarts")
     parser.add_argument("--space", action="append", default=[],
                         help="search only this space (repeatable; seeds round-robin)")
     parser.add_argument("--rate", action="store_true")
@@ -172,7 +183,7 @@ def main() -> None:
         order = tw.twin_group(base).order + 2
         plain_tasks += [(order, name, seed, args.task_seconds) for seed in range(args.seeds)]
     for order in [] if args.space else args.orders:
-        small, plain = spaces(order, args.merged, args.linear)
+        small, plain = spaces(order, args.merged, args.linear, args.flip)
         if not args.skip_small:
             tasks += [(order, name, 0, args.small_seconds) for name in small]
         plain_tasks += [(order, name, seed, args.task_seconds)

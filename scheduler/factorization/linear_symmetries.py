@@ -59,7 +59,7 @@ _MAX_ELEMENTS = 20_000  # GL(3, 3) has 11232; GL(2, 5) 480; GL(2, 7) 2016
 @dataclass(frozen=True)
 class LinearSymmetry:
     """One conjugacy class of non-trivial cyclic subgroups of ``GL(d, p)`` that fix a non-zero
-    vector.
+    vector, or (order 2) negate one.
 
     Parameters
     ----------
@@ -74,6 +74,9 @@ class LinearSymmetry:
     missing_parts : tuple of int
         Codes of the fixed non-zero vectors, one per orbit of the normaliser of ``<A>`` (the
         choices of the missing element's part in ``H`` that give different spaces).
+    negated_parts : tuple of int, optional
+        For an involution: codes of the non-zero vectors ``h`` with ``A h = -h``, one per orbit
+        of the normaliser (its centraliser); empty for other orders.
     """
 
     matrix: Matrix
@@ -81,6 +84,7 @@ class LinearSymmetry:
     conjugates: int
     fixed: int
     missing_parts: tuple[int, ...]
+    negated_parts: tuple[int, ...] = ()
 
 
 def elementary_shape(group: AbelianGroup) -> tuple[int, int]:
@@ -192,8 +196,8 @@ def general_linear_group(p: int, d: int) -> np.ndarray:
 
 def linear_symmetry_classes(group: AbelianGroup) -> list[LinearSymmetry]:
     """One :class:`LinearSymmetry` per conjugacy class of non-trivial cyclic subgroups of the
-    automorphism group ``GL(d, p)`` of ``group = Z_p^d`` that fix a non-zero vector, largest
-    order first.
+    automorphism group ``GL(d, p)`` of ``group = Z_p^d`` that fix a non-zero vector or (order 2)
+    negate one, largest order first.
 
     Parameters
     ----------
@@ -208,9 +212,9 @@ def linear_symmetry_classes(group: AbelianGroup) -> list[LinearSymmetry]:
     Examples
     --------
     >>> from scheduler.factorization.groups import group_from_name
-    >>> [(c.order, c.conjugates, c.missing_parts) for c in linear_symmetry_classes(
-    ...     group_from_name("Z_3 x Z_3"))]
-    [(3, 4, (4,)), (2, 12, (4,))]
+    >>> [(c.order, c.conjugates, c.missing_parts, c.negated_parts) for c in
+    ...  linear_symmetry_classes(group_from_name("Z_3 x Z_3"))]
+    [(3, 4, (4,), ()), (2, 12, (4,), (5,)), (2, 1, (), (1,))]
     """
     p, d = elementary_shape(group)
     mats = general_linear_group(p, d)
@@ -248,15 +252,22 @@ def linear_symmetry_classes(group: AbelianGroup) -> list[LinearSymmetry]:
         orbit = {subgroups[j] for j in positions}
         seen |= orbit
         fixed = [c for c in range(1, p ** d) if perms[i][c] == c]
-        if not fixed:
+        negated = ([c for c in range(1, p ** d) if perms[i][c] == group.neg[c]]
+                   if len(subgroups[i]) == 2 else [])
+        if not fixed and not negated:
             continue
         normaliser = [n for n, j in enumerate(positions) if j in subgroups[i]]
-        left, parts = set(fixed), []
-        while left:
-            c = min(left)
-            left -= {int(perms[n][c]) for n in normaliser}
-            parts.append(c)
+
+        def representatives(vectors: list[int], normaliser: list[int] = normaliser) -> tuple:
+            left, parts = set(vectors), []
+            while left:
+                c = min(left)
+                left -= {int(perms[n][c]) for n in normaliser}
+                parts.append(c)
+            return tuple(parts)
+
         classes.append(LinearSymmetry(tuple(tuple(int(v) for v in row) for row in mats[i]),
-                                      len(subgroups[i]), len(orbit), len(fixed), tuple(parts)))
+                                      len(subgroups[i]), len(orbit), len(fixed),
+                                      representatives(fixed), representatives(negated)))
     classes.sort(key=lambda c: (-c.order, c.matrix))
     return classes

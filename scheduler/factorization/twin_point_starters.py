@@ -56,6 +56,20 @@ Two facts computed here (proofs; the tests confirm them on small groups):
   (each edge of ``E`` joins the two elements over one point of ``H``), so it is Hamiltonian under
   the same condition. Two of the ``|G|/2 + 1`` walks are therefore one test.
 
+Symmetries. Besides the ring's multipliers, a space may prescribe any automorphism of ``H``
+given as a matrix when ``H = Z_p^d`` (:mod:`scheduler.factorization.linear_symmetries`); since
+``|Z_2|`` and ``|H|`` are coprime these ``(b, h) -> (b, A h)`` are all the automorphisms of
+``G``. Symmetric spaces are small enough to search to exhaustion (``exhaustive=True``).
+
+Flip symmetries (computed here; we know no publication of them). Let ``α`` be an automorphism
+of ``G`` with ``α m = -m`` and ``φ(x) = α x + m``, and let ``φ`` also exchange ``∞1`` and
+``∞2``. If ``φ(S) = S`` (that is ``α S = S - m``), then ``φ(F_g) = F_{α g}``:
+``{∞1, g} -> {∞2, α g + m}``, ``{∞2, m + g} -> {∞1, α g}`` and ``S + g -> S + α g``; and
+``φ(E) = E`` since ``α t = t``. So ``φ`` is an automorphism of the factorization fixing
+``F_0``, and the walks are again needed for one ``g`` per orbit of ``<g -> -g, α>``. As
+``φ^2(x) = α^2 x``, a flip whose ``α`` is not an involution contains the symmetry ``α^2``,
+which fixes ``m``; only involutions ``α`` give new spaces (:func:`flip_symmetry_spaces`).
+
 Merged class (:func:`is_merged_starter`): every element of ``H`` lies in at most one pair of
 equal parity and one of mixed parity; then each kind, read in ``H``, is a starter of ``H`` or a
 translate of one, and the even starter is two starters of ``H`` merged. The published
@@ -87,6 +101,7 @@ from scheduler.errors import InputError
 from scheduler.factorization.groups import AbelianGroup, group_from_name
 from scheduler.factorization.linear_symmetries import (
     Matrix,
+    elementary_shape,
     linear_permutation,
     linear_symmetry_classes,
 )
@@ -439,6 +454,58 @@ def linear_symmetry_spaces(base: str, *, merged: bool = False) -> list[str]:
             for c in linear_symmetry_classes(G.base) for part in c.missing_parts]
 
 
+def flip_symmetry_spaces(base: str, *, merged: bool = False) -> list[str]:
+    """The space names (:func:`space_name`) of the even starters of ``Z_2 × H`` invariant under
+    a flip ``x -> α x + m`` with ``α`` an involution of ``H`` negating ``m``'s part in ``H``:
+    for ``H = Z_p^d`` one ``α`` per conjugacy class of involutions of ``GL(d, p)`` and ``m`` up
+    to its centraliser; otherwise the ring's units ``u`` with ``u^2 = 1`` and ``m`` up to the
+    units. (A flip whose ``α`` is not an involution has the non-trivial square
+    ``x -> α^2 x`` fixing ``m``, so its space lies inside one of :func:`linear_symmetry_spaces`
+    or of the multiplier spaces.)
+
+    Parameters
+    ----------
+    base : str
+        The name of ``H``, an abelian group of odd order.
+    merged : bool, optional
+        Name the merged class instead of all even starters.
+
+    Returns
+    -------
+    list of str
+        The names, ``+m`` marking the flip.
+
+    Examples
+    --------
+    >>> for name in flip_symmetry_spaces("Z_3 x Z_3"):
+    ...     print(name)
+    Z_2 x Z_3 x Z_3 | kept | m=11 | A=[[0,1],[1,0]]+m
+    Z_2 x Z_3 x Z_3 | kept | m=3 | A=[[2,0],[0,2]]+m
+    """
+    G = twin_group(base)
+    H = G.base
+    parity = missing_parity(H.order)
+    try:
+        elementary_shape(H)
+    except InputError:
+        out = []
+        units = H.units()
+        one = next(e for e in units if (H.mul[e] == np.arange(H.order)).all())
+        for u in units:
+            if u == one or int(H.mul[u, u]) != one:
+                continue
+            negated = {h for h in range(1, H.order) if int(H.mul[u, h]) == int(H.neg[h])}
+            while negated:
+                h = min(negated)
+                negated -= {int(H.mul[v, h]) for v in units}
+                out.append(space_name(base, swapped=False, missing=2 * h + parity,
+                                      multiplier=u, flip=True, merged=merged))
+        return out
+    return [space_name(base, swapped=False, missing=2 * part + parity, matrix=c.matrix,
+                       flip=True, merged=merged)
+            for c in linear_symmetry_classes(H) if c.order == 2 for part in c.negated_parts]
+
+
 def missing_representatives(base: str, *, swapped: bool = False, multiplier: int = 1
                             ) -> list[int]:
     """Missing elements worth trying: one per orbit of the units of ``H`` (acting on the
@@ -484,7 +551,8 @@ def missing_representatives(base: str, *, swapped: bool = False, multiplier: int
 
 
 def enumerate_twin_starters(base: str, missing: int, multiplier: int = 1,
-                            matrix: Matrix | None = None) -> Iterator[tuple[Pair, ...]]:
+                            matrix: Matrix | None = None, flip: bool = False
+                            ) -> Iterator[tuple[Pair, ...]]:
     """Every even starter of ``Z_2 × H`` missing ``missing`` and invariant under the multiplier
     (exhaustive, plain Python; tiny groups only).
 
@@ -502,6 +570,10 @@ def enumerate_twin_starters(base: str, missing: int, multiplier: int = 1,
         For ``H = Z_p^d``: an invertible matrix ``A``; the starter must be invariant under
         ``(b, h) -> (b, A h)`` (:mod:`scheduler.factorization.linear_symmetries`; not together
         with a multiplier).
+    flip : bool, optional
+        The symmetry also translates by the missing element: ``x -> α x + m`` (``α`` the
+        multiplier or matrix, which must then negate ``m``), exchanging the two points at
+        infinity (module docstring, "Flip symmetries").
 
     Yields
     ------
@@ -516,6 +588,8 @@ def enumerate_twin_starters(base: str, missing: int, multiplier: int = 1,
     G = twin_group(base)
     M = G.order
     mu = _symmetry(G, multiplier, matrix)
+    if flip:
+        mu = G.add[mu, missing].astype(np.int64)
     used = [False] * M
     dused = [False] * M
     used[0] = used[missing] = True
@@ -592,6 +666,8 @@ class TwinSearchResult:
         True when the search kept to the merged class (:func:`is_merged_starter`).
     matrix : tuple of tuple of int or None, optional
         The matrix the starter had to be invariant under (None: none).
+    flip : bool, optional
+        True when the symmetry also translated by the missing element.
     """
 
     base: str
@@ -606,6 +682,7 @@ class TwinSearchResult:
     exhausted: bool
     merged: bool = False
     matrix: Matrix | None = None
+    flip: bool = False
 
     @property
     def found(self) -> bool:
@@ -623,6 +700,7 @@ def search_perfect_twin_starter(
     swapped: bool = False,
     multiplier: int = 1,
     matrix: Matrix | None = None,
+    flip: bool = False,
     merged: bool = False,
     seed: int = 0,
     budget: float = 10.0,
@@ -661,6 +739,10 @@ def search_perfect_twin_starter(
         For ``H = Z_p^d``: an invertible matrix ``A``; the starter must be invariant under
         ``(b, h) -> (b, A h)`` (:mod:`scheduler.factorization.linear_symmetries`; not together
         with a multiplier).
+    flip : bool, optional
+        The symmetry also translates by the missing element: ``x -> α x + m`` (``α`` the
+        multiplier or matrix, which must then negate ``m``), exchanging the two points at
+        infinity (module docstring, "Flip symmetries").
     merged : bool, optional
         Keep to the merged class (:func:`is_merged_starter`), the class of the published finds
         at 52 and 56 points.
@@ -704,11 +786,19 @@ def search_perfect_twin_starter(
         raise InputError(f"the time budget must be positive, got {budget!r}", location="budget")
     mu = _symmetry(G, multiplier, matrix)
     parity = missing_parity(G.base.order)
+    image = int(mu[missing]) if 1 < int(missing) < M else -1
     if (not 1 < int(missing) < M or G.par[int(missing)] != parity
-            or (swapped and G.par[int(missing)]) or mu[missing] != missing):
+            or (swapped and G.par[int(missing)])
+            or image != (int(G.neg[missing]) if flip else int(missing))):
         raise InputError(f"missing element {missing!r} is not allowed here (not 0 or t, of the "
                          f"parity that admits even starters, even when the points are swapped, "
-                         f"fixed by the multiplier)", location="missing")
+                         f"fixed by the multiplier, or negated by it for a flip)",
+                         location="missing")
+    if flip and (swapped or (matrix is None and multiplier == 1)):
+        raise InputError("a flip needs a multiplier or a matrix and the points kept",
+                         location="flip")
+    # the kernel follows pairs under the whole symmetry; the walks need only its linear part
+    symmetry = G.add[mu, missing].astype(np.int64) if flip else mu
     from scheduler.factorization._twin_kernel import twin_search_kernel  # numba: lazily
 
     reps = np.array(check_representatives(base, multiplier, matrix), dtype=np.int64)
@@ -722,7 +812,7 @@ def search_perfect_twin_starter(
         if max_nodes is not None:
             limit = max(1, min(limit, max_nodes - nodes))
         status, used = twin_search_kernel(
-            M, G.add, G.neg, mu.astype(np.int64), G.par, 1, int(missing), swapped,
+            M, G.add, G.neg, symmetry.astype(np.int64), G.par, 1, int(missing), swapped,
             bool(merged), reps,
             run_seed(seed, runs, _TWIN_SALT), shuffle and not exhaustive, limit, out)
         nodes += int(used)
@@ -733,7 +823,8 @@ def search_perfect_twin_starter(
             return TwinSearchResult(
                 starter=starter, exhausted=exhausted, base=base, swapped=swapped,
                 missing=int(missing), multiplier=multiplier, seed=seed, runs=runs,
-                nodes=nodes, seconds=elapsed, merged=bool(merged), matrix=_matrix_tuple(matrix))
+                nodes=nodes, seconds=elapsed, merged=bool(merged), matrix=_matrix_tuple(matrix),
+                flip=bool(flip))
 
         if status == 1:
             starter = tuple(sorted((int(min(a, b)), int(max(a, b))) for a, b in out))
@@ -905,7 +996,7 @@ def search_task(order: int, space: str, seed: int, budget: float) -> dict:
     InputError
         For an unknown space or one of another order.
     """
-    base, swapped, missing, symmetry, merged = parse_space(space)
+    base, swapped, missing, symmetry, merged, flip = parse_space(space)
     G = twin_group(base)
     if G.order + 2 != order:
         raise InputError(f"space {space!r} gives K_{G.order + 2}, not K_{order}",
@@ -913,7 +1004,8 @@ def search_task(order: int, space: str, seed: int, budget: float) -> dict:
     matrix = symmetry if isinstance(symmetry, tuple) else None
     multiplier = symmetry if isinstance(symmetry, int) else 1
     res = search_perfect_twin_starter(base, missing, swapped=swapped, multiplier=multiplier,
-                                      matrix=matrix, merged=merged, seed=seed, budget=budget,
+                                      matrix=matrix, flip=flip, merged=merged, seed=seed,
+                                      budget=budget,
                                       exhaustive=matrix is not None or multiplier != 1)
     return {"order": order, "space": space, "seed": seed, "found": res.found,
             "exhausted": res.exhausted, "runs": res.runs, "nodes": res.nodes,
@@ -922,10 +1014,10 @@ def search_task(order: int, space: str, seed: int, budget: float) -> dict:
 
 
 def space_name(base: str, *, swapped: bool, missing: int, multiplier: int = 1,
-               matrix: Matrix | None = None, merged: bool = False) -> str:
-    """``"Z_2 x <H> | <kind> | m=<m> | u=<u>"`` (or ``A=<rows>`` for a matrix), read back by
-    :func:`parse_space`; the kind is ``kept``, ``swapped`` or ``merged`` (kept points, merged
-    class).
+               matrix: Matrix | None = None, flip: bool = False, merged: bool = False) -> str:
+    """``"Z_2 x <H> | <kind> | m=<m> | u=<u>"`` (or ``A=<rows>`` for a matrix; ``+m`` after it
+    for a flip), read back by :func:`parse_space`; the kind is ``kept``, ``swapped`` or
+    ``merged`` (kept points, merged class).
 
     Parameters
     ----------
@@ -943,6 +1035,10 @@ def space_name(base: str, *, swapped: bool, missing: int, multiplier: int = 1,
         For ``H = Z_p^d``: an invertible matrix ``A``; the starter must be invariant under
         ``(b, h) -> (b, A h)`` (:mod:`scheduler.factorization.linear_symmetries`; not together
         with a multiplier).
+    flip : bool, optional
+        The symmetry also translates by the missing element: ``x -> α x + m`` (``α`` the
+        multiplier or matrix, which must then negate ``m``), exchanging the two points at
+        infinity (module docstring, "Flip symmetries").
     merged : bool, optional
         The merged class (:func:`is_merged_starter`; kept points only).
 
@@ -966,15 +1062,16 @@ def space_name(base: str, *, swapped: bool, missing: int, multiplier: int = 1,
     if merged and swapped:
         raise InputError("the merged class is searched with the points kept", location="space")
     kind = "swapped" if swapped else "merged" if merged else "kept"
+    plus = "+m" if flip else ""
     if matrix is not None:
         rows = ",".join("[" + ",".join(str(int(v)) for v in row) + "]" for row in matrix)
-        return f"Z_2 x {base} | {kind} | m={missing} | A=[{rows}]"
-    return f"Z_2 x {base} | {kind} | m={missing} | u={multiplier}"
+        return f"Z_2 x {base} | {kind} | m={missing} | A=[{rows}]{plus}"
+    return f"Z_2 x {base} | {kind} | m={missing} | u={multiplier}{plus}"
 
 
-def parse_space(space: str) -> tuple[str, bool, int, int | Matrix, bool]:
-    """``(base, swapped, missing, symmetry, merged)`` from a :func:`space_name` string; the
-    symmetry is the multiplier ``u`` (an int, 1 for none) or the matrix (a tuple of rows).
+def parse_space(space: str) -> tuple[str, bool, int, int | Matrix, bool, bool]:
+    """``(base, swapped, missing, symmetry, merged, flip)`` from a :func:`space_name` string;
+    the symmetry is the multiplier ``u`` (an int, 1 for none) or the matrix (a tuple of rows).
 
     Parameters
     ----------
@@ -983,8 +1080,8 @@ def parse_space(space: str) -> tuple[str, bool, int, int | Matrix, bool]:
 
     Returns
     -------
-    tuple of (str, bool, int, int or Matrix, bool)
-        ``(base, swapped, missing, symmetry, merged)``.
+    tuple of (str, bool, int, int or Matrix, bool, bool)
+        ``(base, swapped, missing, symmetry, merged, flip)``.
 
     Raises
     ------
@@ -994,17 +1091,21 @@ def parse_space(space: str) -> tuple[str, bool, int, int | Matrix, bool]:
     Examples
     --------
     >>> parse_space("Z_2 x Z_25 | kept | m=3 | u=7")
-    ('Z_25', False, 3, 7, False)
+    ('Z_25', False, 3, 7, False, False)
     >>> parse_space("Z_2 x Z_27 | merged | m=2 | u=1")
-    ('Z_27', False, 2, 1, True)
+    ('Z_27', False, 2, 1, True, False)
     >>> parse_space("Z_2 x Z_5 x Z_5 | merged | m=13 | A=[[0,1],[1,0]]")
-    ('Z_5 x Z_5', False, 13, ((0, 1), (1, 0)), True)
+    ('Z_5 x Z_5', False, 13, ((0, 1), (1, 0)), True, False)
+    >>> parse_space("Z_2 x Z_5 x Z_5 | kept | m=11 | A=[[1,0],[0,4]]+m")[3:]
+    (((1, 0), (0, 4)), False, True)
     """
     try:
         group, kind, mis, sym = (part.strip() for part in space.split("|"))
         if not group.startswith("Z_2 x ") or kind not in ("kept", "swapped", "merged"):
             raise ValueError(space)
         symmetry: int | Matrix
+        flip = sym.endswith("+m")
+        sym = sym.removesuffix("+m")
         if sym.startswith("A="):
             rows = json.loads(sym.removeprefix("A="))
             if not isinstance(rows, list) or not all(
@@ -1015,6 +1116,6 @@ def parse_space(space: str) -> tuple[str, bool, int, int | Matrix, bool]:
         else:
             symmetry = int(sym.removeprefix("u="))
         return (group[len("Z_2 x "):], kind == "swapped", int(mis.removeprefix("m=")),
-                symmetry, kind == "merged")
+                symmetry, kind == "merged", flip)
     except ValueError:
         raise InputError(f"unknown search space {space!r}", location="space") from None

@@ -77,10 +77,15 @@ def test_subgroup_classes_are_consistent(base):
             power, k = perm[power], k + 1
         assert k == c.order
         # a fixed space of dimension f has p^f - 1 non-zero vectors
-        assert c.fixed + 1 in {p ** f for f in range(1, d)}
-    # the classes found in Z_5 x Z_5: unipotent (order 5), diag(1, 2) (order 4), diag(1, -1)
+        assert c.fixed + 1 in {p ** f for f in range(d)}
+        negated = [x for x in range(1, group.order) if perm[x] == group.neg[x]]
+        assert set(c.negated_parts) <= set(negated) and bool(c.negated_parts) == (
+            c.order == 2 and bool(negated))
+        assert c.missing_parts or c.negated_parts
+    # the classes found in Z_5 x Z_5: unipotent (order 5), diag(1, 2) (order 4), diag(1, -1),
     if base == "Z_5 x Z_5":
-        assert [(c.order, c.conjugates) for c in classes] == [(5, 6), (4, 30), (2, 30)]
+        # and -1 (order 2, central), which negates every vector
+        assert [(c.order, c.conjugates) for c in classes] == [(5, 6), (4, 30), (2, 30), (2, 1)]
 
 
 def test_codes_follow_the_digit_numbering():
@@ -120,7 +125,7 @@ def test_matrix_spaces_of_z3_squared():
     base = "Z_3 x Z_3"
     G = tw.twin_group(base)
     for name in tw.linear_symmetry_spaces(base):
-        _, _, m, matrix, _ = tw.parse_space(name)
+        _, _, m, matrix, _, _ = tw.parse_space(name)
         assert isinstance(matrix, tuple)
         perm = linear_permutation(G.base, matrix)
         mu = 2 * perm[np.arange(G.order) // 2] + np.arange(G.order) % 2
@@ -166,7 +171,81 @@ def test_matrix_space_names_round_trip():
     matrix = ((0, 0, 1), (0, 1, 0), (1, 0, 0))
     name = tw.space_name("Z_3 x Z_3 x Z_3", swapped=False, missing=6, matrix=matrix,
                          merged=True)
-    assert tw.parse_space(name) == ("Z_3 x Z_3 x Z_3", False, 6, matrix, True)
+    assert tw.parse_space(name) == ("Z_3 x Z_3 x Z_3", False, 6, matrix, True, False)
     spaces = tw.linear_symmetry_spaces("Z_3 x Z_3 x Z_3")
     assert len(spaces) == 9 and all(" | m=" in s and "A=[[" in s for s in spaces)
     assert len(tw.linear_symmetry_spaces("Z_5 x Z_5", merged=True)) == 3
+
+
+def _flip(G, alpha, m):
+    """``x -> α x + m`` on the codes of ``G`` (``alpha`` a permutation of ``G``'s codes)."""
+    return G.add[alpha, m]
+
+
+@pytest.mark.parametrize("base", ["Z_5", "Z_9", "Z_3 x Z_3", "Z_5 x Z_5"])
+def test_flip_maps_rounds_onto_rounds(base):
+    # The identity behind the flip spaces (module docstring of twin_point_starters): if a set S
+    # of pairs satisfies φ(S) = S for φ(x) = α x + m with α m = -m, then φ, exchanging the two
+    # points at infinity, maps F_g = {∞1 g} ∪ {∞2 m+g} ∪ (S + g) onto F_{α g}. It uses nothing
+    # of the starter property, so random φ-invariant sets of disjoint pairs test it.
+    G = tw.twin_group(base)
+    M = G.order
+    rng = np.random.default_rng(7)
+    for name in tw.flip_symmetry_spaces(base):
+        _, _, m, symmetry, _, flip = tw.parse_space(name)
+        assert flip
+        alpha = tw._symmetry(G, **({"matrix": symmetry} if isinstance(symmetry, tuple)
+                                   else {"multiplier": symmetry}))
+        assert alpha[m] == G.neg[m]
+        phi = _flip(G, alpha, m)
+        assert phi[0] == m and phi[m] == 0 and (phi[phi] == np.arange(M)).all()
+        free = set(range(1, M)) - {m}
+        pairs = set()
+        for x in rng.permutation(sorted(free)):
+            y = int(rng.choice(sorted(free))) if free else None
+            if x not in free or y is None or y == x or not {int(phi[x]), int(phi[y])} <= free:
+                continue
+            if {int(phi[x]), int(phi[y])} & {x, y} and {int(phi[x]), int(phi[y])} != {x, y}:
+                continue
+            for a, b in {(x, y), (int(phi[x]), int(phi[y]))}:
+                pairs.add((min(a, b), max(a, b)))
+                free -= {a, b}
+        assert pairs and {tuple(sorted((int(phi[a]), int(phi[b])))) for a, b in pairs} == pairs
+        for g in range(M):
+            moved = {frozenset(M + 1 - (v - M) if v >= M else int(phi[v]) for v in edge)
+                     for edge in _round(G, m, pairs, g)}
+            assert moved == _round(G, m, pairs, int(alpha[g]))
+
+
+def _round(G, m, pairs, g):
+    """``F_g = {∞1 g} ∪ {∞2 m+g} ∪ (pairs + g)`` as a set of edges (``∞1 = |G|``,
+    ``∞2 = |G| + 1``)."""
+    M = G.order
+    edges = {(M, g), (M + 1, int(G.add[m, g]))}
+    edges |= {(int(G.add[a, g]), int(G.add[b, g])) for a, b in pairs}
+    return {frozenset(e) for e in edges}
+
+
+@pytest.mark.parametrize("base", ["Z_5", "Z_7", "Z_9", "Z_3 x Z_3", "Z_11"])
+def test_flip_spaces_kernel_agrees_with_enumeration(base):
+    for name in tw.flip_symmetry_spaces(base):
+        _, _, m, symmetry, _, _ = tw.parse_space(name)
+        kw = {"matrix": symmetry} if isinstance(symmetry, tuple) else {"multiplier": symmetry}
+        starters = list(tw.enumerate_twin_starters(base, m, flip=True, **kw))
+        perfect = [s for s in starters if tw.is_perfect_twin_starter(base, s)]
+        res = tw.search_perfect_twin_starter(base, m, flip=True, exhaustive=True, **kw)
+        assert res.found == bool(perfect) and res.exhausted == (not perfect)
+        assert res.flip
+
+
+def test_flip_spaces_and_bad_flips():
+    assert tw.flip_symmetry_spaces("Z_25") == ["Z_2 x Z_25 | kept | m=3 | u=24+m",
+                                               "Z_2 x Z_25 | kept | m=11 | u=24+m"]
+    name = tw.flip_symmetry_spaces("Z_5 x Z_5")[0]
+    base, swapped, m, matrix, merged, flip = tw.parse_space(name)
+    assert tw.space_name(base, swapped=swapped, missing=m, matrix=matrix, merged=merged,
+                         flip=flip) == name
+    with pytest.raises(InputError):  # the flip's α must negate m, not fix it
+        tw.search_perfect_twin_starter("Z_5 x Z_5", 13, matrix=((0, 1), (1, 0)), flip=True)
+    with pytest.raises(InputError):  # a flip needs a symmetry
+        tw.search_perfect_twin_starter("Z_25", 3, flip=True)

@@ -176,7 +176,7 @@ def test_search_finds_perfect_factorizations(base, n):
 
 def test_task_function_is_picklable_and_bounded():
     space = tw.space_name("Z_13", swapped=False, missing=3)
-    assert tw.parse_space(space) == ("Z_13", False, 3, 1, False)
+    assert tw.parse_space(space) == ("Z_13", False, 3, 1, False, False)
     task = pickle.loads(pickle.dumps(tw.search_task))
     out = task(28, space, 0, 30.0)
     assert pickle.loads(pickle.dumps(out)) == out
@@ -297,7 +297,7 @@ def G_order(base: str) -> int:
 def test_merged_space_names():
     name = tw.space_name("Z_27", swapped=False, missing=2, merged=True)
     assert name == "Z_2 x Z_27 | merged | m=2 | u=1"
-    assert tw.parse_space(name) == ("Z_27", False, 2, 1, True)
+    assert tw.parse_space(name) == ("Z_27", False, 2, 1, True, False)
     with pytest.raises(InputError):
         tw.space_name("Z_27", swapped=True, missing=2, merged=True)
     out = tw.search_task(20, "Z_2 x Z_9 | merged | m=3 | u=1", 0, 20.0)

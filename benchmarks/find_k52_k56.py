@@ -4,8 +4,9 @@ Spaces (``scheduler.factorization.twin_point_starters``): even starters over ``Z
 ``|H| = 25`` (K_52: ``Z_25``, ``Z_5 x Z_5``, ``GF(25)``) or ``|H| = 27`` (K_56: ``Z_27``,
 ``Z_3 x Z_9``, ``Z_3 x Z_3 x Z_3``, ``GF(27)``), for every admissible missing element and
 multiplier; with ``--merged`` only the merged class (two starters of ``H`` merged); with
-``--linear`` the spaces of every matrix symmetry of ``Z_5 x Z_5`` and ``Z_3 x Z_3 x Z_3`` (one per
-conjugacy class of cyclic subgroups of ``GL(d, p)``) instead of the ring's multipliers; with
+``--linear`` the spaces of every automorphism of ``H`` as a matrix (one per conjugacy class of
+cyclic subgroups; ``GL(d, p)`` for ``Z_5 x Z_5`` and ``Z_3 x Z_3 x Z_3``) instead of the ring's
+multipliers; with
 ``--flip`` those of the flips ``x -> a x + m`` (``a`` an involution of ``H`` negating ``m``,
 the two points at infinity exchanged).
 Symmetric spaces run first, to exhaustion (plain depth-first runs with doubling node limits;
@@ -45,8 +46,8 @@ from scheduler.factorization import twin_point_starters as tw
 
 BASES = {52: ["GF(25)", "Z_25", "Z_5 x Z_5"],
          56: ["GF(27)", "Z_27", "Z_3 x Z_9", "Z_3 x Z_3 x Z_3"]}
-# GF(q) and Z_p^d are the same group with the same codes, so their matrix spaces coincide
-LINEAR_BASES = ("Z_5 x Z_5", "Z_3 x Z_3 x Z_3")
+# GF(q) and Z_p^d are the same group with the same codes, so their symmetric spaces coincide
+SYMMETRY_BASES = {52: ["Z_25", "Z_5 x Z_5"], 56: ["Z_27", "Z_3 x Z_9", "Z_3 x Z_3 x Z_3"]}
 
 
 def run_task(order: int, space: str, seed: int, budget: float) -> dict:
@@ -57,13 +58,13 @@ def run_task(order: int, space: str, seed: int, budget: float) -> dict:
 def spaces(order: int, merged: bool = False, linear: bool = False, flip: bool = False
            ) -> tuple[list[str], list[str]]:
     """``(symmetric spaces, plain spaces)`` for ``K_order``; ``merged``: the merged class;
-    ``linear``: the symmetric spaces are those of a matrix of ``GL(d, p)`` (one per conjugacy
-    class, on the elementary abelian ``H``) instead of the ring's multipliers; ``flip``: those
+    ``linear``: the symmetric spaces are those of every automorphism of ``H`` as a matrix (one
+    per conjugacy class of cyclic subgroups) instead of the ring's multipliers; ``flip``: those
     of the flips ``x -> α x + m`` (``α`` an involution negating ``m``)."""
     if linear or flip:
-        linear_spaces = [name for base in BASES[order] if linear and base in LINEAR_BASES
+        linear_spaces = [name for base in SYMMETRY_BASES[order] if linear
                          for name in tw.linear_symmetry_spaces(base, merged=merged)]
-        flip_spaces = [name for base in BASES[order] if flip and not base.startswith("GF")
+        flip_spaces = [name for base in SYMMETRY_BASES[order] if flip
                        for name in tw.flip_symmetry_spaces(base, merged=merged)]
         return linear_spaces + flip_spaces, []
     small, plain = [], []
@@ -161,9 +162,9 @@ def main() -> None:
                         help="search the merged class (two starters of H merged, the class of "
                         "the published finds)")
     parser.add_argument("--linear", action="store_true",
-                        help="the symmetric spaces of every matrix symmetry of Z_5 x Z_5 and "
-                        "Z_3 x Z_3 x Z_3 (one per conjugacy class), searched to exhaustion; "
-                        "no plain restarts")
+                        help="the symmetric spaces of every automorphism of H as a matrix (one "
+                        "per conjugacy class of cyclic subgroups), searched to exhaustion; no "
+                        "plain restarts")
     parser.add_argument("--flip", action="store_true",
                         help="the symmetric spaces of every flip x -> a x + m (a an involution "
                         "of H negating m, the points at infinity exchanged), searched to "

@@ -1,5 +1,5 @@
-"""Automorphisms of the elementary abelian groups ``Z_p^d`` as matrices, and one cyclic group of
-automorphisms per conjugacy class, for searches that prescribe a symmetry.
+"""Automorphisms of small abelian groups ``Z_{n_1} × ... × Z_{n_k}`` as matrices, and one
+cyclic group of automorphisms per conjugacy class, for searches that prescribe a symmetry.
 
 Why. A starter-type search may require its starter to be invariant under an automorphism ``A``
 of the group ``H`` (then ``A`` is an automorphism of the one-factorization as well, and the
@@ -8,7 +8,10 @@ multiplication by a unit, which :mod:`scheduler.factorization.twin_point_starter
 offers as a *multiplier*; for ``H = Z_p^d`` the automorphisms form the much larger group
 ``GL(d, p)`` of invertible matrices, of which the ring units of ``Z_p × ... × Z_p`` or
 ``GF(p^d)`` are a small part (``(p - 1)^d`` diagonal matrices or ``p^d - 1`` field
-multiplications).
+multiplications); for ``Z_3 × Z_9`` the 108 automorphisms include shears such as
+``(x, y) -> (x + y, y)`` that no ring unit gives. An automorphism maps the generator ``e_j`` of
+the ``j``-th factor to ``sum_i A_ij e_i``, which is well defined exactly when ``n_i`` divides
+``A_ij n_j``.
 
 Only the cyclic subgroup ``<A>`` matters (a starter invariant under ``A`` is invariant under
 every power), and conjugate subgroups give isomorphic spaces: if ``S`` is invariant under ``A``
@@ -17,10 +20,10 @@ generator per conjugacy class of cyclic subgroups is searched, and the missing e
 ``H`` (a non-zero vector fixed by ``A``, since the symmetry must fix the missing element) is taken
 up to the normaliser of ``<A>``, which maps the fixed vectors of ``A`` onto themselves.
 
-Codes. ``Z_p^d`` is numbered as :func:`scheduler.factorization.groups.product` and
-:func:`~scheduler.factorization.groups.galois_field` number it: the code of the vector
-``(x_0, ..., x_{d-1})`` is ``x_0 + x_1 p + ... + x_{d-1} p^(d-1)`` (both add digit by digit
-modulo ``p``), and ``A`` maps the column vector ``x`` to ``A x``.
+Codes. Groups are numbered as :mod:`scheduler.factorization.groups` numbers them: the code of
+``(x_1, ..., x_k)`` is ``x_1 + x_2 n_1 + x_3 n_1 n_2 + ...`` (first factor least significant;
+a Galois field's additive group is numbered like ``Z_p^d``), and ``A`` maps the column ``x`` to
+``A x`` with row ``i`` read modulo ``n_i``.
 
 References
 ----------
@@ -58,13 +61,13 @@ _MAX_ELEMENTS = 20_000  # GL(3, 3) has 11232; GL(2, 5) 480; GL(2, 7) 2016
 
 @dataclass(frozen=True)
 class LinearSymmetry:
-    """One conjugacy class of non-trivial cyclic subgroups of ``GL(d, p)`` that fix a non-zero
-    vector, or (order 2) negate one.
+    """One conjugacy class of non-trivial cyclic subgroups of the automorphism group of ``H``
+    (``GL(d, p)`` for ``Z_p^d``) that fix a non-zero element, or (order 2) negate one.
 
     Parameters
     ----------
     matrix : Matrix
-        A generator ``A`` of one subgroup of the class (rows of integers modulo ``p``).
+        A generator ``A`` of one subgroup of the class (row ``i`` modulo ``n_i``).
     order : int
         The order of ``A``.
     conjugates : int
@@ -87,84 +90,107 @@ class LinearSymmetry:
     negated_parts: tuple[int, ...] = ()
 
 
-def elementary_shape(group: AbelianGroup) -> tuple[int, int]:
-    """``(p, d)`` when ``group`` is ``Z_p^d`` numbered digit by digit (a product of equal prime
-    moduli or a Galois field), else an error.
-
-    Parameters
-    ----------
-    group : AbelianGroup
-        The group.
-
-    Returns
-    -------
-    tuple of (int, int)
-        The prime ``p`` and the dimension ``d``.
-
-    Raises
-    ------
-    InputError
-        For a group that is not elementary abelian with the digit numbering.
-
-    Examples
-    --------
-    >>> from scheduler.factorization.groups import group_from_name
-    >>> elementary_shape(group_from_name("Z_3 x Z_3 x Z_3"))
-    (3, 3)
-    >>> elementary_shape(group_from_name("GF(25)"))
-    (5, 2)
-    """
-    moduli = group.moduli
-    p = moduli[0]
-    if len(set(moduli)) != 1 or any(p % q == 0 for q in range(2, int(p ** 0.5) + 1)):
-        raise InputError(f"{group.name} is not an elementary abelian group Z_p^d; its "
-                         f"automorphisms are not matrices here", location="group")
-    return p, len(moduli)
+def _digits(moduli: tuple[int, ...]) -> np.ndarray:
+    """``(m, k)``: the digits of every code, first modulus least significant."""
+    codes = np.arange(int(np.prod(moduli)))
+    places = np.cumprod((1, *moduli[:-1]))
+    return np.stack([(codes // places[i]) % n for i, n in enumerate(moduli)], axis=1)
 
 
-def _digits(p: int, d: int) -> np.ndarray:
-    codes = np.arange(p ** d)
-    return np.stack([(codes // p ** i) % p for i in range(d)], axis=1)
+def _images(moduli: tuple[int, ...], mats: np.ndarray) -> np.ndarray:
+    """``(N, m)``: the code of ``A x`` for every matrix ``A`` of ``mats`` and every code ``x``
+    (row ``i`` of the product read modulo ``moduli[i]``)."""
+    mod = np.array(moduli, dtype=np.int64)
+    places = np.cumprod((1, *moduli[:-1])).astype(np.int64)
+    image = np.einsum("nij,vj->nvi", mats, _digits(moduli)) % mod
+    return (image * places).sum(axis=2)
+
+
+def _well_defined(moduli: tuple[int, ...], matrix: np.ndarray) -> bool:
+    """Is ``x -> A x`` well defined on ``Z_{n_1} × ... × Z_{n_k}``: ``n_i | A_ij n_j``?"""
+    return all((int(matrix[i, j]) * nj) % ni == 0
+               for i, ni in enumerate(moduli) for j, nj in enumerate(moduli))
 
 
 def linear_permutation(group: AbelianGroup, matrix: Matrix) -> np.ndarray:
-    """The automorphism ``x -> A x`` of ``group = Z_p^d`` as a permutation of its codes.
+    """The automorphism ``x -> A x`` of ``group = Z_{n_1} × ... × Z_{n_k}`` as a permutation of
+    its codes (``(A x)_i = sum_j A_ij x_j`` modulo ``n_i``).
 
     Parameters
     ----------
     group : AbelianGroup
-        An elementary abelian group (:func:`elementary_shape`).
+        The group, numbered digit by digit (:mod:`scheduler.factorization.groups`).
     matrix : Matrix
-        A ``d × d`` matrix of integers, read modulo ``p``; it must be invertible.
+        A ``k × k`` matrix of integers; it must give a well-defined bijection
+        (``n_i`` divides ``A_ij n_j``; for ``Z_p^d`` any invertible matrix modulo ``p``).
 
     Returns
     -------
     numpy.ndarray
-        ``perm[c]`` is the code of ``A x`` for the vector ``x`` of code ``c``.
+        ``perm[c]`` is the code of ``A x`` for the element ``x`` of code ``c``.
 
     Raises
     ------
     InputError
-        For a matrix of the wrong shape or a singular one.
+        For a matrix of the wrong shape, one that is not well defined or a singular one.
     """
-    p, d = elementary_shape(group)
+    moduli = tuple(int(n) for n in group.moduli)
+    k = len(moduli)
     try:
-        A = np.array(matrix, dtype=np.int64) % p
+        A = np.array(matrix, dtype=np.int64)
     except (TypeError, ValueError):
-        raise InputError(f"the matrix must be {d} rows of {d} integers, got {matrix!r}",
+        raise InputError(f"the matrix must be {k} rows of {k} integers, got {matrix!r}",
                          location="matrix") from None
-    if A.shape != (d, d):
-        raise InputError(f"the matrix must be {d} rows of {d} integers, got {matrix!r}",
+    if A.shape != (k, k):
+        raise InputError(f"the matrix must be {k} rows of {k} integers, got {matrix!r}",
                          location="matrix")
-    image = (_digits(p, d) @ A.T) % p
-    perm = (image * p ** np.arange(d)).sum(axis=1).astype(np.int64)
-    if len(set(perm.tolist())) != p ** d:
-        raise InputError(f"the matrix {matrix!r} is singular modulo {p}", location="matrix")
+    if not _well_defined(moduli, A):
+        raise InputError(f"the matrix {matrix!r} is not a map of {group.name}",
+                         location="matrix")
+    perm = _images(moduli, A[None])[0].astype(np.int64)
+    if len(set(perm.tolist())) != group.order:
+        raise InputError(f"the matrix {matrix!r} is singular on {group.name}",
+                         location="matrix")
     return perm
 
 
+def automorphism_matrices(moduli: tuple[int, ...]) -> np.ndarray:
+    """Every automorphism of ``Z_{n_1} × ... × Z_{n_k}`` as a matrix (entry ``A_ij`` reduced
+    modulo ``n_i``), an array of shape ``(N, k, k)``.
+
+    Parameters
+    ----------
+    moduli : tuple of int
+        The orders ``n_i`` of the cyclic factors (small groups only: the candidate matrices are
+        listed).
+
+    Returns
+    -------
+    numpy.ndarray
+        The matrices in lexicographic order of their entries.
+
+    Examples
+    --------
+    >>> len(automorphism_matrices((25,))), len(automorphism_matrices((3, 9)))
+    (20, 108)
+    """
+    moduli = tuple(int(n) for n in moduli)
+    k = len(moduli)
+    choices = [[a for a in range(moduli[i]) if (a * moduli[j]) % moduli[i] == 0]
+               for i in range(k) for j in range(k)]
+    if np.prod([len(c) for c in choices], dtype=float) > 50 * _MAX_ELEMENTS:
+        raise InputError(f"the automorphisms of Z_{moduli} are too many to list here",
+                         location="group")
+    mats = np.array(list(itertools.product(*choices)), dtype=np.int64).reshape(-1, k, k)
+    order = int(np.prod(moduli))
+    codes = _images(moduli, mats)
+    bijective = np.array([len(np.unique(row)) == order for row in codes])
+    return mats[bijective]
+
+
 def general_linear_group(p: int, d: int) -> np.ndarray:
-    """Every invertible ``d × d`` matrix over ``Z_p``, as an array of shape ``(N, d, d)``.
+    """Every invertible ``d × d`` matrix over ``Z_p``: the automorphisms of ``Z_p^d``
+    (:func:`automorphism_matrices`), an array of shape ``(N, d, d)``.
 
     Parameters
     ----------
@@ -183,26 +209,18 @@ def general_linear_group(p: int, d: int) -> np.ndarray:
     >>> len(general_linear_group(2, 2)), len(general_linear_group(5, 2))
     (6, 480)
     """
-    if p ** (d * d) > 50 * _MAX_ELEMENTS:
-        raise InputError(f"GL({d}, {p}) is too large to list here", location="group")
-    mats = np.array(list(itertools.product(range(p), repeat=d * d)),
-                    dtype=np.int64).reshape(-1, d, d)
-    # the images of the basis vectors span Z_p^d exactly when all p^d vectors are distinct
-    images = np.einsum("nij,vj->nvi", mats, _digits(p, d)) % p
-    codes = (images * p ** np.arange(d)).sum(axis=2)
-    invertible = np.array([len(np.unique(row)) == p ** d for row in codes])
-    return mats[invertible]
+    return automorphism_matrices((p,) * d)
 
 
 def linear_symmetry_classes(group: AbelianGroup) -> list[LinearSymmetry]:
     """One :class:`LinearSymmetry` per conjugacy class of non-trivial cyclic subgroups of the
-    automorphism group ``GL(d, p)`` of ``group = Z_p^d`` that fix a non-zero vector or (order 2)
-    negate one, largest order first.
+    automorphism group of ``group`` (``GL(d, p)`` for ``Z_p^d``) that fix a non-zero element or
+    (order 2) negate one, largest order first.
 
     Parameters
     ----------
     group : AbelianGroup
-        An elementary abelian group (:func:`elementary_shape`).
+        A small abelian group (its automorphisms are listed, :func:`automorphism_matrices`).
 
     Returns
     -------
@@ -216,43 +234,33 @@ def linear_symmetry_classes(group: AbelianGroup) -> list[LinearSymmetry]:
     ...  linear_symmetry_classes(group_from_name("Z_3 x Z_3"))]
     [(3, 4, (4,), ()), (2, 12, (4,), (5,)), (2, 1, (), (1,))]
     """
-    p, d = elementary_shape(group)
-    mats = general_linear_group(p, d)
-    weights = p ** np.arange(d * d)
-    index = {int(k): i for i, k in enumerate((mats.reshape(len(mats), -1) * weights).sum(1))}
-
-    def position(m: np.ndarray) -> int:
-        return index[int((m.reshape(-1) % p * weights).sum())]
-
-    identity = position(np.eye(d, dtype=np.int64))
-    perms = np.array([linear_permutation(group, tuple(map(tuple, m))) for m in mats])
-    inverse = np.empty(len(mats), dtype=np.int64)
-    for i, perm in enumerate(perms):
-        inv = np.empty_like(perm)
-        inv[perm] = np.arange(len(perm))
-        # the inverse matrix: its columns are the preimages of the basis vectors
-        columns = [_digits(p, d)[inv[p ** j]] for j in range(d)]
-        inverse[i] = position(np.stack(columns, axis=1))
+    mats = automorphism_matrices(tuple(int(n) for n in group.moduli))
+    perms = _images(tuple(int(n) for n in group.moduli), mats).astype(np.int64)
+    m = group.order
+    index = {perm.tobytes(): i for i, perm in enumerate(perms)}
+    identity = index[np.arange(m, dtype=np.int64).tobytes()]
+    inverses = np.argsort(perms, axis=1)
 
     def subgroup(i: int) -> frozenset[int]:
-        out, power = [identity], mats[i]
-        while (j := position(power)) != identity:
+        out, power = [identity], perms[i]
+        while (j := index[power.tobytes()]) != identity:
             out.append(j)
-            power = (power @ mats[i]) % p
+            power = perms[i][power]
         return frozenset(out)
 
-    subgroups = [subgroup(i) for i in range(len(mats))]
+    subgroups = [subgroup(i) for i in range(len(perms))]
     seen: set[frozenset[int]] = set()
     classes = []
-    for i in range(len(mats)):
+    for i in range(len(perms)):
         if i == identity or subgroups[i] in seen:
             continue
-        conjugate = np.einsum("nij,jk,nkl->nil", mats, mats[i], mats[inverse]) % p
-        positions = [position(c) for c in conjugate]
+        # P A P^-1 for every automorphism P, as permutations: x -> P(A(P^-1 x))
+        conjugate = np.take_along_axis(perms, perms[i][inverses], axis=1)
+        positions = [index[c.tobytes()] for c in conjugate]
         orbit = {subgroups[j] for j in positions}
         seen |= orbit
-        fixed = [c for c in range(1, p ** d) if perms[i][c] == c]
-        negated = ([c for c in range(1, p ** d) if perms[i][c] == group.neg[c]]
+        fixed = [c for c in range(1, m) if perms[i][c] == c]
+        negated = ([c for c in range(1, m) if perms[i][c] == group.neg[c]]
                    if len(subgroups[i]) == 2 else [])
         if not fixed and not negated:
             continue

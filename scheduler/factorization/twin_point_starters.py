@@ -57,9 +57,10 @@ Two facts computed here (proofs; the tests confirm them on small groups):
   the same condition. Two of the ``|G|/2 + 1`` walks are therefore one test.
 
 Symmetries. Besides the ring's multipliers, a space may prescribe any automorphism of ``H``
-given as a matrix when ``H = Z_p^d`` (:mod:`scheduler.factorization.linear_symmetries`); since
-``|Z_2|`` and ``|H|`` are coprime these ``(b, h) -> (b, A h)`` are all the automorphisms of
-``G``. Symmetric spaces are small enough to search to exhaustion (``exhaustive=True``).
+given as a matrix on its cyclic factors (:mod:`scheduler.factorization.linear_symmetries`;
+``GL(d, p)`` when ``H = Z_p^d``); since ``|Z_2|`` and ``|H|`` are coprime these
+``(b, h) -> (b, A h)`` are all the automorphisms of ``G``. Symmetric spaces are small enough
+to search to exhaustion (``exhaustive=True``).
 
 Flip symmetries (computed here; we know no publication of them). Let ``α`` be an automorphism
 of ``G`` with ``α m = -m`` and ``φ(x) = α x + m``, and let ``φ`` also exchange ``∞1`` and
@@ -101,7 +102,6 @@ from scheduler.errors import InputError
 from scheduler.factorization.groups import AbelianGroup, group_from_name
 from scheduler.factorization.linear_symmetries import (
     Matrix,
-    elementary_shape,
     linear_permutation,
     linear_symmetry_classes,
 )
@@ -377,9 +377,9 @@ def check_representatives(base: str, multiplier: int = 1, matrix: Matrix | None 
         A unit ``u`` of ``H``'s ring; the starter must be invariant under ``(b, h) -> (b, u h)``
         (1: no multiplier).
     matrix : tuple of tuple of int or None, optional
-        For ``H = Z_p^d``: an invertible matrix ``A``; the starter must be invariant under
-        ``(b, h) -> (b, A h)`` (:mod:`scheduler.factorization.linear_symmetries`; not together
-        with a multiplier).
+        An automorphism ``A`` of ``H`` as a matrix on its cyclic factors; the starter must be
+        invariant under ``(b, h) -> (b, A h)``
+        (:mod:`scheduler.factorization.linear_symmetries`; not together with a multiplier).
 
     Returns
     -------
@@ -420,18 +420,19 @@ def missing_parity(k: int) -> int:
 
 
 def linear_symmetry_spaces(base: str, *, merged: bool = False) -> list[str]:
-    """The space names (:func:`space_name`) of the even starters of ``Z_2 × H``, ``H = Z_p^d``,
-    invariant under a matrix: one per conjugacy class of cyclic subgroups of ``GL(d, p)`` that
-    fix a non-zero vector and per choice of the missing element's part in ``H`` up to the
-    normaliser (:func:`~scheduler.factorization.linear_symmetries.linear_symmetry_classes`), the
-    missing element of the parity that admits even starters. Conjugate choices give isomorphic
-    spaces, so these cover every such symmetry.
+    """The space names (:func:`space_name`) of the even starters of ``Z_2 × H`` invariant under
+    an automorphism of ``H`` given as a matrix: one per conjugacy class of cyclic subgroups of
+    the automorphism group (``GL(d, p)`` when ``H = Z_p^d``) that fix a non-zero element and
+    per choice of the missing element's part in ``H`` up to the normaliser
+    (:func:`~scheduler.factorization.linear_symmetries.linear_symmetry_classes`), the missing
+    element of the parity that admits even starters. Conjugate choices give isomorphic spaces,
+    so these cover every such symmetry.
 
     Parameters
     ----------
     base : str
-        The name of an elementary abelian ``H`` (``"Z_5 x Z_5"``, ``"Z_3 x Z_3 x Z_3"``, or a
-        Galois field, whose additive group is numbered the same way).
+        The name of ``H`` (small: its automorphisms are listed; a Galois field's additive group
+        is numbered as the product of its prime factors, so both names give the same spaces).
     merged : bool, optional
         Name the merged class instead of all even starters.
 
@@ -457,16 +458,16 @@ def linear_symmetry_spaces(base: str, *, merged: bool = False) -> list[str]:
 def flip_symmetry_spaces(base: str, *, merged: bool = False) -> list[str]:
     """The space names (:func:`space_name`) of the even starters of ``Z_2 × H`` invariant under
     a flip ``x -> α x + m`` with ``α`` an involution of ``H`` negating ``m``'s part in ``H``:
-    for ``H = Z_p^d`` one ``α`` per conjugacy class of involutions of ``GL(d, p)`` and ``m`` up
-    to its centraliser; otherwise the ring's units ``u`` with ``u^2 = 1`` and ``m`` up to the
-    units. (A flip whose ``α`` is not an involution has the non-trivial square
-    ``x -> α^2 x`` fixing ``m``, so its space lies inside one of :func:`linear_symmetry_spaces`
-    or of the multiplier spaces.)
+    one ``α`` per conjugacy class of involutions in the automorphism group of ``H`` and ``m``
+    up to its centraliser
+    (:func:`~scheduler.factorization.linear_symmetries.linear_symmetry_classes`). A flip whose
+    ``α`` is not an involution has the non-trivial square ``x -> α^2 x`` fixing ``m``, so its
+    space lies inside one of :func:`linear_symmetry_spaces`.
 
     Parameters
     ----------
     base : str
-        The name of ``H``, an abelian group of odd order.
+        The name of ``H``, an abelian group of odd order (small: its automorphisms are listed).
     merged : bool, optional
         Name the merged class instead of all even starters.
 
@@ -483,27 +484,10 @@ def flip_symmetry_spaces(base: str, *, merged: bool = False) -> list[str]:
     Z_2 x Z_3 x Z_3 | kept | m=3 | A=[[2,0],[0,2]]+m
     """
     G = twin_group(base)
-    H = G.base
-    parity = missing_parity(H.order)
-    try:
-        elementary_shape(H)
-    except InputError:
-        out = []
-        units = H.units()
-        one = next(e for e in units if (H.mul[e] == np.arange(H.order)).all())
-        for u in units:
-            if u == one or int(H.mul[u, u]) != one:
-                continue
-            negated = {h for h in range(1, H.order) if int(H.mul[u, h]) == int(H.neg[h])}
-            while negated:
-                h = min(negated)
-                negated -= {int(H.mul[v, h]) for v in units}
-                out.append(space_name(base, swapped=False, missing=2 * h + parity,
-                                      multiplier=u, flip=True, merged=merged))
-        return out
+    parity = missing_parity(G.base.order)
     return [space_name(base, swapped=False, missing=2 * part + parity, matrix=c.matrix,
                        flip=True, merged=merged)
-            for c in linear_symmetry_classes(H) if c.order == 2 for part in c.negated_parts]
+            for c in linear_symmetry_classes(G.base) if c.order == 2 for part in c.negated_parts]
 
 
 def missing_representatives(base: str, *, swapped: bool = False, multiplier: int = 1
@@ -567,9 +551,9 @@ def enumerate_twin_starters(base: str, missing: int, multiplier: int = 1,
         A unit ``u`` of ``H``'s ring; the starter must be invariant under ``(b, h) -> (b, u h)``
         (1: no multiplier).
     matrix : tuple of tuple of int or None, optional
-        For ``H = Z_p^d``: an invertible matrix ``A``; the starter must be invariant under
-        ``(b, h) -> (b, A h)`` (:mod:`scheduler.factorization.linear_symmetries`; not together
-        with a multiplier).
+        An automorphism ``A`` of ``H`` as a matrix on its cyclic factors; the starter must be
+        invariant under ``(b, h) -> (b, A h)``
+        (:mod:`scheduler.factorization.linear_symmetries`; not together with a multiplier).
     flip : bool, optional
         The symmetry also translates by the missing element: ``x -> α x + m`` (``α`` the
         multiplier or matrix, which must then negate ``m``), exchanging the two points at
@@ -736,9 +720,9 @@ def search_perfect_twin_starter(
         A unit ``u`` of ``H``'s ring; the starter must be invariant under ``(b, h) -> (b, u h)``
         (1: no multiplier).
     matrix : tuple of tuple of int or None, optional
-        For ``H = Z_p^d``: an invertible matrix ``A``; the starter must be invariant under
-        ``(b, h) -> (b, A h)`` (:mod:`scheduler.factorization.linear_symmetries`; not together
-        with a multiplier).
+        An automorphism ``A`` of ``H`` as a matrix on its cyclic factors; the starter must be
+        invariant under ``(b, h) -> (b, A h)``
+        (:mod:`scheduler.factorization.linear_symmetries`; not together with a multiplier).
     flip : bool, optional
         The symmetry also translates by the missing element: ``x -> α x + m`` (``α`` the
         multiplier or matrix, which must then negate ``m``), exchanging the two points at
@@ -1032,9 +1016,9 @@ def space_name(base: str, *, swapped: bool, missing: int, multiplier: int = 1,
         A unit ``u`` of ``H``'s ring; the starter must be invariant under ``(b, h) -> (b, u h)``
         (1: no multiplier).
     matrix : tuple of tuple of int or None, optional
-        For ``H = Z_p^d``: an invertible matrix ``A``; the starter must be invariant under
-        ``(b, h) -> (b, A h)`` (:mod:`scheduler.factorization.linear_symmetries`; not together
-        with a multiplier).
+        An automorphism ``A`` of ``H`` as a matrix on its cyclic factors; the starter must be
+        invariant under ``(b, h) -> (b, A h)``
+        (:mod:`scheduler.factorization.linear_symmetries`; not together with a multiplier).
     flip : bool, optional
         The symmetry also translates by the missing element: ``x -> α x + m`` (``α`` the
         multiplier or matrix, which must then negate ``m``), exchanging the two points at

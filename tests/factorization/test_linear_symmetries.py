@@ -20,7 +20,7 @@ from scheduler.errors import InputError
 from scheduler.factorization import twin_point_starters as tw
 from scheduler.factorization.groups import group_from_name
 from scheduler.factorization.linear_symmetries import (
-    elementary_shape,
+    automorphism_matrices,
     general_linear_group,
     linear_permutation,
     linear_symmetry_classes,
@@ -34,6 +34,36 @@ def test_general_linear_group_order(p, d, order):
     assert len(mats) == order
     dets = np.round(np.linalg.det(mats)).astype(np.int64) % p
     assert (dets != 0).all()  # every matrix listed is invertible
+
+
+@pytest.mark.parametrize("moduli, order", [((25,), 20), ((27,), 18), ((3, 5), 8),
+                                           ((3, 9), 108)])
+def test_automorphism_group_orders(moduli, order):
+    # cyclic groups: the units, Euler's totient (OEIS A000010); Z_p x Z_p^2: p^3 (p - 1)^2
+    # (C. J. Hillar and D. L. Rhea, Amer. Math. Monthly 114 (2007) 917-923, from memory; by
+    # hand: [[a, b], [p c, d]] with a and d units)
+    mats = automorphism_matrices(moduli)
+    assert len(mats) == order
+    group = group_from_name(" x ".join(f"Z_{n}" for n in moduli))
+    perms = {linear_permutation(group, tuple(map(tuple, m))).tobytes() for m in mats}
+    assert len(perms) == order  # distinct automorphisms
+
+
+def test_cyclic_matrix_spaces_are_the_multiplier_spaces():
+    # for cyclic H every automorphism is a unit, so the matrix spaces are the multiplier spaces:
+    # the same missing elements, each with the same cyclic subgroups of units
+    for base in ("Z_25", "Z_27"):
+        k = int(base[2:])
+
+        def subgroup(u: int, k: int = k) -> frozenset[int]:
+            return frozenset(pow(u, j, k) for j in range(1, 2 * k))
+
+        by_matrix = {(m, subgroup(matrix[0][0]))
+                     for m, matrix in (tw.parse_space(name)[2:4]
+                                       for name in tw.linear_symmetry_spaces(base))}
+        by_unit = {(m, subgroup(u)) for m in tw.missing_representatives(base)
+                   for size, u in tw.multiplier_choices(base, m) if size > 1}
+        assert by_matrix == by_unit and by_unit
 
 
 def _element_classes(p: int, d: int) -> int:
@@ -63,7 +93,7 @@ def test_conjugacy_class_counts(p, d, classes):
 @pytest.mark.parametrize("base", ["Z_3 x Z_3", "Z_5 x Z_5", "Z_3 x Z_3 x Z_3"])
 def test_subgroup_classes_are_consistent(base):
     group = group_from_name(base)
-    p, d = elementary_shape(group)
+    p, d = group.moduli[0], len(group.moduli)
     classes = linear_symmetry_classes(group)
     assert [c.order for c in classes] == sorted((c.order for c in classes), reverse=True)
     for c in classes:
@@ -90,7 +120,7 @@ def test_subgroup_classes_are_consistent(base):
 
 def test_codes_follow_the_digit_numbering():
     group = group_from_name("GF(25)")  # the field's additive group is numbered like Z_5 x Z_5
-    assert elementary_shape(group) == (5, 2)
+    assert group.moduli == (5, 5)
     perm = linear_permutation(group, ((1, 1), (0, 1)))  # (x, y) -> (x + y, y)
     assert int(perm[5]) == 6  # (0, 1) -> (1, 1)
     assert int(perm[1]) == 1  # (1, 0) fixed
@@ -104,10 +134,8 @@ def test_bad_matrices_and_groups():
         linear_permutation(group, ((1, 0, 0), (0, 1, 0), (0, 0, 1)))
     with pytest.raises(InputError):
         linear_permutation(group, "no matrix")  # type: ignore[arg-type]
-    with pytest.raises(InputError):
-        elementary_shape(group_from_name("Z_9"))
-    with pytest.raises(InputError):
-        elementary_shape(group_from_name("Z_3 x Z_5"))
+    with pytest.raises(InputError):  # (x, y) -> (x, x + y) is no map of Z_3 x Z_9
+        linear_permutation(group_from_name("Z_3 x Z_9"), ((1, 0), (1, 1)))
     with pytest.raises(InputError):
         tw.search_perfect_twin_starter("Z_5 x Z_5", 13, multiplier=9, matrix=((0, 1), (1, 0)))
     with pytest.raises(InputError):  # the swap moves (1, 0), so it cannot fix m = (1, (1, 0))
@@ -239,8 +267,8 @@ def test_flip_spaces_kernel_agrees_with_enumeration(base):
 
 
 def test_flip_spaces_and_bad_flips():
-    assert tw.flip_symmetry_spaces("Z_25") == ["Z_2 x Z_25 | kept | m=3 | u=24+m",
-                                               "Z_2 x Z_25 | kept | m=11 | u=24+m"]
+    assert tw.flip_symmetry_spaces("Z_25") == ["Z_2 x Z_25 | kept | m=3 | A=[[24]]+m",
+                                               "Z_2 x Z_25 | kept | m=11 | A=[[24]]+m"]
     name = tw.flip_symmetry_spaces("Z_5 x Z_5")[0]
     base, swapped, m, matrix, merged, flip = tw.parse_space(name)
     assert tw.space_name(base, swapped=swapped, missing=m, matrix=matrix, merged=merged,

@@ -6,12 +6,11 @@ Spaces (``scheduler.factorization.twin_point_starters``): even starters over ``Z
 multiplier; with ``--merged`` only the merged class (two starters of ``H`` merged); with
 ``--linear`` the spaces of every automorphism of ``H`` as a matrix (one per conjugacy class of
 cyclic subgroups; ``GL(d, p)`` for ``Z_5 x Z_5`` and ``Z_3 x Z_3 x Z_3``) instead of the ring's
-multipliers; with
-``--flip`` those of the flips ``x -> a x + m`` (``a`` an involution of ``H`` negating ``m``,
-the two points at infinity exchanged).
-Symmetric spaces run first, to exhaustion (plain depth-first runs with doubling node limits;
-capped random restarts could never settle a space larger than their cap); the plain spaces then
-get seeded restarts until the stop time (a stop time earlier than now is tomorrow's). Each task is
+multipliers; with ``--flip`` those of the flips ``x -> a x + m`` (``a`` an involution of ``H``
+negating ``m``, the two points at infinity exchanged). Symmetric spaces run first, to
+exhaustion (plain depth-first runs with doubling node limits; capped random restarts could
+never settle a space larger than their cap); the plain spaces then get seeded restarts until
+the stop time (a stop time earlier than now is tomorrow's). Each task is
 ``run_task(order, space, seed, budget)``, a plain top-level function with plain arguments and a
 JSON-ready result, so that a process pool (here) or a distributed engine can map it.
 

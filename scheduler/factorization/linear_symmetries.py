@@ -173,6 +173,8 @@ def automorphism_matrices(moduli: tuple[int, ...]) -> np.ndarray:
     --------
     >>> len(automorphism_matrices((25,))), len(automorphism_matrices((3, 9)))
     (20, 108)
+    >>> len(automorphism_matrices((5, 5)))  # GL(2, 5)
+    480
     """
     moduli = tuple(int(n) for n in moduli)
     k = len(moduli)
@@ -186,30 +188,6 @@ def automorphism_matrices(moduli: tuple[int, ...]) -> np.ndarray:
     codes = _images(moduli, mats)
     bijective = np.array([len(np.unique(row)) == order for row in codes])
     return mats[bijective]
-
-
-def general_linear_group(p: int, d: int) -> np.ndarray:
-    """Every invertible ``d × d`` matrix over ``Z_p``: the automorphisms of ``Z_p^d``
-    (:func:`automorphism_matrices`), an array of shape ``(N, d, d)``.
-
-    Parameters
-    ----------
-    p : int
-        A prime.
-    d : int
-        The dimension (``p^(d^2)`` candidates are tried, so small cases only).
-
-    Returns
-    -------
-    numpy.ndarray
-        The matrices in lexicographic order of their entries.
-
-    Examples
-    --------
-    >>> len(general_linear_group(2, 2)), len(general_linear_group(5, 2))
-    (6, 480)
-    """
-    return automorphism_matrices((p,) * d)
 
 
 def linear_symmetry_classes(group: AbelianGroup) -> list[LinearSymmetry]:

@@ -1,7 +1,9 @@
 """Offline searches for perfect one-factorizations in the structured spaces beyond plain
 cyclic starters (even starters, starters in non-abelian groups, prescribed ``Z_k``) and the
-systematic multiplier sweep of cyclic starters. Prints one ``#`` line per space with the work
-done (runs, nodes, seconds, exhausted = proved empty) and one JSON line per find:
+systematic multiplier sweep of cyclic starters. Spaces with a multiplier or an automorphism
+are settled by exhaustive runs (run limits doubling without a cap). Prints one ``#`` line per
+space with the work done (runs, nodes, seconds, exhausted = proved empty) and one JSON line per
+find:
 
     nice -n 19 python benchmarks/find_structured.py even 38 --seconds 600
     nice -n 19 python benchmarks/find_structured.py group 13 3 --seconds 600
@@ -88,7 +90,9 @@ def main() -> None:
         p, q, *rest = a.args
         group = semidirect(p, q)
         auto = (rest[0], rest[1]) if rest else (1, 0)
-        res = search_perfect_group_starter(group, automorphism=auto, **kw)
+        # a space with a symmetry is settled by exhaustive runs (no cap on the run length)
+        res = search_perfect_group_starter(group, automorphism=auto, exhaustive=auto != (1, 0),
+                                           **kw)
         _line(f"starters in {group.name}, automorphism {auto}", res)
         if res.found:
             print(json.dumps({"kind": "group_starter", "n": p * q + 1, "p": p, "q": q,
@@ -108,7 +112,7 @@ def main() -> None:
         for order, u in cyclic_subgroup_generators(group):
             if order == 1:
                 continue
-            res = search_perfect_starter(group, multiplier=u, **kw)
+            res = search_perfect_starter(group, multiplier=u, exhaustive=True, **kw)
             _line(f"starters in Z_{m}, multiplier {u} (order {order})", res)
             if res.found:
                 print(json.dumps({"n": m + 1, "group": group.name, "multiplier": u,

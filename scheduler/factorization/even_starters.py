@@ -38,7 +38,7 @@ import numpy as np
 
 from scheduler.errors import InputError
 from scheduler.factorization.model import Factorization, normalise_round
-from scheduler.factorization.search import luby, run_seed
+from scheduler.factorization.search import run_node_limit, run_seed
 from scheduler.progress import Progress
 
 Pair = tuple[int, int]
@@ -490,7 +490,7 @@ def search_perfect_even_starter(
                 return EvenStarterSearchResult(f"Z_{M}", seed, None, None, runs - 1, nodes,
                                                elapsed, True)
             continue
-        limit = min(max_run_nodes, base_nodes * luby(runs))
+        limit = run_node_limit(runs, base_nodes, max_run_nodes)
         if max_nodes is not None:
             limit = max(1, min(limit, max_nodes - nodes))
         status, used = even_search_kernel(

@@ -46,7 +46,7 @@ import numpy as np
 
 from scheduler.errors import InputError
 from scheduler.factorization.model import Factorization, normalise_round
-from scheduler.factorization.search import element_orbits, luby, run_seed
+from scheduler.factorization.search import element_orbits, run_node_limit, run_seed
 from scheduler.progress import Progress
 
 Pair = tuple[int, int]
@@ -475,6 +475,7 @@ def search_perfect_group_starter(
     base_nodes: int = 20_000,
     max_run_nodes: int = 5_000_000,
     max_nodes: int | None = None,
+    exhaustive: bool = False,
     progress: Progress | None = None,
 ) -> GroupStarterSearchResult:
     """Search ``group`` for a perfect starter invariant under ``group.automorphism(*automorphism)``
@@ -498,6 +499,9 @@ def search_perfect_group_starter(
         The most nodes of any run.
     max_nodes : int or None, optional
         A total work limit (the same outcome on every machine); None: only the clock.
+    exhaustive : bool, optional
+        Run limits doubling without a cap
+        (:func:`~scheduler.factorization.search.run_node_limit`): the way to settle a space.
     progress : callable or None, optional
         Called as ``progress(message, fraction)`` after each run.
 
@@ -535,7 +539,7 @@ def search_perfect_group_starter(
     runs = nodes = 0
     while True:
         runs += 1
-        limit = min(max_run_nodes, base_nodes * luby(runs))
+        limit = run_node_limit(runs, base_nodes, max_run_nodes, exhaustive)
         if max_nodes is not None:
             limit = max(1, min(limit, max_nodes - nodes))
         status, used, _ = search_kernel(m, add, neg, mulu, reps, weights, 0,

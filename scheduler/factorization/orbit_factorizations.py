@@ -35,7 +35,7 @@ import numpy as np
 
 from scheduler.errors import InputError
 from scheduler.factorization.model import Factorization, normalise_round
-from scheduler.factorization.search import luby, run_seed
+from scheduler.factorization.search import run_node_limit, run_seed
 from scheduler.progress import Progress
 
 Pair = tuple[int, int]
@@ -481,7 +481,7 @@ def search_perfect_orbit_factorization(
     runs = nodes = 0
     while True:
         runs += 1
-        limit = min(max_run_nodes, base_nodes * luby(runs))
+        limit = run_node_limit(runs, base_nodes, max_run_nodes)
         if max_nodes is not None:
             limit = max(1, min(limit, max_nodes - nodes))
         status, used = orbit_search_kernel(r, k, orb, n_orb, ent_sys, ent_shift, n_ent, T,

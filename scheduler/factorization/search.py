@@ -118,6 +118,44 @@ def luby(i: int) -> int:
             k += 1
 
 
+def run_node_limit(run: int, base_nodes: int, max_run_nodes: int, exhaustive: bool = False
+                   ) -> int:
+    """The node limit of run ``run`` (from 1) of a restarted search.
+
+    Randomised restarts follow the Luby sequence times ``base_nodes``, each run capped at
+    ``max_run_nodes`` (:func:`luby`). A capped run can only prove a space empty when the whole
+    search tree fits under the cap, so a search meant to settle a space (``exhaustive``) doubles
+    the limit from ``base_nodes`` without a cap instead: the total work is then at most about
+    twice that of one complete search.
+
+    Parameters
+    ----------
+    run : int
+        The run's number, 1 or more.
+    base_nodes : int
+        The limit of the first run.
+    max_run_nodes : int
+        The cap of the randomised runs (not used when ``exhaustive``).
+    exhaustive : bool, optional
+        Doubling limits without a cap.
+
+    Returns
+    -------
+    int
+        The node limit.
+
+    Examples
+    --------
+    >>> [run_node_limit(r, 10, 40) for r in range(1, 8)]
+    [10, 10, 20, 10, 10, 20, 40]
+    >>> [run_node_limit(r, 10, 40, exhaustive=True) for r in range(1, 6)]
+    [10, 20, 40, 80, 160]
+    """
+    if exhaustive:
+        return base_nodes * 2 ** (run - 1)
+    return min(max_run_nodes, base_nodes * luby(run))
+
+
 def multiplier_orbits(group: AbelianGroup, multiplier: int = 1) -> list[tuple[int, int]]:
     """``(representative, size)`` for each orbit of ``<x -> -x, x -> u x>`` on ``G \\ {0}``
     (the representative is the smallest code in the orbit).
@@ -260,6 +298,7 @@ def search_perfect_starter(
     base_nodes: int = 20_000,
     max_run_nodes: int = 5_000_000,
     max_nodes: int | None = None,
+    exhaustive: bool = False,
     progress: Progress | None = None,
 ) -> StarterSearchResult:
     """Search ``group`` for a perfect starter (invariant under ``x -> multiplier * x``).
@@ -285,6 +324,9 @@ def search_perfect_starter(
         Nodes of the first run and the most of any run (Luby restarts).
     max_nodes
         Optional total work limit.
+    exhaustive
+        Run limits doubling without a cap (:func:`run_node_limit`): the way to settle a space,
+        a multiplier space for instance.
     progress
         Called as ``progress(message, fraction)`` after each run.
 
@@ -326,7 +368,7 @@ def search_perfect_starter(
     runs = nodes = 0
     while True:
         runs += 1
-        limit = min(max_run_nodes, base_nodes * luby(runs))
+        limit = run_node_limit(runs, base_nodes, max_run_nodes, exhaustive)
         if max_nodes is not None:
             limit = max(1, min(limit, max_nodes - nodes))
         status, used, _ = search_kernel(

@@ -106,7 +106,7 @@ from scheduler.factorization.linear_symmetries import (
     linear_symmetry_classes,
 )
 from scheduler.factorization.model import Factorization, normalise_round
-from scheduler.factorization.search import element_orbits, luby, run_seed
+from scheduler.factorization.search import element_orbits, run_node_limit, run_seed
 from scheduler.progress import Progress
 
 Pair = tuple[int, int]
@@ -791,8 +791,7 @@ def search_perfect_twin_starter(
     runs = nodes = 0
     while True:
         runs += 1
-        limit = (base_nodes * 2 ** (runs - 1) if exhaustive
-                 else min(max_run_nodes, base_nodes * luby(runs)))
+        limit = run_node_limit(runs, base_nodes, max_run_nodes, exhaustive)
         if max_nodes is not None:
             limit = max(1, min(limit, max_nodes - nodes))
         status, used = twin_search_kernel(

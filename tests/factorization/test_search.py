@@ -91,3 +91,17 @@ def test_bad_arguments(kwargs, where):
     with pytest.raises(InputError) as err:
         search_perfect_starter(cyclic(15), **kwargs)
     assert err.value.location == where
+
+
+def test_exhaustive_runs_settle_spaces_larger_than_the_cap():
+    # Z_15 holds 8 perfect starters, Z_9 none (docs/one-factorizations.md §3). With a cap of 50
+    # nodes per run the capped restarts can never settle Z_9 (its search tree is larger), while
+    # the exhaustive runs (doubling limits, no cap) do, and find Z_15's among the enumerated ones.
+    capped = search_perfect_starter(cyclic(9), base_nodes=10, max_run_nodes=50, max_nodes=20_000)
+    assert not capped.exhausted and not capped.found
+    settled = search_perfect_starter(cyclic(9), base_nodes=10, max_run_nodes=50, exhaustive=True)
+    assert settled.exhausted and not settled.found and settled.runs > 1
+    g = cyclic(15)
+    perfect = {s for s in enumerate_starters(g) if is_perfect_starter(g, s)}
+    found = search_perfect_starter(g, base_nodes=10, max_run_nodes=50, exhaustive=True)
+    assert found.found and found.starter in perfect

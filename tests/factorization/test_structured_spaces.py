@@ -229,3 +229,12 @@ def test_structured_entry_is_perfect(entry):
         g = na.semidirect(*entry.group)
         assert not np.array_equal(g.mul, g.mul.T)  # genuinely non-abelian
         assert na.is_perfect_group_starter(g, entry.starter)
+
+
+def test_group_search_exhaustive_mode_settles_with_tiny_runs():
+    # the spaces of the test above, settled again from runs of 10 nodes doubling without a cap
+    g = na.semidirect(13, 3)
+    for auto in [(2, 0), (3, 0)]:
+        res = na.search_perfect_group_starter(g, automorphism=auto, budget=60, base_nodes=10,
+                                              max_run_nodes=10, exhaustive=True)
+        assert res.exhausted and not res.found

@@ -193,7 +193,6 @@ def new(
 ) -> None:
     """Write a commented starter league file to PATH (TOML or YAML by its ending; never
     overwrites a file).
-
     \f
     Parameters
     ----------
@@ -245,7 +244,6 @@ def factor(
     summary: Annotated[bool, typer.Option(help="Leave the rounds out of the text output.")] = False,
 ) -> None:
     """Print a one-factorization for N teams: method, source, mixing certificate and rounds.
-
     \f
     Parameters
     ----------
@@ -372,7 +370,6 @@ def plan(
 ) -> None:
     """Plan a season from a league config and write it to the output folder (a file of several
     divisions plans every division, see plan-divisions).
-
     \f
     Parameters
     ----------
@@ -566,7 +563,6 @@ def plan_divisions(
     ] = "auto",
 ) -> None:
     """Plan every division of a federation file (units of divisions in parallel, on Dask).
-
     \f
     Parameters
     ----------
@@ -611,7 +607,6 @@ def replan(
 ) -> None:
     """Re-plan a season after postponements, closures and withdrawals, changing as few games
     as possible; history never moves.
-
     \f
     Parameters
     ----------
@@ -696,7 +691,6 @@ def audit(
     ] = None,
 ) -> None:
     """Check any schedule and print its fairness figures (exit 1 when it is invalid).
-
     \f
     Parameters
     ----------

@@ -90,10 +90,15 @@ class LinearSymmetry:
     negated_parts: tuple[int, ...] = ()
 
 
+def _places(moduli: tuple[int, ...]) -> np.ndarray:
+    """The place value of each digit of a code (first modulus least significant)."""
+    return np.cumprod((1, *moduli[:-1])).astype(np.int64)
+
+
 def _digits(moduli: tuple[int, ...]) -> np.ndarray:
     """``(m, k)``: the digits of every code, first modulus least significant."""
     codes = np.arange(int(np.prod(moduli)))
-    places = np.cumprod((1, *moduli[:-1]))
+    places = _places(moduli)
     return np.stack([(codes // places[i]) % n for i, n in enumerate(moduli)], axis=1)
 
 
@@ -101,9 +106,8 @@ def _images(moduli: tuple[int, ...], mats: np.ndarray) -> np.ndarray:
     """``(N, m)``: the code of ``A x`` for every matrix ``A`` of ``mats`` and every code ``x``
     (row ``i`` of the product read modulo ``moduli[i]``)."""
     mod = np.array(moduli, dtype=np.int64)
-    places = np.cumprod((1, *moduli[:-1])).astype(np.int64)
     image = np.einsum("nij,vj->nvi", mats, _digits(moduli)) % mod
-    return (image * places).sum(axis=2)
+    return (image * _places(moduli)).sum(axis=2)
 
 
 def _well_defined(moduli: tuple[int, ...], matrix: np.ndarray) -> bool:

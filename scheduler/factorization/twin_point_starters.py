@@ -179,9 +179,24 @@ class TwinGroup:
         InputError
             When ``u`` is not a unit.
         """
-        mul = self.base.multiplier(u)
+        return self.lift(self.base.multiplier(u))
+
+    def lift(self, perm: np.ndarray) -> np.ndarray:
+        """``(b, h) -> (b, perm[h])`` for a permutation ``perm`` of ``H``'s codes, as a
+        permutation of the codes of ``G``.
+
+        Parameters
+        ----------
+        perm : numpy.ndarray
+            A permutation of ``0..|H|-1`` (an automorphism of ``H``).
+
+        Returns
+        -------
+        numpy.ndarray
+            ``out[c]`` is the image of code ``c``.
+        """
         codes = np.arange(self.order)
-        return (2 * mul[codes // 2] + codes % 2).astype(np.int64)
+        return (2 * np.asarray(perm)[codes // 2] + codes % 2).astype(np.int64)
 
     def label(self, c: int) -> str:
         """The element of code ``c`` as ``"<parity>|<label in H>"``.
@@ -216,16 +231,20 @@ def twin_group(base: str) -> TwinGroup:
     return TwinGroup(group, add.astype(np.int64), neg.astype(np.int64), b.astype(np.int64))
 
 
-def _symmetry(G: TwinGroup, multiplier: int = 1, matrix: Matrix | None = None) -> np.ndarray:
-    """The symmetry ``(b, h) -> (b, u h)`` or ``(b, h) -> (b, A h)`` as a permutation of the codes
-    of ``G`` (the identity when neither is given)."""
+def _symmetry(G: TwinGroup, multiplier: int = 1, matrix: Matrix | None = None,
+              flip_missing: int | None = None) -> np.ndarray:
+    """The symmetry ``α: (b, h) -> (b, u h)`` or ``(b, h) -> (b, A h)`` as a permutation of the
+    codes of ``G`` (the identity when neither is given); with ``flip_missing = m`` the flip
+    ``x -> α x + m``."""
     if matrix is not None:
         if multiplier != 1:
             raise InputError("give a multiplier or a matrix, not both", location="matrix")
-        perm = linear_permutation(G.base, matrix)
-        codes = np.arange(G.order)
-        return (2 * perm[codes // 2] + codes % 2).astype(np.int64)
-    return G.multiplier(multiplier) if multiplier != 1 else np.arange(G.order)
+        alpha = G.lift(linear_permutation(G.base, matrix))
+    else:
+        alpha = G.multiplier(multiplier) if multiplier != 1 else np.arange(G.order)
+    if flip_missing is None:
+        return alpha
+    return G.add[alpha, flip_missing].astype(np.int64)
 
 
 def _matrix_tuple(matrix: Matrix | None) -> Matrix | None:
@@ -571,9 +590,7 @@ def enumerate_twin_starters(base: str, missing: int, multiplier: int = 1,
     """
     G = twin_group(base)
     M = G.order
-    mu = _symmetry(G, multiplier, matrix)
-    if flip:
-        mu = G.add[mu, missing].astype(np.int64)
+    mu = _symmetry(G, multiplier, matrix, missing if flip else None)
     used = [False] * M
     dused = [False] * M
     used[0] = used[missing] = True
@@ -782,7 +799,7 @@ def search_perfect_twin_starter(
         raise InputError("a flip needs a multiplier or a matrix and the points kept",
                          location="flip")
     # the kernel follows pairs under the whole symmetry; the walks need only its linear part
-    symmetry = G.add[mu, missing].astype(np.int64) if flip else mu
+    symmetry = _symmetry(G, multiplier, matrix, int(missing)) if flip else mu
     from scheduler.factorization._twin_kernel import twin_search_kernel  # numba: lazily
 
     reps = np.array(check_representatives(base, multiplier, matrix), dtype=np.int64)

@@ -20,7 +20,8 @@ Recorded runs (seed 0, 2 shared cores, ``nice -n 19``; "empty" = space exhausted
   ``multipliers 39``: every multiplier space of Z_39 (orders 2, 3, 4, 6, 12) is empty.
   Z_13 x| Z_3 with an automorphism of order 2, 3, 4, 6, 12 or 13: empty.
 * K_52: ``multipliers 51``: orders 4, 8, 16 and u = 50 empty; u = 16 (9.0e8 nodes, 180 s)
-  and u = 35 (1.0e9 nodes, 180 s) found nothing.
+  and u = 35 (1.0e9 nodes, 180 s) found nothing with capped runs; exhaustive runs later settled
+  both (empty: u = 35 after 2.0e9 nodes, u = 16 in one complete search of 2.86e9 nodes).
 * K_56: ``multipliers 55``: orders 4, 5, 10, 20 and u = 54 empty; u = 21 (4.9e8 nodes) and
   u = 34 (5.5e8 nodes), 180 s each, found nothing. ``group 11 5``: 1.58e9 nodes (600 s)
   nothing; automorphisms of order 5, 10, 11 empty; ``group 11 5 10 0`` (order 2): 1.0e9

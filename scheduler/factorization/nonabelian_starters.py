@@ -418,9 +418,40 @@ def enumerate_group_starters(group: SemidirectGroup) -> Iterator[tuple[Pair, ...
     yield from rec()
 
 
-def _orbits(group: SemidirectGroup, perm: np.ndarray) -> list[tuple[int, int]]:
-    """``(smallest code, size)`` of each orbit of ``<g -> g^-1, perm>`` on ``G \\ {e}``."""
-    return element_orbits(group.inv, perm)
+def group_kernel_arrays(
+    group: SemidirectGroup, automorphism: tuple[int, int] = (1, 0)
+) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
+    """``(mul, inv, perm, reps, weights)`` as int32 arrays for the starter search kernel: the
+    group's tables, the automorphism as a permutation, and one representative (the smallest
+    code) per orbit of ``<g -> g^-1, automorphism>`` on ``G \\ {e}`` with the number of classes
+    ``{g, g^-1}`` in it.
+
+    Parameters
+    ----------
+    group : SemidirectGroup
+        The group searched.
+    automorphism : tuple of (int, int), optional
+        ``(s, c)`` of :meth:`SemidirectGroup.automorphism`.
+
+    Returns
+    -------
+    tuple of numpy.ndarray
+        The five kernel arrays.
+
+    Raises
+    ------
+    InputError
+        For an automorphism that the group does not have.
+    """
+    perm = group.automorphism(*automorphism)
+    orbits = element_orbits(group.inv, perm)
+    return (
+        np.ascontiguousarray(group.mul, dtype=np.int32),
+        np.ascontiguousarray(group.inv, dtype=np.int32),
+        np.ascontiguousarray(perm, dtype=np.int32),
+        np.array([g for g, _ in orbits], dtype=np.int32),
+        np.array([size // 2 for _, size in orbits], dtype=np.int32),
+    )
 
 
 @dataclass(frozen=True)
@@ -526,14 +557,8 @@ def search_perfect_group_starter(
     from scheduler.factorization._search_kernel import search_kernel  # numba: lazily
 
     m = group.order
-    perm = group.automorphism(*automorphism)
     automorphism_pair = (automorphism[0], automorphism[1])
-    orbits = _orbits(group, perm)
-    add = np.ascontiguousarray(group.mul, dtype=np.int32)
-    neg = np.ascontiguousarray(group.inv, dtype=np.int32)
-    mulu = np.ascontiguousarray(perm, dtype=np.int32)
-    reps = np.array([g for g, _ in orbits], dtype=np.int32)
-    weights = np.array([size // 2 for _, size in orbits], dtype=np.int32)
+    add, neg, mulu, reps, weights = group_kernel_arrays(group, automorphism_pair)
     out = np.zeros(((m - 1) // 2, 2), dtype=np.int32)
     start = time.perf_counter()
     runs = nodes = 0

@@ -694,6 +694,54 @@ class TwinSearchResult:
 _TWIN_SALT = 24_680
 
 
+def twin_kernel_arrays(base: str, missing: int, *, swapped: bool = False, multiplier: int = 1,
+                       matrix: Matrix | None = None, flip: bool = False
+                       ) -> tuple[TwinGroup, np.ndarray, np.ndarray]:
+    """The group, the symmetry permutation the kernel follows pairs under, and the
+    representatives of the union walks, for one space of :func:`search_perfect_twin_starter`
+    (which documents the arguments), after checking that the space is well posed.
+
+    Parameters
+    ----------
+    base : str
+        The name of ``H``.
+    missing : int
+        The missing element's code.
+    swapped, multiplier, matrix, flip
+        As in :func:`search_perfect_twin_starter`.
+
+    Returns
+    -------
+    tuple
+        ``(G, symmetry, reps)``: the :class:`TwinGroup`, the symmetry as an int64 permutation
+        (with the flip's translation when ``flip``) and the walk representatives as int64.
+
+    Raises
+    ------
+    InputError
+        For a missing element, multiplier, matrix or flip that the space does not allow.
+    """
+    G = twin_group(base)
+    M = G.order
+    mu = _symmetry(G, multiplier, matrix)
+    parity = missing_parity(G.base.order)
+    image = int(mu[missing]) if 1 < int(missing) < M else -1
+    if (not 1 < int(missing) < M or G.par[int(missing)] != parity
+            or (swapped and G.par[int(missing)])
+            or image != (int(G.neg[missing]) if flip else int(missing))):
+        raise InputError(f"missing element {missing!r} is not allowed here (not 0 or t, of the "
+                         f"parity that admits even starters, even when the points are swapped, "
+                         f"fixed by the multiplier, or negated by it for a flip)",
+                         location="missing")
+    if flip and (swapped or (matrix is None and multiplier == 1)):
+        raise InputError("a flip needs a multiplier or a matrix and the points kept",
+                         location="flip")
+    # the kernel follows pairs under the whole symmetry; the walks need only its linear part
+    symmetry = _symmetry(G, multiplier, matrix, int(missing)) if flip else mu
+    reps = np.array(check_representatives(base, multiplier, matrix), dtype=np.int64)
+    return G, symmetry.astype(np.int64), reps
+
+
 def search_perfect_twin_starter(
     base: str,
     missing: int,
@@ -779,30 +827,15 @@ def search_perfect_twin_starter(
     ----------
     ``docs/factorization-search.md``.
     """
-    G = twin_group(base)
-    M = G.order
     if isinstance(seed, bool) or not isinstance(seed, int):
         raise InputError(f"the seed must be an integer, got {seed!r}", location="seed")
     if not budget > 0:
         raise InputError(f"the time budget must be positive, got {budget!r}", location="budget")
-    mu = _symmetry(G, multiplier, matrix)
-    parity = missing_parity(G.base.order)
-    image = int(mu[missing]) if 1 < int(missing) < M else -1
-    if (not 1 < int(missing) < M or G.par[int(missing)] != parity
-            or (swapped and G.par[int(missing)])
-            or image != (int(G.neg[missing]) if flip else int(missing))):
-        raise InputError(f"missing element {missing!r} is not allowed here (not 0 or t, of the "
-                         f"parity that admits even starters, even when the points are swapped, "
-                         f"fixed by the multiplier, or negated by it for a flip)",
-                         location="missing")
-    if flip and (swapped or (matrix is None and multiplier == 1)):
-        raise InputError("a flip needs a multiplier or a matrix and the points kept",
-                         location="flip")
-    # the kernel follows pairs under the whole symmetry; the walks need only its linear part
-    symmetry = _symmetry(G, multiplier, matrix, int(missing)) if flip else mu
+    G, symmetry, reps = twin_kernel_arrays(base, missing, swapped=swapped, multiplier=multiplier,
+                                           matrix=matrix, flip=flip)
+    M = G.order
     from scheduler.factorization._twin_kernel import twin_search_kernel  # numba: lazily
 
-    reps = np.array(check_representatives(base, multiplier, matrix), dtype=np.int64)
     out = np.zeros((M // 2 - 1, 2), dtype=np.int64)
     start = time.perf_counter()
     runs = nodes = 0
@@ -812,7 +845,7 @@ def search_perfect_twin_starter(
         if max_nodes is not None:
             limit = max(1, min(limit, max_nodes - nodes))
         status, used = twin_search_kernel(
-            M, G.add, G.neg, symmetry.astype(np.int64), G.par, 1, int(missing), swapped,
+            M, G.add, G.neg, symmetry, G.par, 1, int(missing), swapped,
             bool(merged), reps,
             run_seed(seed, runs, _TWIN_SALT), shuffle and not exhaustive, limit, out)
         nodes += int(used)

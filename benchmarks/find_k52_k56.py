@@ -11,8 +11,9 @@ negating ``m``, the two points at infinity exchanged). Symmetric spaces run firs
 exhaustion (plain depth-first runs with doubling node limits; capped random restarts could
 never settle a space larger than their cap); the plain spaces then get seeded restarts until
 the stop time (a stop time earlier than now is tomorrow's). Each task is
-``run_task(order, space, seed, budget)``, a plain top-level function with plain arguments and a
-JSON-ready result, so that a process pool (here) or a distributed engine can map it.
+``twin_point_starters.search_task(order, space, seed, budget)``, a plain top-level function with
+plain arguments and a JSON-ready result, run on a local process pool or Dask distributed
+(``scheduler.divisions.execute.task_engine``).
 
     nice -n 15 python benchmarks/find_k52_k56.py --orders 52 56 --task-seconds 120 \\
         --stop 17:55 --workers 1
@@ -33,25 +34,18 @@ Recorded runs: docs/factorization-search.md.
 from __future__ import annotations
 
 import argparse
-import concurrent.futures as cf
-import contextlib
 import datetime as dt
 import json
 import sys
 import time
-from collections.abc import Callable, Iterator
 
+from scheduler.divisions.execute import task_engine
 from scheduler.factorization import twin_point_starters as tw
 
 BASES = {52: ["GF(25)", "Z_25", "Z_5 x Z_5"],
          56: ["GF(27)", "Z_27", "Z_3 x Z_9", "Z_3 x Z_3 x Z_3"]}
 # GF(q) and Z_p^d are the same group with the same codes, so their symmetric spaces coincide
 SYMMETRY_BASES = {52: ["Z_25", "Z_5 x Z_5"], 56: ["Z_27", "Z_3 x Z_9", "Z_3 x Z_3 x Z_3"]}
-
-
-def run_task(order: int, space: str, seed: int, budget: float) -> dict:
-    """One restart: the search of ``space`` for ``K_order`` with ``seed`` for ``budget`` s."""
-    return tw.search_task(order, space, seed, budget)
 
 
 def spaces(order: int, merged: bool = False, linear: bool = False, flip: bool = False
@@ -119,28 +113,6 @@ def rate() -> None:
         print(f"{label:36s} {value:12,.0f} nodes/s  ratio {value / ref:5.2f}")
 
 
-@contextlib.contextmanager
-def _engine(args: argparse.Namespace) -> Iterator[tuple[Callable, Callable]]:
-    """``(submit(order, space, seed, budget) -> future, wait_first(futures) -> finished)`` on a
-    local process pool or on Dask distributed (the same engine and the same connection errors
-    as ``scheduler plan`` for several divisions: :func:`scheduler.divisions.execute.dask_client`).
-    Each restart is an independent task of the package's picklable
-    :func:`scheduler.factorization.twin_point_starters.search_task`, so workers on other
-    machines need only the installed package."""
-    if args.engine == "dask":
-        from distributed import wait
-
-        from scheduler.divisions.execute import dask_client
-
-        with dask_client(args.workers, args.cluster) as client:
-            yield (lambda *task: client.submit(tw.search_task, *task, pure=False),
-                   lambda pending: wait(pending, return_when="FIRST_COMPLETED").done)
-        return
-    with cf.ProcessPoolExecutor(max_workers=args.workers) as pool:
-        yield (lambda *task: pool.submit(run_task, *task),
-               lambda pending: cf.wait(pending, return_when=cf.FIRST_COMPLETED)[0])
-
-
 def main() -> None:
     parser = argparse.ArgumentParser(description=__doc__,
                                      formatter_class=argparse.RawDescriptionHelpFormatter)
@@ -193,7 +165,9 @@ def main() -> None:
     totals = {order: {"nodes": 0, "seconds": 0.0, "tasks": 0, "first": None}
               for order in sorted({t[0] for t in tasks})}
     start = time.perf_counter()
-    with _engine(args) as (submit_task, wait_first):
+    # each restart is an independent task of the package's picklable search_task, so workers
+    # on other machines need only the installed package
+    with task_engine(args.engine, args.workers, args.cluster) as (submit, wait_first):
         pending: set = set()
         queue = iter(tasks)
         done_orders: set[int] = set()
@@ -207,7 +181,7 @@ def main() -> None:
                     if left < 5:
                         return False
                     budget = min(budget, left)
-                pending.add(submit_task(order, name, seed, budget))
+                pending.add(submit(tw.search_task, order, name, seed, budget))
                 return True
             return False
 

@@ -10,6 +10,17 @@ find:
     nice -n 19 python benchmarks/find_structured.py orbit 3 13 --seconds 600
     nice -n 19 python benchmarks/find_structured.py multipliers 39 --seconds 20
     nice -n 19 python benchmarks/find_structured.py rate
+    nice -n 10 python benchmarks/find_structured.py settle 55 21 --workers 2
+    nice -n 10 python benchmarks/find_structured.py settle-group 11 5 10 0 --partners 2-20
+    python benchmarks/find_structured.py settle 55 21 --engine dask --cluster tcp://192.0.2.10:8786
+
+``settle M U`` (cyclic starters of ``Z_M`` invariant under the multiplier ``U``) and
+``settle-group P Q S C`` (starters of ``Z_P x| Z_Q`` invariant under the automorphism ``(S, C)``)
+settle a space by complete searches of the subtrees below the first choice (element 1 paired
+with each partner ``2 .. order - 1``), one independent task per subtree on a local process pool
+or Dask distributed; ``--partners A-B`` runs only those subtrees, so a large space can be
+settled over several runs. One ``#`` line per subtree, then the nodes in all (they add up to
+those of one complete search) and whether every subtree run was exhausted.
 
 ``rate`` prints the node rate of each kernel on K_40-sized spaces and the ratio against the
 cyclic-starter kernel (the reference implementation).
@@ -40,11 +51,20 @@ import json
 import sys
 import time
 
+from scheduler.divisions.execute import task_engine
 from scheduler.factorization.even_starters import search_perfect_even_starter
 from scheduler.factorization.groups import AbelianGroup, cyclic
-from scheduler.factorization.nonabelian_starters import search_perfect_group_starter, semidirect
+from scheduler.factorization.nonabelian_starters import (
+    search_perfect_group_starter,
+    semidirect,
+    settle_group_subtree_task,
+)
 from scheduler.factorization.orbit_factorizations import search_perfect_orbit_factorization
-from scheduler.factorization.search import search_perfect_starter
+from scheduler.factorization.search import (
+    root_subtrees,
+    search_perfect_starter,
+    settle_subtree_task,
+)
 
 
 def _line(label: str, res) -> None:
@@ -70,14 +90,63 @@ def cyclic_subgroup_generators(group: AbelianGroup) -> list[tuple[int, int]]:
     return gens
 
 
+def settle(a: argparse.Namespace) -> None:
+    """Settle one symmetric space by its root subtrees as independent tasks."""
+    if a.space == "settle":
+        m, u = a.args
+        order, label = m, f"starters in Z_{m}, multiplier {u}"
+        task, fixed = settle_subtree_task, (f"Z_{m}", u)
+    else:
+        p, q, s, c = a.args
+        group = semidirect(p, q)
+        order, label = group.order, f"starters in {group.name}, automorphism ({s}, {c})"
+        task, fixed = settle_group_subtree_task, (p, q, group.r, (s, c))
+    subtrees = root_subtrees(order)
+    if a.partners:
+        low, high = (int(x) for x in a.partners.split("-"))
+        subtrees = [t for t in subtrees if low <= t[0] <= high]
+    start = time.perf_counter()
+    nodes, exhausted, found = 0, 0, None
+    with task_engine(a.engine, a.workers, a.cluster) as (submit, wait_first):
+        pending = {submit(task, *fixed, t) for t in subtrees}
+        while pending:
+            for future in wait_first(pending):
+                pending.discard(future)
+                r = future.result()
+                nodes += r["nodes"]
+                exhausted += r["exhausted"]
+                print(f"# {label}, partner {r['subtree'][0]}: exhausted={r['exhausted']} "
+                      f"nodes={r['nodes']} {r['seconds']:.1f}s", file=sys.stderr, flush=True)
+                if r["starter"] is not None and found is None:
+                    found = r
+                    print(json.dumps(r), flush=True)
+                    for other in pending:
+                        other.cancel()
+    partners = f"{subtrees[0][0]}-{subtrees[-1][0]}" if subtrees else "none"
+    print(f"# {label}, partners {partners}: {len(subtrees)} subtrees, {exhausted} exhausted, "
+          f"found={found is not None}, nodes={nodes} "
+          f"{time.perf_counter() - start:.1f}s wall, {a.workers} workers ({a.engine})",
+          file=sys.stderr, flush=True)
+
+
 def main() -> None:
     parser = argparse.ArgumentParser(description=__doc__)
-    parser.add_argument("space", choices=["even", "group", "orbit", "multipliers", "rate"])
+    parser.add_argument("space", choices=["even", "group", "orbit", "multipliers", "rate",
+                                          "settle", "settle-group"])
     parser.add_argument("args", type=int, nargs="*")
     parser.add_argument("--seconds", type=float, default=60.0)
     parser.add_argument("--seed", type=int, default=0)
     parser.add_argument("--max-run-nodes", type=int, default=5_000_000)
+    parser.add_argument("--partners", default=None,
+                        help="settle: only the subtrees of these partners of element 1, A-B")
+    parser.add_argument("--workers", type=int, default=2)
+    parser.add_argument("--engine", choices=["pool", "dask"], default="pool")
+    parser.add_argument("--cluster", default=None,
+                        help="address of a running Dask scheduler (with --engine dask)")
     a = parser.parse_args()
+    if a.space in ("settle", "settle-group"):
+        settle(a)
+        return
     kw = {"seed": a.seed, "budget": a.seconds, "max_run_nodes": a.max_run_nodes}
     if a.space == "even":
         (M,) = a.args

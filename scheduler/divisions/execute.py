@@ -15,6 +15,7 @@ API used (Dask documentation, distributed: ``LocalCluster``, ``Client(address, t
 
 from __future__ import annotations
 
+import concurrent.futures as cf
 import hashlib
 import logging
 import time as clock
@@ -119,6 +120,60 @@ def dask_client(workers: int = 2, cluster: str | None = None) -> Iterator[Any]:
     finally:
         client.close()
         local.close()
+
+
+@contextmanager
+def task_engine(engine: str = "pool", workers: int = 2, cluster: str | None = None
+                ) -> Iterator[tuple[Callable[..., Any], Callable[[set[Any]], set[Any]]]]:
+    """``(submit, wait_first)`` for independent tasks on a local process pool or on Dask
+    distributed (the engine of :func:`dask_client`, with its connection errors).
+
+    ``submit(function, *args)`` returns a future; ``wait_first(pending)`` blocks until at least
+    one of the pending futures is done and returns the finished ones (``future.result()`` gives
+    the value). The functions must be plain top-level functions with picklable arguments, so that
+    workers on other machines need only the installed package. Used by the offline searches
+    (``benchmarks/find_k52_k56.py``, ``benchmarks/find_structured.py``).
+
+    Parameters
+    ----------
+    engine : str, optional
+        ``"pool"`` (a ``concurrent.futures`` process pool on this machine) or ``"dask"``.
+    workers : int, optional
+        Worker processes of the pool or of the embedded Dask cluster.
+    cluster : str or None, optional
+        Address of a running Dask scheduler (with ``engine="dask"``).
+
+    Yields
+    ------
+    tuple of callable
+        ``(submit, wait_first)``.
+
+    Raises
+    ------
+    InputError
+        For an unknown engine, fewer than one worker, or a cluster that does not answer.
+
+    Examples
+    --------
+    >>> with task_engine("pool", workers=1) as (submit, wait_first):  # doctest: +SKIP
+    ...     [future.result() for future in wait_first({submit(pow, 2, 10)})]
+    [1024]
+    """
+    if engine == "dask":
+        from distributed import wait
+
+        with dask_client(workers, cluster) as client:
+            yield (lambda function, *args: client.submit(function, *args, pure=False),
+                   lambda pending: set(wait(pending, return_when="FIRST_COMPLETED").done))
+        return
+    if engine != "pool":
+        raise InputError(f"the engine must be 'pool' or 'dask', got {engine!r}",
+                         location="--engine")
+    if workers < 1:
+        raise InputError(f"--workers must be 1 or more, got {workers}", location="--workers")
+    with cf.ProcessPoolExecutor(max_workers=workers) as pool:
+        yield (pool.submit,
+               lambda pending: set(cf.wait(pending, return_when=cf.FIRST_COMPLETED)[0]))
 
 
 def _unit_size(fed: Federation, unit: Unit) -> int:

@@ -208,9 +208,13 @@ def _candidates(x, m, add, neg, used, dused, row):
 
 
 @numba.njit(cache=True)
-def search_kernel(m, add, neg, mulu, reps, weights, max_bad, seed, node_limit, out_pairs):
+def search_kernel(m, add, neg, mulu, reps, weights, max_bad, seed, node_limit, out_pairs,
+                  forced):
     """Returns ``(status, nodes, bad)``: status 1 found (pairs in ``out_pairs``), 0 node limit
     hit, -1 search space exhausted (no such multiplier-invariant starter exists).
+
+    ``forced[d]`` (for ``d < len(forced)``) is the only partner tried at depth ``d``: the search
+    then covers the subtree below that choice, and -1 says the subtree is exhausted.
 
     A representative ``reps[t]`` whose union closes a short cycle becomes *bad* and costs
     ``weights[t]``; a partial starter is refused once the bad weight exceeds ``max_bad``
@@ -257,11 +261,17 @@ def search_kernel(m, add, neg, mulu, reps, weights, max_bad, seed, node_limit, o
                         k += 1
                 return 1, nodes, badw
             c = 0
-            for y in range(1, m):
-                if y != x and not used[y] and not dused[add[x, neg[y]]]:
-                    cand[depth, c] = y
-                    c += 1
-            _shuffle_row(cand, depth, c)
+            if depth < forced.shape[0]:
+                y = forced[depth]
+                if 0 < y < m and y != x and not used[y] and not dused[add[x, neg[y]]]:
+                    cand[depth, 0] = y
+                    c = 1
+            else:
+                for y in range(1, m):
+                    if y != x and not used[y] and not dused[add[x, neg[y]]]:
+                        cand[depth, c] = y
+                        c += 1
+                _shuffle_row(cand, depth, c)
             cx[depth] = x
             ncand[depth] = c
             ci[depth] = 0

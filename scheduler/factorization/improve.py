@@ -228,7 +228,7 @@ def near_perfect_starter(
         run += 1
         status, nodes, badw = search_kernel(
             m, add, neg, mulu, reps, weights, classes - need[ci],
-            _run_seed(seed, 1, run), _RUN_NODES, out,
+            _run_seed(seed, 1, run), _RUN_NODES, out, np.zeros(0, dtype=np.int32),
         )
         spent += int(nodes) * len(reps)
         record["runs"] = run

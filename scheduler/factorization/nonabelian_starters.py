@@ -46,7 +46,12 @@ import numpy as np
 
 from scheduler.errors import InputError
 from scheduler.factorization.model import Factorization, normalise_round
-from scheduler.factorization.search import element_orbits, run_node_limit, run_seed
+from scheduler.factorization.search import (
+    element_orbits,
+    forced_partners,
+    run_node_limit,
+    run_seed,
+)
 from scheduler.progress import Progress
 
 Pair = tuple[int, int]
@@ -507,6 +512,7 @@ def search_perfect_group_starter(
     max_run_nodes: int = 5_000_000,
     max_nodes: int | None = None,
     exhaustive: bool = False,
+    subtree: Sequence[int] = (),
     progress: Progress | None = None,
 ) -> GroupStarterSearchResult:
     """Search ``group`` for a perfect starter invariant under ``group.automorphism(*automorphism)``
@@ -533,6 +539,9 @@ def search_perfect_group_starter(
     exhaustive : bool, optional
         Run limits doubling without a cap
         (:func:`~scheduler.factorization.search.run_node_limit`): the way to settle a space.
+    subtree : sequence of int, optional
+        Partners forced on the first elements paired: only that subtree is searched
+        (:func:`~scheduler.factorization.search.root_subtrees`, :func:`settle_group_subtree_task`).
     progress : callable or None, optional
         Called as ``progress(message, fraction)`` after each run.
 
@@ -559,6 +568,7 @@ def search_perfect_group_starter(
     m = group.order
     automorphism_pair = (automorphism[0], automorphism[1])
     add, neg, mulu, reps, weights = group_kernel_arrays(group, automorphism_pair)
+    forced = forced_partners(subtree, m)
     out = np.zeros(((m - 1) // 2, 2), dtype=np.int32)
     start = time.perf_counter()
     runs = nodes = 0
@@ -568,7 +578,7 @@ def search_perfect_group_starter(
         if max_nodes is not None:
             limit = max(1, min(limit, max_nodes - nodes))
         status, used, _ = search_kernel(m, add, neg, mulu, reps, weights, 0,
-                                        run_seed(seed, runs, _GROUP_SALT), limit, out)
+                                        run_seed(seed, runs, _GROUP_SALT), limit, out, forced)
         nodes += int(used)
         elapsed = time.perf_counter() - start
         if status == 1:
@@ -586,3 +596,35 @@ def search_perfect_group_starter(
         if elapsed >= budget or (max_nodes is not None and nodes >= max_nodes):
             return GroupStarterSearchResult(group.name, automorphism_pair, seed, None, runs,
                                             nodes, elapsed, False)
+
+
+def settle_group_subtree_task(p: int, q: int, r: int, automorphism: tuple[int, int],
+                              subtree: Sequence[int]) -> dict:
+    """One task of a settling search of ``Z_p ⋊_r Z_q`` split by
+    :func:`~scheduler.factorization.search.root_subtrees`: the complete search of the subtree
+    of starters invariant under ``automorphism``. A plain top-level function with plain
+    arguments and a JSON-ready result, for a process pool or a distributed engine.
+
+    Parameters
+    ----------
+    p, q, r : int
+        The group (:func:`semidirect`).
+    automorphism : tuple of (int, int)
+        ``(s, c)`` of :meth:`SemidirectGroup.automorphism`.
+    subtree : sequence of int
+        The forced partners.
+
+    Returns
+    -------
+    dict
+        ``group``, ``automorphism``, ``subtree``, ``exhausted``, ``nodes``, ``seconds`` and
+        ``starter`` (the perfect starter found, or None).
+    """
+    result = search_perfect_group_starter(semidirect(p, q, r),
+                                          automorphism=(automorphism[0], automorphism[1]),
+                                          subtree=tuple(subtree), exhaustive=True,
+                                          base_nodes=2**62, budget=1.0)
+    return {"group": result.group, "automorphism": list(result.automorphism),
+            "subtree": list(subtree), "exhausted": result.exhausted, "nodes": result.nodes,
+            "seconds": round(result.seconds, 3),
+            "starter": [list(x) for x in result.starter] if result.starter else None}

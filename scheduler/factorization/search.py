@@ -23,12 +23,13 @@ every machine; only whether the budget suffices depends on the machine.
 from __future__ import annotations
 
 import time
+from collections.abc import Sequence
 from dataclasses import dataclass
 
 import numpy as np
 
 from scheduler.errors import InputError
-from scheduler.factorization.groups import AbelianGroup
+from scheduler.factorization.groups import AbelianGroup, group_from_name
 from scheduler.factorization.starters import is_perfect_starter
 from scheduler.progress import Progress
 
@@ -289,6 +290,94 @@ def run_seed(seed: int, run: int, salt: int = 12_345) -> int:
     return (seed * 1_000_003 + run * 7_919 + salt) % (2**31 - 1)
 
 
+def forced_partners(subtree: Sequence[int], order: int) -> np.ndarray:
+    """The partners forced on the first elements paired, as the kernels' int32 array.
+
+    Parameters
+    ----------
+    subtree : sequence of int
+        The partners, in the order of the choices (an empty sequence: the whole space).
+    order : int
+        The order of the group searched.
+
+    Returns
+    -------
+    numpy.ndarray
+        The partners as int32.
+
+    Raises
+    ------
+    InputError
+        For a partner that is not a non-identity element of the group.
+
+    Examples
+    --------
+    >>> forced_partners((3, 5), 7).tolist()
+    [3, 5]
+    """
+    partners = list(subtree)
+    for y in partners:
+        if isinstance(y, bool) or not isinstance(y, (int, np.integer)) or not 0 < y < order:
+            raise InputError(f"a forced partner must be an element code 1..{order - 1}, "
+                             f"got {y!r}", location="subtree")
+    return np.array(partners, dtype=np.int32)
+
+
+def root_subtrees(order: int) -> list[tuple[int]]:
+    """The subtrees below the first choice of a starter search in a group of odd ``order``:
+    element 1 (paired first) with each partner ``y = 2 .. order - 1``. Searched one by one
+    (``subtree=(y,)``), they cover the whole space, so a space is settled by many independent
+    tasks, and the node counts of their complete searches add up to that of one complete
+    search.
+
+    Parameters
+    ----------
+    order : int
+        The order of the group.
+
+    Returns
+    -------
+    list of tuple of int
+        One one-element subtree per partner.
+
+    Examples
+    --------
+    >>> root_subtrees(7)
+    [(2,), (3,), (4,), (5,), (6,)]
+    """
+    return [(y,) for y in range(2, order)]
+
+
+def settle_subtree_task(group: str, multiplier: int, subtree: Sequence[int]) -> dict:
+    """One task of a settling search split by :func:`root_subtrees`: the complete search of the
+    subtree of multiplier-invariant starters of the abelian group named ``group``. A plain
+    top-level function with plain arguments and a JSON-ready result, so that a process pool or
+    a distributed engine can map it.
+
+    Parameters
+    ----------
+    group : str
+        The group's name (:func:`~scheduler.factorization.groups.group_from_name`).
+    multiplier : int
+        The unit the starters are invariant under.
+    subtree : sequence of int
+        The forced partners.
+
+    Returns
+    -------
+    dict
+        ``group``, ``multiplier``, ``subtree``, ``exhausted``, ``nodes``, ``seconds`` and
+        ``starter`` (the perfect starter found, or None).
+    """
+    result = search_perfect_starter(group_from_name(group), multiplier=multiplier,
+                                    subtree=tuple(subtree), exhaustive=True,
+                                    base_nodes=2**62, budget=1.0)
+    return {"group": group, "multiplier": multiplier, "subtree": list(subtree),
+            "exhausted": result.exhausted, "nodes": result.nodes,
+            "seconds": round(result.seconds, 3),
+            "starter": [list(p) for p in result.starter] if result.starter else None}
+
+
 def search_perfect_starter(
     group: AbelianGroup,
     *,
@@ -299,6 +388,7 @@ def search_perfect_starter(
     max_run_nodes: int = 5_000_000,
     max_nodes: int | None = None,
     exhaustive: bool = False,
+    subtree: Sequence[int] = (),
     progress: Progress | None = None,
 ) -> StarterSearchResult:
     """Search ``group`` for a perfect starter (invariant under ``x -> multiplier * x``).
@@ -327,6 +417,10 @@ def search_perfect_starter(
     exhaustive
         Run limits doubling without a cap (:func:`run_node_limit`): the way to settle a space,
         a multiplier space for instance.
+    subtree
+        Partners forced on the first elements paired (the search pairs the smallest free
+        element next): only the subtree below these choices is searched, and ``exhausted``
+        then says that subtree holds no perfect starter (:func:`settle_subtree_task`).
     progress
         Called as ``progress(message, fraction)`` after each run.
 
@@ -364,6 +458,7 @@ def search_perfect_starter(
     m = group.order
     start = time.perf_counter()
     add, neg, mulu, reps, weights = kernel_arrays(group, multiplier)
+    forced = forced_partners(subtree, m)
     out = np.zeros(((m - 1) // 2, 2), dtype=np.int32)
     runs = nodes = 0
     while True:
@@ -372,7 +467,7 @@ def search_perfect_starter(
         if max_nodes is not None:
             limit = max(1, min(limit, max_nodes - nodes))
         status, used, _ = search_kernel(
-            m, add, neg, mulu, reps, weights, 0, run_seed(seed, runs), limit, out
+            m, add, neg, mulu, reps, weights, 0, run_seed(seed, runs), limit, out, forced
         )
         nodes += int(used)
         elapsed = time.perf_counter() - start

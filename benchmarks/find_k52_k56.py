@@ -167,7 +167,7 @@ def main() -> None:
     start = time.perf_counter()
     # each restart is an independent task of the package's picklable search_task, so workers
     # on other machines need only the installed package
-    with task_engine(args.engine, args.workers, args.cluster) as (submit, wait_first):
+    with task_engine(args.engine, args.workers, args.cluster) as (submit_task, wait_first):
         pending: set = set()
         queue = iter(tasks)
         done_orders: set[int] = set()
@@ -181,7 +181,7 @@ def main() -> None:
                     if left < 5:
                         return False
                     budget = min(budget, left)
-                pending.add(submit(tw.search_task, order, name, seed, budget))
+                pending.add(submit_task(tw.search_task, order, name, seed, budget))
                 return True
             return False
 

@@ -369,7 +369,8 @@ def search_kernel(m, add, neg, mulu, reps, weights, max_bad, seed, node_limit, o
 
 
 @numba.njit(cache=True)
-def probe_kernel(m, add, neg, mulu, reps, weights, max_bad, seed, probes, out_nodes, out_leaves):
+def probe_kernel(m, add, neg, mulu, reps, weights, max_bad, seed, probes, out_nodes, out_leaves,
+                 forced):
     """Knuth's random probes of the tree that :func:`search_kernel` walks.
 
     Each probe goes down from the root, at every partial starter trying each open partner (as
@@ -377,7 +378,8 @@ def probe_kernel(m, add, neg, mulu, reps, weights, max_bad, seed, probes, out_no
     the product of the ``f`` met so far is the probe's weight. ``out_nodes[p]`` is the sum over
     the partial starters of the probe of weight times partners tried, ``out_leaves[p]`` the
     weight when the probe ends in a whole starter (0 otherwise): unbiased estimates of the nodes
-    of one complete search and of the number of accepted starters.
+    of one complete search and of the number of accepted starters. ``forced`` restricts the
+    first choices as in :func:`search_kernel` (the estimate is then that of the subtree).
     """
     np.random.seed(seed)
     n = m + 1
@@ -397,7 +399,14 @@ def probe_kernel(m, add, neg, mulu, reps, weights, max_bad, seed, probes, out_no
             if x == m:
                 leaves = weight
                 break
-            c = _candidates(x, m, add, neg, used, dused, row)
+            if depth < forced.shape[0]:
+                y = forced[depth]
+                c = 0
+                if 0 < y < m and y != x and not used[y] and not dused[add[x, neg[y]]]:
+                    row[0] = y
+                    c = 1
+            else:
+                c = _candidates(x, m, add, neg, used, dused, row)
             nodes += weight * c
             f = 0
             for i in range(c):

@@ -38,6 +38,7 @@ Examples
 from __future__ import annotations
 
 import math
+from collections.abc import Sequence
 from dataclasses import dataclass
 
 import numpy as np
@@ -46,7 +47,7 @@ from scheduler.errors import InputError
 from scheduler.factorization.groups import AbelianGroup
 from scheduler.factorization.linear_symmetries import Matrix
 from scheduler.factorization.nonabelian_starters import SemidirectGroup, group_kernel_arrays
-from scheduler.factorization.search import kernel_arrays
+from scheduler.factorization.search import forced_partners, kernel_arrays
 from scheduler.factorization.twin_point_starters import space_name, twin_kernel_arrays
 
 _PROBE_SALT = 97_531
@@ -118,19 +119,23 @@ def _summary(space: str, nodes: np.ndarray, leaves: np.ndarray) -> TreeSizeEstim
 
 def _probe(space: str, m: int, add: np.ndarray, neg: np.ndarray, mulu: np.ndarray,
            reps: np.ndarray, weights: np.ndarray, probes: int, seed: int,
-           perfect_only: bool) -> TreeSizeEstimate:
+           perfect_only: bool, subtree: Sequence[int]) -> TreeSizeEstimate:
     from scheduler.factorization._search_kernel import probe_kernel  # numba: lazily
 
+    forced = forced_partners(subtree, m)
+    if len(forced):
+        space += ", subtree " + " ".join(str(int(y)) for y in forced)
     nodes = np.zeros(probes, dtype=np.float64)
     leaves = np.zeros(probes, dtype=np.float64)
     max_bad = 0 if perfect_only else int(weights.sum())
     probe_kernel(m, add, neg, mulu, reps, weights, max_bad, _probe_seed(seed), probes, nodes,
-                 leaves)
+                 leaves, forced)
     return _summary(space, nodes, leaves)
 
 
 def estimate_starter_search(group: AbelianGroup, *, multiplier: int = 1, probes: int = 10_000,
-                            seed: int = 0, perfect_only: bool = True) -> TreeSizeEstimate:
+                            seed: int = 0, perfect_only: bool = True,
+                            subtree: Sequence[int] = ()) -> TreeSizeEstimate:
     """Estimate the tree of :func:`~scheduler.factorization.search.search_perfect_starter` in
     ``group`` (starters invariant under ``x -> multiplier * x``) by Knuth's random probes.
 
@@ -147,6 +152,9 @@ def estimate_starter_search(group: AbelianGroup, *, multiplier: int = 1, probes:
     perfect_only : bool, optional
         Refuse a partial starter as soon as a union closes a short cycle, as the search does
         (True); False accepts every invariant starter, so that ``starters`` counts them all.
+    subtree : sequence of int, optional
+        Partners forced on the first elements paired: the estimate of that subtree
+        (:func:`~scheduler.factorization.search.root_subtrees`).
 
     Returns
     -------
@@ -156,7 +164,8 @@ def estimate_starter_search(group: AbelianGroup, *, multiplier: int = 1, probes:
     Raises
     ------
     InputError
-        For a number of probes that is not a positive integer or a seed that is not an integer.
+        For a number of probes that is not a positive integer, a seed that is not an integer or
+        a forced partner that is not an element.
 
     References
     ----------
@@ -172,12 +181,14 @@ def estimate_starter_search(group: AbelianGroup, *, multiplier: int = 1, probes:
     _check(probes, seed)
     add, neg, mulu, reps, weights = kernel_arrays(group, multiplier)
     space = group.name if multiplier == 1 else f"{group.name}, multiplier {multiplier}"
-    return _probe(space, group.order, add, neg, mulu, reps, weights, probes, seed, perfect_only)
+    return _probe(space, group.order, add, neg, mulu, reps, weights, probes, seed, perfect_only,
+                  subtree)
 
 
 def estimate_group_starter_search(group: SemidirectGroup, *,
                                   automorphism: tuple[int, int] = (1, 0), probes: int = 10_000,
-                                  seed: int = 0, perfect_only: bool = True) -> TreeSizeEstimate:
+                                  seed: int = 0, perfect_only: bool = True,
+                                  subtree: Sequence[int] = ()) -> TreeSizeEstimate:
     """Estimate the tree of
     :func:`~scheduler.factorization.nonabelian_starters.search_perfect_group_starter` (starters
     of the non-abelian ``group`` invariant under ``group.automorphism(*automorphism)``).
@@ -193,6 +204,8 @@ def estimate_group_starter_search(group: SemidirectGroup, *,
     seed : int, optional
         Seed of the paths.
     perfect_only : bool, optional
+        As in :func:`estimate_starter_search`.
+    subtree : sequence of int, optional
         As in :func:`estimate_starter_search`.
 
     Returns
@@ -213,7 +226,8 @@ def estimate_group_starter_search(group: SemidirectGroup, *,
     add, neg, mulu, reps, weights = group_kernel_arrays(group, automorphism)
     space = group.name if tuple(automorphism) == (1, 0) else (
         f"{group.name}, automorphism {tuple(automorphism)}")
-    return _probe(space, group.order, add, neg, mulu, reps, weights, probes, seed, perfect_only)
+    return _probe(space, group.order, add, neg, mulu, reps, weights, probes, seed, perfect_only,
+                  subtree)
 
 
 def estimate_twin_search(base: str, missing: int, *, multiplier: int = 1,

@@ -132,3 +132,24 @@ def test_twin_space_must_be_well_posed():
     with pytest.raises(InputError) as err:
         estimate_twin_search("Z_7", 3)  # K_16 needs an even missing element
     assert err.value.location == "missing"
+
+
+def test_subtree_estimates_meet_the_subtree_searches_and_add_up():
+    from scheduler.factorization.search import root_subtrees, settle_subtree_task
+
+    group = cyclic(39)
+    whole = estimate_starter_search(group, multiplier=16, probes=5_000)
+    total = error2 = 0.0
+    for t in root_subtrees(39):
+        part = estimate_starter_search(group, multiplier=16, probes=2_000, subtree=t)
+        exact = settle_subtree_task("Z_39", 16, t)["nodes"]
+        assert close(part.nodes, part.nodes_error, exact), (t, part, exact)
+        total += part.nodes
+        error2 += part.nodes_error**2
+    assert abs(total - whole.nodes) <= SIGMAS * (error2 + whole.nodes_error**2) ** 0.5
+    assert part.space == "Z_39, multiplier 16, subtree 38"
+    group5 = semidirect(11, 5)
+    part = estimate_group_starter_search(group5, automorphism=(1, 1), probes=2_000, subtree=(7,))
+    exact = search_perfect_group_starter(group5, automorphism=(1, 1), subtree=(7,),
+                                         exhaustive=True, base_nodes=COMPLETE, budget=60).nodes
+    assert close(part.nodes, part.nodes_error, exact)

@@ -34,9 +34,12 @@ Recorded runs (seed 0, 2 shared cores, ``nice -n 19``; "empty" = space exhausted
   and u = 35 (1.0e9 nodes, 180 s) found nothing with capped runs; exhaustive runs later settled
   both (empty: u = 35 after 2.0e9 nodes, u = 16 in one complete search of 2.86e9 nodes).
 * K_56: ``multipliers 55``: orders 4, 5, 10, 20 and u = 54 empty; u = 21 (4.9e8 nodes) and
-  u = 34 (5.5e8 nodes), 180 s each, found nothing. ``group 11 5``: 1.58e9 nodes (600 s)
+  u = 34 (5.5e8 nodes), 180 s each, found nothing with capped runs; later u = 34 was settled
+  empty by one complete search (8.84e9 nodes) and u = 21 in part (``settle 55 21``, partners
+  2-4 empty). ``group 11 5``: 1.58e9 nodes (600 s)
   nothing; automorphisms of order 5, 10, 11 empty; ``group 11 5 10 0`` (order 2): 1.0e9
-  nodes (240 s) nothing. ``group 11 5 --seed S`` (plain space, 240 s each, nothing):
+  nodes (240 s) nothing, later settled empty by ``settle-group 11 5 10 0`` (2.29e10 nodes).
+  ``group 11 5 --seed S`` (plain space, 240 s each, nothing):
   seed 1 5.27e8 nodes, seed 2 5.52e8, seed 3 5.41e8, seed 4 5.41e8, seed 5 5.68e8,
   seed 6 5.55e8 (3.28e9 nodes, 1440 s in all).
 * Even starters: Z_30 (K_32) found after 4.0e7 nodes; Z_34 (K_36) nothing in 2.2e8 nodes

@@ -30,9 +30,9 @@ D. E. Knuth, "Estimating the efficiency of backtrack programs", Math. Comp. 29 (
 
 Examples
 --------
->>> from scheduler.factorization.groups import cyclic
 The first call compiles the probe kernel (numba), so the example is not run as a test:
 
+>>> from scheduler.factorization.groups import cyclic
 >>> estimate = estimate_starter_search(cyclic(13), probes=20_000, perfect_only=False)
 ... # doctest: +SKIP
 >>> abs(estimate.starters - 133) < 4 * estimate.starters_error  # OEIS A006204 # doctest: +SKIP

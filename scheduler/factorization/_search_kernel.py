@@ -222,27 +222,15 @@ def search_kernel(m, add, neg, mulu, reps, weights, max_bad, seed, node_limit, o
     """
     np.random.seed(seed)
     n = m + 1
-    inf = m
     T = reps.shape[0]
-    end, size, trail_t, trail_v, trail_e, trail_s, top = _path_state(T, n)
-    for t in range(T):
-        _add_edge(t, inf, 0, n, end, size, trail_t, trail_v, trail_e, trail_s, top)
-        _add_edge(t, inf, reps[t], n, end, size, trail_t, trail_v, trail_e, trail_s, top)
-    top[0] = 0
-
-    used = np.zeros(m, np.bool_)
-    used[0] = True
-    dused = np.zeros(m, np.bool_)
+    # the bad weight stays a plain local here (the helpers' one-element array is for them)
+    (used, dused, op, opn, mark, bad_depth, _,
+     end, size, trail_t, trail_v, trail_e, trail_s, top) = _search_state(m, reps)
     maxd = (m - 1) // 2 + 1
     cand = np.empty((maxd, m), np.int32)
     ncand = np.zeros(maxd, np.int32)
     ci = np.zeros(maxd, np.int32)
     cx = np.zeros(maxd, np.int32)
-    mark = np.zeros(maxd, np.int64)
-    op = np.empty((maxd, m, 2), np.int32)
-    opn = np.zeros(maxd, np.int32)
-
-    bad_depth = np.full(T, -1, np.int32)
     badw = 0
     depth = 0
     nodes = 0

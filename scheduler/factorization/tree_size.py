@@ -51,7 +51,7 @@ from scheduler.errors import InputError
 from scheduler.factorization.groups import AbelianGroup
 from scheduler.factorization.linear_symmetries import Matrix
 from scheduler.factorization.nonabelian_starters import SemidirectGroup, group_kernel_arrays
-from scheduler.factorization.search import forced_partners, kernel_arrays
+from scheduler.factorization.search import forced_partners, kernel_arrays, run_seed
 from scheduler.factorization.twin_point_starters import space_name, twin_kernel_arrays
 
 _PROBE_SALT = 97_531
@@ -106,10 +106,6 @@ def _check(probes: int, seed: int) -> None:
         raise InputError(f"the seed must be an integer, got {seed!r}", location="seed")
 
 
-def _probe_seed(seed: int) -> int:
-    return (seed * 1_000_003 + _PROBE_SALT) % (2**31 - 1)
-
-
 def _summary(space: str, nodes: np.ndarray, leaves: np.ndarray) -> TreeSizeEstimate:
     """Means and standard errors of the probes' node and leaf estimates."""
     probes = len(nodes)
@@ -132,8 +128,8 @@ def _probe(space: str, m: int, add: np.ndarray, neg: np.ndarray, mulu: np.ndarra
     nodes = np.zeros(probes, dtype=np.float64)
     leaves = np.zeros(probes, dtype=np.float64)
     max_bad = 0 if perfect_only else int(weights.sum())
-    probe_kernel(m, add, neg, mulu, reps, weights, max_bad, _probe_seed(seed), probes, nodes,
-                 leaves, forced)
+    probe_kernel(m, add, neg, mulu, reps, weights, max_bad, run_seed(seed, 0, _PROBE_SALT),
+                 probes, nodes, leaves, forced)
     return _summary(space, nodes, leaves)
 
 
@@ -279,6 +275,7 @@ def estimate_twin_search(base: str, missing: int, *, multiplier: int = 1,
     space = space_name(base, swapped=False, missing=int(missing), multiplier=multiplier,
                        merged=merged, matrix=matrix, flip=flip)
     if not twin_probe_kernel(G.order, G.add, G.neg, symmetry, G.par, 1, int(missing), False,
-                             bool(merged), reps, _probe_seed(seed), probes, nodes, leaves):
+                             bool(merged), reps, run_seed(seed, 0, _PROBE_SALT), probes, nodes,
+                             leaves):
         return TreeSizeEstimate(space, probes, 0.0, 0.0, 0.0, 0.0, 0)
     return _summary(space, nodes, leaves)

@@ -19,8 +19,10 @@ find:
 settle a space by complete searches of the subtrees below the first choice (element 1 paired
 with each partner ``2 .. order - 1``), one independent task per subtree on a local process pool
 or Dask distributed; ``--partners A-B`` runs only those subtrees, so a large space can be
-settled over several runs. One ``#`` line per subtree, then the nodes in all (they add up to
-those of one complete search) and whether every subtree run was exhausted.
+settled over several runs, and a list such as ``--partners 21,5-20,22-54`` runs them in that
+order (the largest subtree first, so that it does not run alone at the end). One ``#`` line
+per subtree, then the nodes in all (they add up to those of one complete search) and whether
+every subtree run was exhausted.
 
 ``rate`` prints the node rate of each kernel on K_40-sized spaces and the ratio against the
 cyclic-starter kernel (the reference implementation).
@@ -35,8 +37,9 @@ Recorded runs (seed 0, 2 shared cores, ``nice -n 19``; "empty" = space exhausted
   both (empty: u = 35 after 2.0e9 nodes, u = 16 in one complete search of 2.86e9 nodes).
 * K_56: ``multipliers 55``: orders 4, 5, 10, 20 and u = 54 empty; u = 21 (4.9e8 nodes) and
   u = 34 (5.5e8 nodes), 180 s each, found nothing with capped runs; later u = 34 was settled
-  empty by one complete search (8.84e9 nodes) and u = 21 in part (``settle 55 21``, partners
-  2-4 empty). ``group 11 5``: 1.58e9 nodes (600 s)
+  empty by one complete search (8.84e9 nodes); u = 21 was settled in part (``settle 55 21``,
+  partners 2-5 empty) and then whole by ``settle 55 21 --up-to-units --workers 2``: empty,
+  21 subtrees, 5,910,885,512 nodes, 1,233 s wall. ``group 11 5``: 1.58e9 nodes (600 s)
   nothing; automorphisms of order 5, 10, 11 empty; ``group 11 5 10 0`` (order 2): 1.0e9
   nodes (240 s) nothing, later settled empty by ``settle-group 11 5 10 0`` (2.29e10 nodes).
   ``group 11 5 --seed S`` (plain space, 240 s each, nothing):
@@ -68,6 +71,7 @@ from scheduler.factorization.search import (
     search_perfect_starter,
     settle_subtree_task,
 )
+from scheduler.factorization.unit_classes import unit_class_subtrees
 
 
 def _line(label: str, res) -> None:
@@ -93,25 +97,41 @@ def cyclic_subgroup_generators(group: AbelianGroup) -> list[tuple[int, int]]:
     return gens
 
 
+def partner_list(text: str) -> list[int]:
+    """Partners from ``A-B,C,D-E`` in the order given (a large subtree can go first)."""
+    partners: list[int] = []
+    for part in text.split(","):
+        low, _, high = part.partition("-")
+        for y in range(int(low), int(high or low) + 1):
+            if y not in partners:
+                partners.append(y)
+    return partners
+
+
 def settle(a: argparse.Namespace) -> None:
     """Settle one symmetric space by its root subtrees as independent tasks."""
     if a.space == "settle":
         m, u = a.args
         order, label = m, f"starters in Z_{m}, multiplier {u}"
         task, fixed = settle_subtree_task, (f"Z_{m}", u)
+        if a.up_to_units:
+            label += ", up to units"
     else:
         p, q, s, c = a.args
         group = semidirect(p, q)
         order, label = group.order, f"starters in {group.name}, automorphism ({s}, {c})"
         task, fixed = settle_group_subtree_task, (p, q, group.r, (s, c))
-    subtrees = root_subtrees(order)
+    if a.up_to_units and a.space != "settle":
+        raise SystemExit("--up-to-units: cyclic starters only (settle M U)")
+    subtrees = unit_class_subtrees(order) if a.up_to_units else root_subtrees(order)
     if a.partners:
-        low, high = (int(x) for x in a.partners.split("-"))
-        subtrees = [t for t in subtrees if low <= t[0] <= high]
+        by_partner = {t[0]: t for t in subtrees}
+        subtrees = [by_partner[y] for y in partner_list(a.partners) if y in by_partner]
     start = time.perf_counter()
     nodes, exhausted, found = 0, 0, None
     with task_engine(a.engine, a.workers, a.cluster) as (submit, wait_first):
-        pending = {submit(task, *fixed, t) for t in subtrees}
+        extra = (True,) if a.up_to_units else ()
+        pending = {submit(task, *fixed, t, *extra) for t in subtrees}
         while pending:
             for future in wait_first(pending):
                 pending.discard(future)
@@ -125,7 +145,7 @@ def settle(a: argparse.Namespace) -> None:
                     print(json.dumps(r), flush=True)
                     for other in pending:
                         other.cancel()
-    partners = f"{subtrees[0][0]}-{subtrees[-1][0]}" if subtrees else "none"
+    partners = a.partners or (f"{subtrees[0][0]}-{subtrees[-1][0]}" if subtrees else "none")
     print(f"# {label}, partners {partners}: {len(subtrees)} subtrees, {exhausted} exhausted, "
           f"found={found is not None}, nodes={nodes} "
           f"{time.perf_counter() - start:.1f}s wall, {a.workers} workers ({a.engine})",
@@ -141,7 +161,11 @@ def main() -> None:
     parser.add_argument("--seed", type=int, default=0)
     parser.add_argument("--max-run-nodes", type=int, default=5_000_000)
     parser.add_argument("--partners", default=None,
-                        help="settle: only the subtrees of these partners of element 1, A-B")
+                        help="settle: only the subtrees of these partners of element 1, "
+                             "A-B or a list A-B,C,D-E run in the order given")
+    parser.add_argument("--up-to-units", action="store_true",
+                        help="settle: search one starter per class under multiplication by "
+                             "units (the subtrees of unit_classes.unit_class_subtrees)")
     parser.add_argument("--workers", type=int, default=2)
     parser.add_argument("--engine", choices=["pool", "dask"], default="pool")
     parser.add_argument("--cluster", default=None,

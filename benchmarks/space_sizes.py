@@ -10,10 +10,11 @@ node count of the complete search and their ratio (the estimator is unbiased, so
 should lie within a few standard errors of 1). Then each kernel's node rate on a plain space of
 the two orders.
 Then one line per space of the two orders: the estimated nodes of one complete search with its
-relative standard error, the estimated number of perfect starters it holds (0 when no probe
-reached one, which for rare leaves says little), and the core-days a complete search would take
-at that node rate of the same kernel. Recorded figures:
-docs/factorization-search.md, "How big the spaces are".
+relative standard error (for the cyclic spaces also the search up to units, the sum over the
+subtrees of ``unit_class_subtrees`` with a tenth of the probes each), the estimated number of
+perfect starters it holds (0 when no probe reached one, which for rare leaves says little), and
+the core-days a complete search would take at that node rate of the same kernel. Recorded
+figures: docs/factorization-search.md, "How big the spaces are" and "Settling up to units".
 """
 
 from __future__ import annotations
@@ -23,7 +24,7 @@ import time
 
 from scheduler.factorization.groups import cyclic
 from scheduler.factorization.nonabelian_starters import search_perfect_group_starter, semidirect
-from scheduler.factorization.search import search_perfect_starter
+from scheduler.factorization.search import search_perfect_starter, settle_subtree_task
 from scheduler.factorization.tree_size import (
     TreeSizeEstimate,
     estimate_group_starter_search,
@@ -34,10 +35,31 @@ from scheduler.factorization.twin_point_starters import (
     missing_representatives,
     search_perfect_twin_starter,
 )
+from scheduler.factorization.unit_classes import unit_class_subtrees
 
 # plain spaces: GF(q) and Z_p^d are the same group with the same codes
 TWIN_BASES = {52: ["Z_25", "Z_5 x Z_5"], 56: ["Z_27", "Z_3 x Z_9", "Z_3 x Z_3 x Z_3"]}
 DAY = 86_400.0
+
+
+def up_to_units(m: int, u: int, probes: int) -> TreeSizeEstimate:
+    """The tree of a settling search of ``Z_m`` (multiplier ``u``) up to units: the sum of the
+    estimates of the subtrees of ``unit_class_subtrees(m)``, errors added in quadrature."""
+    parts = [estimate_starter_search(cyclic(m), multiplier=u, probes=probes, subtree=t,
+                                     up_to_units=True) for t in unit_class_subtrees(m)]
+    nodes = sum(p.nodes for p in parts)
+    error = sum(p.nodes_error**2 for p in parts) ** 0.5
+    space = parts[0].space.split(", subtree")[0]
+    return TreeSizeEstimate(space, probes * len(parts), nodes, error, 0.0, 0.0, 0)
+
+
+class _Settled:
+    """The node count of the subtree tasks of a search up to units, as one result."""
+
+    def __init__(self, m: int, u: int) -> None:
+        runs = [settle_subtree_task(f"Z_{m}", u, t, True) for t in unit_class_subtrees(m)]
+        self.exhausted = all(r["exhausted"] for r in runs)
+        self.nodes = sum(r["nodes"] for r in runs)
 
 
 def calibration(probes: int) -> None:
@@ -49,6 +71,7 @@ def calibration(probes: int) -> None:
         (estimate_starter_search(cyclic(39), multiplier=16, probes=probes),
          lambda: search_perfect_starter(cyclic(39), multiplier=16, exhaustive=True,
                                         base_nodes=big, budget=1)),
+        (up_to_units(39, 16, probes), lambda: _Settled(39, 16)),
         (estimate_starter_search(cyclic(51), multiplier=4, probes=probes),
          lambda: search_perfect_starter(cyclic(51), multiplier=4, exhaustive=True,
                                         base_nodes=big, budget=1)),
@@ -105,6 +128,9 @@ def spaces(probes: int, node_rates: dict[str, float]) -> None:
         for u in multipliers:
             start = time.perf_counter()
             estimate = estimate_starter_search(cyclic(m), multiplier=u, probes=probes)
+            _row(order, estimate, node_rates["starter"], time.perf_counter() - start)
+            start = time.perf_counter()
+            estimate = up_to_units(m, u, max(1, probes // 10))
             _row(order, estimate, node_rates["starter"], time.perf_counter() - start)
         if order == 56:
             for automorphism in ((1, 0), (10, 0)):

@@ -197,11 +197,11 @@ def _search_state(m, reps):
 
 
 @numba.njit(cache=True, inline="always")
-def _candidates(x, m, add, neg, used, dused, row):
+def _candidates(x, m, add, neg, used, dused, allowed, row):
     """Write the partners ``y`` still open to ``x`` into ``row``; returns how many."""
     c = 0
     for y in range(1, m):
-        if y != x and not used[y] and not dused[add[x, neg[y]]]:
+        if y != x and not used[y] and not dused[add[x, neg[y]]] and allowed[x, y]:
             row[c] = y
             c += 1
     return c
@@ -209,12 +209,15 @@ def _candidates(x, m, add, neg, used, dused, row):
 
 @numba.njit(cache=True)
 def search_kernel(m, add, neg, mulu, reps, weights, max_bad, seed, node_limit, out_pairs,
-                  forced):
+                  forced, allowed):
     """Returns ``(status, nodes, bad)``: status 1 found (pairs in ``out_pairs``), 0 node limit
     hit, -1 search space exhausted (no such multiplier-invariant starter exists).
 
     ``forced[d]`` (for ``d < len(forced)``) is the only partner tried at depth ``d``: the search
     then covers the subtree below that choice, and -1 says the subtree is exhausted.
+    ``allowed[x, y]`` False keeps the pair ``{x, y}`` out of every starter searched (the pairs
+    ruled out by :mod:`scheduler.factorization.unit_classes`; all True: no restriction); it
+    must be invariant under the multiplier, as the pair's orbit is placed with it.
 
     A representative ``reps[t]`` whose union closes a short cycle becomes *bad* and costs
     ``weights[t]``; a partial starter is refused once the bad weight exceeds ``max_bad``
@@ -251,12 +254,13 @@ def search_kernel(m, add, neg, mulu, reps, weights, max_bad, seed, node_limit, o
             c = 0
             if depth < forced.shape[0]:
                 y = forced[depth]
-                if 0 < y < m and y != x and not used[y] and not dused[add[x, neg[y]]]:
+                if (0 < y < m and y != x and not used[y] and not dused[add[x, neg[y]]]
+                        and allowed[x, y]):
                     cand[depth, 0] = y
                     c = 1
             else:
                 for y in range(1, m):
-                    if y != x and not used[y] and not dused[add[x, neg[y]]]:
+                    if y != x and not used[y] and not dused[add[x, neg[y]]] and allowed[x, y]:
                         cand[depth, c] = y
                         c += 1
                 _shuffle_row(cand, depth, c)
@@ -358,7 +362,7 @@ def search_kernel(m, add, neg, mulu, reps, weights, max_bad, seed, node_limit, o
 
 @numba.njit(cache=True)
 def probe_kernel(m, add, neg, mulu, reps, weights, max_bad, seed, probes, out_nodes, out_leaves,
-                 forced):
+                 forced, allowed):
     """Knuth's random probes of the tree that :func:`search_kernel` walks.
 
     Each probe goes down from the root, at every partial starter trying each open partner (as
@@ -367,7 +371,8 @@ def probe_kernel(m, add, neg, mulu, reps, weights, max_bad, seed, probes, out_no
     the partial starters of the probe of weight times partners tried, ``out_leaves[p]`` the
     weight when the probe ends in a whole starter (0 otherwise): unbiased estimates of the nodes
     of one complete search and of the number of accepted starters. ``forced`` restricts the
-    first choices as in :func:`search_kernel` (the estimate is then that of the subtree).
+    first choices and ``allowed`` the pairs as in :func:`search_kernel` (the estimate is then
+    that of the subtree).
     """
     np.random.seed(seed)
     n = m + 1
@@ -390,11 +395,12 @@ def probe_kernel(m, add, neg, mulu, reps, weights, max_bad, seed, probes, out_no
             if depth < forced.shape[0]:
                 y = forced[depth]
                 c = 0
-                if 0 < y < m and y != x and not used[y] and not dused[add[x, neg[y]]]:
+                if (0 < y < m and y != x and not used[y] and not dused[add[x, neg[y]]]
+                        and allowed[x, y]):
                     row[0] = y
                     c = 1
             else:
-                c = _candidates(x, m, add, neg, used, dused, row)
+                c = _candidates(x, m, add, neg, used, dused, allowed, row)
             nodes += weight * c
             f = 0
             for i in range(c):

@@ -218,6 +218,7 @@ def near_perfect_starter(
     record: dict[str, Any] = {"tried": [f"{g.name} u={u}" for g, u, _, _ in cands], "runs": 0,
                               "nodes": 0, "clock": False}
     out = np.zeros((classes, 2), dtype=np.int32)
+    every_pair = np.ones((m, m), dtype=np.bool_)
     run = 0
     spent = 0
     pruned = False
@@ -229,6 +230,7 @@ def near_perfect_starter(
         status, nodes, badw = search_kernel(
             m, add, neg, mulu, reps, weights, classes - need[ci],
             _run_seed(seed, 1, run), _RUN_NODES, out, np.zeros(0, dtype=np.int32),
+            every_pair,
         )
         spent += int(nodes) * len(reps)
         record["runs"] = run

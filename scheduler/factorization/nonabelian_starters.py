@@ -569,6 +569,7 @@ def search_perfect_group_starter(
     automorphism_pair = (automorphism[0], automorphism[1])
     add, neg, mulu, reps, weights = group_kernel_arrays(group, automorphism_pair)
     forced = forced_partners(subtree, m)
+    every_pair = np.ones((m, m), dtype=np.bool_)
     out = np.zeros(((m - 1) // 2, 2), dtype=np.int32)
     start = time.perf_counter()
     runs = nodes = 0
@@ -578,7 +579,8 @@ def search_perfect_group_starter(
         if max_nodes is not None:
             limit = max(1, min(limit, max_nodes - nodes))
         status, used, _ = search_kernel(m, add, neg, mulu, reps, weights, 0,
-                                        run_seed(seed, runs, _GROUP_SALT), limit, out, forced)
+                                        run_seed(seed, runs, _GROUP_SALT), limit, out, forced,
+                                        every_pair)
         nodes += int(used)
         elapsed = time.perf_counter() - start
         if status == 1:

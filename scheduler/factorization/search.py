@@ -31,6 +31,7 @@ import numpy as np
 from scheduler.errors import InputError
 from scheduler.factorization.groups import AbelianGroup, group_from_name
 from scheduler.factorization.starters import is_perfect_starter
+from scheduler.factorization.unit_classes import subtree_pair_mask
 from scheduler.progress import Progress
 
 
@@ -323,6 +324,35 @@ def forced_partners(subtree: Sequence[int], order: int) -> np.ndarray:
     return np.array(partners, dtype=np.int32)
 
 
+def pair_mask(group: AbelianGroup, subtree: Sequence[int], up_to_units: bool) -> np.ndarray:
+    """The kernels' mask of the pairs a search may use: every pair, or up to units those of
+    :func:`~scheduler.factorization.unit_classes.subtree_pair_mask`.
+
+    Parameters
+    ----------
+    group : AbelianGroup
+        The group searched.
+    subtree : sequence of int
+        The forced partners.
+    up_to_units : bool
+        Whether the search is up to multiplication by units.
+
+    Returns
+    -------
+    numpy.ndarray
+        Boolean ``(m, m)`` mask.
+
+    Examples
+    --------
+    >>> from scheduler.factorization.groups import cyclic
+    >>> bool(pair_mask(cyclic(7), (), False).all())
+    True
+    """
+    if up_to_units:
+        return subtree_pair_mask(group, subtree)
+    return np.ones((group.order, group.order), dtype=np.bool_)
+
+
 def root_subtrees(order: int) -> list[tuple[int]]:
     """The subtrees below the first choice of a starter search in a group of odd ``order``:
     element 1 (paired first) with each partner ``y = 2 .. order - 1``. Searched one by one
@@ -348,7 +378,8 @@ def root_subtrees(order: int) -> list[tuple[int]]:
     return [(y,) for y in range(2, order)]
 
 
-def settle_subtree_task(group: str, multiplier: int, subtree: Sequence[int]) -> dict:
+def settle_subtree_task(group: str, multiplier: int, subtree: Sequence[int],
+                        up_to_units: bool = False) -> dict:
     """One task of a settling search split by :func:`root_subtrees`: the complete search of the
     subtree of multiplier-invariant starters of the abelian group named ``group``. A plain
     top-level function with plain arguments and a JSON-ready result, so that a process pool or
@@ -362,18 +393,22 @@ def settle_subtree_task(group: str, multiplier: int, subtree: Sequence[int]) -> 
         The unit the starters are invariant under.
     subtree : sequence of int
         The forced partners.
+    up_to_units : bool, optional
+        Search the subtree up to multiplication by units
+        (:mod:`~scheduler.factorization.unit_classes`; the tasks are then those of
+        :func:`~scheduler.factorization.unit_classes.unit_class_subtrees`).
 
     Returns
     -------
     dict
-        ``group``, ``multiplier``, ``subtree``, ``exhausted``, ``nodes``, ``seconds`` and
-        ``starter`` (the perfect starter found, or None).
+        ``group``, ``multiplier``, ``subtree``, ``up_to_units``, ``exhausted``, ``nodes``,
+        ``seconds`` and ``starter`` (the perfect starter found, or None).
     """
     result = search_perfect_starter(group_from_name(group), multiplier=multiplier,
-                                    subtree=tuple(subtree), exhaustive=True,
-                                    base_nodes=2**62, budget=1.0)
+                                    subtree=tuple(subtree), up_to_units=up_to_units,
+                                    exhaustive=True, base_nodes=2**62, budget=1.0)
     return {"group": group, "multiplier": multiplier, "subtree": list(subtree),
-            "exhausted": result.exhausted, "nodes": result.nodes,
+            "up_to_units": up_to_units, "exhausted": result.exhausted, "nodes": result.nodes,
             "seconds": round(result.seconds, 3),
             "starter": [list(p) for p in result.starter] if result.starter else None}
 
@@ -389,6 +424,7 @@ def search_perfect_starter(
     max_nodes: int | None = None,
     exhaustive: bool = False,
     subtree: Sequence[int] = (),
+    up_to_units: bool = False,
     progress: Progress | None = None,
 ) -> StarterSearchResult:
     """Search ``group`` for a perfect starter (invariant under ``x -> multiplier * x``).
@@ -421,6 +457,11 @@ def search_perfect_starter(
         Partners forced on the first elements paired (the search pairs the smallest free
         element next): only the subtree below these choices is searched, and ``exhausted``
         then says that subtree holds no perfect starter (:func:`settle_subtree_task`).
+    up_to_units
+        Search only the starters of the subtree that represent their class under
+        multiplication by units (cyclic groups; ``subtree`` one of
+        :func:`~scheduler.factorization.unit_classes.unit_class_subtrees`): ``exhausted`` then
+        says that no class met in this subtree has a perfect starter.
     progress
         Called as ``progress(message, fraction)`` after each run.
 
@@ -459,6 +500,7 @@ def search_perfect_starter(
     start = time.perf_counter()
     add, neg, mulu, reps, weights = kernel_arrays(group, multiplier)
     forced = forced_partners(subtree, m)
+    allowed = pair_mask(group, subtree, up_to_units)
     out = np.zeros(((m - 1) // 2, 2), dtype=np.int32)
     runs = nodes = 0
     while True:
@@ -467,7 +509,8 @@ def search_perfect_starter(
         if max_nodes is not None:
             limit = max(1, min(limit, max_nodes - nodes))
         status, used, _ = search_kernel(
-            m, add, neg, mulu, reps, weights, 0, run_seed(seed, runs), limit, out, forced
+            m, add, neg, mulu, reps, weights, 0, run_seed(seed, runs), limit, out, forced,
+            allowed,
         )
         nodes += int(used)
         elapsed = time.perf_counter() - start

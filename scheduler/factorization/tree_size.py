@@ -51,7 +51,7 @@ from scheduler.errors import InputError
 from scheduler.factorization.groups import AbelianGroup
 from scheduler.factorization.linear_symmetries import Matrix
 from scheduler.factorization.nonabelian_starters import SemidirectGroup, group_kernel_arrays
-from scheduler.factorization.search import forced_partners, kernel_arrays, run_seed
+from scheduler.factorization.search import forced_partners, kernel_arrays, pair_mask, run_seed
 from scheduler.factorization.twin_point_starters import space_name, twin_kernel_arrays
 
 _PROBE_SALT = 97_531
@@ -119,7 +119,8 @@ def _summary(space: str, nodes: np.ndarray, leaves: np.ndarray) -> TreeSizeEstim
 
 def _probe(space: str, m: int, add: np.ndarray, neg: np.ndarray, mulu: np.ndarray,
            reps: np.ndarray, weights: np.ndarray, probes: int, seed: int,
-           perfect_only: bool, subtree: Sequence[int]) -> TreeSizeEstimate:
+           perfect_only: bool, subtree: Sequence[int],
+           allowed: np.ndarray | None = None) -> TreeSizeEstimate:
     from scheduler.factorization._search_kernel import probe_kernel  # numba: lazily
 
     forced = forced_partners(subtree, m)
@@ -128,14 +129,17 @@ def _probe(space: str, m: int, add: np.ndarray, neg: np.ndarray, mulu: np.ndarra
     nodes = np.zeros(probes, dtype=np.float64)
     leaves = np.zeros(probes, dtype=np.float64)
     max_bad = 0 if perfect_only else int(weights.sum())
+    if allowed is None:
+        allowed = np.ones((m, m), dtype=np.bool_)
     probe_kernel(m, add, neg, mulu, reps, weights, max_bad, run_seed(seed, 0, _PROBE_SALT),
-                 probes, nodes, leaves, forced)
+                 probes, nodes, leaves, forced, allowed)
     return _summary(space, nodes, leaves)
 
 
 def estimate_starter_search(group: AbelianGroup, *, multiplier: int = 1, probes: int = 10_000,
                             seed: int = 0, perfect_only: bool = True,
-                            subtree: Sequence[int] = ()) -> TreeSizeEstimate:
+                            subtree: Sequence[int] = (),
+                            up_to_units: bool = False) -> TreeSizeEstimate:
     """Estimate the tree of :func:`~scheduler.factorization.search.search_perfect_starter` in
     ``group`` (starters invariant under ``x -> multiplier * x``) by Knuth's random probes.
 
@@ -155,6 +159,9 @@ def estimate_starter_search(group: AbelianGroup, *, multiplier: int = 1, probes:
     subtree : sequence of int, optional
         Partners forced on the first elements paired: the estimate of that subtree
         (:func:`~scheduler.factorization.search.root_subtrees`).
+    up_to_units : bool, optional
+        The subtree searched up to multiplication by units, as the search does with the same
+        option (:mod:`~scheduler.factorization.unit_classes`).
 
     Returns
     -------
@@ -181,8 +188,10 @@ def estimate_starter_search(group: AbelianGroup, *, multiplier: int = 1, probes:
     _check(probes, seed)
     add, neg, mulu, reps, weights = kernel_arrays(group, multiplier)
     space = group.name if multiplier == 1 else f"{group.name}, multiplier {multiplier}"
+    if up_to_units:
+        space += ", up to units"
     return _probe(space, group.order, add, neg, mulu, reps, weights, probes, seed, perfect_only,
-                  subtree)
+                  subtree, pair_mask(group, subtree, up_to_units))
 
 
 def estimate_group_starter_search(group: SemidirectGroup, *,

@@ -124,6 +124,47 @@ def test_semidirect_is_a_nonabelian_group():
         assert na.is_automorphism(g, g.automorphism(s, c))
 
 
+def _element_order(g, x):
+    k, y = 1, x
+    while y != 0:
+        y, k = int(g.mul[y, x]), k + 1
+    return k
+
+
+@pytest.mark.parametrize(("p", "q"), [(7, 3), (11, 5)])
+def test_the_searched_maps_are_every_automorphism(p, q):
+    """Every automorphism of Z_p ⋊ Z_q, found by trying every image of the two generators, is
+    one of the p (p - 1) maps (s, c) the searches take: |Aut| = p (p - 1), the order of the
+    affine group AGL(1, p) (the automorphism group of these Frobenius groups; from memory).
+    docs/factorization-search.md relies on it to say that every symmetry of Z_11 ⋊ Z_5 was
+    searched."""
+    g = na.semidirect(p, q)
+    n = g.order
+    a = next(x for x in range(n) if _element_order(g, x) == p)
+    b = next(x for x in range(n) if _element_order(g, x) == q)
+
+    def word(i, j, ga, gb):  # ga^i gb^j
+        y = 0
+        for _ in range(i):
+            y = int(g.mul[y, ga])
+        for _ in range(j):
+            y = int(g.mul[y, gb])
+        return y
+
+    words = {word(i, j, a, b): (i, j) for i in range(p) for j in range(q)}
+    assert len(words) == n
+    found = set()
+    for image_a in (x for x in range(n) if _element_order(g, x) == p):
+        for image_b in (x for x in range(n) if _element_order(g, x) == q):
+            perm = np.array([word(*words[x], image_a, image_b) for x in range(n)])
+            if len(set(perm.tolist())) == n and na.is_automorphism(g, perm):
+                found.add(tuple(perm.tolist()))
+    searched = {tuple(int(v) for v in g.automorphism(s, c))
+                for s in range(1, p) for c in range(p)}
+    assert len(found) == p * (p - 1)
+    assert found == searched
+
+
 @pytest.mark.parametrize(("p", "q"), [(3, 3), (11, 1), (13, 1), (3, 5), (5, 3)])
 def test_abelian_case_matches_oeis(p, q):
     """With r = 1 the group is abelian: Z_3 x Z_3 has 9 starters, none perfect (notes §3);

@@ -59,6 +59,7 @@ import time
 
 from scheduler.divisions.execute import task_engine
 from scheduler.factorization.even_starters import search_perfect_even_starter
+from scheduler.factorization.fixed_rounds import fixed_elements, keeps_no_perfect_starter
 from scheduler.factorization.groups import AbelianGroup, cyclic
 from scheduler.factorization.nonabelian_starters import (
     search_perfect_group_starter,
@@ -121,6 +122,12 @@ def settle(a: argparse.Namespace) -> None:
         group = semidirect(p, q)
         order, label = group.order, f"starters in {group.name}, automorphism ({s}, {c})"
         task, fixed = settle_group_subtree_task, (p, q, group.r, (s, c))
+    symmetry = (cyclic(order).multiplier(a.args[1]) if a.space == "settle"
+                else semidirect(a.args[0], a.args[1]).automorphism(a.args[2], a.args[3]))
+    if keeps_no_perfect_starter(symmetry):
+        print(f"# {label}: fixes {fixed_elements(symmetry)[:4]}..., so by the fixed-round lemma "
+              "(scheduler/factorization/fixed_rounds.py) the space holds no perfect starter; "
+              "the search below checks the kernel against it", file=sys.stderr, flush=True)
     if a.up_to_units and a.space != "settle":
         raise SystemExit("--up-to-units: cyclic starters only (settle M U)")
     subtrees = unit_class_subtrees(order) if a.up_to_units else root_subtrees(order)

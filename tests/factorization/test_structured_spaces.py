@@ -131,7 +131,7 @@ def _element_order(g, x):
     return k
 
 
-@pytest.mark.parametrize(("p", "q"), [(7, 3), (11, 5)])
+@pytest.mark.parametrize(("p", "q"), [(7, 3), (11, 5), (13, 3)])
 def test_the_searched_maps_are_every_automorphism(p, q):
     """Every automorphism of Z_p ⋊ Z_q, found by trying every image of the two generators, is
     one of the p (p - 1) maps (s, c) the searches take: |Aut| = p (p - 1), the order of the

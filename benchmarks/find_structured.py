@@ -27,7 +27,10 @@ every subtree run was exhausted.
 ``rate`` prints the node rate of each kernel on K_40-sized spaces and the ratio against the
 cyclic-starter kernel (the reference implementation).
 
-Recorded runs (seed 0, 2 shared cores, ``nice -n 19``; "empty" = space exhausted):
+Recorded runs (seed 0, 2 shared cores, ``nice -n 19``; "empty" = space exhausted). Every
+multiplier or automorphism space below that fixes a non-zero element (all of them but u = -1)
+is empty a priori by the fixed-round lemma (``scheduler/factorization/fixed_rounds.py``), found
+after these runs; the runs agree with it.
 
 * K_40: ``group 13 3`` found the catalogue entry (4094 runs, 393,191,148 nodes, 119 s).
   ``multipliers 39``: every multiplier space of Z_39 (orders 2, 3, 4, 6, 12) is empty.

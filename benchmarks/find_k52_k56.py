@@ -9,7 +9,10 @@ cyclic subgroups; ``GL(d, p)`` for ``Z_5 x Z_5`` and ``Z_3 x Z_3 x Z_3``) instea
 multipliers; with ``--flip`` those of the flips ``x -> a x + m`` (``a`` an involution of ``H``
 negating ``m``, the two points at infinity exchanged). Symmetric spaces run first, to
 exhaustion (plain depth-first runs with doubling node limits; capped random restarts could
-never settle a space larger than their cap); the plain spaces then get seeded restarts until
+never settle a space larger than their cap); the multiplier and matrix spaces keep the missing
+element and the points at infinity, so they are empty by the fixed-round lemma
+(``scheduler/factorization/fixed_rounds.py``) and their runs only check the kernel against it:
+``--skip-small`` loses no chance of a find; the plain spaces then get seeded restarts until
 the stop time (a stop time earlier than now is tomorrow's). Each task is
 ``twin_point_starters.search_task(order, space, seed, budget)``, a plain top-level function with
 plain arguments and a JSON-ready result, run on a local process pool or Dask distributed

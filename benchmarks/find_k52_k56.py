@@ -23,6 +23,8 @@ plain arguments and a JSON-ready result, run on a local process pool or Dask dis
     nice -n 15 python benchmarks/find_k52_k56.py --rate
     python benchmarks/find_k52_k56.py --engine dask --workers 2 --stop 18:30
     python benchmarks/find_k52_k56.py --merged --skip-small --orders 56 --stop 00:25
+    nice -n 15 python benchmarks/find_k52_k56.py --merged --skip-small --orders 52 \\
+        --first-seed 50000 --task-seconds 300 --workers 2 --stop 16:45
     nice -n 15 python benchmarks/find_k52_k56.py --linear --merged
     nice -n 15 python benchmarks/find_k52_k56.py --flip
     python benchmarks/find_k52_k56.py --engine dask --cluster tcp://192.0.2.10:8786
@@ -124,6 +126,9 @@ def main() -> None:
     parser.add_argument("--small-seconds", type=float, default=600.0,
                         help="budget of one symmetric-space task (searched to exhaustion)")
     parser.add_argument("--seeds", type=int, default=1000, help="restarts per plain space")
+    parser.add_argument("--first-seed", type=int, default=0,
+                        help="seed of the first restart (the same seed repeats the same run, so "
+                        "a new session starts where the recorded ones stopped)")
     parser.add_argument("--stop", help="UTC time HH:MM after which no task starts")
     parser.add_argument("--workers", type=int, default=1)
     parser.add_argument("--engine", choices=["pool", "dask"], default="pool",
@@ -151,18 +156,19 @@ def main() -> None:
         rate()
         return
     stop = _stop_time(args.stop)
+    seeds = range(args.first_seed, args.first_seed + args.seeds)
     tasks: list[tuple[int, str, int, float]] = []
     plain_tasks: list[tuple[int, str, int, float]] = []
     for name in args.space:
         base = tw.parse_space(name)[0]
         order = tw.twin_group(base).order + 2
-        plain_tasks += [(order, name, seed, args.task_seconds) for seed in range(args.seeds)]
+        plain_tasks += [(order, name, seed, args.task_seconds) for seed in seeds]
     for order in [] if args.space else args.orders:
         small, plain = spaces(order, args.merged, args.linear, args.flip)
         if not args.skip_small:
             tasks += [(order, name, 0, args.small_seconds) for name in small]
         plain_tasks += [(order, name, seed, args.task_seconds)
-                        for seed in range(args.seeds) for name in plain]
+                        for seed in seeds for name in plain]
     # interleave the orders' plain restarts so both get time
     tasks += sorted(plain_tasks, key=lambda t: (t[2], t[0]))
     totals = {order: {"nodes": 0, "seconds": 0.0, "tasks": 0, "first": None}

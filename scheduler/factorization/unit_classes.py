@@ -33,8 +33,9 @@ Examples
 [2, 3, 6]
 >>> ratio_class(5, 7)  # 5 = 1/3 modulo 7
 3
->>> allowed_pairs(7, 3)[1, 2], allowed_pairs(7, 3)[1, 3]
-(np.False_, np.True_)
+>>> mask = allowed_pairs(7, 3)  # classes below 3 (the pairs {a, 2a} and {a, 4a}) are out
+>>> bool(mask[1, 2]), bool(mask[1, 3])
+(False, True)
 
 References
 ----------

@@ -2,9 +2,11 @@
 
 For each group order ``m`` given on the command line it tries the groups of
 ``groups_of_order(m)`` and, for each, one multiplier per cyclic subgroup of units (largest
-subgroups first, then the trivial multiplier), with the project's own randomised search
-(``search_perfect_starter``). The first perfect starter found per order is printed as one
-JSON line; paste (or append with ``--append``) into the catalogue.
+subgroups first, then the trivial multiplier; a multiplier with a power that fixes a non-zero
+element is skipped, as no perfect starter is invariant under it:
+``scheduler/factorization/fixed_rounds.py``), with the project's own randomised search
+(``search_perfect_starter``). The first perfect starter found per order is printed as one JSON
+line; paste (or append with ``--append``) into the catalogue.
 
     python benchmarks/find_catalogue.py 35 39 --per-try 20 --per-order 600
 
@@ -18,6 +20,7 @@ import json
 import sys
 import time
 
+from scheduler.factorization.fixed_rounds import keeps_no_perfect_starter
 from scheduler.factorization.groups import AbelianGroup, groups_of_order
 from scheduler.factorization.search import search_perfect_starter
 
@@ -57,6 +60,10 @@ def main() -> None:
                 left = args.per_order - (time.perf_counter() - start)
                 if left <= 0 or found:
                     break
+                if k > 1 and keeps_no_perfect_starter(group.multiplier(u)):
+                    print(f"# {group.name} u={u} (order {k}): skipped, a power of it fixes a "
+                          "non-zero element (fixed-round lemma)", file=sys.stderr, flush=True)
+                    continue
                 budget = min(left, args.plain if k == 1 else args.per_try)
                 res = search_perfect_starter(group, seed=args.seed, budget=budget, multiplier=u)
                 print(f"# {group.name} u={u} (order {k}): found={res.found} "

@@ -62,7 +62,7 @@ import time
 
 from scheduler.divisions.execute import task_engine
 from scheduler.factorization.even_starters import search_perfect_even_starter
-from scheduler.factorization.fixed_rounds import fixed_elements, keeps_no_perfect_starter
+from scheduler.factorization.fixed_rounds import keeps_no_perfect_starter
 from scheduler.factorization.groups import AbelianGroup, cyclic
 from scheduler.factorization.nonabelian_starters import (
     search_perfect_group_starter,
@@ -128,9 +128,10 @@ def settle(a: argparse.Namespace) -> None:
     symmetry = (cyclic(order).multiplier(a.args[1]) if a.space == "settle"
                 else semidirect(a.args[0], a.args[1]).automorphism(a.args[2], a.args[3]))
     if keeps_no_perfect_starter(symmetry):
-        print(f"# {label}: fixes {fixed_elements(symmetry)[:4]}..., so by the fixed-round lemma "
-              "(scheduler/factorization/fixed_rounds.py) the space holds no perfect starter; "
-              "the search below checks the kernel against it", file=sys.stderr, flush=True)
+        print(f"# {label}: a power of the symmetry fixes a non-zero element, so by the "
+              "fixed-round lemma (scheduler/factorization/fixed_rounds.py) the space holds no "
+              "perfect starter; the search below checks the kernel against it",
+              file=sys.stderr, flush=True)
     if a.up_to_units and a.space != "settle":
         raise SystemExit("--up-to-units: cyclic starters only (settle M U)")
     subtrees = unit_class_subtrees(order) if a.up_to_units else root_subtrees(order)

@@ -76,7 +76,8 @@ def fixed_elements(automorphism: np.ndarray) -> list[int]:
 
 def keeps_no_perfect_starter(automorphism: np.ndarray) -> bool:
     """True when the lemma rules out every perfect starter invariant under ``automorphism``:
-    it is not the identity and fixes an element other than 0.
+    a power of it other than the identity fixes an element other than 0 (a starter invariant
+    under an automorphism is invariant under its powers).
 
     Parameters
     ----------
@@ -94,17 +95,23 @@ def keeps_no_perfect_starter(automorphism: np.ndarray) -> bool:
     >>> keeps_no_perfect_starter(cyclic(51).multiplier(16)), keeps_no_perfect_starter(
     ...     cyclic(51).multiplier(50))
     (True, False)
+    >>> keeps_no_perfect_starter(cyclic(49).multiplier(3))  # 3^6 - 1 is a multiple of 7
+    True
     """
     perm = np.asarray(automorphism)
-    identity = bool((perm == np.arange(len(perm))).all())
-    return not identity and bool(fixed_elements(perm))
+    identity = np.arange(len(perm))
+    power = perm
+    while not bool((power == identity).all()):
+        if fixed_elements(power):
+            return True
+        power = perm[power]
+    return False
 
 
 def fixed_point_free_multipliers(group: AbelianGroup) -> list[int]:
     """The units ``u != 1`` of ``group``'s ring such that no power of the multiplier
     ``x -> u x`` other than the identity fixes an element but 0: the only multipliers a perfect
-    starter of ``group`` can be invariant under (a starter invariant under ``u`` is invariant
-    under its powers).
+    starter of ``group`` can be invariant under.
 
     Parameters
     ----------
@@ -125,13 +132,6 @@ def fixed_point_free_multipliers(group: AbelianGroup) -> list[int]:
     [14]
     """
     identity = np.arange(group.order)
-    out = []
-    for u in group.units():
-        power = group.multiplier(u)
-        free = not bool((power == identity).all())
-        while free and not bool((power == identity).all()):
-            free = not fixed_elements(power)
-            power = group.multiplier(u)[power]
-        if free:
-            out.append(u)
-    return out
+    return [u for u in group.units()
+            if not bool((group.multiplier(u) == identity).all())
+            and not keeps_no_perfect_starter(group.multiplier(u))]

@@ -73,6 +73,9 @@ def test_fixed_point_free_multipliers_of_the_open_orders():
         assert fixed_elements(perm) == [g for g in range(1, m) if (u - 1) * g % m == 0]
     assert fixed_elements(cyclic(55).multiplier(21)) == [11, 22, 33, 44]
     assert fixed_point_free_multipliers(cyclic(7)) == [2, 3, 4, 5, 6]
+    # Z_49, u = 3 fixes no non-zero element, but u^6 (of order 7) fixes the multiples of 7
+    assert not fixed_elements(cyclic(49).multiplier(3))
+    assert keeps_no_perfect_starter(cyclic(49).multiplier(3))
 
 
 def test_the_catalogue_starter_with_a_multiplier_obeys_the_lemma():
@@ -98,5 +101,6 @@ def test_every_automorphism_of_these_nonabelian_groups_fixes_an_element(p, q):
             if (perm == identity).all():
                 continue
             count += 1
-            assert keeps_no_perfect_starter(perm), (s, c)
+            assert fixed_elements(perm), (s, c)  # the automorphism itself fixes an element
+            assert keeps_no_perfect_starter(perm)
     assert count == p * (p - 1) - 1

@@ -15,8 +15,10 @@ two rounds, so a non-empty ``X`` contains the whole cycle, every vertex. ∎
 automorphism ``α`` of ``G`` with ``α(S) = S``, extended by ``α(∞) = ∞``, maps ``F_g`` onto
 ``F_α(g)`` and fixes ``∞``. If ``α`` fixes an element ``g ≠ 0``, it keeps the two rounds ``F_0``
 and ``F_g``, and the lemma says: the factorization is not perfect unless ``α`` is the identity.
-So **a perfect starter can only be invariant under automorphisms that fix no element but 0**
-(for a multiplier ``x -> u x`` of ``Z_m``: ``u - 1`` must be a unit). The same holds for even
+So **a perfect starter can only be invariant under automorphisms that fix no element but 0**,
+and, being invariant under their powers too, only under those whose powers other than the
+identity fix none either (for a multiplier ``x -> u x`` of ``Z_m``: ``u^j - 1`` must be a unit
+for every power ``u^j != 1``). The same holds for even
 starters over ``Z_2 × H`` with a symmetry that fixes both points at infinity and the missing
 element ``m ≠ 0`` (the rounds ``F_0`` and ``F_m`` are kept).
 

@@ -134,6 +134,9 @@ def fixed_point_free_multipliers(group: AbelianGroup) -> list[int]:
     [14]
     """
     identity = np.arange(group.order)
-    return [u for u in group.units()
-            if not bool((group.multiplier(u) == identity).all())
-            and not keeps_no_perfect_starter(group.multiplier(u))]
+    out = []
+    for u in group.units():
+        perm = group.multiplier(u)
+        if not bool((perm == identity).all()) and not keeps_no_perfect_starter(perm):
+            out.append(u)
+    return out

@@ -52,11 +52,7 @@ from math import gcd
 import numpy as np
 
 from scheduler.errors import InputError
-from scheduler.factorization.groups import AbelianGroup
-
-
-def _units(m: int) -> list[int]:
-    return [x for x in range(1, m) if gcd(x, m) == 1]
+from scheduler.factorization.groups import AbelianGroup, cyclic
 
 
 def ratio_class(r: int, m: int) -> int:
@@ -119,7 +115,7 @@ def unit_class_partners(m: int) -> list[int]:
     """
     if isinstance(m, bool) or not isinstance(m, int) or m < 3 or m % 2 == 0:
         raise InputError(f"the order must be an odd integer >= 3, got {m!r}", location="order")
-    units = _units(m)
+    units = cyclic(m).units()
     if 2 * len(units) <= m - 1:
         raise InputError(f"Z_{m} has {len(units)} units and {m - 1 - len(units)} non-zero "
                          "non-units, so a starter need not pair two units; search it by "
@@ -153,12 +149,11 @@ def allowed_pairs(m: int, floor: int) -> np.ndarray:
     (True, False, True)
     """
     allowed = np.ones((m, m), dtype=np.bool_)
-    units = _units(m)
+    units = cyclic(m).units()
+    low = [r for r in units if r != 1 and ratio_class(r, m) < floor]
     for x in units:
-        inverse = pow(x, -1, m)
-        for y in units:
-            if y != x and ratio_class(y * inverse % m, m) < floor:
-                allowed[x, y] = False
+        for r in low:
+            allowed[x, r * x % m] = False
     return allowed
 
 

@@ -1,6 +1,6 @@
 """How big are the search spaces of K_52 and K_56? Knuth's random-probe estimates of the search
 trees (``scheduler.factorization.tree_size``), calibrated in the same run against complete
-searches of smaller spaces.
+searches of smaller spaces (one per kernel, the prescribed-orbit kernel included).
 
     nice -n 15 python benchmarks/space_sizes.py --probes 20000
     python benchmarks/space_sizes.py --probes 2000 --only calibration
@@ -24,10 +24,12 @@ import time
 
 from scheduler.factorization.groups import cyclic
 from scheduler.factorization.nonabelian_starters import search_perfect_group_starter, semidirect
+from scheduler.factorization.orbit_factorizations import search_perfect_orbit_factorization
 from scheduler.factorization.search import search_perfect_starter, settle_subtree_task
 from scheduler.factorization.tree_size import (
     TreeSizeEstimate,
     estimate_group_starter_search,
+    estimate_orbit_search,
     estimate_starter_search,
     estimate_twin_search,
 )
@@ -39,6 +41,8 @@ from scheduler.factorization.unit_classes import unit_class_subtrees
 
 # plain spaces: GF(q) and Z_p^d are the same group with the same codes
 TWIN_BASES = {52: ["Z_25", "Z_5 x Z_5"], 56: ["Z_27", "Z_3 x Z_9", "Z_3 x Z_3 x Z_3"]}
+# prescribed Z_k with r cycles and a fixed point, r k + 1 = order (r = 1: the cyclic starters)
+ORBIT_SPACES = {52: [(3, 17), (17, 3)], 56: [(5, 11), (11, 5)]}
 DAY = 86_400.0
 
 
@@ -84,6 +88,9 @@ def calibration(probes: int) -> None:
         (estimate_twin_search("Z_3 x Z_3", 7, probes=probes),
          lambda: search_perfect_twin_starter("Z_3 x Z_3", 7, exhaustive=True,
                                              base_nodes=big, budget=1)),
+        (estimate_orbit_search(3, 3, probes=probes),
+         lambda: search_perfect_orbit_factorization(3, 3, base_nodes=big, max_run_nodes=big,
+                                                    budget=1)),
     ]
     for estimate, run in cases:
         result = run()
@@ -100,6 +107,7 @@ def rates(work: int) -> dict[str, float]:
         "group": lambda: search_perfect_group_starter(semidirect(11, 5), max_nodes=work,
                                                       budget=600),
         "twin": lambda: search_perfect_twin_starter("Z_25", 3, max_nodes=work, budget=600),
+        "orbit": lambda: search_perfect_orbit_factorization(3, 17, max_nodes=work, budget=600),
     }
     out = {}
     print("\nnode rates (plain spaces of K_52 and K_56, "
@@ -132,6 +140,10 @@ def spaces(probes: int, node_rates: dict[str, float]) -> None:
             start = time.perf_counter()
             estimate = up_to_units(m, u, max(1, probes // 10))
             _row(order, estimate, node_rates["starter"], time.perf_counter() - start)
+        for r, k in ORBIT_SPACES[order]:
+            start = time.perf_counter()
+            estimate = estimate_orbit_search(r, k, probes=probes)
+            _row(order, estimate, node_rates["orbit"], time.perf_counter() - start)
         if order == 56:
             for automorphism in ((1, 0), (10, 0)):
                 start = time.perf_counter()

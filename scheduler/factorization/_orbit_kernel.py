@@ -129,3 +129,87 @@ def orbit_search_kernel(r, k, orb, n_orb, ent_sys, ent_shift, n_ent, T, seed, no
         cy[depth] = y
         depth += 1
         need_gen = True
+
+
+@numba.njit(cache=True)
+def orbit_probe_kernel(r, k, orb, n_orb, ent_sys, ent_shift, n_ent, T, seed, probes,
+                       out_nodes, out_leaves):
+    """Knuth's random probes of the tree that :func:`orbit_search_kernel` walks.
+
+    Each probe goes down from the root as the search does (least-filled base round, its smallest
+    free vertex), tries every candidate partner (each one a node of the search), keeps the ``f``
+    accepted ones and goes on with one of them chosen uniformly; the product of the ``f`` met is
+    the probe's weight. ``out_nodes[p]`` is the sum of weight times candidates over the probe's
+    partial bases, ``out_leaves[p]`` the weight when the probe ends in a whole perfect base (0
+    otherwise): unbiased estimates of the nodes of one complete search and of the perfect bases.
+    """
+    np.random.seed(seed)
+    inf = r * k
+    n = inf + 1
+    half = n // 2
+    feasible = np.empty(n, np.int32)
+    for p in range(probes):
+        end, size, trail_t, trail_v, trail_e, trail_s, top = _path_state(T, n)
+        partner = np.full((r, n), -1, np.int32)
+        count = np.zeros(r, np.int32)
+        used = np.zeros(n_orb, np.bool_)
+        alive = True
+        for f in range(r):
+            a = inf
+            b = f * k
+            partner[f, a] = b
+            partner[f, b] = a
+            count[f] = 1
+            for e in range(n_ent[f]):
+                s = ent_shift[f, e]
+                if not _add_edge(ent_sys[f, e], _shift(a, s, k, inf), _shift(b, s, k, inf), n,
+                                 end, size, trail_t, trail_v, trail_e, trail_s, top):
+                    alive = False
+        top[0] = 0
+        weight = 1.0
+        total = 0.0
+        out_leaves[p] = 0.0
+        while alive:
+            f = 0
+            for g in range(1, r):
+                if count[g] < count[f]:
+                    f = g
+            if count[f] == half:
+                out_leaves[p] = weight
+                break
+            x = 0
+            while partner[f, x] >= 0:
+                x += 1
+            c = 0
+            n_feasible = 0
+            for y in range(x + 1, inf):
+                if partner[f, y] >= 0 or used[orb[x, y]]:
+                    continue
+                c += 1
+                mark = top[0]
+                ok = True
+                for e in range(n_ent[f]):
+                    s = ent_shift[f, e]
+                    if not _add_edge(ent_sys[f, e], _shift(x, s, k, inf), _shift(y, s, k, inf),
+                                     n, end, size, trail_t, trail_v, trail_e, trail_s, top):
+                        ok = False
+                        break
+                _undo(mark, end, size, trail_t, trail_v, trail_e, trail_s, top)
+                if ok:
+                    feasible[n_feasible] = y
+                    n_feasible += 1
+            total += weight * c
+            if n_feasible == 0:
+                break
+            y = feasible[np.random.randint(0, n_feasible)]
+            for e in range(n_ent[f]):
+                s = ent_shift[f, e]
+                _add_edge(ent_sys[f, e], _shift(x, s, k, inf), _shift(y, s, k, inf), n, end,
+                          size, trail_t, trail_v, trail_e, trail_s, top)
+            top[0] = 0
+            partner[f, x] = y
+            partner[f, y] = x
+            count[f] += 1
+            used[orb[x, y]] = True
+            weight *= n_feasible
+        out_nodes[p] = total

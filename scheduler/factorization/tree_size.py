@@ -51,6 +51,8 @@ from scheduler.errors import InputError
 from scheduler.factorization.groups import AbelianGroup
 from scheduler.factorization.linear_symmetries import Matrix
 from scheduler.factorization.nonabelian_starters import SemidirectGroup, group_kernel_arrays
+from scheduler.factorization.orbit_factorizations import _check as _check_orbit
+from scheduler.factorization.orbit_factorizations import kernel_tables, orbit_table
 from scheduler.factorization.search import forced_partners, kernel_arrays, pair_mask, run_seed
 from scheduler.factorization.twin_point_starters import space_name, twin_kernel_arrays
 
@@ -288,3 +290,49 @@ def estimate_twin_search(base: str, missing: int, *, multiplier: int = 1,
                              leaves):
         return TreeSizeEstimate(space, probes, 0.0, 0.0, 0.0, 0.0, 0)
     return _summary(space, nodes, leaves)
+
+
+def estimate_orbit_search(r: int, k: int, *, probes: int = 10_000,
+                          seed: int = 0) -> TreeSizeEstimate:
+    """Estimate the tree of
+    :func:`~scheduler.factorization.orbit_factorizations.search_perfect_orbit_factorization`
+    (perfect one-factorizations of ``K_{rk+1}`` invariant under an automorphism of order ``k``
+    with ``r`` cycles and a fixed point).
+
+    Parameters
+    ----------
+    r : int
+        The number of cycles of the automorphism.
+    k : int
+        Their odd length.
+    probes : int, optional
+        Random root-to-leaf paths.
+    seed : int, optional
+        Seed of the paths.
+
+    Returns
+    -------
+    TreeSizeEstimate
+        Estimated nodes of a complete search and perfect base systems (``starters``) of the
+        space.
+
+    Raises
+    ------
+    InputError
+        For a bad number of probes, seed, ``r`` or ``k``.
+
+    References
+    ----------
+    D. E. Knuth, Math. Comp. 29 (1975) 121-136 (from memory).
+    """
+    _check(probes, seed)
+    from scheduler.factorization._orbit_kernel import orbit_probe_kernel  # numba: lazily
+
+    r, k = _check_orbit(r, k)
+    orb, n_orb = orbit_table(r, k)
+    ent_sys, ent_shift, n_ent, T = kernel_tables(r, k)
+    nodes = np.zeros(probes, dtype=np.float64)
+    leaves = np.zeros(probes, dtype=np.float64)
+    orbit_probe_kernel(r, k, orb, n_orb, ent_sys, ent_shift, n_ent, T,
+                       run_seed(seed, 0, _PROBE_SALT), probes, nodes, leaves)
+    return _summary(f"Z_{k}-invariant, {r} cycles and a fixed point", nodes, leaves)

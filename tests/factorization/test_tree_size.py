@@ -20,11 +20,17 @@ from scheduler.factorization.nonabelian_starters import (
     search_perfect_group_starter,
     semidirect,
 )
+from scheduler.factorization.orbit_factorizations import (
+    enumerate_orbit_bases,
+    is_perfect_orbit_base,
+    search_perfect_orbit_factorization,
+)
 from scheduler.factorization.search import search_perfect_starter
 from scheduler.factorization.starters import enumerate_starters, is_perfect_starter
 from scheduler.factorization.tree_size import (
     TreeSizeEstimate,
     estimate_group_starter_search,
+    estimate_orbit_search,
     estimate_starter_search,
     estimate_twin_search,
 )
@@ -153,3 +159,32 @@ def test_subtree_estimates_meet_the_subtree_searches_and_add_up():
     exact = search_perfect_group_starter(group5, automorphism=(1, 1), subtree=(7,),
                                          exhaustive=True, base_nodes=COMPLETE, budget=60).nodes
     assert close(part.nodes, part.nodes_error, exact)
+
+
+@pytest.mark.parametrize("r, k", [(1, 9), (3, 3)])
+def test_orbit_estimate_matches_a_complete_orbit_search(r, k):
+    """Both spaces are empty (Z_9 has no perfect starter; no Z_3-invariant base system of K_10
+    with three cycles is perfect, by enumeration), so the search's one run is complete."""
+    assert not any(is_perfect_orbit_base(r, k, b) for b in enumerate_orbit_bases(r, k))
+    complete = search_perfect_orbit_factorization(r, k, budget=60, base_nodes=COMPLETE,
+                                                  max_run_nodes=COMPLETE)
+    assert complete.exhausted and complete.runs == 1
+    estimate = estimate_orbit_search(r, k, probes=20_000)
+    assert close(estimate.nodes, estimate.nodes_error, complete.nodes), (estimate, complete)
+    assert estimate.starters == 0
+
+
+def test_orbit_estimate_with_one_cycle_counts_the_perfect_starters():
+    """With one cycle the orbit space is the starter space: the three perfect starters of Z_11
+    (enumeration), and the same tree as the starter search's."""
+    exact = sum(is_perfect_starter(cyclic(11), s) for s in enumerate_starters(cyclic(11)))
+    assert exact == 3
+    estimate = estimate_orbit_search(1, 11, probes=20_000)
+    assert close(estimate.starters, estimate.starters_error, exact), estimate
+    starter_tree = estimate_starter_search(cyclic(11), probes=20_000)
+    assert close(estimate.nodes, estimate.nodes_error + starter_tree.nodes_error,
+                 starter_tree.nodes)
+    with pytest.raises(InputError):
+        estimate_orbit_search(3, 4)
+    with pytest.raises(InputError):
+        estimate_orbit_search(3, 5, probes=0)

@@ -112,11 +112,20 @@ def _summary(space: str, nodes: np.ndarray, leaves: np.ndarray) -> TreeSizeEstim
     """Means and standard errors of the probes' node and leaf estimates."""
     probes = len(nodes)
     root = math.sqrt(probes)
-    return TreeSizeEstimate(
-        space, probes, float(nodes.mean()), float(nodes.std(ddof=1) / root) if probes > 1 else 0.0,
-        float(leaves.mean()), float(leaves.std(ddof=1) / root) if probes > 1 else 0.0,
-        int(np.count_nonzero(leaves)),
-    )
+
+    def mean_and_error(values: np.ndarray) -> tuple[float, float]:
+        # scaled by the largest value, so that trees of 1e200 nodes and more do not overflow
+        scale = float(values.max()) if probes else 0.0
+        if not scale > 0 or not math.isfinite(scale):
+            return float(values.mean()), math.inf if scale == math.inf else 0.0
+        scaled = values / scale
+        error = float(scaled.std(ddof=1)) / root if probes > 1 else 0.0
+        return float(scaled.mean()) * scale, error * scale
+
+    node_mean, node_error = mean_and_error(nodes)
+    leaf_mean, leaf_error = mean_and_error(leaves)
+    return TreeSizeEstimate(space, probes, node_mean, node_error, leaf_mean, leaf_error,
+                            int(np.count_nonzero(leaves)))
 
 
 def _probe(space: str, m: int, add: np.ndarray, neg: np.ndarray, mulu: np.ndarray,

@@ -10,6 +10,7 @@ perfect starters with the plain enumerators.
 
 from __future__ import annotations
 
+import numpy as np
 import pytest
 
 from scheduler.errors import InputError
@@ -34,6 +35,7 @@ from scheduler.factorization.tree_size import (
     estimate_starter_search,
     estimate_twin_search,
 )
+from scheduler.factorization.tree_size import _summary as summarise_probes
 from scheduler.factorization.twin_point_starters import (
     enumerate_twin_starters,
     is_perfect_twin_starter,
@@ -188,3 +190,12 @@ def test_orbit_estimate_with_one_cycle_counts_the_perfect_starters():
         estimate_orbit_search(3, 4)
     with pytest.raises(InputError):
         estimate_orbit_search(3, 5, probes=0)
+
+
+def test_summary_of_trees_beyond_1e300_nodes_does_not_overflow():
+    """The orbit spaces of K_52 with 17 cycles reach 1e302 nodes (docs/factorization-search.md);
+    mean and standard error are computed scaled."""
+    estimate = summarise_probes("huge", np.array([1e300, 3e300, 2e300, 2e300]), np.zeros(4))
+    assert estimate.nodes == pytest.approx(2e300)
+    assert estimate.nodes_error == pytest.approx(np.std([1.0, 3.0, 2.0, 2.0], ddof=1) / 2 * 1e300)
+    assert estimate.starters == 0.0 and estimate.starters_error == 0.0

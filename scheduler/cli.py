@@ -297,6 +297,9 @@ def factor(
             ],
             "rounds": rounds,
         }
+        if "p1f_known" in fac.details:
+            payload["perfect_known"] = fac.details["p1f_known"]
+            payload["perfect_known_reason"] = fac.details["p1f_reason"]
         sys.stdout.write(json.dumps(payload, separators=(",", ":")) + "\n")
         return
     with_bye = ", with a bye" if bye is not None else ""
@@ -313,6 +316,12 @@ def factor(
         for pair in cert.imperfect[:5]:
             first, second = pair.first + 1, pair.second + 1
             out.print(f"         rounds {first} and {second} split into cycles {pair.label}")
+        if fac.details.get("p1f_known") is True:
+            out.print(f"         a perfect one is known ({_plain(fac.details['p1f_reason'])}), "
+                      f"but this tool has none for K_{fac.n} yet: the best found is shown "
+                      "(docs/factorization-search.md)")
+        elif fac.details.get("p1f_known") is False:
+            out.print(f"         {_plain(fac.details['p1f_reason'])}")
     if not cert.valid:
         for problem in cert.problems:
             out.print(f"problem: {_plain(problem)}")

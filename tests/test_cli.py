@@ -71,6 +71,19 @@ def test_factor_text_output():
     assert "round   1:" in result.stdout
 
 
+def test_factor_says_whether_a_perfect_one_is_known_when_it_shows_an_imperfect_one():
+    """K_52 has a published perfect one-factorization (A. J. Wolfe 2009, from memory) that the
+    tool does not hold; for K_64 none is known (docs/one-factorizations.md)."""
+    data = json.loads(run("factor", "52", "--json", "--time-limit", "1").stdout)
+    assert data["perfect"] is False
+    assert data["perfect_known"] is True and "Wolfe" in data["perfect_known_reason"]
+    text = run("factor", "64", "--summary", "--time-limit", "1").stdout
+    assert "perfect: no" in text
+    assert "no perfect one-factorization of this order is known" in " ".join(text.split())
+    perfect = json.loads(run("factor", "8", "--json").stdout)
+    assert perfect["perfect"] is True and perfect["perfect_known"] is True
+
+
 @pytest.mark.parametrize("bad", ["1", "0", "-4", "3.5", "seven", "10000000", "1e3"])
 def test_factor_bad_input_is_one_clear_line(bad):
     result = runner.invoke(app, ["factor", bad])

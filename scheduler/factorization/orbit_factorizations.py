@@ -46,7 +46,24 @@ SOURCE = (
 )
 
 
-def _check(r, k) -> tuple[int, int]:
+def check_shape(r, k) -> tuple[int, int]:
+    """``(r, k)`` as ints, or an :class:`~scheduler.errors.InputError` naming the bad one.
+
+    Parameters
+    ----------
+    r, k
+        The number of cycles and their length, as given.
+
+    Returns
+    -------
+    tuple of (int, int)
+        ``r`` and ``k``: positive, ``k`` odd and at least 3, ``r k + 1`` even and at most 1000.
+
+    Examples
+    --------
+    >>> check_shape(3, 17)
+    (3, 17)
+    """
     for v, name in ((r, "r"), (k, "k")):
         if isinstance(v, bool) or not isinstance(v, int | np.integer) or v < 1:
             raise InputError(f"{name} must be a positive integer, got {v!r}", location=name)
@@ -109,7 +126,7 @@ def orbit_table(r: int, k: int) -> tuple[np.ndarray, int]:
     InputError
         When ``r k + 1`` is not even or too large.
     """
-    r, k = _check(r, k)
+    r, k = check_shape(r, k)
     rk = r * k
     orb = np.full((rk, rk), -1, dtype=np.int32)
     ids: dict[tuple[int, int, int], int] = {}
@@ -202,7 +219,7 @@ def is_orbit_base(r: int, k: int, base: Sequence[Sequence[Sequence[int]]]) -> bo
     bool
         False also for input that is not a list of lists of pairs.
     """
-    r, k = _check(r, k)
+    r, k = check_shape(r, k)
     try:
         rounds = _base_pairs(base)
     except (TypeError, ValueError):
@@ -351,7 +368,7 @@ def enumerate_orbit_bases(r: int, k: int) -> Iterator[tuple[tuple[Pair, ...], ..
     tuple of tuple of Pair
         The ``r`` base rounds ``B_i``, each a sorted perfect matching containing ``{i k, ∞}``.
     """
-    r, k = _check(r, k)
+    r, k = check_shape(r, k)
     orb, _ = orbit_table(r, k)
     inf = r * k
     partner = [[-1] * (inf + 1) for _ in range(r)]
@@ -467,7 +484,7 @@ def search_perfect_orbit_factorization(
     ----------
     ``docs/factorization-search.md``; E. Seah and D. R. Stinson 1988 (see the module docstring).
     """
-    r, k = _check(r, k)
+    r, k = check_shape(r, k)
     if isinstance(seed, bool) or not isinstance(seed, int):
         raise InputError(f"the seed must be an integer, got {seed!r}", location="seed")
     if not budget > 0:

@@ -17,10 +17,10 @@ of starters the search accepts (perfect and invariant ones, or every invariant s
 distribution is heavy-tailed, so the error is itself rough and small counts of rare leaves are
 estimated poorly. The probes walk exactly the trees of the searches of starters
 (:func:`scheduler.factorization.search.search_perfect_starter`), of starters in non-abelian
-groups and of even starters over ``Z_2 × H`` (the same steps as the search kernels, the same
-order of elements: the smallest free element is paired next), so the node estimates are in the
-unit the searches report; the tests compare them with complete searches and the starter counts
-with OEIS A006204. A ``subtree`` (forced first partners) gives the estimate of one of the
+groups, of even starters over ``Z_2 × H`` and of one-factorizations with a prescribed ``Z_k``
+(the same steps as the search kernels, the same order of elements: the smallest free element is
+paired next), so the node estimates are in the unit the searches report; the tests compare them
+with complete searches and the starter counts with OEIS A006204. A ``subtree`` (forced first partners) gives the estimate of one of the
 subtrees a settling search is split into.
 
 References
@@ -51,8 +51,7 @@ from scheduler.errors import InputError
 from scheduler.factorization.groups import AbelianGroup
 from scheduler.factorization.linear_symmetries import Matrix
 from scheduler.factorization.nonabelian_starters import SemidirectGroup, group_kernel_arrays
-from scheduler.factorization.orbit_factorizations import _check as _check_orbit
-from scheduler.factorization.orbit_factorizations import kernel_tables, orbit_table
+from scheduler.factorization.orbit_factorizations import check_shape, kernel_tables, orbit_table
 from scheduler.factorization.search import forced_partners, kernel_arrays, pair_mask, run_seed
 from scheduler.factorization.twin_point_starters import space_name, twin_kernel_arrays
 
@@ -337,7 +336,7 @@ def estimate_orbit_search(r: int, k: int, *, probes: int = 10_000,
     _check(probes, seed)
     from scheduler.factorization._orbit_kernel import orbit_probe_kernel  # numba: lazily
 
-    r, k = _check_orbit(r, k)
+    r, k = check_shape(r, k)
     orb, n_orb = orbit_table(r, k)
     ent_sys, ent_shift, n_ent, T = kernel_tables(r, k)
     nodes = np.zeros(probes, dtype=np.float64)

@@ -30,6 +30,29 @@ def _shift(v, s, k, inf):
 
 
 @numba.njit(cache=True)
+def _start_bases(r, k, ent_sys, ent_shift, n_ent, partner, count, end, size, trail_t, trail_v,
+                 trail_e, trail_s, top):
+    """Put the edge ``{∞, f k}`` into every base round ``B_f`` and the unions it enters; False
+    when that already closes a short cycle (the space is empty)."""
+    inf = r * k
+    n = inf + 1
+    alive = True
+    for f in range(r):
+        a = inf
+        b = f * k
+        partner[f, a] = b
+        partner[f, b] = a
+        count[f] = 1
+        for e in range(n_ent[f]):
+            s = ent_shift[f, e]
+            if not _add_edge(ent_sys[f, e], _shift(a, s, k, inf), _shift(b, s, k, inf), n, end,
+                             size, trail_t, trail_v, trail_e, trail_s, top):
+                alive = False
+    top[0] = 0
+    return alive
+
+
+@numba.njit(cache=True)
 def orbit_search_kernel(r, k, orb, n_orb, ent_sys, ent_shift, n_ent, T, seed, node_limit,
                         out_partner):
     """Returns ``(status, nodes)``: 1 found (``out_partner[f, v]`` = partner of ``v`` in
@@ -40,19 +63,9 @@ def orbit_search_kernel(r, k, orb, n_orb, ent_sys, ent_shift, n_ent, T, seed, no
     end, size, trail_t, trail_v, trail_e, trail_s, top = _path_state(T, n)
     partner = np.full((r, n), -1, np.int32)
     count = np.zeros(r, np.int32)
-    for f in range(r):
-        a = inf
-        b = f * k
-        partner[f, a] = b
-        partner[f, b] = a
-        count[f] = 1
-        for e in range(n_ent[f]):
-            t = ent_sys[f, e]
-            s = ent_shift[f, e]
-            if not _add_edge(t, _shift(a, s, k, inf), _shift(b, s, k, inf), n, end, size,
-                             trail_t, trail_v, trail_e, trail_s, top):
-                return -1, 0
-    top[0] = 0
+    if not _start_bases(r, k, ent_sys, ent_shift, n_ent, partner, count, end, size, trail_t,
+                        trail_v, trail_e, trail_s, top):
+        return -1, 0
     used = np.zeros(n_orb, np.bool_)
     half = n // 2
     maxd = r * half + 1
@@ -153,19 +166,8 @@ def orbit_probe_kernel(r, k, orb, n_orb, ent_sys, ent_shift, n_ent, T, seed, pro
         partner = np.full((r, n), -1, np.int32)
         count = np.zeros(r, np.int32)
         used = np.zeros(n_orb, np.bool_)
-        alive = True
-        for f in range(r):
-            a = inf
-            b = f * k
-            partner[f, a] = b
-            partner[f, b] = a
-            count[f] = 1
-            for e in range(n_ent[f]):
-                s = ent_shift[f, e]
-                if not _add_edge(ent_sys[f, e], _shift(a, s, k, inf), _shift(b, s, k, inf), n,
-                                 end, size, trail_t, trail_v, trail_e, trail_s, top):
-                    alive = False
-        top[0] = 0
+        alive = _start_bases(r, k, ent_sys, ent_shift, n_ent, partner, count, end, size,
+                             trail_t, trail_v, trail_e, trail_s, top)
         weight = 1.0
         total = 0.0
         out_leaves[p] = 0.0

@@ -20,8 +20,8 @@ estimated poorly. The probes walk exactly the trees of the searches of starters
 groups, of even starters over ``Z_2 × H`` and of one-factorizations with a prescribed ``Z_k``
 (the same steps as the search kernels, the same order of elements: the smallest free element is
 paired next), so the node estimates are in the unit the searches report; the tests compare them
-with complete searches and the starter counts with OEIS A006204. A ``subtree`` (forced first partners) gives the estimate of one of the
-subtrees a settling search is split into.
+with complete searches and the starter counts with OEIS A006204. A ``subtree`` (forced first
+partners) gives the estimate of one of the subtrees a settling search is split into.
 
 References
 ----------

@@ -49,8 +49,13 @@ after these runs; the runs agree with it.
   seed 1 5.27e8 nodes, seed 2 5.52e8, seed 3 5.41e8, seed 4 5.41e8, seed 5 5.68e8,
   seed 6 5.55e8 (3.28e9 nodes, 1440 s in all).
 * Even starters: Z_30 (K_32) found after 4.0e7 nodes; Z_34 (K_36) nothing in 2.2e8 nodes
-  (60 s). Prescribed Z_k with 3 cycles: K_16 (k = 5) found in 1.6e6 nodes; K_22, K_28, K_34
-  (k = 7, 9, 11) nothing in 20 s each, so this space was not tried at K_40.
+  (60 s).
+* Prescribed Z_k (``orbit R K --seconds 90``, seed 0, 3 December): K_16 found by (3, 5) after
+  1.6e6 nodes and by (5, 3) after 1.2e8; nothing from (3, 7), (7, 3) (K_22), (3, 9), (9, 3)
+  (K_28), (3, 11), (11, 3) (K_34), (3, 13), (13, 3) (K_40) in 6e7 to 1.5e8 nodes each, where
+  cyclic starters find K_22 and K_28 in 3e4 and 4e5 nodes. ``orbit 3 17 --seconds 3000 --seed
+  1`` (K_52): 1,750,817,787 nodes, nothing; ``orbit 5 11 --seconds 3000 --seed 1`` (K_56):
+  1,423,734,521 nodes, nothing. Sizes of these spaces: ``benchmarks/space_sizes.py``.
 """
 
 from __future__ import annotations

@@ -29,13 +29,26 @@ def _shift(v, s, k, inf):
     return (v // k) * k + (v % k + s) % k
 
 
+@numba.njit(cache=True, inline="always")
+def _enter_pair(f, x, y, k, inf, ent_sys, ent_shift, n_ent, end, size, trail_t, trail_v,
+                trail_e, trail_s, top):
+    """Add the pair ``{x, y}`` of base round ``B_f`` to every union it enters (shifted there);
+    False as soon as one of them closes a short cycle (the caller undoes to its mark)."""
+    n = inf + 1
+    for e in range(n_ent[f]):
+        s = ent_shift[f, e]
+        if not _add_edge(ent_sys[f, e], _shift(x, s, k, inf), _shift(y, s, k, inf), n, end,
+                         size, trail_t, trail_v, trail_e, trail_s, top):
+            return False
+    return True
+
+
 @numba.njit(cache=True)
 def _start_bases(r, k, ent_sys, ent_shift, n_ent, partner, count, end, size, trail_t, trail_v,
                  trail_e, trail_s, top):
     """Put the edge ``{∞, f k}`` into every base round ``B_f`` and the unions it enters; False
     when that already closes a short cycle (the space is empty)."""
     inf = r * k
-    n = inf + 1
     alive = True
     for f in range(r):
         a = inf
@@ -43,11 +56,9 @@ def _start_bases(r, k, ent_sys, ent_shift, n_ent, partner, count, end, size, tra
         partner[f, a] = b
         partner[f, b] = a
         count[f] = 1
-        for e in range(n_ent[f]):
-            s = ent_shift[f, e]
-            if not _add_edge(ent_sys[f, e], _shift(a, s, k, inf), _shift(b, s, k, inf), n, end,
-                             size, trail_t, trail_v, trail_e, trail_s, top):
-                alive = False
+        if not _enter_pair(f, a, b, k, inf, ent_sys, ent_shift, n_ent, end, size, trail_t,
+                           trail_v, trail_e, trail_s, top):
+            alive = False
     top[0] = 0
     return alive
 
@@ -125,14 +136,8 @@ def orbit_search_kernel(r, k, orb, n_orb, ent_sys, ent_shift, n_ent, T, seed, no
         if nodes > node_limit:
             return 0, nodes
         mark[depth] = top[0]
-        ok = True
-        for e in range(n_ent[f]):
-            s = ent_shift[f, e]
-            if not _add_edge(ent_sys[f, e], _shift(x, s, k, inf), _shift(y, s, k, inf), n,
-                             end, size, trail_t, trail_v, trail_e, trail_s, top):
-                ok = False
-                break
-        if not ok:
+        if not _enter_pair(f, x, y, k, inf, ent_sys, ent_shift, n_ent, end, size, trail_t,
+                           trail_v, trail_e, trail_s, top):
             _undo(mark[depth], end, size, trail_t, trail_v, trail_e, trail_s, top)
             continue
         partner[f, x] = y
@@ -189,13 +194,8 @@ def orbit_probe_kernel(r, k, orb, n_orb, ent_sys, ent_shift, n_ent, T, seed, pro
                     continue
                 c += 1
                 mark = top[0]
-                ok = True
-                for e in range(n_ent[f]):
-                    s = ent_shift[f, e]
-                    if not _add_edge(ent_sys[f, e], _shift(x, s, k, inf), _shift(y, s, k, inf),
-                                     n, end, size, trail_t, trail_v, trail_e, trail_s, top):
-                        ok = False
-                        break
+                ok = _enter_pair(f, x, y, k, inf, ent_sys, ent_shift, n_ent, end, size,
+                                 trail_t, trail_v, trail_e, trail_s, top)
                 _undo(mark, end, size, trail_t, trail_v, trail_e, trail_s, top)
                 if ok:
                     feasible[n_feasible] = y
@@ -204,10 +204,8 @@ def orbit_probe_kernel(r, k, orb, n_orb, ent_sys, ent_shift, n_ent, T, seed, pro
             if n_feasible == 0:
                 break
             y = feasible[np.random.randint(0, n_feasible)]
-            for e in range(n_ent[f]):
-                s = ent_shift[f, e]
-                _add_edge(ent_sys[f, e], _shift(x, s, k, inf), _shift(y, s, k, inf), n, end,
-                          size, trail_t, trail_v, trail_e, trail_s, top)
+            _enter_pair(f, x, y, k, inf, ent_sys, ent_shift, n_ent, end, size, trail_t, trail_v,
+                        trail_e, trail_s, top)
             top[0] = 0
             partner[f, x] = y
             partner[f, y] = x

@@ -104,6 +104,14 @@ def is_adder(group: AbelianGroup, starter: Sequence[Sequence[int]],
     return 0 not in covered and len(set(covered)) == m - 1
 
 
+def _require_adder(group: AbelianGroup, starter: Sequence[Sequence[int]],
+                   adder: Sequence[int]) -> tuple[list[Pair], list[int]]:
+    if not is_adder(group, starter, adder):
+        raise InputError(f"not an adder for {starter!r} in {group.name}: {adder!r}",
+                         location="adder")
+    return _starter_pairs(group, starter), [int(a) for a in adder]
+
+
 def adder_translate(group: AbelianGroup, starter: Sequence[Sequence[int]],
                     adder: Sequence[int]) -> tuple[Pair, ...]:
     """The starter ``S + A`` whose rounds are the columns of the Room square.
@@ -133,10 +141,8 @@ def adder_translate(group: AbelianGroup, starter: Sequence[Sequence[int]],
     >>> adder_translate(cyclic(7), [(1, 3), (2, 6), (4, 5)], [3, 6, 5])
     ((4, 6), (1, 5), (2, 3))
     """
-    if not is_adder(group, starter, adder):
-        raise InputError(f"not an adder for {starter!r} in {group.name}: {adder!r}",
-                         location="adder")
-    return tuple(_translated(group, _starter_pairs(group, starter), [int(a) for a in adder]))
+    pairs, values = _require_adder(group, starter, adder)
+    return tuple(_translated(group, pairs, values))
 
 
 def room_square(group: AbelianGroup, starter: Sequence[Sequence[int]],
@@ -170,16 +176,13 @@ def room_square(group: AbelianGroup, starter: Sequence[Sequence[int]],
     >>> square[0]
     ((7, 0), (2, 6), (4, 5), None, (1, 3), None, None)
     """
-    if not is_adder(group, starter, adder):
-        raise InputError(f"not an adder for {starter!r} in {group.name}: {adder!r}",
-                         location="adder")
-    pairs = _starter_pairs(group, starter)
+    pairs, values = _require_adder(group, starter, adder)
     m = group.order
     cells: list[list[Cell]] = [[None] * m for _ in range(m)]
     for g in range(m):
         cells[g][g] = (m, g)
-        for (x, y), a in zip(pairs, adder, strict=True):
-            column = int(group.add[g, group.neg[int(a)]])
+        for (x, y), a in zip(pairs, values, strict=True):
+            column = int(group.add[g, group.neg[a]])
             cells[g][column] = (int(group.add[x, g]), int(group.add[y, g]))
     return tuple(tuple(row) for row in cells)
 
